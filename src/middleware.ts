@@ -1,0 +1,55 @@
+import { defineMiddleware, sequence } from 'astro:middleware';
+import { auth } from './server/auth';
+import { errorResponse } from './server/http';
+
+const PUBLIC_PAGES = new Set(['/', '/sign-in', '/sign-up', '/reset-password', '/about']);
+const PUBLIC_API = [/^\/api\/auth\//, /^\/api\/health$/, /^\/api\/forecasts\/preview$/, /^\/api\/places$/, /^\/api\/timezone$/];
+
+/** Resolves the session once per request and puts it on Astro.locals. */
+const session = defineMiddleware(async (ctx, next) => {
+  ctx.locals.user = null;
+  ctx.locals.session = null;
+  const path = ctx.url.pathname;
+  if (path.startsWith('/_astro/') || path.startsWith('/api/auth/')) return next();
+  try {
+    const s = await auth.api.getSession({ headers: ctx.request.headers });
+    if (s) {
+      ctx.locals.user = s.user;
+      ctx.locals.session = s.session;
+    }
+  } catch (err) {
+    console.error('[sunreckon] session lookup failed', err);
+  }
+  return next();
+});
+
+/** Anonymous visitors: app pages redirect to /sign-in, API routes answer 401 JSON. */
+const guard = defineMiddleware(async (ctx, next) => {
+  const path = ctx.url.pathname;
+  if (ctx.locals.user || path.startsWith('/_astro/') || path.startsWith('/dev/')) return next();
+  if (path.startsWith('/api/')) {
+    if (PUBLIC_API.some((r) => r.test(path))) return next();
+    return errorResponse('unauthorized', 'Sign in to use this.');
+  }
+  if (PUBLIC_PAGES.has(path) || path.startsWith('/invite/') || /\.[a-z0-9]+$/i.test(path)) return next();
+  const back = encodeURIComponent(path + ctx.url.search);
+  return ctx.redirect(`/sign-in?next=${back}`, 302);
+});
+
+/** Security headers on every response. */
+const headers = defineMiddleware(async (_ctx, next) => {
+  const res = await next();
+  const h = res.headers;
+  h.set('X-Content-Type-Options', 'nosniff');
+  h.set('Referrer-Policy', 'strict-origin-when-cross-origin');
+  h.set('X-Frame-Options', 'DENY');
+  if (!h.has('Content-Security-Policy')) {
+    h.set(
+      'Content-Security-Policy',
+      "default-src 'self'; img-src 'self' data:; font-src 'self'; style-src 'self' 'unsafe-inline'; script-src 'self' 'unsafe-inline'; connect-src 'self'; frame-ancestors 'none'; base-uri 'self'; form-action 'self'",
+    );
+  }
+  return res;
+});
+
+export const onRequest = sequence(headers, session, guard);

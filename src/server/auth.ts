@@ -1,0 +1,63 @@
+import { betterAuth } from 'better-auth';
+import { APIError } from 'better-auth/api';
+import { db } from './db';
+import { env } from './env';
+import { createPersonalCrew } from './crews';
+
+export const CLIENT_IP_HEADER = 'x-sunreckon-client-ip';
+
+export const ACCOUNT_KINDS = ['camper', 'installer'] as const;
+export type AccountKind = (typeof ACCOUNT_KINDS)[number];
+
+/** better-auth over our Kysely instance: e-mail and password accounts with a camper/installer kind. */
+export const auth = betterAuth({
+  database: { db, type: 'sqlite' },
+  secret: env.authSecret,
+  // Production names its one URL; elsewhere any loopback host and port is accepted (dev, demo, tests on free ports).
+  baseURL: env.authUrl ?? { allowedHosts: ['localhost:*', '127.0.0.1:*', 'localhost', '127.0.0.1'], protocol: 'http' },
+  emailAndPassword: { enabled: true, minPasswordLength: 8, maxPasswordLength: 128, autoSignIn: true },
+  user: {
+    additionalFields: {
+      kind: { type: 'string', required: false, defaultValue: 'camper', input: true },
+      units: { type: 'string', required: false, defaultValue: 'metric', input: false },
+    },
+  },
+  session: { expiresIn: 60 * 60 * 24 * 30, updateAge: 60 * 60 * 24 },
+  advanced: {
+    // The auth route copies Astro's socket address into this header (any client-sent value is replaced).
+    ipAddress: { ipAddressHeaders: [CLIENT_IP_HEADER] },
+    useSecureCookies: env.isProduction,
+    defaultCookieAttributes: { httpOnly: true, sameSite: 'lax', secure: env.isProduction },
+  },
+  rateLimit: {
+    enabled: env.AUTH_RATE_LIMIT > 0,
+    window: 60,
+    max: Math.max(env.AUTH_RATE_LIMIT * 10, 100),
+    storage: 'memory',
+    customRules: {
+      '/sign-in/email': { window: 60, max: env.AUTH_RATE_LIMIT },
+      '/sign-up/email': { window: 60, max: env.AUTH_RATE_LIMIT },
+      '/request-password-reset': { window: 60, max: Math.max(1, Math.floor(env.AUTH_RATE_LIMIT / 2)) },
+    },
+  },
+  databaseHooks: {
+    user: {
+      create: {
+        before: async (user) => {
+          const kind = (user as { kind?: unknown }).kind ?? 'camper';
+          if (!ACCOUNT_KINDS.includes(kind as AccountKind)) {
+            throw new APIError('BAD_REQUEST', { message: 'kind: choose "camper" or "installer".' });
+          }
+          const name = typeof user.name === 'string' ? user.name.trim() : '';
+          if (!name) throw new APIError('BAD_REQUEST', { message: 'name: enter your name.' });
+          return { data: { ...user, name, kind } };
+        },
+        after: async (user) => {
+          if ((user as { kind?: string }).kind !== 'installer') await createPersonalCrew(db, user.id, user.name);
+        },
+      },
+    },
+  },
+});
+
+export type AuthSession = typeof auth.$Infer.Session;

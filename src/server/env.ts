@@ -1,0 +1,43 @@
+import { z } from 'zod';
+import { DEFAULT_DATABASE_PATH } from '../../db/client';
+
+/**
+ * The one place that reads the environment. Plain process.env (not astro:env) because the
+ * migrate, seed and demo scripts run outside Astro and must read the same settings.
+ */
+const schema = z.object({
+  NODE_ENV: z.string().default('development'),
+  DATABASE_PATH: z.string().min(1).default(DEFAULT_DATABASE_PATH),
+  BETTER_AUTH_SECRET: z.string().min(32).optional(),
+  BETTER_AUTH_URL: z.string().url().optional(),
+  PREVIEW_RATE_LIMIT: z.coerce.number().int().min(0).default(30),
+  AUTH_RATE_LIMIT: z.coerce.number().int().min(0).default(10),
+  SMTP_URL: z.string().optional(),
+  MAIL_FROM: z.string().default('Sunreckon <no-reply@sunreckon.test>'),
+  SUNRECKON_ENV: z.enum(['production', 'development', 'test', 'demo']).optional(),
+});
+
+const parsed = schema.safeParse(process.env);
+if (!parsed.success) {
+  const fields = parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ');
+  throw new Error(`Invalid environment: ${fields}`);
+}
+const raw = parsed.data;
+
+const DEV_SECRET = 'sunreckon-development-secret-change-me-0123456789';
+const isProduction = (raw.SUNRECKON_ENV ?? raw.NODE_ENV) === 'production';
+
+if (!raw.BETTER_AUTH_SECRET) {
+  if (isProduction) throw new Error('BETTER_AUTH_SECRET must be set (32+ characters) in production.');
+  console.warn('[sunreckon] BETTER_AUTH_SECRET is not set: using the development secret. Set it before real use.');
+}
+if (!raw.BETTER_AUTH_URL && isProduction) {
+  console.warn('[sunreckon] BETTER_AUTH_URL is not set: sign-in only accepts requests from the host it is served on.');
+}
+
+export const env = {
+  ...raw,
+  isProduction,
+  authSecret: raw.BETTER_AUTH_SECRET ?? DEV_SECRET,
+  authUrl: raw.BETTER_AUTH_URL,
+};

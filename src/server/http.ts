@@ -1,0 +1,102 @@
+import type { APIContext } from 'astro';
+import type { z } from 'zod';
+import { ERROR_STATUS, HttpError, type ErrorCode, type Issue } from './errors';
+
+const JSON_HEADERS = { 'content-type': 'application/json; charset=utf-8', 'cache-control': 'no-store' };
+
+/** A JSON response. */
+export function json(body: unknown, status = 200, headers: Record<string, string> = {}): Response {
+  return new Response(JSON.stringify(body), { status, headers: { ...JSON_HEADERS, ...headers } });
+}
+
+/** The error envelope as a response. */
+export function errorResponse(
+  code: ErrorCode,
+  message: string,
+  issues: Issue[] = [],
+  extra: Record<string, unknown> = {},
+  headers: Record<string, string> = {},
+): Response {
+  return json({ error: { code, message }, issues, ...extra }, ERROR_STATUS[code], headers);
+}
+
+/** Turns zod issues into dot paths (`stops.0.lat`). */
+export function zodIssues(error: z.ZodError, prefix = ''): Issue[] {
+  return error.issues.map((i) => ({
+    path: [prefix, ...i.path.map(String)].filter(Boolean).join('.') || '(body)',
+    message: i.message,
+  }));
+}
+
+/** Reads a JSON body (content type and size checked) as unknown; throws HttpError on bad input. */
+export async function readJson(request: Request, maxBytes = 256 * 1024, invalidCode: ErrorCode = 'invalid_request'): Promise<unknown> {
+  const type = request.headers.get('content-type') ?? '';
+  if (!/^application\/json\b/i.test(type.trim())) {
+    throw new HttpError(invalidCode, 'Send the body as JSON with the header Content-Type: application/json.', [
+      { path: '(headers).content-type', message: `expected application/json, got ${type ? `"${type.slice(0, 60)}"` : 'none'}` },
+    ]);
+  }
+  const declared = Number(request.headers.get('content-length') ?? '0');
+  if (declared > maxBytes) throw new HttpError('payload_too_large', `The body is larger than ${Math.round(maxBytes / 1024)} KB.`);
+  const buf = await readLimited(request, maxBytes);
+  const text = new TextDecoder().decode(buf);
+  if (!text.trim()) throw new HttpError(invalidCode, 'The body is empty; send a JSON object.', [{ path: '(body)', message: 'empty body' }]);
+  try {
+    return JSON.parse(text);
+  } catch (e) {
+    throw new HttpError(invalidCode, 'The body is not valid JSON.', [{ path: '(body)', message: (e as Error).message.slice(0, 200) }]);
+  }
+}
+
+async function readLimited(request: Request, maxBytes: number): Promise<Uint8Array> {
+  if (!request.body) return new Uint8Array();
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > maxBytes) {
+      await reader.cancel().catch(() => {});
+      throw new HttpError('payload_too_large', `The body is larger than ${Math.round(maxBytes / 1024)} KB.`);
+    }
+    chunks.push(value);
+  }
+  const out = new Uint8Array(total);
+  let off = 0;
+  for (const c of chunks) {
+    out.set(c, off);
+    off += c.byteLength;
+  }
+  return out;
+}
+
+/** Parses with a zod schema or throws a 400 naming each field. */
+export function parseWith<S extends z.ZodType>(schema: S, data: unknown, code: ErrorCode = 'invalid_request', message = 'Some fields need fixing.'): z.infer<S> {
+  const r = schema.safeParse(data);
+  if (!r.success) throw new HttpError(code, message, zodIssues(r.error));
+  return r.data;
+}
+
+type Handler = (ctx: APIContext) => Promise<Response> | Response;
+
+/** Wraps a route so that HttpError becomes the envelope and anything unexpected a logged 500 envelope. */
+export function route(handler: Handler): Handler {
+  return async (ctx) => {
+    try {
+      return await handler(ctx);
+    } catch (err) {
+      if (err instanceof HttpError) return errorResponse(err.code, err.message, err.issues, err.extra, err.headers);
+      console.error('[sunreckon] unexpected error', ctx.request.method, ctx.url.pathname, err);
+      return errorResponse('internal', 'Something went wrong on our side. Your data was not changed; try again.');
+    }
+  };
+}
+
+/** The signed-in user, or a 401. */
+export function requireUser(ctx: APIContext) {
+  const user = ctx.locals.user;
+  if (!user) throw new HttpError('unauthorized', 'Sign in to use this.');
+  return user;
+}
