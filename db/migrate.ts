@@ -1,16 +1,14 @@
-import { promises as fs } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { FileMigrationProvider, Migrator, type Kysely } from 'kysely';
+import { Migrator, type Kysely } from 'kysely';
 import { createDb, DEFAULT_DATABASE_PATH } from './client';
-
-const migrationFolder = path.join(path.dirname(fileURLToPath(import.meta.url)), 'migrations');
+import { migrations } from './migrations/index';
 
 /** Applies every pending migration; throws on the first failure. */
 export async function migrateToLatest(db: Kysely<any>): Promise<string[]> {
   const migrator = new Migrator({
     db,
-    provider: new FileMigrationProvider({ fs, path, migrationFolder }),
+    provider: { getMigrations: async () => migrations },
   });
   const { error, results } = await migrator.migrateToLatest();
   if (error) throw error instanceof Error ? error : new Error(String(error));

@@ -1,0 +1,54 @@
+import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { ROOT } from './server';
+
+export const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+export const SCREENSHOTS = path.join(ROOT, 'test-results', 'screenshots');
+
+export const VIEWPORTS = {
+  phone: { width: 390, height: 844 },
+  desktop: { width: 1280, height: 900 },
+} as const;
+export type ViewportName = keyof typeof VIEWPORTS;
+
+/** Launches Debian's Chromium with a fresh profile; fails loudly (never skips) when it is missing. */
+export async function launch(viewport: ViewportName = 'desktop'): Promise<{ context: BrowserContext; page: Page; close(): Promise<void> }> {
+  if (!existsSync(CHROMIUM)) {
+    throw new Error(
+      `Chromium was not found at ${CHROMIUM}. The end-to-end tests drive Debian's Chromium: install it with ` +
+        '`apt-get update && apt-get install -y chromium` (or set CHROMIUM_PATH), then run the tests again.',
+    );
+  }
+  const profile = mkdtempSync(path.join(tmpdir(), 'sunreckon-chromium-'));
+  const context = await chromium.launchPersistentContext(profile, {
+    executablePath: CHROMIUM,
+    headless: true,
+    viewport: VIEWPORTS[viewport],
+    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+  });
+  const page = context.pages()[0] ?? (await context.newPage());
+  return {
+    context,
+    page,
+    close: async () => {
+      await context.close();
+      rmSync(profile, { recursive: true, force: true });
+    },
+  };
+}
+
+/** Waits until every island on the page has hydrated. */
+export async function hydrated(page: Page): Promise<void> {
+  await page.waitForLoadState('load');
+  await page.waitForFunction(() => document.querySelectorAll('astro-island[ssr]').length === 0, undefined, { timeout: 15_000 });
+}
+
+/** Saves a full-page screenshot under test-results/screenshots (git-ignored). */
+export async function shot(page: Page, name: string): Promise<string> {
+  mkdirSync(SCREENSHOTS, { recursive: true });
+  const file = path.join(SCREENSHOTS, `${name}.png`);
+  await page.screenshot({ path: file, fullPage: true });
+  return file;
+}

@@ -1,0 +1,94 @@
+import { spawn, execFileSync, type ChildProcess } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { createServer } from 'node:net';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+
+export const ROOT = path.resolve(import.meta.dirname, '../..');
+
+/** A free TCP port on loopback. */
+export async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = createServer();
+    srv.unref();
+    srv.on('error', reject);
+    srv.listen(0, '127.0.0.1', () => {
+      const addr = srv.address();
+      const port = typeof addr === 'object' && addr ? addr.port : 0;
+      srv.close(() => resolve(port));
+    });
+  });
+}
+
+/** Builds the production server unless the caller already did (npm test builds once). */
+export function buildOnce(): void {
+  if (process.env.SUNRECKON_PREBUILT === '1') return;
+  execFileSync('npx', ['astro', 'build'], { cwd: ROOT, stdio: 'pipe', env: { ...process.env, ASTRO_TELEMETRY_DISABLED: '1' } });
+  process.env.SUNRECKON_PREBUILT = '1';
+}
+
+export interface RunningServer {
+  url: string;
+  port: number;
+  dbPath: string;
+  dir: string;
+  child: ChildProcess;
+  stop(signal?: NodeJS.Signals): Promise<void>;
+  logs(): string;
+}
+
+/** Starts the built server on a throw-away SQLite file (migrated first) and waits for /api/health. */
+export async function startServer(extraEnv: Record<string, string> = {}, reuse?: { dir: string; dbPath: string }): Promise<RunningServer> {
+  const dir = reuse?.dir ?? mkdtempSync(path.join(tmpdir(), 'sunreckon-test-'));
+  const dbPath = reuse?.dbPath ?? path.join(dir, 'test.sqlite');
+  const port = await freePort();
+  const env = {
+    ...process.env,
+    DATABASE_PATH: dbPath,
+    HOST: '127.0.0.1',
+    PORT: String(port),
+    BETTER_AUTH_SECRET: 'test-secret-test-secret-test-secret-0001',
+    PREVIEW_RATE_LIMIT: '0',
+    AUTH_RATE_LIMIT: '0',
+    SUNRECKON_ENV: 'test',
+    NODE_ENV: 'production',
+    ...extraEnv,
+  };
+  execFileSync('npx', ['tsx', 'db/migrate.ts'], { cwd: ROOT, env, stdio: 'pipe' });
+  const child = spawn(process.execPath, ['dist/server/entry.mjs'], { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'] });
+  let out = '';
+  child.stdout?.on('data', (d) => (out += d));
+  child.stderr?.on('data', (d) => (out += d));
+  const url = `http://127.0.0.1:${port}`;
+  const started = Date.now();
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`Server exited early (${child.exitCode}):\n${out}`);
+    try {
+      const r = await fetch(`${url}/api/health`);
+      if (r.ok) break;
+    } catch {
+      // not listening yet
+    }
+    if (Date.now() - started > 30_000) throw new Error(`Server did not answer /api/health within 30 s:\n${out}`);
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  return {
+    url,
+    port,
+    dbPath,
+    dir,
+    child,
+    logs: () => out,
+    stop: (signal: NodeJS.Signals = 'SIGTERM') =>
+      new Promise<void>((resolve) => {
+        if (child.exitCode !== null || child.signalCode) return resolve();
+        child.once('exit', () => resolve());
+        child.kill(signal);
+      }),
+  };
+}
+
+/** Removes a server's throw-away folder. */
+export function cleanup(dir: string): void {
+  rmSync(dir, { recursive: true, force: true });
+}
