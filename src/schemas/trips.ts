@@ -1,0 +1,39 @@
+import { z } from 'zod';
+import { driveSchema, LIMITS, stopSchema } from '../engine/schema';
+
+/** A trip: stops (with their weather days) and drives, as the engine contract shapes them. */
+export const tripInputSchema = z.object({
+  rigId: z.string({ error: 'Choose a rig.' }).min(1, { error: 'Choose a rig.' }),
+  name: z.string({ error: 'must be text' }).trim().min(1, { error: 'Name the trip.' }).max(100, { error: 'Use at most 100 characters.' }),
+  stops: z.array(stopSchema).min(1, { error: 'Add at least one stop.' }).max(LIMITS.maxStops, { error: `at most ${LIMITS.maxStops} stops` }),
+  drives: z.array(driveSchema).max(LIMITS.maxDrives).default([]),
+  reserveSocPct: z.number({ error: 'must be a number' }).min(0).max(95).nullable().default(null),
+});
+export type TripInput = z.input<typeof tripInputSchema>;
+
+export const tripPatchSchema = tripInputSchema.partial().extend({
+  version: z.number({ error: 'Send the version you read.' }).int().min(1),
+});
+export type TripPatch = z.input<typeof tripPatchSchema>;
+
+export interface TripDto {
+  id: string;
+  crewId: string;
+  rigId: string;
+  name: string;
+  stops: z.output<typeof stopSchema>[];
+  drives: z.output<typeof driveSchema>[];
+  reserveSocPct: number | null;
+  version: number;
+  createdAt: string;
+  updatedAt: string;
+}
+
+/** Friendly sky choices mapped to cloud cover in oktas (WMO: 0 clear … 8 overcast). */
+export const SKY_CHOICES = [
+  { label: 'Clear', oktas: 0 },
+  { label: 'Mostly sunny', oktas: 2 },
+  { label: 'Partly cloudy', oktas: 4 },
+  { label: 'Mostly cloudy', oktas: 6 },
+  { label: 'Overcast', oktas: 8 },
+] as const;
