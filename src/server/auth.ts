@@ -14,7 +14,7 @@ export const auth = betterAuth({
   database: { db, type: 'sqlite' },
   secret: env.authSecret,
   // Production names its one URL; elsewhere any loopback host and port is accepted (dev, demo, tests on free ports).
-  baseURL: env.authUrl ?? { allowedHosts: ['localhost:*', '127.0.0.1:*', 'localhost', '127.0.0.1'], protocol: 'http' },
+  baseURL: env.authUrl ?? { allowedHosts: ['localhost:*', '127.0.0.1:*', 'localhost', '127.0.0.1'], protocol: 'http', fallback: 'http://localhost:4321' },
   emailAndPassword: { enabled: true, minPasswordLength: 8, maxPasswordLength: 128, autoSignIn: true },
   user: {
     additionalFields: {

@@ -1,0 +1,46 @@
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+/**
+ * The invented demo crew of product.md: the Reyes-Okafor household's camper account, a second
+ * household member, and an installer account. Safe to run twice (existing accounts are kept).
+ */
+export const DEMO_ACCOUNTS = {
+  camper: { name: 'Inés Reyes-Okafor', email: 'ines@reyes-okafor.test', password: 'dusk-and-ember-27', kind: 'camper' as const },
+  member: { name: 'Tobi Reyes-Okafor', email: 'tobi@reyes-okafor.test', password: 'dusk-and-ember-27', kind: 'camper' as const },
+  installer: { name: 'Wren Calloway', email: 'wren@highline-power.test', password: 'amp-hours-2027', kind: 'installer' as const },
+};
+
+export async function seed(): Promise<void> {
+  const { db } = await import('../src/server/db');
+  const { auth } = await import('../src/server/auth');
+  const { migrateToLatest } = await import('./migrate');
+  await migrateToLatest(db);
+
+  const ids: Record<string, string> = {};
+  for (const [key, a] of Object.entries(DEMO_ACCOUNTS)) {
+    const existing = await db.selectFrom('user').select('id').where('email', '=', a.email).executeTakeFirst();
+    if (existing) {
+      ids[key] = existing.id;
+      continue;
+    }
+    const res = await auth.api.signUpEmail({ body: { name: a.name, email: a.email, password: a.password, kind: a.kind } as never });
+    ids[key] = res.user.id;
+  }
+
+  const crew = await db.selectFrom('crew_members').select('crew_id').where('user_id', '=', ids.camper).where('role', '=', 'owner').orderBy('created_at').executeTakeFirstOrThrow();
+  await db.updateTable('crews').set({ name: 'Reyes-Okafor', updated_at: new Date().toISOString() }).where('id', '=', crew.crew_id).execute();
+
+  const { seedDemoRigs } = await import('./seed-demo');
+  await seedDemoRigs(db, { crewId: crew.crew_id, ownerId: ids.camper, memberId: ids.member });
+  await db.destroy();
+  console.log(`Demo crew "Reyes-Okafor" ready. Sign in as ${DEMO_ACCOUNTS.camper.email} / ${DEMO_ACCOUNTS.camper.password}`);
+}
+
+const isMain = process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url);
+if (isMain) {
+  seed().catch((err) => {
+    console.error('Seeding failed:', err);
+    process.exit(1);
+  });
+}
