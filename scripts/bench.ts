@@ -1,0 +1,151 @@
+// `npm run bench`: times the forecast engine on the shapes the product needs (issue 3) and prints
+// medians in milliseconds with the machine they ran on. A script, not a timed test.
+import os from 'node:os';
+import { performance } from 'node:perf_hooks';
+import { forecast, prepareTrip, runForecast, simulatePrepared, toForecast, validatePlan, type Plan, type ResolvedPlan } from '../src/engine/index';
+
+/** A trip of `days` nights over three stops, with 3 arrays, 4 chargers and 40 loads. */
+export function benchPlan(days: number): Plan {
+  const third = Math.max(1, Math.floor(days / 3));
+  const nights = [third, third, days - 2 * third];
+  const start = Date.UTC(2027, 5, 1) / 86_400_000;
+  const iso = (d: number) => new Date(d * 86_400_000).toISOString().slice(0, 10);
+  let day = start;
+  const stops = nights.map((n, i) => {
+    const s = {
+      name: `Stop ${i + 1}`,
+      lat: 36 + i * 1.5,
+      lon: -110 - i,
+      timeZone: i === 2 ? 'America/Phoenix' : 'America/Denver',
+      arrive: iso(day),
+      nights: n,
+      arriveHour: 15,
+      shadePct: 10 * i,
+      hookup: (i === 1 ? 'shore' : 'none') as 'shore' | 'none',
+      weather: Array.from({ length: n + 1 }, (_, k) => ({ date: iso(day + k), cloudOktas: (k * 3) % 9, highC: 24 + (k % 5), lowC: 8 + (k % 4) })),
+    };
+    day += n;
+    return s;
+  });
+  const loads: NonNullable<Plan['loads']> = [];
+  for (let i = 0; i < 40; i++) {
+    loads.push({
+      name: `Load ${i + 1}`,
+      watts: 5 + ((i * 37) % 120),
+      quantity: 1 + (i % 3),
+      supply: i % 4 === 0 ? 'ac' : 'dc',
+      windows: i % 5 === 0 ? [[0, 24]] : [[(i * 7) % 24, (i * 7 + 3) % 24], [(i * 11) % 24, (i * 11 + 2) % 24]],
+      dutyPct: 20 + ((i * 13) % 80),
+      days: (['all', 'camp', 'drive'] as const)[i % 3],
+      response: (['none', 'none', 'cooling', 'heating'] as const)[i % 4],
+    });
+  }
+  return {
+    bank: { chemistry: 'lifepo4', capacityAh: 300, cutoffVolts: 11.5 },
+    arrays: [
+      { name: 'Roof', ratedWatts: 400, controllerMaxAmps: 30 },
+      { name: 'Portable', ratedWatts: 200, tiltDeg: 35, aim: 'follow', controller: 'pwm', controllerMaxAmps: 15 },
+      { name: 'Side', ratedWatts: 100, tiltDeg: 90, azimuthDeg: 200 },
+    ],
+    chargers: [
+      { kind: 'alternator', amps: 30 },
+      { kind: 'alternator', amps: 10 },
+      { kind: 'shore', amps: 45 },
+      { kind: 'generator', amps: 45, startSocPct: 30, stopSocPct: 80, fuelLitresPerHour: 0.5 },
+    ],
+    loads,
+    stops,
+    drives: [
+      { date: stops[1].arrive, startHour: 9, hours: 5 },
+      { date: stops[2].arrive, startHour: 8, hours: 6 },
+    ],
+  };
+}
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = Math.floor(s.length / 2);
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+}
+
+function time(fn: () => void, runs: number, warmup = 30): number {
+  for (let i = 0; i < warmup; i++) fn();
+  const xs: number[] = [];
+  for (let i = 0; i < runs; i++) {
+    const t = performance.now();
+    fn();
+    xs.push(performance.now() - t);
+  }
+  return median(xs);
+}
+
+function resolved(plan: Plan): ResolvedPlan {
+  const v = validatePlan(plan);
+  if (!v.ok) throw new Error(JSON.stringify(v.envelope));
+  return v.plan;
+}
+
+const cpu = os.cpus()[0]?.model ?? 'unknown CPU';
+console.log(`Machine: ${cpu}, ${os.cpus().length} cores, Node ${process.version}, ${os.platform()} ${os.arch()}`);
+
+// 1. One 30-day forecast, 3 arrays, 4 chargers, 40 loads, JSON in and out.
+const plan30 = benchPlan(30);
+const coldStart = performance.now();
+runForecast(plan30);
+const cold = performance.now() - coldStart;
+const r30 = resolved(plan30);
+const hours30 = forecast(r30).summary.hoursSimulated;
+const full = time(() => {
+  const r = runForecast(plan30);
+  if (!r.ok) throw new Error('invalid');
+}, 60);
+const tValidate = time(() => void validatePlan(plan30), 60);
+const tPrepare = time(() => void prepareTrip(r30), 60);
+const prepared30 = prepareTrip(r30);
+const tSim = time(() => void simulatePrepared(prepared30), 60);
+const sim30 = simulatePrepared(prepared30);
+const tFormat = time(() => void toForecast(prepared30, sim30), 60);
+console.log(`\n30-day forecast (${hours30} h, 3 arrays, 4 chargers, 40 loads)`);
+console.log(`  runForecast (validate + prepare + simulate + JSON): median ${full.toFixed(2)} ms   [target ≤ 5 ms]`);
+console.log(`    first call in a fresh process (cold JIT): ${cold.toFixed(2)} ms
+    validate ${tValidate.toFixed(2)} ms · prepare ${tPrepare.toFixed(2)} ms · simulate ${tSim.toFixed(3)} ms · JSON ${tFormat.toFixed(2)} ms`);
+
+// 2. 100 variants differing in bank and array size, prepared once.
+const banks = [100, 200, 300, 400, 600];
+const scales = [0.5, 0.75, 1, 1.5, 2, 2.5, 3, 3.5, 4, 5];
+const variants = banks.flatMap((ah, i) =>
+  scales.flatMap((s) => [0, 1].map((j) => ({ bank: { chemistry: j === 0 ? ('lifepo4' as const) : ('agm' as const), capacityAh: ah + i }, arrayWatts: r30.arrays.map((a) => a.ratedWatts * s) }))),
+);
+const sweep = time(() => {
+  const p = prepareTrip(r30);
+  for (const v of variants) simulatePrepared(p, v);
+}, 20, 3);
+const sweepJson = time(() => {
+  const p = prepareTrip(r30);
+  for (const v of variants) toForecast(p, simulatePrepared(p, v));
+}, 10, 2);
+console.log(`\n${variants.length} variants of the 30-day trip (bank and array size), prepared once`);
+console.log(`  prepare + ${variants.length} simulations: median ${sweep.toFixed(2)} ms   [target ≤ 150 ms]`);
+console.log(`  … with the full JSON of each variant: median ${sweepJson.toFixed(2)} ms`);
+
+// 3. 200 combos of a 14-day trip (bank × array × charger), prepared once.
+const r14 = resolved(benchPlan(14));
+const combos: Parameters<typeof simulatePrepared>[1][] = [];
+for (const ah of [100, 200, 300, 400, 500])
+  for (const s of [0.5, 1, 1.5, 2, 3])
+    for (const alt of [0, 20, 40, 60])
+      for (const gen of [false, true])
+        combos.push({
+          bank: { chemistry: 'lifepo4', capacityAh: ah },
+          arrayWatts: r14.arrays.map((a) => a.ratedWatts * s),
+          chargers: [
+            ...(alt > 0 ? [{ kind: 'alternator' as const, amps: alt }] : []),
+            ...(gen ? [{ kind: 'generator' as const, amps: 40 }] : []),
+          ],
+        });
+const combo = time(() => {
+  const p = prepareTrip(r14);
+  for (const c of combos) simulatePrepared(p, c);
+}, 10, 2);
+console.log(`\n${combos.length} combos of a 14-day trip (bank × array × alternator × generator), prepared once`);
+console.log(`  prepare + ${combos.length} simulations: median ${combo.toFixed(2)} ms   [target < 1000 ms]`);

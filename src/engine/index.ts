@@ -1,0 +1,17 @@
+// Public API of the forecast engine. Pure: no framework, database, clock or randomness.
+//
+//   runForecast(input: unknown)      → { ok: true, forecast } | { ok: false, envelope }   (API routes)
+//   validatePlan(input: unknown)     → { ok: true, plan }     | { ok: false, envelope }
+//   forecast(plan: ResolvedPlan)     → Forecast
+//   prepareTrip(plan) + simulatePrepared(prepared, variant) (+ toForecast) for upgrade sweeps
+export { runForecast, validatePlan, forecast, toForecast } from './forecast';
+export type { Forecast, HourlyRow, DayRow, ForecastSummary, ForecastWarning, RunResult, ValidationResult } from './forecast';
+export { prepareTrip, SUBSTEPS } from './prepare';
+export type { PreparedTrip, PreparedArray, RowWarning } from './prepare';
+export { simulatePrepared, variantSchema } from './simulate';
+export type { SimResult, SimSummary, Variant } from './simulate';
+export { planSchema, bankSchema, arraySchema, chargerSchema, inverterSchema, loadSchema, stopSchema, driveSchema, weatherSchema, resolveBank, LIMITS, CHEMISTRIES, CHEMISTRY_DEFAULTS } from './schema';
+export type { Plan, ResolvedPlan, ResolvedBank, ResolvedArray, ResolvedCharger, ResolvedInverter, ResolvedLoad, ResolvedStop, ResolvedDrive, Chemistry } from './schema';
+export { PlanValidationError, zodIssuesToEnvelope, issuePath } from './errors';
+export type { InvalidPlanEnvelope, PlanIssue } from './errors';
+export { demoPlan } from './demo-plan';

@@ -1,0 +1,225 @@
+// Stage one of a forecast: everything that does not depend on the bank, the arrays' rated
+// watts or the chargers' amps — the grid, ownership, weather, ambient temperature, sun position
+// at every sub-step, plane-of-array irradiance and DC output per rated watt for every array,
+// and each hour's load demand. An upgrade sweep prepares once and simulates many variants.
+import { ambientForRow } from './ambient';
+import { inGeneratorWindow } from './chargers';
+import { inverterDcWatts, runsOnDay, windowMask, dutyAt } from './loads';
+import type { ResolvedArray, ResolvedPlan } from './schema';
+import { extraterrestrial, haurwitz, kastenCzeplak, erbsDiffuseFraction, ALBEDO } from './sun';
+import { getPosition } from 'suncalc';
+import { buildGrid, type Grid } from './timeline';
+import { dayOfYear, HOUR_MS, isoDate } from './tz';
+import { assumedMessage, ignoredMessage, resolveStopWeather, type DayWeather } from './weather';
+
+/** Solar sub-steps per hour: midpoints of 6 equal slices (forecast-engine.md asks for at least 6). */
+export const SUBSTEPS = 6;
+
+// With the sun's altitude this far below the horizon at the hour's midpoint it cannot rise above
+// it within ±30 min (altitude changes ≤ 15°/h, curvature adds < 0.5°), so the hour is dark.
+const DARK_ALTITUDE_DEG = -8.5;
+
+const RAD = Math.PI / 180;
+
+/** A warning tied to a row (the row's `time` becomes its `at`). */
+export interface RowWarning {
+  code: string;
+  row: number;
+  message: string;
+}
+
+/** One array's cached output per rated watt (DC, after losses, before the controller). */
+export interface PreparedArray {
+  spec: ResolvedArray;
+  /** Hour-average W per rated W. */
+  perWatt: Float64Array;
+  /** Largest sub-step W per rated W in the hour (decides whether the controller cap can bind). */
+  perWattMax: Float64Array;
+  /** W per rated W at each sub-step, row-major (n × SUBSTEPS). */
+  perWattSub: Float64Array;
+}
+
+/** A trip prepared for simulation: the plan, its grid and every per-hour input of the battery loop. */
+export interface PreparedTrip {
+  plan: ResolvedPlan;
+  grid: Grid;
+  n: number;
+  ambientC: Float64Array;
+  sunAltitudeDeg: Float64Array;
+  /** The first array's hour-average plane-of-array irradiance after shade, W/m² (0 with no array). */
+  poaWm2: Float64Array;
+  arrays: PreparedArray[];
+  /** DC loads, W. */
+  dcLoadW: Float64Array;
+  /** What the inverter draws from the bank for the AC loads (losses and idle included), W. */
+  acBankW: Float64Array;
+  /** 1 at a hookup stop outside drive hours: shore charging, AC loads off the bank. */
+  shore: Uint8Array;
+  /** 1 where the plan's generator may run (window, no hookup, not driving). */
+  generatorAllowed: Uint8Array;
+  /** 1 where the owning stop has no hookup and the row is not a drive hour (window not applied). */
+  generatorSite: Uint8Array;
+  /** Index into `days` of each row. */
+  dayIndex: Uint16Array;
+  /** Local dates of the forecast, ascending. */
+  days: string[];
+  warnings: RowWarning[];
+}
+
+/** Computes once, for a validated plan, everything the battery loop needs per hour. */
+export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
+  const grid = buildGrid(plan.stops, plan.drives);
+  const n = grid.n;
+  const warnings: RowWarning[] = [];
+
+  // ---- days and weather per (stop, local day) ----
+  const daySet = new Set<number>();
+  const ownedDays: number[][] = plan.stops.map(() => []);
+  const firstRowOfStopDay = new Map<string, number>();
+  const firstRowOfStop: number[] = plan.stops.map(() => -1);
+  for (let r = 0; r < n; r++) {
+    const s = grid.stop[r];
+    const d = grid.localDay[r];
+    daySet.add(d);
+    const key = `${s}|${d}`;
+    if (!firstRowOfStopDay.has(key)) {
+      firstRowOfStopDay.set(key, r);
+      ownedDays[s].push(d);
+    }
+    if (firstRowOfStop[s] < 0) firstRowOfStop[s] = r;
+  }
+  const dayList = [...daySet].sort((a, b) => a - b);
+  const dayPos = new Map<number, number>(dayList.map((d, i) => [d, i]));
+  const weather = plan.stops.map((stop, s) => {
+    const w = resolveStopWeather(stop.weather, ownedDays[s]);
+    // A stop that owns no row still gets its ignored-weather warning, at the row after its arrival.
+    const at = firstRowOfStop[s] >= 0 ? firstRowOfStop[s] : Math.min(n - 1, Math.max(0, Math.ceil((grid.timeline.arrivals[s] - grid.startMs) / HOUR_MS)));
+    if (w.ignoredDates.length > 0) warnings.push({ code: 'weather-ignored', row: at, message: ignoredMessage(stop.name, w.ignoredDates) });
+    for (const d of ownedDays[s]) {
+      if (w.byDay.get(d)?.assumed) warnings.push({ code: 'weather-assumed', row: firstRowOfStopDay.get(`${s}|${d}`) ?? 0, message: assumedMessage(stop.name, d) });
+    }
+    return w;
+  });
+
+  // ---- per-array constants ----
+  const arrays: PreparedArray[] = plan.arrays.map((spec) => ({
+    spec,
+    perWatt: new Float64Array(n),
+    perWattMax: new Float64Array(n),
+    perWattSub: new Float64Array(n * SUBSTEPS),
+  }));
+  const na = arrays.length;
+  const cosB = plan.arrays.map((a) => Math.cos(a.tiltDeg * RAD));
+  const sinB = plan.arrays.map((a) => Math.sin(a.tiltDeg * RAD));
+  const follow = plan.arrays.map((a) => a.aim === 'follow');
+  const gamma = plan.arrays.map((a) => a.tempCoeffPctPerC / 100);
+  const keep = plan.arrays.map((a) => 1 - a.lossesPct / 100);
+  const noctK = plan.arrays.map((a) => (a.nocC - 20) / 800);
+  const arrayShade = plan.arrays.map((a) => 1 - a.shadePct / 100);
+  const skyF = cosB.map((c) => (1 + c) / 2);
+  const groundF = cosB.map((c) => (ALBEDO * (1 - c)) / 2);
+
+  const ambientC = new Float64Array(n);
+  const sunAltitudeDeg = new Float64Array(n);
+  const poaWm2 = new Float64Array(n);
+  const dcLoadW = new Float64Array(n);
+  const acBankW = new Float64Array(n);
+  const shore = new Uint8Array(n);
+  const generatorAllowed = new Uint8Array(n);
+  const generatorSite = new Uint8Array(n);
+  const dayIndex = new Uint16Array(n);
+
+  // ---- loads: masks once ----
+  const masks = plan.loads.map((l) => windowMask(l.windows));
+
+  const date = new Date(0);
+  const poaSub = new Float64Array(na);
+  for (let r = 0; r < n; r++) {
+    const s = grid.stop[r];
+    const stop = plan.stops[s];
+    const day = grid.localDay[r];
+    const hour = grid.localHour[r];
+    const w = weather[s].byDay.get(day) as DayWeather;
+    dayIndex[r] = dayPos.get(day) ?? 0;
+    const ta = ambientForRow(hour, w.highC, w.lowC);
+    ambientC[r] = ta;
+
+    const driving = grid.driving[r] === 1;
+    const hookup = stop.hookup === 'shore';
+    shore[r] = hookup && !driving ? 1 : 0;
+    generatorSite[r] = !hookup && !driving ? 1 : 0;
+    generatorAllowed[r] = generatorSite[r] && inGeneratorWindow(hour, stop.generatorHours) ? 1 : 0;
+
+    // ---- loads ----
+    let dc = 0;
+    let ac = 0;
+    const isDriveDay = grid.driveDay[r] === 1;
+    for (let i = 0; i < plan.loads.length; i++) {
+      const l = plan.loads[i];
+      if (((masks[i] >>> hour) & 1) === 0 || !runsOnDay(l.days, isDriveDay)) continue;
+      const wts = l.watts * l.quantity * dutyAt(l, ta);
+      if (l.supply === 'ac') ac += wts;
+      else dc += wts;
+    }
+    dcLoadW[r] = dc;
+    acBankW[r] = inverterDcWatts(ac, plan.inverter);
+
+    // ---- sun at the midpoint (reported) ----
+    const t0 = grid.startMs + r * HOUR_MS;
+    date.setTime(t0 + HOUR_MS / 2);
+    const mid = getPosition(date, stop.lat, stop.lon);
+    sunAltitudeDeg[r] = mid.altitude;
+    if (na === 0 || mid.altitude < DARK_ALTITUDE_DEG) continue;
+
+    // ---- irradiance at each sub-step (forecast-engine.md steps 1–8) ----
+    const e0 = extraterrestrial(dayOfYear(day));
+    const cloud = kastenCzeplak(w.cloudOktas);
+    const shadeStop = 1 - stop.shadePct / 100;
+    let poaFirstSum = 0;
+    for (let k = 0; k < SUBSTEPS; k++) {
+      date.setTime(t0 + ((k + 0.5) * HOUR_MS) / SUBSTEPS);
+      const p = getPosition(date, stop.lat, stop.lon);
+      const cosZ = Math.sin(p.altitude * RAD);
+      if (!(cosZ > 0)) continue;
+      const sinZ = Math.cos(p.altitude * RAD);
+      const ghi = haurwitz(cosZ) * cloud;
+      const kt = Math.min(1, Math.max(0, ghi / (e0 * Math.max(cosZ, 0.065))));
+      const dhi = erbsDiffuseFraction(kt) * ghi;
+      const dni = (ghi - dhi) / cosZ;
+      for (let a = 0; a < na; a++) {
+        // cos θ = cos z·cos β + sin z·sin β·cos(γsun − γpanel); a panel that follows the sun has γpanel = γsun.
+        const cosDaz = follow[a] ? 1 : Math.cos((p.azimuth - plan.arrays[a].azimuthDeg) * RAD);
+        const cosT = cosZ * cosB[a] + sinZ * sinB[a] * cosDaz;
+        const poa = (dni * (cosT > 0 ? cosT : 0) + dhi * skyF[a] + ghi * groundF[a]) * shadeStop * arrayShade[a];
+        poaSub[a] = poa;
+        const tc = ta + noctK[a] * poa;
+        let pw = (poa / 1000) * (1 + gamma[a] * (tc - 25)) * keep[a];
+        if (!(pw > 0)) pw = 0;
+        const arr = arrays[a];
+        arr.perWattSub[r * SUBSTEPS + k] = pw;
+        arr.perWatt[r] += pw / SUBSTEPS;
+        if (pw > arr.perWattMax[r]) arr.perWattMax[r] = pw;
+      }
+      poaFirstSum += poaSub[0];
+    }
+    poaWm2[r] = poaFirstSum / SUBSTEPS;
+  }
+
+  return {
+    plan,
+    grid,
+    n,
+    ambientC,
+    sunAltitudeDeg,
+    poaWm2,
+    arrays,
+    dcLoadW,
+    acBankW,
+    shore,
+    generatorAllowed,
+    generatorSite,
+    dayIndex,
+    days: dayList.map(isoDate),
+    warnings,
+  };
+}

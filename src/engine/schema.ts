@@ -1,0 +1,289 @@
+// The plan: one zod 4 schema with every default of the defaults table in forecast-engine.md,
+// its limits and its cross-field rules. `Plan` is what a client may send; `ResolvedPlan` is
+// the same plan with every default applied, which is all the rest of the engine reads.
+import { z } from 'zod';
+import { dayNumber, isoDate, isValidTimeZone, parseIsoDate } from './tz';
+import { planTimeline } from './timeline';
+
+export const LIMITS = {
+  maxDays: 60,
+  maxHours: 60 * 24,
+  maxStops: 30,
+  maxArrays: 10,
+  maxLoads: 200,
+  maxChargers: 20,
+  maxDrives: 120,
+  maxWeatherPerStop: 120,
+  maxWindowsPerLoad: 24,
+} as const;
+
+export const CHEMISTRIES = ['lifepo4', 'agm', 'flooded', 'gel'] as const;
+export type Chemistry = (typeof CHEMISTRIES)[number];
+
+/** Chemistry-dependent bank defaults (forecast-engine.md defaults table; common practice). */
+export const CHEMISTRY_DEFAULTS: Record<
+  Chemistry,
+  {
+    nominalVolts: number;
+    floorSocPct: number;
+    maxChargeC: number;
+    peukertExponent: number;
+    chargeEfficiencyPct: number;
+    internalResistanceMilliohm: number;
+  }
+> = {
+  lifepo4: { nominalVolts: 12.8, floorSocPct: 10, maxChargeC: 0.5, peukertExponent: 1.05, chargeEfficiencyPct: 99, internalResistanceMilliohm: 8 },
+  agm: { nominalVolts: 12, floorSocPct: 50, maxChargeC: 0.2, peukertExponent: 1.12, chargeEfficiencyPct: 92, internalResistanceMilliohm: 12 },
+  gel: { nominalVolts: 12, floorSocPct: 50, maxChargeC: 0.2, peukertExponent: 1.12, chargeEfficiencyPct: 90, internalResistanceMilliohm: 15 },
+  flooded: { nominalVolts: 12, floorSocPct: 50, maxChargeC: 0.2, peukertExponent: 1.25, chargeEfficiencyPct: 85, internalResistanceMilliohm: 15 },
+};
+
+// ---------- small builders, so every number has bounds and a plain-English message ----------
+
+function num(min: number, max: number, opts: { gt?: boolean } = {}) {
+  const base = z.number({ error: 'must be a number' });
+  const lo = opts.gt
+    ? base.gt(min, { error: `must be greater than ${min}` })
+    : base.min(min, { error: `must be at least ${min}` });
+  return lo.max(max, { error: `must be at most ${max}` });
+}
+
+function int(min: number, max: number) {
+  return z
+    .number({ error: 'must be a number' })
+    .int({ error: 'must be a whole number' })
+    .min(min, { error: `must be at least ${min}` })
+    .max(max, { error: `must be at most ${max}` });
+}
+
+const dateString = z
+  .string({ error: 'must be a date (YYYY-MM-DD)' })
+  .refine((s) => {
+    const c = parseIsoDate(s);
+    return c !== null && c.y >= 1950 && c.y <= 2150;
+  }, { error: 'must be a real date YYYY-MM-DD between 1950 and 2150' });
+
+const name = z.string({ error: 'must be text' }).trim().min(1, { error: 'must not be empty' }).max(100, { error: 'must be at most 100 characters' });
+
+const hourPair = z.tuple([int(0, 24), int(0, 24)], { error: 'must be a pair of hours [from, to]' });
+
+// ---------- parts of the plan ----------
+
+export const bankSchema = z.object({
+  chemistry: z.enum(CHEMISTRIES, { error: 'must be one of lifepo4, agm, flooded, gel' }),
+  nominalVolts: num(6, 60).optional(),
+  capacityAh: num(0, 20_000, { gt: true }),
+  initialSocPct: num(0, 100).default(100),
+  floorSocPct: num(0, 95).optional(),
+  cutoffVolts: num(0, 100, { gt: true }).nullable().default(null),
+  maxChargeAmps: num(0, 10_000, { gt: true }).optional(),
+  peukertExponent: num(1, 2).optional(),
+  chargeEfficiencyPct: num(50, 100).optional(),
+  internalResistanceMilliohm: num(0, 1000).optional(),
+  insideHeatedSpace: z.boolean({ error: 'must be true or false' }).default(false),
+  selfHeating: z.boolean({ error: 'must be true or false' }).default(false),
+});
+
+export const arraySchema = z.object({
+  name: name.optional(),
+  ratedWatts: num(0, 100_000),
+  tiltDeg: num(0, 90).default(0),
+  azimuthDeg: num(0, 360).default(180),
+  aim: z.enum(['fixed', 'follow'], { error: 'must be fixed or follow' }).default('fixed'),
+  tempCoeffPctPerC: num(-2, 0.5).default(-0.4),
+  nocC: num(20, 80).default(45),
+  lossesPct: num(0, 99).default(14),
+  controller: z.enum(['mppt', 'pwm'], { error: 'must be mppt or pwm' }).default('mppt'),
+  controllerEfficiencyPct: num(50, 100).default(97),
+  controllerMaxAmps: num(0, 1000, { gt: true }).nullable().default(null),
+  shadePct: num(0, 100).default(0),
+  vmpVolts: num(1, 1000).optional(),
+});
+
+export const chargerSchema = z.object({
+  kind: z.enum(['alternator', 'shore', 'generator'], { error: 'must be alternator, shore or generator' }),
+  amps: num(0, 1000, { gt: true }),
+  startSocPct: num(0, 100).default(40),
+  stopSocPct: num(0, 100).default(80),
+  fuelLitresPerHour: num(0, 50).default(0.6),
+});
+
+export const inverterSchema = z.object({
+  efficiencyPct: num(50, 100).default(90),
+  idleWatts: num(0, 1000).default(12),
+  alwaysOn: z.boolean({ error: 'must be true or false' }).default(false),
+});
+
+export const loadSchema = z.object({
+  name: name.optional(),
+  watts: num(0, 100_000),
+  quantity: int(0, 1000).default(1),
+  supply: z.enum(['dc', 'ac'], { error: 'must be dc or ac' }).default('dc'),
+  windows: z
+    .array(hourPair, { error: 'must be a list of [from, to] hour pairs' })
+    .max(LIMITS.maxWindowsPerLoad, { error: `at most ${LIMITS.maxWindowsPerLoad} windows` })
+    .default([[0, 24]]),
+  dutyPct: num(0, 100).default(100),
+  days: z.enum(['all', 'camp', 'drive'], { error: 'must be all, camp or drive' }).default('all'),
+  response: z.enum(['none', 'cooling', 'heating'], { error: 'must be none, cooling or heating' }).default('none'),
+  setpointC: num(-30, 40).default(18),
+});
+
+export const weatherSchema = z.object({
+  date: dateString,
+  cloudOktas: num(0, 8),
+  highC: num(-60, 60),
+  lowC: num(-60, 60),
+});
+
+export const stopSchema = z.object({
+  name,
+  lat: num(-90, 90),
+  lon: num(-180, 180),
+  timeZone: z.string({ error: 'must be an IANA time zone such as America/Denver' }).refine(isValidTimeZone, {
+    error: 'must be an IANA time zone such as America/Denver',
+  }),
+  arrive: dateString,
+  nights: int(1, LIMITS.maxDays),
+  arriveHour: int(0, 23).default(15),
+  shadePct: num(0, 100).default(0),
+  hookup: z.enum(['none', 'shore'], { error: 'must be none or shore' }).default('none'),
+  generatorHours: hourPair.default([8, 20]),
+  weather: z.array(weatherSchema).max(LIMITS.maxWeatherPerStop, { error: `at most ${LIMITS.maxWeatherPerStop} weather days` }).default([]),
+});
+
+export const driveSchema = z.object({
+  date: dateString,
+  startHour: int(0, 23),
+  hours: int(1, 48),
+});
+
+const rawPlanSchema = z.object({
+  bank: bankSchema,
+  arrays: z.array(arraySchema).max(LIMITS.maxArrays, { error: `at most ${LIMITS.maxArrays} arrays` }).default([]),
+  chargers: z.array(chargerSchema).max(LIMITS.maxChargers, { error: `at most ${LIMITS.maxChargers} chargers` }).default([]),
+  inverter: inverterSchema.prefault({}),
+  loads: z.array(loadSchema).max(LIMITS.maxLoads, { error: `at most ${LIMITS.maxLoads} loads` }).default([]),
+  stops: z
+    .array(stopSchema)
+    .min(1, { error: 'a trip needs at least one stop' })
+    .max(LIMITS.maxStops, { error: `at most ${LIMITS.maxStops} stops` }),
+  drives: z.array(driveSchema).max(LIMITS.maxDrives, { error: `at most ${LIMITS.maxDrives} drives` }).default([]),
+});
+
+type RawPlan = z.output<typeof rawPlanSchema>;
+
+// ---------- resolved types (every default applied) ----------
+
+export type ResolvedBank = {
+  chemistry: Chemistry;
+  nominalVolts: number;
+  capacityAh: number;
+  initialSocPct: number;
+  floorSocPct: number;
+  cutoffVolts: number | null;
+  maxChargeAmps: number;
+  peukertExponent: number;
+  chargeEfficiencyPct: number;
+  internalResistanceMilliohm: number;
+  insideHeatedSpace: boolean;
+  selfHeating: boolean;
+};
+export type ResolvedArray = Omit<z.output<typeof arraySchema>, 'name'> & { name: string };
+export type ResolvedCharger = z.output<typeof chargerSchema>;
+export type ResolvedInverter = z.output<typeof inverterSchema>;
+export type ResolvedLoad = Omit<z.output<typeof loadSchema>, 'name'> & { name: string };
+export type ResolvedStop = z.output<typeof stopSchema>;
+export type ResolvedDrive = z.output<typeof driveSchema>;
+export type ResolvedPlan = {
+  bank: ResolvedBank;
+  arrays: ResolvedArray[];
+  chargers: ResolvedCharger[];
+  inverter: ResolvedInverter;
+  loads: ResolvedLoad[];
+  stops: ResolvedStop[];
+  drives: ResolvedDrive[];
+};
+
+/** Applies the chemistry-dependent defaults to a parsed bank. */
+export function resolveBank(b: z.output<typeof bankSchema>): ResolvedBank {
+  const d = CHEMISTRY_DEFAULTS[b.chemistry];
+  return {
+    chemistry: b.chemistry,
+    nominalVolts: b.nominalVolts ?? d.nominalVolts,
+    capacityAh: b.capacityAh,
+    initialSocPct: b.initialSocPct,
+    floorSocPct: b.floorSocPct ?? d.floorSocPct,
+    cutoffVolts: b.cutoffVolts,
+    maxChargeAmps: b.maxChargeAmps ?? d.maxChargeC * b.capacityAh,
+    peukertExponent: b.peukertExponent ?? d.peukertExponent,
+    chargeEfficiencyPct: b.chargeEfficiencyPct ?? d.chargeEfficiencyPct,
+    internalResistanceMilliohm: b.internalResistanceMilliohm ?? d.internalResistanceMilliohm,
+    insideHeatedSpace: b.insideHeatedSpace,
+    selfHeating: b.selfHeating,
+  };
+}
+
+function resolve(p: RawPlan): ResolvedPlan {
+  return {
+    bank: resolveBank(p.bank),
+    arrays: p.arrays.map((a, i) => ({ ...a, name: a.name ?? `Array ${i + 1}` })),
+    chargers: p.chargers,
+    inverter: p.inverter,
+    loads: p.loads.map((l, i) => ({ ...l, name: l.name ?? `Load ${i + 1}` })),
+    stops: p.stops,
+    drives: p.drives,
+  };
+}
+
+// ---------- cross-field rules ----------
+
+function crossCheck(p: RawPlan, ctx: z.RefinementCtx): void {
+  const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });
+
+  let generators = 0;
+  p.chargers.forEach((c, i) => {
+    if (c.kind !== 'generator') return;
+    generators++;
+    if (generators > 1) issue(['chargers', i, 'kind'], 'a plan may have at most one generator');
+    if (!(c.startSocPct < c.stopSocPct)) issue(['chargers', i, 'startSocPct'], 'the generator must start below its stop level (startSocPct < stopSocPct)');
+  });
+
+  p.stops.forEach((s, i) => {
+    const [gFrom, gTo] = s.generatorHours;
+    if (!(gFrom < gTo)) issue(['stops', i, 'generatorHours'], 'generator hours must be [start, stop] with start before stop');
+    const seen = new Map<string, number>();
+    s.weather.forEach((w, j) => {
+      if (w.highC < w.lowC) issue(['stops', i, 'weather', j, 'highC'], 'the high must not be below the low');
+      if (seen.has(w.date)) issue(['stops', i, 'weather', j, 'date'], `weather for ${w.date} is given twice`);
+      seen.set(w.date, j);
+    });
+    if (i > 0) {
+      const prev = p.stops[i - 1];
+      const a = dayNumber(s.arrive);
+      const pa = dayNumber(prev.arrive);
+      if (a <= pa) issue(['stops', i, 'arrive'], 'stops must be in order: each arrives after the one before');
+      else if (a < pa + prev.nights) issue(['stops', i, 'arrive'], `overlaps the stop before, which leaves on ${isoDate(pa + prev.nights)}`);
+    }
+  });
+
+  // Timeline-level checks need valid stop order; skip them if the stops already failed.
+  const stopIssues = p.stops.some((s, i) => i > 0 && dayNumber(s.arrive) < dayNumber(p.stops[i - 1].arrive) + p.stops[i - 1].nights);
+  if (stopIssues) return;
+  const tl = planTimeline(p.stops, p.drives);
+  for (let i = 1; i < tl.arrivals.length; i++) {
+    if (tl.arrivals[i] <= tl.arrivals[i - 1]) issue(['stops', i, 'arriveHour'], 'arrives before the stop before it (check the time zones and arrival hours)');
+  }
+  if (tl.hours > LIMITS.maxHours) {
+    issue(['stops', p.stops.length - 1, 'nights'], `the trip spans ${Math.ceil(tl.hours / 24)} days; at most ${LIMITS.maxDays}`);
+  }
+  tl.drives.forEach((d, i) => {
+    if (d.startMs < tl.startMs || d.endMs > tl.endMs) issue(['drives', i, 'date'], 'the drive falls outside the trip (between the first arrival and 11:00 on the last morning)');
+  });
+}
+
+/** The plan schema: parses a client's plan, applies every default and checks the cross-field rules. */
+export const planSchema = rawPlanSchema.superRefine(crossCheck).transform(resolve);
+
+/** A plan as a client sends it (defaults may be omitted). */
+export type Plan = z.input<typeof planSchema>;

@@ -1,0 +1,71 @@
+// Weather per stop and local day (forecast-engine.md, "Weather and temperature").
+import { dayNumber, isoDate } from './tz';
+
+/** The sky and temperatures of one local day. */
+export interface DayWeather {
+  cloudOktas: number;
+  highC: number;
+  lowC: number;
+  /** True when no day was given and the 4 oktas / 20 °C / 10 °C fallback applies. */
+  assumed: boolean;
+}
+
+/** Fallback when a stop gives no usable weather at all. */
+export const ASSUMED_WEATHER = { cloudOktas: 4, highC: 20, lowC: 10 } as const;
+
+interface WeatherEntry {
+  date: string;
+  cloudOktas: number;
+  highC: number;
+  lowC: number;
+}
+
+/** Weather of each owned day of one stop, plus the given dates it ignores. */
+export interface StopWeather {
+  byDay: Map<number, DayWeather>;
+  ignoredDates: string[];
+}
+
+/**
+ * Resolves a stop's weather for the local days it owns: the given day, else the nearest given
+ * day by whole days (ties: the earlier), else the fallback. Given days the stop owns no hour of
+ * are ignored (and not used as a nearest day).
+ */
+export function resolveStopWeather(entries: WeatherEntry[], ownedDays: number[]): StopWeather {
+  const owned = new Set(ownedDays);
+  const usable: { day: number; e: WeatherEntry }[] = [];
+  const ignoredDates: string[] = [];
+  for (const e of entries) {
+    const day = dayNumber(e.date);
+    if (owned.has(day)) usable.push({ day, e });
+    else ignoredDates.push(e.date);
+  }
+  usable.sort((a, b) => a.day - b.day);
+  ignoredDates.sort();
+  const byDay = new Map<number, DayWeather>();
+  for (const day of ownedDays) {
+    let best: { day: number; e: WeatherEntry } | null = null;
+    for (const u of usable) {
+      // Sorted ascending, so a strict "<" keeps the earlier day on ties.
+      if (best === null || Math.abs(u.day - day) < Math.abs(best.day - day)) best = u;
+    }
+    byDay.set(
+      day,
+      best
+        ? { cloudOktas: best.e.cloudOktas, highC: best.e.highC, lowC: best.e.lowC, assumed: false }
+        : { ...ASSUMED_WEATHER, assumed: true },
+    );
+  }
+  return { byDay, ignoredDates };
+}
+
+/** Plain-English text for the fallback warning. */
+export function assumedMessage(stopName: string, day: number): string {
+  return `No weather given for ${stopName} on ${isoDate(day)}: assumed ${ASSUMED_WEATHER.cloudOktas} oktas of cloud, a high of ${ASSUMED_WEATHER.highC} °C and a low of ${ASSUMED_WEATHER.lowC} °C.`;
+}
+
+/** Plain-English text for the ignored-days warning. */
+export function ignoredMessage(stopName: string, dates: string[]): string {
+  const list = dates.join(', ');
+  return `Weather for ${stopName} on ${list} is ignored: the trip is not at ${stopName} on ${dates.length === 1 ? 'that day' : 'those days'}.`;
+}
