@@ -1,5 +1,6 @@
 import type { Migration } from 'kysely';
 import * as accounts from './2026_12_01_0001_accounts';
+import * as rigsLoadsTrips from './2026_12_01_0002_rigs_loads_trips';
 
 /**
  * Every migration, in order. Listed statically (not read from the folder) so the same list runs
@@ -7,4 +8,5 @@ import * as accounts from './2026_12_01_0001_accounts';
  */
 export const migrations: Record<string, Migration> = {
   '2026_12_01_0001_accounts': accounts,
+  '2026_12_01_0002_rigs_loads_trips': rigsLoadsTrips,
 };

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { arraySchema, bankSchema, chargerSchema, inverterSchema, LIMITS } from '../engine/schema';
+import { patchOf, versionField } from './patch';
 
 /**
  * A rig: one vehicle's power system. Bank, arrays, chargers and inverter use the engine
@@ -17,11 +18,11 @@ export const rigInputSchema = z.object({
 });
 export type RigInput = z.input<typeof rigInputSchema>;
 
-/** PATCH: the version read, plus any fields to change. */
-export const rigPatchSchema = rigInputSchema.omit({ crewId: true }).partial().extend({
-  version: z.number({ error: 'Send the version you read.' }).int().min(1),
-});
+/** PATCH: the version read, plus any fields to change (a field not sent stays as it is). */
+export const rigPatchSchema = patchOf(rigInputSchema.omit({ crewId: true })).extend({ version: versionField });
 export type RigPatch = z.input<typeof rigPatchSchema>;
+export type RigValues = z.output<typeof rigInputSchema>;
+export type RigChanges = z.output<typeof rigPatchSchema>;
 
 export interface RigDto {
   id: string;
@@ -31,6 +32,8 @@ export interface RigDto {
   arrays: z.output<typeof arraySchema>[];
   chargers: z.output<typeof chargerSchema>[];
   inverter: z.output<typeof inverterSchema> | null;
+  /** Whether the signed-in user may change this rig, its loads and its trips (false for a crew viewer). */
+  canEdit: boolean;
   version: number;
   createdAt: string;
   updatedAt: string;

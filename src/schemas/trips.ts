@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { driveSchema, LIMITS, stopSchema } from '../engine/schema';
+import { patchOf, versionField } from './patch';
 
 /** A trip: stops (with their weather days) and drives, as the engine contract shapes them. */
 export const tripInputSchema = z.object({
@@ -11,10 +12,11 @@ export const tripInputSchema = z.object({
 });
 export type TripInput = z.input<typeof tripInputSchema>;
 
-export const tripPatchSchema = tripInputSchema.partial().extend({
-  version: z.number({ error: 'Send the version you read.' }).int().min(1),
-});
+/** PATCH: the version read, plus any fields to change (a field not sent stays as it is). */
+export const tripPatchSchema = patchOf(tripInputSchema).extend({ version: versionField });
 export type TripPatch = z.input<typeof tripPatchSchema>;
+export type TripValues = z.output<typeof tripInputSchema>;
+export type TripChanges = z.output<typeof tripPatchSchema>;
 
 export interface TripDto {
   id: string;
@@ -24,6 +26,8 @@ export interface TripDto {
   stops: z.output<typeof stopSchema>[];
   drives: z.output<typeof driveSchema>[];
   reserveSocPct: number | null;
+  /** Whether the signed-in user may change this trip (false for a crew viewer). */
+  canEdit: boolean;
   version: number;
   createdAt: string;
   updatedAt: string;
