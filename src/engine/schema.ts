@@ -69,20 +69,23 @@ const hourPair = z.tuple([int(0, 24), int(0, 24)], { error: 'must be a pair of h
 
 // ---------- parts of the plan ----------
 
-export const bankSchema = z.object({
-  chemistry: z.enum(CHEMISTRIES, { error: 'must be one of lifepo4, agm, flooded, gel' }),
-  nominalVolts: num(6, 60).optional(),
-  capacityAh: num(0, 20_000, { gt: true }),
-  initialSocPct: num(0, 100).default(100),
-  floorSocPct: num(0, 95).optional(),
-  cutoffVolts: num(0, 100, { gt: true }).nullable().default(null),
-  maxChargeAmps: num(0, 10_000, { gt: true }).optional(),
-  peukertExponent: num(1, 2).optional(),
-  chargeEfficiencyPct: num(50, 100).optional(),
-  internalResistanceMilliohm: num(0, 1000).optional(),
-  insideHeatedSpace: z.boolean({ error: 'must be true or false' }).default(false),
-  selfHeating: z.boolean({ error: 'must be true or false' }).default(false),
-});
+export const bankSchema = z.object(
+    {
+    chemistry: z.enum(CHEMISTRIES, { error: 'must be one of lifepo4, agm, flooded, gel' }),
+    nominalVolts: num(6, 60).optional(),
+    capacityAh: num(0, 20_000, { gt: true }),
+    initialSocPct: num(0, 100).default(100),
+    floorSocPct: num(0, 95).optional(),
+    cutoffVolts: num(0, 100, { gt: true }).nullable().default(null),
+    maxChargeAmps: num(0, 10_000, { gt: true }).optional(),
+    peukertExponent: num(1, 2).optional(),
+    chargeEfficiencyPct: num(50, 100).optional(),
+    internalResistanceMilliohm: num(0, 1000).optional(),
+    insideHeatedSpace: z.boolean({ error: 'must be true or false' }).default(false),
+    selfHeating: z.boolean({ error: 'must be true or false' }).default(false),
+  },
+  { error: 'must be an object with at least chemistry and capacityAh' },
+);
 
 export const arraySchema = z.object({
   name: name.optional(),
@@ -158,18 +161,21 @@ export const driveSchema = z.object({
   hours: int(1, 48),
 });
 
-const rawPlanSchema = z.object({
-  bank: bankSchema,
-  arrays: z.array(arraySchema).max(LIMITS.maxArrays, { error: `at most ${LIMITS.maxArrays} arrays` }).default([]),
-  chargers: z.array(chargerSchema).max(LIMITS.maxChargers, { error: `at most ${LIMITS.maxChargers} chargers` }).default([]),
-  inverter: inverterSchema.prefault({}),
-  loads: z.array(loadSchema).max(LIMITS.maxLoads, { error: `at most ${LIMITS.maxLoads} loads` }).default([]),
-  stops: z
-    .array(stopSchema)
-    .min(1, { error: 'a trip needs at least one stop' })
-    .max(LIMITS.maxStops, { error: `at most ${LIMITS.maxStops} stops` }),
-  drives: z.array(driveSchema).max(LIMITS.maxDrives, { error: `at most ${LIMITS.maxDrives} drives` }).default([]),
-});
+const rawPlanSchema = z.object(
+    {
+    bank: bankSchema,
+    arrays: z.array(arraySchema).max(LIMITS.maxArrays, { error: `at most ${LIMITS.maxArrays} arrays` }).default([]),
+    chargers: z.array(chargerSchema).max(LIMITS.maxChargers, { error: `at most ${LIMITS.maxChargers} chargers` }).default([]),
+    inverter: inverterSchema.prefault({}),
+    loads: z.array(loadSchema).max(LIMITS.maxLoads, { error: `at most ${LIMITS.maxLoads} loads` }).default([]),
+    stops: z
+      .array(stopSchema, { error: 'must be a list of stops' })
+      .min(1, { error: 'a trip needs at least one stop' })
+      .max(LIMITS.maxStops, { error: `at most ${LIMITS.maxStops} stops` }),
+    drives: z.array(driveSchema).max(LIMITS.maxDrives, { error: `at most ${LIMITS.maxDrives} drives` }).default([]),
+  },
+  { error: 'the plan must be a JSON object with a bank and stops' },
+);
 
 type RawPlan = z.output<typeof rawPlanSchema>;
 
@@ -238,9 +244,10 @@ function resolve(p: RawPlan): ResolvedPlan {
 
 // ---------- cross-field rules ----------
 
-function crossCheck(p: RawPlan, ctx: z.RefinementCtx): void {
-  const issue = (path: (string | number)[], message: string) => ctx.addIssue({ code: 'custom', path, message });
+type AddIssue = (path: (string | number)[], message: string) => void;
 
+/** Rules across fields. Runs only on a plan whose fields all passed, so every value is in range. */
+function crossCheck(p: RawPlan, issue: AddIssue): void {
   let generators = 0;
   p.chargers.forEach((c, i) => {
     if (c.kind !== 'generator') return;
@@ -283,7 +290,14 @@ function crossCheck(p: RawPlan, ctx: z.RefinementCtx): void {
 }
 
 /** The plan schema: parses a client's plan, applies every default and checks the cross-field rules. */
-export const planSchema = rawPlanSchema.superRefine(crossCheck).transform(resolve);
+export const planSchema = rawPlanSchema
+  .check((payload) => {
+    // zod 4 runs checks even after field-level issues; the cross-field rules parse dates and
+    // time zones, so they wait until every field is valid.
+    if (payload.issues.length > 0) return;
+    crossCheck(payload.value, (path, message) => payload.issues.push({ code: 'custom', path, message, input: payload.value }));
+  })
+  .transform(resolve);
 
 /** A plan as a client sends it (defaults may be omitted). */
 export type Plan = z.input<typeof planSchema>;
