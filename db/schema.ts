@@ -63,6 +63,7 @@ export interface CrewMemberTable {
   crew_id: string;
   user_id: string;
   role: CrewRole;
+  version: Generated<number>;
   created_at: string;
 }
 
@@ -134,6 +135,71 @@ export interface TripTable {
   updated_at: string;
 }
 
+/** An invitation to join a crew; only a SHA-256 of the link's token is stored. */
+export interface InvitationTable {
+  id: string;
+  crew_id: string;
+  email: string;
+  role: CrewRole;
+  token_hash: string;
+  invited_by: string | null;
+  expires_at: string;
+  accepted_at: string | null;
+  accepted_by: string | null;
+  revoked_at: string | null;
+  version: Generated<number>;
+  created_at: string;
+  updated_at: string;
+}
+
+/** An installer's read access to one rig, given by a crew owner. */
+export interface RigGrantTable {
+  id: string;
+  rig_id: string;
+  installer_id: string;
+  granted_by: string | null;
+  created_at: string;
+}
+
+/** The crew a user last switched to. */
+export interface ActiveCrewTable {
+  user_id: string;
+  crew_id: string;
+  updated_at: string;
+}
+
+export type OutboxStatus = 'queued' | 'sending' | 'sent';
+
+/** Every e-mail, written with the change that causes it and sent (and retried) from here. */
+export interface OutboxTable {
+  id: string;
+  kind: string;
+  to_address: string;
+  subject: string;
+  text_body: string;
+  html_body: string;
+  status: Generated<OutboxStatus>;
+  attempts: Generated<number>;
+  last_error: string | null;
+  next_attempt_at: string;
+  locked_until: string | null;
+  message_id: string | null;
+  created_at: string;
+  sent_at: string | null;
+}
+
+/** What the local SMTP catcher received (development, demo and tests only). */
+export interface CaughtMailTable {
+  id: Generated<number>;
+  message_id: string | null;
+  from_address: string;
+  to_address: string;
+  subject: string;
+  text_body: string;
+  html_body: string;
+  received_at: string;
+}
+
 export interface DB {
   user: UserTable;
   session: SessionTable;
@@ -145,6 +211,11 @@ export interface DB {
   loads: LoadTable;
   load_activity: LoadActivityTable;
   trips: TripTable;
+  invitations: InvitationTable;
+  rig_grants: RigGrantTable;
+  active_crews: ActiveCrewTable;
+  outbox: OutboxTable;
+  caught_mail: CaughtMailTable;
 }
 
 export type User = Selectable<UserTable>;
@@ -156,3 +227,7 @@ export type RigRow = Selectable<RigTable>;
 export type LoadRow = Selectable<LoadTable>;
 export type LoadActivityRow = Selectable<LoadActivityTable>;
 export type TripRow = Selectable<TripTable>;
+export type InvitationRow = Selectable<InvitationTable>;
+export type RigGrantRow = Selectable<RigGrantTable>;
+export type OutboxRow = Selectable<OutboxTable>;
+export type CaughtMail = Selectable<CaughtMailTable>;

@@ -1,6 +1,7 @@
 import type { Migration } from 'kysely';
 import * as accounts from './2026_12_01_0001_accounts';
 import * as rigsLoadsTrips from './2026_12_01_0002_rigs_loads_trips';
+import * as crewsMail from './2026_12_01_0004_crews_mail';
 
 /**
  * Every migration, in order. Listed statically (not read from the folder) so the same list runs
@@ -9,4 +10,5 @@ import * as rigsLoadsTrips from './2026_12_01_0002_rigs_loads_trips';
 export const migrations: Record<string, Migration> = {
   '2026_12_01_0001_accounts': accounts,
   '2026_12_01_0002_rigs_loads_trips': rigsLoadsTrips,
+  '2026_12_01_0004_crews_mail': crewsMail,
 };
