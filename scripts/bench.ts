@@ -68,16 +68,28 @@ function median(xs: number[]): number {
   return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
 }
 
-function time(fn: () => void, runs: number, warmup = 30): number {
+interface Timing {
+  wall: number;
+  cpu: number;
+}
+
+/** Median wall-clock and CPU milliseconds of `fn` (CPU time is steadier on a shared machine). */
+function time(fn: () => void, runs: number, warmup = 30): Timing {
   for (let i = 0; i < warmup; i++) fn();
-  const xs: number[] = [];
+  const wall: number[] = [];
+  const cpu: number[] = [];
   for (let i = 0; i < runs; i++) {
+    const c = process.cpuUsage();
     const t = performance.now();
     fn();
-    xs.push(performance.now() - t);
+    wall.push(performance.now() - t);
+    const d = process.cpuUsage(c);
+    cpu.push((d.user + d.system) / 1000);
   }
-  return median(xs);
+  return { wall: median(wall), cpu: median(cpu) };
 }
+
+const ms = (t: Timing, digits = 2) => `${t.wall.toFixed(digits)} ms (CPU ${t.cpu.toFixed(digits)} ms)`;
 
 function resolved(plan: Plan): ResolvedPlan {
   const v = validatePlan(plan);
@@ -86,7 +98,7 @@ function resolved(plan: Plan): ResolvedPlan {
 }
 
 const cpu = os.cpus()[0]?.model ?? 'unknown CPU';
-console.log(`Machine: ${cpu}, ${os.cpus().length} cores, Node ${process.version}, ${os.platform()} ${os.arch()}`);
+console.log(`Machine: ${cpu}, ${os.cpus().length} cores, Node ${process.version}, ${os.platform()} ${os.arch()}, load average ${os.loadavg()[0].toFixed(2)}`);
 
 // 1. One 30-day forecast, 3 arrays, 4 chargers, 40 loads, JSON in and out.
 const plan30 = benchPlan(30);
@@ -106,9 +118,9 @@ const tSim = time(() => void simulatePrepared(prepared30), 60);
 const sim30 = simulatePrepared(prepared30);
 const tFormat = time(() => void toForecast(prepared30, sim30), 60);
 console.log(`\n30-day forecast (${hours30} h, 3 arrays, 4 chargers, 40 loads)`);
-console.log(`  runForecast (validate + prepare + simulate + JSON): median ${full.toFixed(2)} ms   [target ≤ 5 ms]`);
+console.log(`  runForecast (validate + prepare + simulate + JSON): median ${ms(full)}   [target ≤ 5 ms]`);
 console.log(`    first call in a fresh process (cold JIT): ${cold.toFixed(2)} ms
-    validate ${tValidate.toFixed(2)} ms · prepare ${tPrepare.toFixed(2)} ms · simulate ${tSim.toFixed(3)} ms · JSON ${tFormat.toFixed(2)} ms`);
+    validate ${tValidate.wall.toFixed(2)} ms · prepare ${tPrepare.wall.toFixed(2)} ms · simulate ${tSim.wall.toFixed(3)} ms · JSON ${tFormat.wall.toFixed(2)} ms`);
 
 // 2. 100 variants differing in bank and array size, prepared once.
 const banks = [100, 200, 300, 400, 600];
@@ -125,8 +137,8 @@ const sweepJson = time(() => {
   for (const v of variants) toForecast(p, simulatePrepared(p, v));
 }, 10, 2);
 console.log(`\n${variants.length} variants of the 30-day trip (bank and array size), prepared once`);
-console.log(`  prepare + ${variants.length} simulations: median ${sweep.toFixed(2)} ms   [target ≤ 150 ms]`);
-console.log(`  … with the full JSON of each variant: median ${sweepJson.toFixed(2)} ms`);
+console.log(`  prepare + ${variants.length} simulations: median ${ms(sweep)}   [target ≤ 150 ms]`);
+console.log(`  … with the full JSON of each variant: median ${ms(sweepJson)}`);
 
 // 3. 200 combos of a 14-day trip (bank × array × charger), prepared once.
 const r14 = resolved(benchPlan(14));
@@ -148,4 +160,4 @@ const combo = time(() => {
   for (const c of combos) simulatePrepared(p, c);
 }, 10, 2);
 console.log(`\n${combos.length} combos of a 14-day trip (bank × array × alternator × generator), prepared once`);
-console.log(`  prepare + ${combos.length} simulations: median ${combo.toFixed(2)} ms   [target < 1000 ms]`);
+console.log(`  prepare + ${combos.length} simulations: median ${ms(combo)}   [target < 1000 ms]`);

@@ -6,7 +6,8 @@ import { ambientForRow } from './ambient';
 import { inGeneratorWindow } from './chargers';
 import { inverterDcWatts, runsOnDay, windowMask, dutyAt } from './loads';
 import type { ResolvedArray, ResolvedPlan } from './schema';
-import { extraterrestrial, haurwitz, kastenCzeplak, erbsDiffuseFraction, ALBEDO } from './sun';
+import { cosIncidence, extraterrestrial, haurwitz, kastenCzeplak, poaIsotropic, splitErbs } from './sun';
+import { cellTempNoct, dcPerWatt } from './pv';
 import { getPosition } from 'suncalc';
 import { buildGrid, type Grid } from './timeline';
 import { dayOfYear, HOUR_MS, isoDate } from './tz';
@@ -109,15 +110,8 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     perWattSub: new Float64Array(n * SUBSTEPS),
   }));
   const na = arrays.length;
-  const cosB = plan.arrays.map((a) => Math.cos(a.tiltDeg * RAD));
-  const sinB = plan.arrays.map((a) => Math.sin(a.tiltDeg * RAD));
   const follow = plan.arrays.map((a) => a.aim === 'follow');
-  const gamma = plan.arrays.map((a) => a.tempCoeffPctPerC / 100);
-  const keep = plan.arrays.map((a) => 1 - a.lossesPct / 100);
-  const noctK = plan.arrays.map((a) => (a.nocC - 20) / 800);
   const arrayShade = plan.arrays.map((a) => 1 - a.shadePct / 100);
-  const skyF = cosB.map((c) => (1 + c) / 2);
-  const groundF = cosB.map((c) => (ALBEDO * (1 - c)) / 2);
 
   const ambientC = new Float64Array(n);
   const sunAltitudeDeg = new Float64Array(n);
@@ -181,20 +175,18 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
       const p = getPosition(date, stop.lat, stop.lon);
       const cosZ = Math.sin(p.altitude * RAD);
       if (!(cosZ > 0)) continue;
-      const sinZ = Math.cos(p.altitude * RAD);
-      const ghi = haurwitz(cosZ) * cloud;
-      const kt = Math.min(1, Math.max(0, ghi / (e0 * Math.max(cosZ, 0.065))));
-      const dhi = erbsDiffuseFraction(kt) * ghi;
-      const dni = (ghi - dhi) / cosZ;
+      // Steps 3–5: clear sky, clouds, beam/diffuse split.
+      const sky = splitErbs(haurwitz(cosZ) * cloud, cosZ, e0);
+      const zenith = 90 - p.altitude;
       for (let a = 0; a < na; a++) {
-        // cos θ = cos z·cos β + sin z·sin β·cos(γsun − γpanel); a panel that follows the sun has γpanel = γsun.
-        const cosDaz = follow[a] ? 1 : Math.cos((p.azimuth - plan.arrays[a].azimuthDeg) * RAD);
-        const cosT = cosZ * cosB[a] + sinZ * sinB[a] * cosDaz;
-        const poa = (dni * (cosT > 0 ? cosT : 0) + dhi * skyF[a] + ghi * groundF[a]) * shadeStop * arrayShade[a];
+        const spec = plan.arrays[a];
+        // Step 6: a panel that follows the sun faces the sun's azimuth at every sub-step.
+        const cosT = cosIncidence(zenith, p.azimuth, spec.tiltDeg, follow[a] ? p.azimuth : spec.azimuthDeg);
+        // Step 7: shade scales the plane-of-array irradiance before the cell temperature.
+        const poa = poaIsotropic(sky.dni, sky.dhi, sky.ghi, cosT, spec.tiltDeg) * shadeStop * arrayShade[a];
         poaSub[a] = poa;
-        const tc = ta + noctK[a] * poa;
-        let pw = (poa / 1000) * (1 + gamma[a] * (tc - 25)) * keep[a];
-        if (!(pw > 0)) pw = 0;
+        // Step 8: NOCT cell temperature and DC output per rated watt.
+        const pw = dcPerWatt(poa, cellTempNoct(ta, poa, spec.nocC), spec.tempCoeffPctPerC, spec.lossesPct);
         const arr = arrays[a];
         arr.perWattSub[r * SUBSTEPS + k] = pw;
         arr.perWatt[r] += pw / SUBSTEPS;
