@@ -2,6 +2,7 @@ import { execFileSync, spawn } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { startMailCatcher, type MailCatcher } from '../src/server/mail-catcher';
 
 /** `npm run demo`: build, migrate and seed the embedded SQLite database, then serve the app. */
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
@@ -17,9 +18,23 @@ const run = (cmd: string, args: string[]) => execFileSync(cmd, args, { cwd: root
 
 if (!existsSync(path.join(root, 'dist/server/entry.mjs')) || process.env.DEMO_REBUILD !== '0') run('npx', ['astro', 'build']);
 run('npx', ['tsx', 'db/seed.ts']);
-console.log(`\nSunreckon is starting on http://${env.HOST}:${env.PORT}  (Ctrl+C stops it)\n`);
+
+// Mail goes to the local catcher (a real SMTP server on loopback) unless SMTP_URL points elsewhere.
+let catcher: MailCatcher | null = null;
+if (!process.env.SMTP_URL) {
+  const dbPath = path.resolve(root, env.DATABASE_PATH);
+  const wanted = Number(process.env.MAIL_CATCHER_PORT ?? 2525);
+  catcher = await startMailCatcher({ dbPath, port: wanted }).catch(() => startMailCatcher({ dbPath, port: 0 }));
+  env.SMTP_URL = catcher.url;
+}
+console.log(`\nSunreckon is starting on http://${env.HOST}:${env.PORT}  (Ctrl+C stops it)`);
+if (catcher) console.log(`Mail is caught on ${catcher.url}: read it at http://${env.HOST}:${env.PORT}/dev/mail`);
+console.log('');
 const server = spawn(process.execPath, ['dist/server/entry.mjs'], { cwd: root, env, stdio: 'inherit' });
-const stop = () => server.kill('SIGTERM');
+const stop = () => {
+  server.kill('SIGTERM');
+  void catcher?.stop();
+};
 process.on('SIGINT', stop);
 process.on('SIGTERM', stop);
 server.on('exit', (code) => process.exit(code ?? 0));

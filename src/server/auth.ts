@@ -3,6 +3,10 @@ import { APIError } from 'better-auth/api';
 import { db } from './db';
 import { env } from './env';
 import { createPersonalCrew } from './crews';
+import { passwordResetMail } from './mail';
+import { enqueueMail, kickOutbox } from './outbox';
+
+const RESET_TOKEN_SECONDS = 60 * 60;
 
 export const CLIENT_IP_HEADER = 'x-sunreckon-client-ip';
 
@@ -15,7 +19,22 @@ export const auth = betterAuth({
   secret: env.authSecret,
   // Production names its one URL; elsewhere any loopback host and port is accepted (dev, demo, tests on free ports).
   baseURL: env.authUrl ?? { allowedHosts: ['localhost:*', '127.0.0.1:*', 'localhost', '127.0.0.1'], protocol: 'http', fallback: 'http://localhost:4321' },
-  emailAndPassword: { enabled: true, minPasswordLength: 8, maxPasswordLength: 128, autoSignIn: true },
+  emailAndPassword: {
+    enabled: true,
+    minPasswordLength: 8,
+    maxPasswordLength: 128,
+    autoSignIn: true,
+    // better-auth's own reset flow; the link goes to our /reset-password page and the e-mail through the outbox.
+    resetPasswordTokenExpiresIn: RESET_TOKEN_SECONDS,
+    revokeSessionsOnPasswordReset: true,
+    sendResetPassword: async ({ user, url, token }) => {
+      const link = `${new URL(url).origin}/reset-password?token=${encodeURIComponent(token)}`;
+      await enqueueMail(db, 'password-reset', user.email, passwordResetMail({ name: user.name, url: link, expiresInMinutes: RESET_TOKEN_SECONDS / 60 }));
+      kickOutbox();
+    },
+  },
+  // Reset tokens are stored hashed, like invitation tokens.
+  verification: { storeIdentifier: { default: 'plain', overrides: { 'reset-password:': 'hashed' } } },
   user: {
     additionalFields: {
       kind: { type: 'string', required: false, defaultValue: 'camper', input: true },

@@ -14,6 +14,8 @@ const schema = z.object({
   AUTH_RATE_LIMIT: z.coerce.number().int().min(0).default(10),
   SMTP_URL: z.string().optional(),
   MAIL_FROM: z.string().default('Sunreckon <no-reply@sunreckon.test>'),
+  /** First retry delay of an unsent e-mail; doubles per attempt up to 15 minutes. */
+  OUTBOX_RETRY_BASE_MS: z.coerce.number().int().min(50).default(30_000),
   SUNRECKON_ENV: z.enum(['production', 'development', 'test', 'demo']).optional(),
 });
 

@@ -1,0 +1,105 @@
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { sql } from 'kysely';
+import { simpleParser, type AddressObject } from 'mailparser';
+import { SMTPServer } from 'smtp-server';
+import { createDb, DEFAULT_DATABASE_PATH } from '../../db/client';
+
+// The local mail catcher for development, the demo and the tests: a real SMTP server on loopback
+// that accepts every message and stores it in the `caught_mail` table of the app's SQLite file,
+// where the /dev/mail page (outside production) and the tests read it. It never relays anything.
+
+export interface MailCatcher {
+  host: string;
+  port: number;
+  /** What to put in SMTP_URL. */
+  url: string;
+  stop(): Promise<void>;
+}
+
+function addresses(a: AddressObject | AddressObject[] | undefined): string {
+  if (!a) return '';
+  return (Array.isArray(a) ? a : [a]).flatMap((x) => x.value.map((v) => v.address ?? '')).filter(Boolean).join(', ');
+}
+
+/** Starts the catcher on 127.0.0.1 (port 0 picks a free one) writing into the SQLite file at `dbPath`. */
+export async function startMailCatcher(opts: { dbPath: string; port?: number; quiet?: boolean }): Promise<MailCatcher> {
+  const { db, sqlite } = createDb(opts.dbPath);
+  // Same definition as migration 0004: the catcher may start before the app's migrations run.
+  await sql`
+    create table if not exists caught_mail (
+      id integer primary key autoincrement,
+      message_id text,
+      from_address text not null,
+      to_address text not null,
+      subject text not null,
+      text_body text not null,
+      html_body text not null,
+      received_at text not null
+    )`.execute(db);
+
+  const server = new SMTPServer({
+    // Loopback only, no accounts, no TLS: a sink for development mail.
+    authOptional: true,
+    disabledCommands: ['AUTH', 'STARTTLS'],
+    banner: 'Sunreckon mail catcher',
+    size: 5 * 1024 * 1024,
+    logger: false,
+    onData(stream, session, callback) {
+      simpleParser(stream)
+        .then(async (mail) => {
+          const envelopeTo = session.envelope.rcptTo.map((r) => r.address).join(', ');
+          await db
+            .insertInto('caught_mail')
+            .values({
+              message_id: mail.messageId ?? null,
+              from_address: addresses(mail.from) || (session.envelope.mailFrom ? session.envelope.mailFrom.address : ''),
+              to_address: addresses(mail.to) || envelopeTo,
+              subject: mail.subject ?? '',
+              text_body: mail.text ?? '',
+              html_body: typeof mail.html === 'string' ? mail.html : '',
+              received_at: new Date().toISOString(),
+            })
+            .execute();
+          if (!opts.quiet) console.log(`[mail catcher] ${envelopeTo}: ${mail.subject ?? ''}`);
+          callback();
+        })
+        .catch((err: Error) => callback(err));
+    },
+  });
+
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(opts.port ?? 0, '127.0.0.1', () => {
+      server.off('error', reject);
+      resolve();
+    });
+  });
+  server.on('error', (err) => console.error('[mail catcher]', err));
+  const address = server.server.address();
+  const port = typeof address === 'object' && address ? address.port : 0;
+  return {
+    host: '127.0.0.1',
+    port,
+    url: `smtp://127.0.0.1:${port}`,
+    stop: () =>
+      new Promise<void>((resolve) => {
+        server.close(() => {
+          sqlite.close();
+          resolve();
+        });
+      }),
+  };
+}
+
+// `npx tsx src/server/mail-catcher.ts [port]`: a catcher for `npm run dev` (set SMTP_URL to what it prints).
+const isMain = process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url);
+if (isMain) {
+  const port = Number(process.argv[2] ?? 2525);
+  startMailCatcher({ dbPath: process.env.DATABASE_PATH || DEFAULT_DATABASE_PATH, port })
+    .then((c) => console.log(`Mail catcher listening: SMTP_URL=${c.url}  (messages at /dev/mail)`))
+    .catch((err) => {
+      console.error('The mail catcher could not start:', err);
+      process.exit(1);
+    });
+}
