@@ -200,6 +200,21 @@ export interface CaughtMailTable {
   received_at: string;
 }
 
+/** A saved forecast: the exact plan that ran (JSON) and its result, hourly rows stored column-wise. */
+export interface ForecastTable {
+  id: string;
+  crew_id: string;
+  trip_id: string;
+  rig_id: string;
+  name: string;
+  plan: string;
+  summary: string;
+  result: string;
+  reserve_soc_pct: number | null;
+  created_by: string | null;
+  created_at: string;
+}
+
 export interface DB {
   user: UserTable;
   session: SessionTable;
@@ -211,6 +226,7 @@ export interface DB {
   loads: LoadTable;
   load_activity: LoadActivityTable;
   trips: TripTable;
+  forecasts: ForecastTable;
   invitations: InvitationTable;
   rig_grants: RigGrantTable;
   active_crews: ActiveCrewTable;

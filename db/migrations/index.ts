@@ -1,6 +1,7 @@
 import type { Migration } from 'kysely';
 import * as accounts from './2026_12_01_0001_accounts';
 import * as rigsLoadsTrips from './2026_12_01_0002_rigs_loads_trips';
+import * as forecasts from './2026_12_01_0003_forecasts';
 import * as crewsMail from './2026_12_01_0004_crews_mail';
 
 /**
@@ -10,5 +11,6 @@ import * as crewsMail from './2026_12_01_0004_crews_mail';
 export const migrations: Record<string, Migration> = {
   '2026_12_01_0001_accounts': accounts,
   '2026_12_01_0002_rigs_loads_trips': rigsLoadsTrips,
+  '2026_12_01_0003_forecasts': forecasts,
   '2026_12_01_0004_crews_mail': crewsMail,
 };
