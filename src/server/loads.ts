@@ -1,0 +1,206 @@
+import type { Kysely } from 'kysely';
+import type { z } from 'zod';
+import type { DB, LoadAction, LoadRow } from '../../db/schema';
+import { LIMITS } from '../engine/schema';
+import type { LoadDto, loadInputSchema, loadPatchSchema } from '../schemas/loads';
+import { HttpError } from './errors';
+import { conflict, nowIso } from './versions';
+
+export type LoadValues = z.output<typeof loadInputSchema>;
+export type LoadChanges = z.output<typeof loadPatchSchema>;
+
+/** The load fields a camper edits, in the order the activity trail lists them. */
+const FIELDS = ['name', 'watts', 'quantity', 'supply', 'windows', 'dutyPct', 'days', 'response', 'setpointC', 'note', 'standby', 'position'] as const;
+type Field = (typeof FIELDS)[number];
+
+type LoadWithAuthor = LoadRow & { added_by_name: string | null };
+
+/** A load row (with its author's name) as the API shows it. */
+export function toLoadDto(row: LoadWithAuthor): LoadDto {
+  return {
+    id: row.id,
+    rigId: row.rig_id,
+    name: row.name,
+    watts: row.watts,
+    quantity: row.quantity,
+    supply: row.supply,
+    windows: JSON.parse(row.windows),
+    dutyPct: row.duty_pct,
+    days: row.days,
+    response: row.response,
+    setpointC: row.setpoint_c,
+    note: row.note,
+    standby: row.standby === 1,
+    position: row.position,
+    addedBy: row.added_by === null ? null : { id: row.added_by, name: row.added_by_name ?? '' },
+    version: row.version,
+    createdAt: row.created_at,
+    updatedAt: row.updated_at,
+  };
+}
+
+function withAuthor(db: Kysely<DB>) {
+  return db.selectFrom('loads').leftJoin('user', 'user.id', 'loads.added_by').selectAll('loads').select('user.name as added_by_name');
+}
+
+async function loadDto(db: Kysely<DB>, id: string): Promise<LoadDto | null> {
+  const row = await withAuthor(db).where('loads.id', '=', id).executeTakeFirst();
+  return row ? toLoadDto(row) : null;
+}
+
+/** A rig's loads in list order: position, then when they were added. */
+export async function listLoads(db: Kysely<DB>, rigId: string): Promise<LoadDto[]> {
+  const rows = await withAuthor(db).where('loads.rig_id', '=', rigId).orderBy('loads.position').orderBy('loads.created_at').orderBy('loads.id').execute();
+  return rows.map(toLoadDto);
+}
+
+/** The DTO's view of a row's editable fields, for diffs and snapshots. */
+function fieldsOf(row: LoadRow): Record<Field, unknown> {
+  const d = toLoadDto({ ...row, added_by_name: null });
+  return Object.fromEntries(FIELDS.map((f) => [f, d[f]])) as Record<Field, unknown>;
+}
+
+/** Line breaks are stored as \n, as the CSV import reads them, so export → import gives the same text. */
+function lf(s: string): string {
+  return s.replace(/\r\n?/g, '\n');
+}
+
+function columnsOf(v: Partial<LoadValues>) {
+  return {
+    ...(v.name !== undefined && { name: lf(v.name) }),
+    ...(v.watts !== undefined && { watts: v.watts }),
+    ...(v.quantity !== undefined && { quantity: v.quantity }),
+    ...(v.supply !== undefined && { supply: v.supply }),
+    ...(v.windows !== undefined && { windows: JSON.stringify(v.windows) }),
+    ...(v.dutyPct !== undefined && { duty_pct: v.dutyPct }),
+    ...(v.days !== undefined && { days: v.days }),
+    ...(v.response !== undefined && { response: v.response }),
+    ...(v.setpointC !== undefined && { setpoint_c: v.setpointC }),
+    ...(v.note !== undefined && { note: lf(v.note) }),
+    ...(v.standby !== undefined && { standby: v.standby ? 1 : 0 }),
+    ...(v.position !== undefined && { position: v.position }),
+  };
+}
+
+async function logActivity(
+  trx: Kysely<DB>,
+  e: { rigId: string; loadId: string; userId: string; action: LoadAction; loadName: string; changes: Record<string, [unknown, unknown]>; at: string },
+): Promise<void> {
+  await trx
+    .insertInto('load_activity')
+    .values({ id: crypto.randomUUID(), rig_id: e.rigId, load_id: e.loadId, user_id: e.userId, action: e.action, load_name: e.loadName, changes: JSON.stringify(e.changes), at: e.at })
+    .execute();
+}
+
+function snapshot(fields: Record<Field, unknown>, side: 'before' | 'after'): Record<string, [unknown, unknown]> {
+  return Object.fromEntries(FIELDS.filter((f) => f !== 'position').map((f) => [f, side === 'after' ? [null, fields[f]] : [fields[f], null]]));
+}
+
+/** Inserts loads at the end of a rig's list, each with its activity row, all in one transaction. */
+async function insertLoads(db: Kysely<DB>, rigId: string, userId: string, values: LoadValues[], action: 'added' | 'imported'): Promise<LoadDto[]> {
+  return db.transaction().execute(async (trx) => {
+    const { n, last } = (await trx
+      .selectFrom('loads')
+      .select((eb) => [eb.fn.countAll<number>().as('n'), eb.fn.max('position').as('last')])
+      .where('rig_id', '=', rigId)
+      .executeTakeFirst()) ?? { n: 0, last: null };
+    if (Number(n) + values.length > LIMITS.maxLoads) {
+      throw new HttpError('invalid_request', `A rig holds at most ${LIMITS.maxLoads} loads; this one has ${n}.`, [{ path: '(body)', message: `at most ${LIMITS.maxLoads} loads per rig` }]);
+    }
+    let position = last === null ? 0 : Number(last) + 1;
+    const ids: string[] = [];
+    for (const v of values) {
+      const now = nowIso();
+      const id = crypto.randomUUID();
+      const pos = v.position ?? position++;
+      await trx
+        .insertInto('loads')
+        .values({
+          id,
+          rig_id: rigId,
+          name: lf(v.name),
+          watts: v.watts,
+          quantity: v.quantity,
+          supply: v.supply,
+          windows: JSON.stringify(v.windows),
+          duty_pct: v.dutyPct,
+          days: v.days,
+          response: v.response,
+          setpoint_c: v.setpointC,
+          note: lf(v.note),
+          standby: v.standby ? 1 : 0,
+          position: pos,
+          added_by: userId,
+          created_at: now,
+          updated_at: now,
+        })
+        .execute();
+      const row = await trx.selectFrom('loads').selectAll().where('id', '=', id).executeTakeFirstOrThrow();
+      await logActivity(trx, { rigId, loadId: id, userId, action, loadName: row.name, changes: snapshot(fieldsOf(row), 'after'), at: now });
+      ids.push(id);
+    }
+    const out: LoadDto[] = [];
+    for (const id of ids) out.push((await loadDto(trx, id))!);
+    return out;
+  });
+}
+
+/** Adds one load at the end of a rig's list (or at `position`), with an 'added' activity row. */
+export async function createLoad(db: Kysely<DB>, rigId: string, userId: string, input: LoadValues): Promise<LoadDto> {
+  const [load] = await insertLoads(db, rigId, userId, [input], 'added');
+  return load;
+}
+
+/** Adds every load of an import in one transaction, each with an 'imported' activity row. */
+export async function importLoads(db: Kysely<DB>, rigId: string, userId: string, inputs: LoadValues[]): Promise<LoadDto[]> {
+  return insertLoads(db, rigId, userId, inputs, 'imported');
+}
+
+/** How many loads a rig has now. */
+export async function countLoads(db: Kysely<DB>, rigId: string): Promise<number> {
+  const r = await db.selectFrom('loads').select((eb) => eb.fn.countAll<number>().as('n')).where('rig_id', '=', rigId).executeTakeFirst();
+  return Number(r?.n ?? 0);
+}
+
+function notFound(): HttpError {
+  return new HttpError('not_found', "There is no load with this id among your crews' rigs.");
+}
+
+/**
+ * Changes the fields sent while the load still has the version read (else 409 with the current
+ * load), and records what changed, field by field, in the same transaction.
+ */
+export async function updateLoad(db: Kysely<DB>, loadId: string, userId: string, patch: LoadChanges): Promise<LoadDto> {
+  const { version, ...values } = patch;
+  return db.transaction().execute(async (trx) => {
+    const before = await trx.selectFrom('loads').selectAll().where('id', '=', loadId).executeTakeFirst();
+    if (!before) throw notFound();
+    const now = nowIso();
+    const res = await trx
+      .updateTable('loads')
+      .set((eb) => ({ ...columnsOf(values), version: eb('version', '+', 1), updated_at: now }))
+      .where('id', '=', loadId)
+      .where('version', '=', version)
+      .executeTakeFirst();
+    if (res.numUpdatedRows === 0n) throw conflict('load', await loadDto(trx, loadId));
+    const after = await trx.selectFrom('loads').selectAll().where('id', '=', loadId).executeTakeFirstOrThrow();
+    const [b, a] = [fieldsOf(before), fieldsOf(after)];
+    const changes: Record<string, [unknown, unknown]> = {};
+    for (const f of FIELDS) if (JSON.stringify(b[f]) !== JSON.stringify(a[f])) changes[f] = [b[f], a[f]];
+    if (Object.keys(changes).length) {
+      await logActivity(trx, { rigId: after.rig_id, loadId, userId, action: 'changed', loadName: after.name, changes, at: now });
+    }
+    return (await loadDto(trx, loadId))!;
+  });
+}
+
+/** Removes a load while it still has the version read, leaving a 'removed' activity row. */
+export async function deleteLoad(db: Kysely<DB>, loadId: string, userId: string, version: number): Promise<void> {
+  await db.transaction().execute(async (trx) => {
+    const before = await trx.selectFrom('loads').selectAll().where('id', '=', loadId).executeTakeFirst();
+    if (!before) throw notFound();
+    const res = await trx.deleteFrom('loads').where('id', '=', loadId).where('version', '=', version).executeTakeFirst();
+    if (res.numDeletedRows === 0n) throw conflict('load', await loadDto(trx, loadId));
+    await logActivity(trx, { rigId: before.rig_id, loadId, userId, action: 'removed', loadName: before.name, changes: snapshot(fieldsOf(before), 'before'), at: nowIso() });
+  });
+}
