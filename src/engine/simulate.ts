@@ -2,7 +2,7 @@
 // (forecast-engine.md steps 9, 12, 13 and "Chargers and battery").
 import { z } from 'zod';
 import { capacityFactor, coldChargeBlocked, peukertFactor, taperFactor, terminalVolts } from './battery';
-import { dispatch, generatorRuns, inGeneratorWindow } from './chargers';
+import { chargerWatts, dispatch, generatorRuns, inGeneratorWindow } from './chargers';
 import { PlanValidationError, zodIssuesToEnvelope } from './errors';
 import { SUBSTEPS, type PreparedTrip, type RowWarning } from './prepare';
 import { controllerCapWatts, controllerFactor } from './pv';
@@ -127,11 +127,11 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
   let shoreW = 0;
   let generator: ResolvedCharger | null = null;
   for (const c of v.chargers) {
-    if (c.kind === 'alternator') alternatorW += c.amps * vn;
-    else if (c.kind === 'shore') shoreW += c.amps * vn;
+    if (c.kind === 'alternator') alternatorW += chargerWatts(c.amps, vn);
+    else if (c.kind === 'shore') shoreW += chargerWatts(c.amps, vn);
     else generator = c;
   }
-  const generatorW = generator ? generator.amps * vn : 0;
+  const generatorW = generator ? chargerWatts(generator.amps, vn) : 0;
 
   // ---- arrays: rated watts × cached per-watt output, then the controller ----
   const na = prepared.arrays.length;
@@ -231,8 +231,10 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
     const tb = bank.insideHeatedSpace ? 18 : prepared.ambientC[r];
     const f = capacityFactor(chem, tb);
     const capAh = cap * f;
-    const blocked = coldChargeBlocked(chem, tb, bank.selfHeating);
-    const acceptNominalA = blocked ? 0 : maxChargeA * taperFactor(chem, soc);
+    // The lockout only "refuses" charge a warm bank would have taken (not a full one).
+    const warmAcceptA = soc < 1 ? maxChargeA * taperFactor(chem, soc) : 0;
+    const blocked = coldChargeBlocked(chem, tb, bank.selfHeating) && warmAcceptA > 0;
+    const acceptNominalA = blocked ? 0 : warmAcceptA;
     const socStart = soc;
 
     let solarUsed = 0;

@@ -135,6 +135,12 @@ describe('cold (common practice / cell datasheets; trade-notes.md)', () => {
     expect(s.warnings.filter((w) => w.code === 'cold-charge-blocked')).toHaveLength(s.n);
   });
 
+  it('a full bank in the cold raises no warning: there was no charge to refuse', () => {
+    const s = cold({ initialSocPct: 100 });
+    expect(s.warnings.filter((w) => w.code === 'cold-charge-blocked')).toHaveLength(0);
+    expect(s.socEndPct[0]).toBe(100);
+  });
+
   it('with self-heating, or inside the heated living space (18 °C), it charges', () => {
     expect(cold({ selfHeating: true }).socEndPct[0]).toBeGreaterThan(50);
     const inside = cold({ insideHeatedSpace: true });
