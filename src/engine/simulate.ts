@@ -14,8 +14,12 @@ export const variantSchema = z.object({
   bank: bankSchema.optional(),
   /** Rated watts per array, in the plan's array order (same length). */
   arrayWatts: z.array(z.number().min(0).max(100_000)).optional(),
+  /** Multiplies every array's rated watts (after `arrayWatts`). */
+  arrayScale: z.number().min(0).max(100).optional(),
   /** The whole charger list, replacing the plan's. */
   chargers: z.array(chargerSchema).max(20).optional(),
+  /** Amps per charger, in the (plan's or variant's) charger order (same length). */
+  chargerAmps: z.array(z.number().gt(0).max(1000)).optional(),
   /** Generator window [from, to) applied at every stop without hookup. */
   generatorHours: z.tuple([z.number().int().min(0).max(24), z.number().int().min(0).max(24)]).optional(),
 });
@@ -96,11 +100,15 @@ function resolveVariant(prepared: PreparedTrip, variant: Variant | undefined) {
   if (gens.length > 1) issues.push({ path: 'chargers', message: 'at most one generator' });
   if (gens.some((g) => !(g.startSocPct < g.stopSocPct))) issues.push({ path: 'chargers', message: 'the generator must start below its stop level' });
   if (v.generatorHours && !(v.generatorHours[0] < v.generatorHours[1])) issues.push({ path: 'generatorHours', message: 'start must be before stop' });
+  const chargers = v.chargers ?? plan.chargers;
+  if (v.chargerAmps && v.chargerAmps.length !== chargers.length) issues.push({ path: 'chargerAmps', message: `must list ${chargers.length} chargers` });
   if (issues.length > 0) throw new PlanValidationError({ error: { code: 'invalid_plan', message: 'The variant is invalid.' }, issues });
+  const scale = v.arrayScale ?? 1;
+  const amps = v.chargerAmps;
   return {
     bank: v.bank ? resolveBank(v.bank) : plan.bank,
-    chargers: v.chargers ?? plan.chargers,
-    arrayWatts: v.arrayWatts ?? plan.arrays.map((a) => a.ratedWatts),
+    chargers: amps ? chargers.map((c, i) => ({ ...c, amps: amps[i] })) : chargers,
+    arrayWatts: (v.arrayWatts ?? plan.arrays.map((a) => a.ratedWatts)).map((w) => w * scale),
     generatorHours: v.generatorHours ?? null,
   };
 }

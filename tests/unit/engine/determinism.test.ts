@@ -55,6 +55,11 @@ describe('variants equal the plan changed the same way', () => {
     same({ arrayWatts: [800] }, { ...base, arrays: [{ ...base.arrays![0], ratedWatts: 800 }] });
   });
 
+  it('array scale and charger amps', () => {
+    same({ arrayScale: 1.5 }, { ...base, arrays: [{ ...base.arrays![0], ratedWatts: 600 }] });
+    same({ chargerAmps: [45] }, { ...base, chargers: [{ kind: 'alternator', amps: 45 }] });
+  });
+
   it('chargers', () => {
     const chargers = [{ kind: 'alternator' as const, amps: 60 }, { kind: 'generator' as const, amps: 40, startSocPct: 50, stopSocPct: 90 }];
     same({ chargers }, { ...base, chargers });
