@@ -126,6 +126,8 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   // ---- loads: masks once ----
   const masks = plan.loads.map((l) => windowMask(l.windows));
 
+  // suncalc 2.x directly (see sun.ts sunPosition for its conventions), with one reused Date:
+  // thousands of sub-steps per trip make allocation show up in the timings.
   const date = new Date(0);
   const poaSub = new Float64Array(na);
   for (let r = 0; r < n; r++) {

@@ -5,6 +5,7 @@ import { z } from 'zod';
 import { dayNumber, isoDate, isValidTimeZone, parseIsoDate } from './tz';
 import { planTimeline } from './timeline';
 
+/** Size limits of a plan (forecast-engine.md: 60 days, 30 stops, 10 arrays, 200 loads; the rest are ours). */
 export const LIMITS = {
   maxDays: 60,
   maxHours: 60 * 24,
@@ -17,7 +18,9 @@ export const LIMITS = {
   maxWindowsPerLoad: 24,
 } as const;
 
+/** Bank chemistries the engine models. */
 export const CHEMISTRIES = ['lifepo4', 'agm', 'flooded', 'gel'] as const;
+/** A bank chemistry. */
 export type Chemistry = (typeof CHEMISTRIES)[number];
 
 /** Chemistry-dependent bank defaults (forecast-engine.md defaults table; common practice). */
@@ -69,6 +72,7 @@ const hourPair = z.tuple([int(0, 24), int(0, 24)], { error: 'must be a pair of h
 
 // ---------- parts of the plan ----------
 
+/** The house battery bank; chemistry-dependent fields are filled by `resolveBank`. */
 export const bankSchema = z.object(
     {
     chemistry: z.enum(CHEMISTRIES, { error: 'must be one of lifepo4, agm, flooded, gel' }),
@@ -87,6 +91,7 @@ export const bankSchema = z.object(
   { error: 'must be an object with at least chemistry and capacityAh' },
 );
 
+/** A solar array and its controller. */
 export const arraySchema = z.object({
   name: name.optional(),
   ratedWatts: num(0, 100_000),
@@ -103,6 +108,7 @@ export const arraySchema = z.object({
   vmpVolts: num(1, 1000).optional(),
 });
 
+/** An alternator (DC-DC), shore or generator charger; start/stop/fuel matter for the generator only. */
 export const chargerSchema = z.object({
   kind: z.enum(['alternator', 'shore', 'generator'], { error: 'must be alternator, shore or generator' }),
   amps: num(0, 1000, { gt: true }),
@@ -111,12 +117,14 @@ export const chargerSchema = z.object({
   fuelLitresPerHour: num(0, 50).default(0.6),
 });
 
+/** The inverter that serves AC loads from the bank. */
 export const inverterSchema = z.object({
   efficiencyPct: num(50, 100).default(90),
   idleWatts: num(0, 1000).default(12),
   alwaysOn: z.boolean({ error: 'must be true or false' }).default(false),
 });
 
+/** One appliance (or several alike) with its schedule and duty. */
 export const loadSchema = z.object({
   name: name.optional(),
   watts: num(0, 100_000),
@@ -132,6 +140,7 @@ export const loadSchema = z.object({
   setpointC: num(-30, 40).default(18),
 });
 
+/** The expected sky and temperatures of one day at a stop. */
 export const weatherSchema = z.object({
   date: dateString,
   cloudOktas: num(0, 8),
@@ -139,6 +148,7 @@ export const weatherSchema = z.object({
   lowC: num(-60, 60),
 });
 
+/** A camp: place, zone, dates, shade, hookup, generator window and weather. */
 export const stopSchema = z.object({
   name,
   lat: num(-90, 90),
@@ -155,6 +165,7 @@ export const stopSchema = z.object({
   weather: z.array(weatherSchema).max(LIMITS.maxWeatherPerStop, { error: `at most ${LIMITS.maxWeatherPerStop} weather days` }).default([]),
 });
 
+/** A drive: local date and start hour (in the owning stop's zone) and whole hours. */
 export const driveSchema = z.object({
   date: dateString,
   startHour: int(0, 23),
@@ -181,6 +192,7 @@ type RawPlan = z.output<typeof rawPlanSchema>;
 
 // ---------- resolved types (every default applied) ----------
 
+/** A bank with every default applied. */
 export type ResolvedBank = {
   chemistry: Chemistry;
   nominalVolts: number;
@@ -195,12 +207,14 @@ export type ResolvedBank = {
   insideHeatedSpace: boolean;
   selfHeating: boolean;
 };
+/** Resolved parts of a plan. */
 export type ResolvedArray = Omit<z.output<typeof arraySchema>, 'name'> & { name: string };
 export type ResolvedCharger = z.output<typeof chargerSchema>;
 export type ResolvedInverter = z.output<typeof inverterSchema>;
 export type ResolvedLoad = Omit<z.output<typeof loadSchema>, 'name'> & { name: string };
 export type ResolvedStop = z.output<typeof stopSchema>;
 export type ResolvedDrive = z.output<typeof driveSchema>;
+/** A plan with every default applied: what the rest of the engine reads. */
 export type ResolvedPlan = {
   bank: ResolvedBank;
   arrays: ResolvedArray[];

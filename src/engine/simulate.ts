@@ -27,9 +27,11 @@ export const variantSchema = z.object({
 /** A plan variant for `simulatePrepared` (input form: defaults may be omitted). */
 export type Variant = z.input<typeof variantSchema>;
 
-/** Why the bank is disconnected. */
+/** Why the bank disconnected (values of `SimResult.cutoffEvent`): none, its SOC floor, its cutoff volts. */
 export const CUTOFF_NONE = 0;
+/** The bank reached its SOC floor. */
 export const CUTOFF_FLOOR = 1;
+/** The bank's terminal volts reached the cutoff. */
 export const CUTOFF_VOLTS = 2;
 
 /** Unrounded totals of one simulation. */

@@ -2,6 +2,7 @@
 // Offsets come from the platform's Intl (ICU tzdata). Civil-date math is integer arithmetic
 // (Howard Hinnant's days_from_civil / civil_from_days), so labels need no Date parsing.
 
+/** One hour and one day in milliseconds. */
 export const HOUR_MS = 3_600_000;
 export const DAY_MS = 86_400_000;
 
