@@ -244,6 +244,14 @@ describe('POST /api/rigs/:id/loads/import', () => {
     expect((await res.json()).issues).toEqual([{ path: 'line 4.watts', message: expect.any(String) }]);
   });
 
+  it('reads a Windows-1252 file, as spreadsheets on Windows save CSV', async () => {
+    const rig = await createRig(owner);
+    const bytes = Uint8Array.from([...Buffer.from('name,watts\nCaf'), 0xe9, ...Buffer.from(' maker,800\n')]);
+    const res = await api(`/api/rigs/${rig.id}/loads/import`, { method: 'POST', session: owner, headers: { 'content-type': 'text/csv' }, body: bytes });
+    expect(res.status).toBe(201);
+    expect((await res.json()).loads[0].name).toBe('Café maker');
+  });
+
   it('accepts JSON { csv }', async () => {
     const rig = await createRig(owner);
     const res = await api(`/api/rigs/${rig.id}/loads/import`, { method: 'POST', session: owner, json: { csv: 'name,watts\nCPAP,25\n' } });

@@ -10,6 +10,15 @@ import { LIMITS } from '../../../../../engine/schema';
 const MAX_CSV_BYTES = 1024 * 1024;
 const tooLarge = () => new HttpError('payload_too_large', 'The CSV is larger than 1 MB.');
 
+/** UTF-8, or else Windows-1252: what a spreadsheet on Windows saves as "CSV" (so "Señora" survives). */
+function decodeText(bytes: Uint8Array): string {
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    return new TextDecoder('windows-1252').decode(bytes);
+  }
+}
+
 /** The CSV text of the request: a `text/csv` body, or JSON `{ "csv": "…" }`; at most 1 MB either way. */
 async function readCsv(request: Request): Promise<string> {
   const type = (request.headers.get('content-type') ?? '').trim().toLowerCase();
@@ -34,7 +43,7 @@ async function readCsv(request: Request): Promise<string> {
       }
       chunks.push(part.value);
     }
-    return new TextDecoder().decode(Buffer.concat(chunks));
+    return decodeText(Buffer.concat(chunks));
   }
   throw new HttpError('unsupported_media_type', 'Send the CSV as text/csv, or as JSON { "csv": "…" }.', [
     { path: '(headers).content-type', message: `expected text/csv or application/json, got ${type ? `"${type.slice(0, 60)}"` : 'none'}` },
