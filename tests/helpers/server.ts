@@ -6,6 +6,9 @@ import path from 'node:path';
 
 export const ROOT = path.resolve(import.meta.dirname, '../..');
 
+/** Where the tests build and run the server; SUNRECKON_DIST lets parallel checkouts keep builds apart. */
+export const DIST = process.env.SUNRECKON_DIST ?? 'dist';
+
 /** A free TCP port on loopback. */
 export async function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -23,7 +26,7 @@ export async function freePort(): Promise<number> {
 /** Builds the production server unless the caller already did (npm test builds once). */
 export function buildOnce(): void {
   if (process.env.SUNRECKON_PREBUILT === '1') return;
-  execFileSync('npx', ['astro', 'build'], { cwd: ROOT, stdio: 'pipe', env: { ...process.env, ASTRO_TELEMETRY_DISABLED: '1' } });
+  execFileSync('npx', ['astro', 'build', '--outDir', DIST], { cwd: ROOT, stdio: 'pipe', env: { ...process.env, ASTRO_TELEMETRY_DISABLED: '1' } });
   process.env.SUNRECKON_PREBUILT = '1';
 }
 
@@ -55,7 +58,7 @@ export async function startServer(extraEnv: Record<string, string> = {}, reuse?:
     ...extraEnv,
   };
   execFileSync('npx', ['tsx', 'db/migrate.ts'], { cwd: ROOT, env, stdio: 'pipe' });
-  const child = spawn(process.execPath, ['dist/server/entry.mjs'], { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'] });
+  const child = spawn(process.execPath, [path.join(DIST, 'server/entry.mjs')], { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'] });
   let out = '';
   child.stdout?.on('data', (d) => (out += d));
   child.stderr?.on('data', (d) => (out += d));

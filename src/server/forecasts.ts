@@ -1,0 +1,192 @@
+import type { Kysely } from 'kysely';
+import type { DB } from '../../db/schema';
+import { forecast as runEngine, validatePlan, type Forecast, type HourlyRow, type Plan, type ResolvedPlan } from '../engine';
+import type { LoadDto } from '../schemas/loads';
+import type { RigDto } from '../schemas/rigs';
+import type { TripDto } from '../schemas/trips';
+import { HttpError } from './errors';
+
+/** Builds the engine plan of a trip from its rig and the rig's loads (as they are now). */
+export function assemblePlan(rig: RigDto, loads: LoadDto[], trip: TripDto): Plan {
+  return {
+    bank: rig.bank,
+    arrays: rig.arrays,
+    chargers: rig.chargers,
+    ...(rig.inverter ? { inverter: rig.inverter } : {}),
+    loads: loads.map((l) => ({
+      name: l.name,
+      watts: l.watts,
+      quantity: l.quantity,
+      supply: l.supply,
+      windows: l.windows,
+      dutyPct: l.dutyPct,
+      days: l.days,
+      response: l.response,
+      setpointC: l.setpointC,
+    })),
+    stops: trip.stops,
+    drives: trip.drives,
+  } as Plan;
+}
+
+export interface ForecastListItem {
+  id: string;
+  tripId: string;
+  name: string;
+  createdAt: string;
+  createdBy: { id: string; name: string } | null;
+  summary: Forecast['summary'];
+  reserveSocPct: number | null;
+}
+
+export interface ForecastDto extends ForecastListItem {
+  rigId: string;
+  plan: ResolvedPlan;
+  forecast: Forecast;
+}
+
+type Columns = { [K in keyof HourlyRow]: HourlyRow[K][] };
+
+/** Stores the hourly rows column-wise: one array per field. */
+export function packHourly(rows: HourlyRow[]): Columns {
+  const keys = (rows[0] ? Object.keys(rows[0]) : []) as (keyof HourlyRow)[];
+  const cols = {} as Record<string, unknown[]>;
+  for (const k of keys) cols[k] = rows.map((r) => r[k]);
+  return cols as Columns;
+}
+
+/** The inverse of packHourly. */
+export function unpackHourly(cols: Columns): HourlyRow[] {
+  const keys = Object.keys(cols) as (keyof HourlyRow)[];
+  const n = keys.length ? (cols[keys[0]] as unknown[]).length : 0;
+  const rows: HourlyRow[] = [];
+  for (let i = 0; i < n; i++) {
+    const row = {} as Record<string, unknown>;
+    for (const k of keys) row[k] = (cols[k] as unknown[])[i];
+    rows.push(row as unknown as HourlyRow);
+  }
+  return rows;
+}
+
+/** Runs the engine on the trip as it is now and saves plan and result; a plan the engine refuses is a 400. */
+export async function createForecast(
+  db: Kysely<DB>,
+  input: { rig: RigDto; loads: LoadDto[]; trip: TripDto; userId: string; name?: string },
+): Promise<ForecastDto> {
+  const checked = validatePlan(assemblePlan(input.rig, input.loads, input.trip));
+  if (!checked.ok) {
+    throw new HttpError('invalid_plan', `This trip cannot be forecast yet: ${checked.envelope.error.message}`, checked.envelope.issues);
+  }
+  const plan = checked.plan;
+  const result = runEngine(plan);
+  const id = crypto.randomUUID();
+  const createdAt = new Date().toISOString();
+  const name = input.name?.trim() || `Forecast of ${formatStamp(createdAt)}`;
+  const { hourly, ...rest } = result;
+  await db
+    .insertInto('forecasts')
+    .values({
+      id,
+      crew_id: input.trip.crewId,
+      trip_id: input.trip.id,
+      rig_id: input.rig.id,
+      name,
+      plan: JSON.stringify(plan),
+      summary: JSON.stringify(result.summary),
+      result: JSON.stringify({ ...rest, hourly: packHourly(hourly) }),
+      reserve_soc_pct: input.trip.reserveSocPct,
+      created_by: input.userId,
+      created_at: createdAt,
+    })
+    .execute();
+  const created = await getForecast(db, id);
+  if (!created) throw new Error('saved forecast vanished');
+  return created;
+}
+
+function formatStamp(iso: string): string {
+  return iso.slice(0, 16).replace('T', ' ') + ' UTC';
+}
+
+const listColumns = [
+  'forecasts.id',
+  'forecasts.trip_id',
+  'forecasts.rig_id',
+  'forecasts.crew_id',
+  'forecasts.name',
+  'forecasts.summary',
+  'forecasts.reserve_soc_pct',
+  'forecasts.created_at',
+  'forecasts.created_by',
+  'user.name as creator_name',
+] as const;
+
+/** Saved forecasts of a trip, newest first, without their hourly series. */
+export async function listForecasts(db: Kysely<DB>, tripId: string): Promise<ForecastListItem[]> {
+  const rows = await db
+    .selectFrom('forecasts')
+    .leftJoin('user', 'user.id', 'forecasts.created_by')
+    .select(listColumns)
+    .where('forecasts.trip_id', '=', tripId)
+    .orderBy('forecasts.created_at', 'desc')
+    .execute();
+  return rows.map(toListItem);
+}
+
+function toListItem(r: { id: string; trip_id: string; name: string; summary: string; reserve_soc_pct: number | null; created_at: string; created_by: string | null; creator_name: string | null }): ForecastListItem {
+  return {
+    id: r.id,
+    tripId: r.trip_id,
+    name: r.name,
+    createdAt: r.created_at,
+    createdBy: r.created_by ? { id: r.created_by, name: r.creator_name ?? 'Former member' } : null,
+    summary: JSON.parse(r.summary),
+    reserveSocPct: r.reserve_soc_pct,
+  };
+}
+
+/** One saved forecast with its plan snapshot and full result, or undefined. */
+export async function getForecast(db: Kysely<DB>, id: string): Promise<(ForecastDto & { crewId: string }) | undefined> {
+  const r = await db
+    .selectFrom('forecasts')
+    .leftJoin('user', 'user.id', 'forecasts.created_by')
+    .select([...listColumns, 'forecasts.plan', 'forecasts.result'])
+    .where('forecasts.id', '=', id)
+    .executeTakeFirst();
+  if (!r) return undefined;
+  const stored = JSON.parse(r.result) as Omit<Forecast, 'hourly'> & { hourly: Columns };
+  return {
+    ...toListItem(r),
+    crewId: r.crew_id,
+    rigId: r.rig_id,
+    plan: JSON.parse(r.plan),
+    forecast: { ...stored, hourly: unpackHourly(stored.hourly) },
+  };
+}
+
+/** The row's trip id (for access checks), or undefined. */
+export async function forecastTripId(db: Kysely<DB>, id: string): Promise<string | undefined> {
+  const r = await db.selectFrom('forecasts').select('trip_id').where('id', '=', id).executeTakeFirst();
+  return r?.trip_id;
+}
+
+/** Removes a saved forecast. */
+export async function deleteForecast(db: Kysely<DB>, id: string): Promise<void> {
+  await db.deleteFrom('forecasts').where('id', '=', id).execute();
+}
+
+const CSV_COLUMNS: (keyof HourlyRow)[] = ['time', 'socPct', 'volts', 'solarWatts', 'chargeWatts', 'loadWatts', 'unmetWatts', 'curtailedWatts', 'ambientC', 'batteryC', 'sunAltitudeDeg', 'poaWm2', 'driving', 'generatorOn', 'disconnected'];
+
+/** The hourly series as CSV, with the stop's name per row. */
+export function hourlyCsv(f: Forecast): string {
+  const esc = (v: unknown) => {
+    const s = String(v);
+    const safe = /^[=+\-@\t\r]/.test(s) && !/^-?\d/.test(s) ? `'${s}` : s;
+    return /[",\n\r]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
+  };
+  const lines = [['stop', ...CSV_COLUMNS].join(',')];
+  for (const row of f.hourly) {
+    lines.push([esc(f.stops[row.stop]?.name ?? ''), ...CSV_COLUMNS.map((c) => esc(row[c]))].join(','));
+  }
+  return lines.join('\r\n') + '\r\n';
+}
