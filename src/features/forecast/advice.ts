@@ -1,0 +1,497 @@
+// Advice: the two or three changes that matter most, each with its effect measured by running the
+// engine again on a changed plan (the engine is pure and fast, so advice is never guessed).
+import {
+  forecast as runEngine,
+  prepareTrip,
+  simulatePrepared,
+  toForecast,
+  validatePlan,
+  type Forecast,
+  type PreparedTrip,
+  type ResolvedCharger,
+  type ResolvedPlan,
+} from '../../engine';
+import { inverterDcWatts, loadWattsAt, windowMask } from '../../engine/loads';
+import { formatClock, formatDay, formatRowTime, localParts } from './time';
+import { pct, reserveOf, wh } from './verdict';
+
+/** Safety cautions of product.md, shown wherever the advice touches generators, cold charging or sizing. */
+export const CAUTIONS = {
+  generator: 'Run a generator well away from windows, doors and vents, and keep a working CO alarm inside the rig.',
+  cold: 'LiFePO4 must not be charged below freezing (0 °C): keep the bank in the heated space, or use a bank with self-heating.',
+  estimate:
+    'Figures are estimates from the forecast model, not measurements. Wiring and sizing follow local codes (e.g. NEC Article 551 for RVs in the US) and a qualified electrician’s judgement.',
+} as const;
+
+/** Converter/charger amps assumed for generator advice when the plan names none (common practice: 30 A is a usual RV converter). */
+export const ASSUMED_CONVERTER_AMPS = 30;
+/** Fuel assumed for a small inverter generator at light load, L/h (trade notes: ~0.4–1 L/h; the engine's default). */
+export const ASSUMED_FUEL_LPH = 0.6;
+
+/** One load's share of the daily energy. */
+export interface LoadUse {
+  name: string;
+  /** Estimated Wh per day drawn from the DC system (inverter losses included for AC loads). */
+  whPerDay: number;
+  /** Share of all loads' energy, %. */
+  sharePct: number;
+}
+
+export type ChangeKind = 'generator' | 'no-generator' | 'shade' | 'tilt' | 'drive';
+
+/** A change to the plan and what it does to the forecast. */
+export interface AdviceChange {
+  kind: ChangeKind;
+  /** What to do, in a few words. */
+  title: string;
+  /** What it changes, in hours or % (from an engine run). */
+  effect: string;
+  /** How it was worked out. */
+  detail: string;
+  /** The safety caution that goes with it, if any. */
+  caution?: string;
+  /** True when the change keeps the whole trip above the floor and reserve. */
+  fixes: boolean;
+  /** Ranking weight (larger matters more). */
+  score: number;
+}
+
+/** A forecast warning in plain words, with its caution. */
+export interface AdviceWarning {
+  code: string;
+  title: string;
+  message: string;
+  caution?: string;
+}
+
+/** Everything the advice panel shows. */
+export interface Advice {
+  /** The three loads that use the most, largest first. */
+  topLoads: LoadUse[];
+  /** Estimated Wh per day of all loads. */
+  totalWhPerDay: number;
+  /** The two or three changes that matter most, most important first. */
+  changes: AdviceChange[];
+  warnings: AdviceWarning[];
+}
+
+// ---------------------------------------------------------------------------------------------
+// Loads
+
+/** Estimated Wh per day of each load (and the inverter's idle draw), from the plan's hours, duty and the forecast's temperatures. */
+export function loadUse(prepared: PreparedTrip): { loads: LoadUse[]; totalWhPerDay: number } {
+  const { plan, grid, n } = prepared;
+  const days = Math.max(n / 24, 1 / 24);
+  const masks = plan.loads.map((l) => windowMask(l.windows));
+  const totals = plan.loads.map(() => 0);
+  let idleWh = 0;
+  const eff = plan.inverter.efficiencyPct / 100;
+  for (let r = 0; r < n; r++) {
+    const hour = grid.localHour[r];
+    const driveDay = grid.driveDay[r] === 1;
+    let ac = 0;
+    for (let i = 0; i < plan.loads.length; i++) {
+      const l = plan.loads[i];
+      const w = loadWattsAt(l, masks[i], hour, driveDay, prepared.ambientC[r]);
+      if (l.supply === 'ac') {
+        ac += w;
+        totals[i] += w / eff;
+      } else {
+        totals[i] += w;
+      }
+    }
+    // The inverter's idle draw counts whenever it is on (inverterDcWatts adds it to the AC share).
+    idleWh += inverterDcWatts(ac, plan.inverter) - (ac > 0 ? ac / eff : 0);
+  }
+  const rows: LoadUse[] = plan.loads.map((l, i) => ({ name: l.name, whPerDay: totals[i] / days, sharePct: 0 }));
+  if (idleWh > 0) rows.push({ name: 'Inverter idle draw', whPerDay: idleWh / days, sharePct: 0 });
+  const total = rows.reduce((s, r) => s + r.whPerDay, 0);
+  for (const r of rows) r.sharePct = total > 0 ? (r.whPerDay / total) * 100 : 0;
+  rows.sort((a, b) => b.whPerDay - a.whPerDay);
+  return { loads: rows.filter((r) => r.whPerDay > 0), totalWhPerDay: total };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Measuring a change
+
+function hoursShort(f: Forecast): number {
+  let n = 0;
+  for (const r of f.hourly) if (r.unmetWatts > 0) n++;
+  return n;
+}
+
+function rowOf(f: Forecast, time: string | null): number {
+  return time === null ? -1 : f.hourly.findIndex((r) => r.time === time);
+}
+
+/** First row that falls below the reserve (or cuts off); -1 when none. */
+export function firstProblemRow(f: Forecast, reservePct: number): number {
+  const cut = rowOf(f, f.summary.firstCutoffAt);
+  const below = reservePct > f.summary.floorSocPct ? f.hourly.findIndex((r) => r.socPct < reservePct) : -1;
+  if (cut < 0) return below;
+  if (below < 0) return cut;
+  return Math.min(cut, below);
+}
+
+function isFine(f: Forecast, reservePct: number): boolean {
+  return f.summary.firstCutoffAt === null && (reservePct <= f.summary.floorSocPct || f.summary.minSocPct >= reservePct);
+}
+
+function hours(n: number): string {
+  return n === 1 ? '1 hour' : `${n} hours`;
+}
+
+/** The effect of a change, in hours or %, comparing two forecasts of the same trip. */
+export function effectOf(base: Forecast, alt: Forecast, reservePct: number): { text: string; score: number; fixes: boolean } {
+  const fixes = isFine(alt, reservePct);
+  const lowest = `lowest ${pct(alt.summary.minSocPct)} on ${formatRowTime(alt.summary.minSocAt)}`;
+  if (base.summary.firstCutoffAt) {
+    if (!alt.summary.firstCutoffAt) {
+      return { text: `No cutoff — ${lowest}.`, score: 1000 + alt.summary.minSocPct, fixes };
+    }
+    const b = hoursShort(base);
+    const a = hoursShort(alt);
+    const shift = rowOf(alt, alt.summary.firstCutoffAt) - rowOf(base, base.summary.firstCutoffAt);
+    const parts: string[] = [];
+    if (a < b) parts.push(`${hours(b - a)} less without power (${b} → ${a} hours short)`);
+    else if (a > b) parts.push(`${hours(a - b)} more without power (${b} → ${a} hours short)`);
+    if (shift > 0) parts.push(`the first cutoff comes ${hours(shift)} later, ${formatRowTime(alt.summary.firstCutoffAt)}`);
+    if (parts.length === 0) parts.push('little change: the bank still runs out at the same time');
+    const text = parts.join('; ');
+    return { text: text[0].toUpperCase() + text.slice(1) + '.', score: (b - a) * 10 + Math.max(shift, 0), fixes };
+  }
+  const diff = alt.summary.minSocPct - base.summary.minSocPct;
+  if (Math.abs(diff) < 0.5) return { text: `Little change: ${lowest}.`, score: 0, fixes };
+  const sign = diff > 0 ? '+' : '−';
+  return {
+    text: `Lowest state of charge ${pct(base.summary.minSocPct)} → ${pct(alt.summary.minSocPct)} (${sign}${Math.round(Math.abs(diff))} points).`,
+    score: diff,
+    fixes,
+  };
+}
+
+// ---------------------------------------------------------------------------------------------
+// Generator
+
+function litres(x: number): string {
+  return `${(Math.round(x * 10) / 10).toLocaleString('en-US')} L`;
+}
+
+/** The converter/charger a generator would feed: the plan's generator, else its shore charger, else an assumed one. */
+function generatorCharger(plan: ResolvedPlan): { amps: number; fuel: number; source: string } {
+  const gen = plan.chargers.find((c) => c.kind === 'generator');
+  if (gen) return { amps: gen.amps, fuel: gen.fuelLitresPerHour, source: `the rig’s ${gen.amps} A converter/charger` };
+  const shore = plan.chargers.filter((c) => c.kind === 'shore').reduce((s, c) => s + c.amps, 0);
+  if (shore > 0) return { amps: shore, fuel: ASSUMED_FUEL_LPH, source: `the rig’s ${shore} A converter/charger (the one shore power uses)` };
+  return { amps: ASSUMED_CONVERTER_AMPS, fuel: ASSUMED_FUEL_LPH, source: `a typical ${ASSUMED_CONVERTER_AMPS} A converter/charger (assumed: the plan names none)` };
+}
+
+/** Runs the plan with a generator allowed only in the given rows, started whenever the bank is below full. */
+function withForcedGenerator(prepared: PreparedTrip, rows: number[], amps: number, fuel: number): Forecast {
+  const mask = new Uint8Array(prepared.n);
+  for (const r of rows) mask[r] = 1;
+  const forced: ResolvedCharger = { kind: 'generator', amps, startSocPct: 99.9, stopSocPct: 100, fuelLitresPerHour: fuel };
+  const chargers = [...prepared.plan.chargers.filter((c) => c.kind !== 'generator'), forced];
+  // The prepared trip's generator mask says where the plan's generator may run; narrowing it to
+  // chosen rows runs "N hours on that morning" through the engine's own battery loop.
+  const narrowed: PreparedTrip = { ...prepared, generatorAllowed: mask };
+  return toForecast(narrowed, simulatePrepared(narrowed, { chargers }));
+}
+
+/** Rows of each local day where the plan allows a generator (its stop's hours, no hookup, not driving), by day. */
+function generatorWindows(prepared: PreparedTrip, beforeRow: number): number[][] {
+  const days = new Map<number, number[]>();
+  for (let r = 0; r < Math.min(beforeRow, prepared.n); r++) {
+    if (prepared.generatorAllowed[r] !== 1) continue;
+    const d = prepared.grid.localDay[r];
+    const list = days.get(d) ?? [];
+    list.push(r);
+    days.set(d, list);
+  }
+  return [...days.values()];
+}
+
+function generatorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: number): AdviceChange | null {
+  const plan = prepared.plan;
+  const problem = firstProblemRow(base, reservePct);
+  if (problem < 0) {
+    return {
+      kind: 'no-generator',
+      title: 'No generator needed',
+      effect: `The bank stays above the ${pct(reservePct)} ${reservePct > base.summary.floorSocPct ? 'reserve' : 'floor'} all trip — lowest ${pct(base.summary.minSocPct)} on ${formatRowTime(base.summary.minSocAt)}.`,
+      detail: 'From the forecast as planned.',
+      fixes: true,
+      score: 500,
+    };
+  }
+
+  // A plan with its own generator: the lever is when it starts (its start level), not whether it runs.
+  const own = plan.chargers.find((c) => c.kind === 'generator');
+  if (own) return ownGeneratorAdvice(prepared, base, reservePct, own);
+
+  const { amps, fuel, source } = generatorCharger(plan);
+  if (generatorWindows(prepared, problem).length === 0) {
+    return {
+      kind: 'generator',
+      title: 'A generator comes too late',
+      effect: `The bank runs low on ${formatRowTime(base.hourly[problem].time)}, before any allowed generator hours.`,
+      detail: 'Start the trip with a fuller bank, or allow generator hours earlier at this stop.',
+      caution: CAUTIONS.generator,
+      fixes: false,
+      score: 1,
+    };
+  }
+
+  // Greedy and measured: fix the first trouble with the fewest whole hours on the last allowed
+  // morning before it (or the one before that), then the next trouble, until the trip is fine.
+  const runs = new Map<number, { rows: number[]; hours: number }>();
+  const forcedRows = () => [...runs.values()].flatMap((r) => r.rows.slice(0, r.hours));
+  let current = base;
+  for (let step = 0; step < 8 && !isFine(current, reservePct); step++) {
+    const p = firstProblemRow(current, reservePct);
+    const windows = generatorWindows(prepared, p);
+    let fixed = false;
+    for (let back = 1; back <= Math.min(2, windows.length) && !fixed; back++) {
+      const rows = windows[windows.length - back];
+      const day = prepared.grid.localDay[rows[0]];
+      const had = runs.get(day)?.hours ?? 0;
+      for (let h = had + 1; h <= rows.length; h++) {
+        runs.set(day, { rows, hours: h });
+        const alt = withForcedGenerator(prepared, forcedRows(), amps, fuel);
+        const p2 = firstProblemRow(alt, reservePct);
+        if (p2 < 0 || p2 > p) {
+          current = alt;
+          fixed = true;
+          break;
+        }
+      }
+      if (!fixed) {
+        if (had > 0) runs.set(day, { rows, hours: had });
+        else runs.delete(day);
+      }
+    }
+    if (!fixed) break;
+  }
+
+  if (runs.size > 0 && isFine(current, reservePct)) {
+    const e = effectOf(base, current, reservePct);
+    const list = [...runs.values()]
+      .sort((a, b) => a.rows[0] - b.rows[0])
+      .map((r) => {
+        const t = base.hourly[r.rows[0]].time;
+        return `${r.hours} h on ${formatDay(localParts(t)?.date ?? '')} from ${formatClock(t)}`;
+      });
+    const total = [...runs.values()].reduce((s, r) => s + r.hours, 0);
+    const ran = current.summary.generatorHours;
+    return {
+      kind: 'generator',
+      title: `Run a generator ${joinAnd(list)}`,
+      effect: `${e.text} About ${litres(current.summary.generatorLitres)} of fuel${ran < total ? ` (it runs ${ran} h: the bank is full sooner)` : ''}.${current.summary.minSocPct < reservePct + 5 ? ' That leaves little margin: an extra hour gives room for error.' : ''}`,
+      detail: `Through ${source}; worked out by running the forecast again with the generator on for those hours${runs.size > 1 ? ' (one morning is not enough)' : ''}.`,
+      caution: CAUTIONS.generator,
+      fixes: true,
+      score: e.score + 100 - total,
+    };
+  }
+
+  const all = generatorWindows(prepared, prepared.n).flat();
+  const alt = withForcedGenerator(prepared, all, amps, fuel);
+  const e = effectOf(base, alt, reservePct);
+  return notEnough(e, `Through ${source}, in every allowed generator hour.`);
+}
+
+function joinAnd(items: string[]): string {
+  if (items.length <= 1) return items.join('');
+  return `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
+}
+
+function notEnough(e: { text: string; score: number }, detail: string): AdviceChange {
+  return {
+    kind: 'generator',
+    title: 'A generator alone is not enough',
+    effect: `Even running in every allowed hour: ${e.text[0].toLowerCase()}${e.text.slice(1)}`,
+    detail: `${detail} The bank runs low where no generator may run (at night, or while driving): it needs more capacity, more charging or fewer loads.`,
+    caution: CAUTIONS.generator,
+    fixes: false,
+    score: e.score,
+  };
+}
+
+function ownGeneratorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: number, own: ResolvedCharger): AdviceChange | null {
+  const plan = prepared.plan;
+  const withStart = (start: number) => {
+    const stop = Math.max(own.stopSocPct, Math.min(100, start + 20));
+    const chargers = plan.chargers.map((c) => (c.kind === 'generator' ? { ...c, startSocPct: start, stopSocPct: stop } : c));
+    return { stop, alt: toForecast(prepared, simulatePrepared(prepared, { chargers })) };
+  };
+  for (let start = Math.ceil((own.startSocPct + 1) / 5) * 5; start <= 95; start += 5) {
+    const { stop, alt } = withStart(start);
+    if (!isFine(alt, reservePct)) continue;
+    const e = effectOf(base, alt, reservePct);
+    const first = alt.hourly.find((r) => r.generatorOn);
+    return {
+      kind: 'generator',
+      title: `Start the generator below ${start} % instead of ${Math.round(own.startSocPct)} %`,
+      effect: `${e.text} It would run about ${alt.summary.generatorHours} h in all (${litres(alt.summary.generatorLitres)} of fuel)${first ? `, first on ${formatRowTime(first.time)}` : ''}.`,
+      detail: `Same generator hours at each stop; it stops at ${stop} %. Worked out by running the forecast again.`,
+      caution: CAUTIONS.generator,
+      fixes: true,
+      score: e.score,
+    };
+  }
+  if (own.startSocPct >= 95) return null;
+  const e = effectOf(base, withStart(95).alt, reservePct);
+  return notEnough(e, `With the rig’s generator starting below 95 %.`);
+}
+
+// ---------------------------------------------------------------------------------------------
+// Shade and drives
+
+function shadeAdvice(plan: ResolvedPlan, base: Forecast, reservePct: number): AdviceChange | null {
+  if (!plan.arrays.some((a) => a.ratedWatts > 0)) return null;
+  const shaded = plan.stops.filter((s) => s.shadePct > 0);
+  const arrayShade = plan.arrays.some((a) => a.shadePct > 0);
+  if (shaded.length === 0 && !arrayShade) return null;
+  const open: ResolvedPlan = {
+    ...plan,
+    stops: plan.stops.map((s) => ({ ...s, shadePct: 0 })),
+    arrays: plan.arrays.map((a) => ({ ...a, shadePct: 0 })),
+  };
+  const alt = runEngine(open);
+  const e = effectOf(base, alt, reservePct);
+  if (e.score <= 0 && !e.fixes) return null;
+  const where = shaded.length > 0 ? shaded.map((s) => `${Math.round(s.shadePct)} % at ${s.name}`).join(', ') : 'on the panels';
+  return {
+    kind: 'shade',
+    title: 'Camp where the panels see open sky',
+    effect: e.text,
+    detail: `The plan has shade ${where}; worked out by running the forecast again with no shade.`,
+    fixes: e.fixes,
+    score: e.score,
+  };
+}
+
+function tiltAdvice(plan: ResolvedPlan, base: Forecast, reservePct: number): AdviceChange | null {
+  const flat = plan.arrays.filter((a) => a.ratedWatts > 0 && a.aim === 'fixed' && a.tiltDeg < 5);
+  if (flat.length === 0) return null;
+  const lat = plan.stops[0]?.lat ?? 0;
+  const tiltDeg = Math.min(60, Math.max(10, Math.round(Math.abs(lat))));
+  const azimuthDeg = lat >= 0 ? 180 : 0;
+  const tilted: ResolvedPlan = {
+    ...plan,
+    arrays: plan.arrays.map((a) => (flat.includes(a) ? { ...a, tiltDeg, azimuthDeg } : a)),
+  };
+  const alt = runEngine(tilted);
+  const e = effectOf(base, alt, reservePct);
+  if (e.score <= 0 && !e.fixes) return null;
+  const gain = base.summary.solarWh > 0 ? Math.round(((alt.summary.solarWh - base.summary.solarWh) / base.summary.solarWh) * 100) : 0;
+  return {
+    kind: 'tilt',
+    title: `Tilt the flat panels about ${tiltDeg}° toward the ${lat >= 0 ? 'south' : 'north'}`,
+    effect: `${e.text}${gain > 0 ? ` Solar harvest +${gain} %.` : ''}`,
+    detail: `${flat.map((a) => a.name).join(', ')} lie flat; worked out by running the forecast again with the panels tilted. Tilt mounts must be secured before driving.`,
+    fixes: e.fixes,
+    score: e.score,
+  };
+}
+
+function driveAdvice(plan: ResolvedPlan, base: Forecast, prepared: PreparedTrip, reservePct: number): AdviceChange | null {
+  const alternator = plan.chargers.filter((c) => c.kind === 'alternator').reduce((s, c) => s + c.amps, 0);
+  if (alternator <= 0) return null;
+  const problem = firstProblemRow(base, reservePct);
+  if (problem < 0) return null;
+  const { grid } = prepared;
+  const driveDates = new Set(plan.drives.map((d) => d.date));
+  // The last 10:00 before the trouble, at a camp day with room for a two-hour drive.
+  for (let r = problem - 2; r >= 0; r--) {
+    if (grid.localHour[r] !== 10 || grid.driving[r] === 1 || grid.driving[r + 1] === 1) continue;
+    const p = localParts(grid.time[r]);
+    if (!p || driveDates.has(p.date)) continue;
+    const drive = { date: p.date, startHour: 10, hours: 2 };
+    const v = validatePlan({ ...plan, drives: [...plan.drives, drive].sort((a, b) => a.date.localeCompare(b.date)) });
+    if (!v.ok) return null;
+    const alt = runEngine(v.plan);
+    const e = effectOf(base, alt, reservePct);
+    if (e.score <= 0 && !e.fixes) return null;
+    return {
+      kind: 'drive',
+      title: `Drive 2 h on ${formatDay(p.date)} from 10:00`,
+      effect: e.text,
+      detail: `The ${alternator} A DC-DC charger charges while the engine runs (a run to town and back counts); that day also counts as a drive day for loads.`,
+      fixes: e.fixes,
+      score: e.score,
+    };
+  }
+  return null;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Warnings
+
+function warningsOf(forecast: Forecast): AdviceWarning[] {
+  const out: AdviceWarning[] = [];
+  const byCode = new Map<string, Forecast['warnings']>();
+  for (const w of forecast.warnings) {
+    const list = byCode.get(w.code) ?? [];
+    list.push(w);
+    byCode.set(w.code, list);
+  }
+  const cold = byCode.get('cold-charge-blocked');
+  if (cold && cold.length > 0) {
+    out.push({
+      code: 'cold-charge-blocked',
+      title: 'The bank refuses charge in the cold',
+      message: `In ${hours(forecast.summary.coldBlockedHours || cold.length)} the LiFePO4 bank is below 0 °C and takes no charge, first on ${formatRowTime(cold[0].at)}; the panels and chargers still run the loads.`,
+      caution: CAUTIONS.cold,
+    });
+  }
+  const assumed = byCode.get('weather-assumed');
+  if (assumed && assumed.length > 0) {
+    const dates = [...new Set(assumed.map((w) => localParts(w.at)?.date ?? w.at))].map(formatDay);
+    out.push({
+      code: 'weather-assumed',
+      title: 'Weather assumed',
+      message: `No weather was given for ${dates.join(', ')}: the forecast assumes 4 oktas of cloud, a high of 20 °C and a low of 10 °C. Add the expected weather for a truer answer.`,
+    });
+  }
+  for (const w of byCode.get('weather-ignored') ?? []) out.push({ code: w.code, title: 'Weather not used', message: w.message });
+  const volt = byCode.get('voltage-cutoff');
+  if (volt && volt.length > 0) {
+    out.push({ code: 'voltage-cutoff', title: 'Low-voltage cutoff', message: `${volt[0].message} (${formatRowTime(volt[0].at)})` });
+  }
+  return out;
+}
+
+// ---------------------------------------------------------------------------------------------
+
+/** The advice for a forecast: biggest loads, the two or three changes that matter most, and warnings with their cautions. */
+export function advise(plan: ResolvedPlan, forecast: Forecast, reserveSocPct?: number | null): Advice {
+  const reservePct = reserveOf(forecast, plan, reserveSocPct);
+  const prepared = prepareTrip(plan);
+  const { loads, totalWhPerDay } = loadUse(prepared);
+  const candidates: AdviceChange[] = [];
+  const tryAdd = (fn: () => AdviceChange | null) => {
+    try {
+      const c = fn();
+      if (c) candidates.push(c);
+    } catch {
+      // A variant the engine refuses is advice we cannot measure: leave it out.
+    }
+  };
+  tryAdd(() => generatorAdvice(prepared, forecast, reservePct));
+  tryAdd(() => shadeAdvice(plan, forecast, reservePct));
+  tryAdd(() => tiltAdvice(plan, forecast, reservePct));
+  tryAdd(() => driveAdvice(plan, forecast, prepared, reservePct));
+  candidates.sort((a, b) => b.score - a.score);
+  return {
+    topLoads: loads.slice(0, 3),
+    totalWhPerDay,
+    changes: candidates.slice(0, 3),
+    warnings: warningsOf(forecast),
+  };
+}
+
+/** "430 Wh/day" for a load row. */
+export function whPerDay(x: number): string {
+  return `${wh(x)}/day`;
+}

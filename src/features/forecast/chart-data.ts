@@ -1,0 +1,132 @@
+// Pure helpers that turn a forecast into what the charts draw and what their text summaries say.
+// The x axis is hours since the forecast's start (rows are exactly one hour apart, whatever the
+// zones), so a move between zones or a DST change never bends the line.
+import type { Forecast, HourlyRow, ResolvedPlan } from '../../engine';
+import { formatDay, formatRowTime, localParts } from './time';
+import { pct, reserveOf, stopNameAt, wh } from './verdict';
+
+/** Colours of ux.md ("Charts"). */
+export const COLORS = {
+  soc: '#2F3E55',
+  night: '#2F3E55',
+  reserveFill: '#E6D8C1',
+  reserveEdge: '#8A7552',
+  cutoff: '#D9642E',
+  cutoffText: '#A4341B',
+  loads: '#55708F',
+  solar: '#F2B73F',
+  charging: '#4F7F58',
+  compare: '#D9642E',
+  grid: '#E6D8C1',
+  axis: '#4A6280',
+} as const;
+
+/** One point of the SOC line: `x` hours after the start; `row` is the hour that ends there (−1 for the start). */
+export interface SocPoint {
+  x: number;
+  soc: number;
+  row: number;
+}
+
+/** The SOC line: the starting SOC at x = 0, then each hour's end-of-hour SOC at x = i + 1. */
+export function socSeries(f: Forecast): SocPoint[] {
+  const out: SocPoint[] = [{ x: 0, soc: f.summary.startSocPct, row: -1 }];
+  f.hourly.forEach((r, i) => out.push({ x: i + 1, soc: r.socPct, row: i }));
+  return out;
+}
+
+/** Dark hours (sun at or below the horizon at the hour's midpoint), merged into bands [x1, x2]. */
+export function nightBands(f: Forecast): { x1: number; x2: number }[] {
+  const bands: { x1: number; x2: number }[] = [];
+  f.hourly.forEach((r, i) => {
+    if (r.sunAltitudeDeg > 0) return;
+    const last = bands[bands.length - 1];
+    if (last && last.x2 === i) last.x2 = i + 1;
+    else bands.push({ x1: i, x2: i + 1 });
+  });
+  return bands;
+}
+
+/** The stretch of hours each stop owns, in order (a stop may own none). */
+export function stopSegments(f: Forecast, plan: ResolvedPlan): { name: string; x1: number; x2: number }[] {
+  const segs: { name: string; x1: number; x2: number; stop: number }[] = [];
+  f.hourly.forEach((r, i) => {
+    const last = segs[segs.length - 1];
+    if (last && last.stop === r.stop) last.x2 = i + 1;
+    else segs.push({ name: stopNameAt(f, plan, i), x1: i, x2: i + 1, stop: r.stop });
+  });
+  return segs.map(({ name, x1, x2 }) => ({ name, x1, x2 }));
+}
+
+/** Drive hours merged into bands. */
+export function driveBands(f: Forecast): { x1: number; x2: number }[] {
+  const bands: { x1: number; x2: number }[] = [];
+  f.hourly.forEach((r, i) => {
+    if (!r.driving) return;
+    const last = bands[bands.length - 1];
+    if (last && last.x2 === i) last.x2 = i + 1;
+    else bands.push({ x1: i, x2: i + 1 });
+  });
+  return bands;
+}
+
+/** Ticks at local midnights ("Fri 22"), thinned to at most `maxTicks`. */
+export function dayTicks(f: Forecast, maxTicks = 8): { x: number; label: string }[] {
+  const all: { x: number; label: string }[] = [];
+  f.hourly.forEach((r, i) => {
+    const p = localParts(r.time);
+    if (p && p.hour === 0) all.push({ x: i, label: `${formatDay(p.date).split(' ').slice(0, 2).join(' ')}` });
+  });
+  if (all.length === 0 && f.hourly.length > 0) {
+    const p = localParts(f.hourly[0].time);
+    if (p) all.push({ x: 0, label: formatDay(p.date).split(' ').slice(0, 2).join(' ') });
+  }
+  const step = Math.max(1, Math.ceil(all.length / Math.max(1, maxTicks)));
+  return all.filter((_, i) => i % step === 0);
+}
+
+/** Where the cutoff marker goes: the start of the hour in which the bank first disconnects. */
+export function cutoffX(f: Forecast): number | null {
+  if (!f.summary.firstCutoffAt) return null;
+  const i = f.hourly.findIndex((r) => r.time === f.summary.firstCutoffAt);
+  return i < 0 ? null : i;
+}
+
+/** The one-paragraph text summary of the SOC chart (its accessible description). */
+export function socSummaryText(f: Forecast, plan: ResolvedPlan, reserveSocPct?: number | null): string {
+  const s = f.summary;
+  const reserve = reserveOf(f, plan, reserveSocPct);
+  const first = f.hourly[0];
+  const last = f.hourly[f.hourly.length - 1];
+  const span = first && last ? `from ${formatRowTime(first.time)} to ${formatRowTime(last.time)}` : '';
+  const parts = [
+    `State of charge ${span}: starts at ${pct(s.startSocPct)}, lowest ${pct(s.minSocPct)} on ${formatRowTime(s.minSocAt)}, ends at ${pct(s.endSocPct)}.`,
+    `Reserve band up to ${pct(reserve)}.`,
+    s.firstCutoffAt
+      ? `First cutoff on ${formatRowTime(s.firstCutoffAt)} at ${stopNameAt(f, plan, Math.max(0, f.hourly.findIndex((r) => r.time === s.firstCutoffAt)))}.`
+      : 'No cutoff.',
+  ];
+  return parts.join(' ');
+}
+
+/** Text summary of the daily energy chart. */
+export function daysSummaryText(f: Forecast): string {
+  if (f.days.length === 0) return 'No days to show.';
+  const worst = f.days.reduce((a, b) => (b.netWh < a.netWh ? b : a));
+  return `Over ${f.days.length} days the loads use ${wh(f.summary.loadWh)}; solar delivers ${wh(f.summary.solarWh)} and other charging ${wh(f.summary.chargeWh)}. The hardest day is ${formatDay(worst.date)}, ${wh(worst.netWh)} net.`;
+}
+
+/** Rows of one local day (by the row's own local date). */
+export function rowsOfDay(f: Forecast, date: string): { row: HourlyRow; index: number }[] {
+  const out: { row: HourlyRow; index: number }[] = [];
+  f.hourly.forEach((row, index) => {
+    if (localParts(row.time)?.date === date) out.push({ row, index });
+  });
+  return out;
+}
+
+/** The day to open the hourly flow chart on: the day of the first cutoff, else of the lowest SOC. */
+export function defaultDay(f: Forecast): string {
+  const at = f.summary.firstCutoffAt ?? f.summary.minSocAt;
+  return localParts(at)?.date ?? f.days[0]?.date ?? '';
+}

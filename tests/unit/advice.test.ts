@@ -1,0 +1,215 @@
+// Advice, checked with real engine runs on small plans whose answers can be worked out by hand
+// from forecast-engine.md: coulomb counting at the nominal voltage, Peukert exponent 1, full
+// capacity at or above 25 °C, charger watts = amps × nominal volts, sources serve the hour's loads
+// first, LiFePO4 charge efficiency 99 %, the generator's default fuel 0.6 L/h.
+import { describe, expect, it } from 'vitest';
+import { forecast, validatePlan, type Plan, type ResolvedPlan } from '../../src/engine';
+import { advise, ASSUMED_CONVERTER_AMPS, CAUTIONS, effectOf, loadUse } from '../../src/features/forecast/advice';
+import { prepareTrip } from '../../src/engine';
+
+function resolve(plan: Plan): ResolvedPlan {
+  const v = validatePlan(plan);
+  if (!v.ok) throw new Error(JSON.stringify(v.envelope));
+  return v.plan;
+}
+
+const warmNoSunStop = (over: Partial<NonNullable<Plan['stops']>[number]> = {}) => ({
+  name: 'Test camp',
+  lat: 35,
+  lon: -106,
+  timeZone: 'America/Denver',
+  arrive: '2027-10-21',
+  nights: 2,
+  weather: [{ date: '2027-10-21', cloudOktas: 0, highC: 30, lowC: 30 }],
+  ...over,
+});
+
+describe('advise: generator hours', () => {
+  // 100 Ah LiFePO4, 12.8 V, floor 12 %, one 38.4 W (3 A) load, no panels, two nights from Thu 15:00.
+  // The bank loses 3 points an hour: at 19:00 Fri it has 13 % left, so it cuts off in the 20:00 hour.
+  // The last generator hours before that are Fri 08:00–20:00 (the stop's default window), where the
+  // bank is at 100 − 3 × 17 = 49 %. A 30 A converter/charger (384 W) serves the 38.4 W load and puts
+  // 27 A into the bank, 26.7 points an hour after the 99 % charge efficiency:
+  //   1 h → 75.7 %, then 26 hours × 3 points to the trip's end (11:00 Sat) → below the floor: cutoff;
+  //   2 h → full (100 %), then 25 hours × 3 points → 25 % at the end: no cutoff.
+  const plan = resolve({
+    bank: { chemistry: 'lifepo4', nominalVolts: 12.8, capacityAh: 100, initialSocPct: 100, floorSocPct: 12, peukertExponent: 1 },
+    loads: [{ name: 'Test load', watts: 38.4 }],
+    stops: [warmNoSunStop()],
+  });
+  const base = forecast(plan);
+
+  it('the plan as given runs out on Friday at 20:00', () => {
+    expect(base.summary.firstCutoffAt).toBe('2027-10-22T20:00-06:00');
+  });
+
+  it('finds the smallest whole number of hours on the morning before the cutoff: 2 h on Fri 22 Oct from 08:00', () => {
+    const advice = advise(plan, base);
+    const gen = advice.changes.find((c) => c.kind === 'generator');
+    expect(gen).toBeDefined();
+    expect(gen!.title).toBe('Run a generator 2 h on Fri 22 Oct from 08:00');
+    expect(gen!.fixes).toBe(true);
+    // 2 h × 0.6 L/h; lowest after the fix is the last hour: 100 − 25 × 3 = 25 %.
+    expect(gen!.effect).toContain('No cutoff — lowest 25 % on Sat 23 Oct, 10:00');
+    expect(gen!.effect).toContain('1.2 L');
+    expect(gen!.detail).toContain(`${ASSUMED_CONVERTER_AMPS} A converter/charger`);
+    expect(gen!.caution).toBe(CAUTIONS.generator);
+    expect(gen!.caution).toMatch(/windows.*vents.*CO alarm/);
+  });
+
+  it('uses the rig’s own converter/charger when the plan has shore power: a 60 A one needs only 1 h', () => {
+    // 60 A × 12.8 V = 768 W: 57 A into the bank, 56.4 points in one hour → 100 % by 09:00 → same 25 % end.
+    const withShore = resolve({ ...plan, chargers: [{ kind: 'shore', amps: 60 }] });
+    const advice = advise(withShore, forecast(withShore));
+    const gen = advice.changes.find((c) => c.kind === 'generator');
+    expect(gen!.title).toBe('Run a generator 1 h on Fri 22 Oct from 08:00');
+    expect(gen!.detail).toContain('60 A converter/charger');
+  });
+
+  it('says no generator is needed when the bank lasts', () => {
+    const light = resolve({ ...plan, loads: [{ name: 'Test load', watts: 12.8 }] });
+    const f = forecast(light);
+    expect(f.summary.firstCutoffAt).toBeNull();
+    const advice = advise(light, f);
+    expect(advice.changes[0].kind).toBe('no-generator');
+    expect(advice.changes[0].effect).toContain('stays above the 12 % floor');
+  });
+
+  it('says when a generator alone cannot help: the bank runs out in the first night, before any allowed hours', () => {
+    // 128 W = 10 A = 10 points an hour from 15:00; generator hours end at 20:00 (the default window).
+    // Even full at 20:00 the bank runs 8.8 hours to the 12 % floor → cutoff before 05:00.
+    const heavy = resolve({ ...plan, loads: [{ name: 'Night heater fan', watts: 128, windows: [[20, 8]] }] });
+    const f = forecast(heavy);
+    expect(f.summary.firstCutoffAt).not.toBeNull();
+    const gen = advise(heavy, f).changes.find((c) => c.kind === 'generator');
+    expect(gen).toBeDefined();
+    expect(gen!.fixes).toBe(false);
+  });
+});
+
+describe('advise: which loads use the most', () => {
+  it('ranks loads by Wh per day with their shares, AC loads through the inverter with its idle draw', () => {
+    // Arriving at 11:00 for 2 nights makes exactly 48 hours (to 11:00 two days later), so each
+    // window runs twice and Wh/day is exact. DC: 10 W all day = 240 Wh; 100 W for 2 h = 200 Wh;
+    // 50 W for 1 h = 50 Wh. AC: 90 W for 1 h through a 90 % inverter = 100 Wh, plus its 12 W idle
+    // draw in that hour = 12 Wh. Total 602 Wh/day.
+    const plan = resolve({
+      bank: { chemistry: 'lifepo4', capacityAh: 1000, peukertExponent: 1 },
+      inverter: { efficiencyPct: 90, idleWatts: 12 },
+      loads: [
+        { name: 'Pump', watts: 50, windows: [[7, 8]] },
+        { name: 'Standby', watts: 10 },
+        { name: 'Kettle', watts: 90, supply: 'ac', windows: [[9, 10]] },
+        { name: 'Lights', watts: 100, windows: [[18, 20]] },
+      ],
+      stops: [warmNoSunStop({ arriveHour: 11 })],
+    });
+    const use = loadUse(prepareTrip(plan));
+    expect(use.totalWhPerDay).toBeCloseTo(602, 6);
+    expect(use.loads.map((l) => l.name)).toEqual(['Standby', 'Lights', 'Kettle', 'Pump', 'Inverter idle draw']);
+    expect(use.loads[0].whPerDay).toBeCloseTo(240, 6);
+    expect(use.loads[2].whPerDay).toBeCloseTo(100, 6);
+    expect(use.loads[4].whPerDay).toBeCloseTo(12, 6);
+    expect(use.loads[0].sharePct).toBeCloseTo((240 / 602) * 100, 6);
+
+    const advice = advise(plan, forecast(plan));
+    expect(advice.topLoads.map((l) => l.name)).toEqual(['Standby', 'Lights', 'Kettle']);
+  });
+
+  it('counts a furnace blower more on a cold trip (heating response below its setpoint)', () => {
+    const stop = (lowC: number, highC: number) => warmNoSunStop({ arriveHour: 11, weather: [{ date: '2027-10-21', cloudOktas: 0, highC, lowC }] });
+    const loads: Plan['loads'] = [{ name: 'Furnace blower', watts: 36, response: 'heating', setpointC: 18 }];
+    const bank = { chemistry: 'lifepo4' as const, capacityAh: 1000 };
+    const mild = loadUse(prepareTrip(resolve({ bank, loads, stops: [stop(12, 24)] })));
+    const cold = loadUse(prepareTrip(resolve({ bank, loads, stops: [stop(-8, 4)] })));
+    expect(cold.totalWhPerDay).toBeGreaterThan(mild.totalWhPerDay * 2);
+  });
+});
+
+describe('advise: shade, tilt and drives, measured by rerunning the engine', () => {
+  const sunny = (over: Partial<Plan> = {}, stopOver: Partial<NonNullable<Plan['stops']>[number]> = {}): ResolvedPlan =>
+    resolve({
+      bank: { chemistry: 'lifepo4', capacityAh: 100 },
+      arrays: [{ name: 'Roof', ratedWatts: 200 }],
+      loads: [{ name: 'Fridge', watts: 45, dutyPct: 40 }, { name: 'Parasitic draw', watts: 13 }],
+      stops: [warmNoSunStop({ nights: 3, shadePct: 50, weather: [{ date: '2027-10-21', cloudOktas: 2, highC: 20, lowC: 5 }], ...stopOver })],
+      ...over,
+    });
+
+  it('reports what camping in the open changes, with the same figures as a forecast without shade', () => {
+    const plan = sunny();
+    const base = forecast(plan);
+    const open = forecast({ ...plan, stops: plan.stops.map((s) => ({ ...s, shadePct: 0 })) });
+    const shade = advise(plan, base).changes.find((c) => c.kind === 'shade');
+    expect(shade).toBeDefined();
+    expect(shade!.effect).toBe(effectOf(base, open, plan.bank.floorSocPct).text);
+    expect(shade!.detail).toContain('50 % at Test camp');
+    expect(open.summary.solarWh).toBeGreaterThan(base.summary.solarWh);
+  });
+
+  it('suggests tilting flat panels, and says nothing about shade when there is none', () => {
+    const plan = sunny({}, { shadePct: 0 });
+    const advice = advise(plan, forecast(plan));
+    expect(advice.changes.some((c) => c.kind === 'shade')).toBe(false);
+    const tilt = advice.changes.find((c) => c.kind === 'tilt');
+    expect(tilt?.title).toBe('Tilt the flat panels about 35° toward the south');
+  });
+
+  it('suggests a drive before the cutoff when the rig has a DC-DC charger, and its effect is an engine rerun', () => {
+    const plan = resolve({
+      bank: { chemistry: 'lifepo4', nominalVolts: 12.8, capacityAh: 100, floorSocPct: 12, peukertExponent: 1 },
+      chargers: [{ kind: 'alternator', amps: 30 }],
+      loads: [{ name: 'Test load', watts: 38.4 }],
+      stops: [warmNoSunStop()],
+    });
+    const base = forecast(plan);
+    const drive = advise(plan, base).changes.find((c) => c.kind === 'drive');
+    expect(drive?.title).toBe('Drive 2 h on Fri 22 Oct from 10:00');
+    const withDrive = resolve({ ...plan, drives: [{ date: '2027-10-22', startHour: 10, hours: 2 }] });
+    expect(drive!.effect).toBe(effectOf(base, forecast(withDrive), plan.bank.floorSocPct).text);
+  });
+
+  it('keeps to the three changes that matter most, most important first', () => {
+    const plan = resolve({
+      bank: { chemistry: 'lifepo4', capacityAh: 60 },
+      arrays: [{ name: 'Roof', ratedWatts: 100 }],
+      chargers: [{ kind: 'alternator', amps: 20 }],
+      loads: [{ name: 'Fridge', watts: 45, dutyPct: 40 }, { name: 'Parasitic draw', watts: 13 }, { name: 'Laptop', watts: 60, supply: 'ac', windows: [[9, 17]] }],
+      stops: [warmNoSunStop({ nights: 4, shadePct: 40, weather: [{ date: '2027-10-21', cloudOktas: 6, highC: 15, lowC: 3 }] })],
+    });
+    const advice = advise(plan, forecast(plan));
+    expect(advice.changes.length).toBeGreaterThan(0);
+    expect(advice.changes.length).toBeLessThanOrEqual(3);
+    const scores = advice.changes.map((c) => c.score);
+    expect([...scores].sort((a, b) => b - a)).toEqual(scores);
+  });
+});
+
+describe('advise: warnings with their cautions', () => {
+  it('explains cold-blocked charging of a LiFePO4 bank with the freezing caution', () => {
+    // Sun on the panels while the air (and so the bank) is below 0 °C: the lockout refuses the charge.
+    const plan = resolve({
+      bank: { chemistry: 'lifepo4', capacityAh: 100, initialSocPct: 60 },
+      arrays: [{ name: 'Roof', ratedWatts: 400 }],
+      loads: [{ name: 'Parasitic draw', watts: 13 }],
+      stops: [warmNoSunStop({ weather: [{ date: '2027-10-21', cloudOktas: 0, highC: -2, lowC: -15 }] })],
+    });
+    const f = forecast(plan);
+    expect(f.summary.coldBlockedHours).toBeGreaterThan(0);
+    const w = advise(plan, f).warnings.find((x) => x.code === 'cold-charge-blocked');
+    expect(w?.message).toContain(`${f.summary.coldBlockedHours} hours`);
+    expect(w?.caution).toBe(CAUTIONS.cold);
+    expect(w?.caution).toMatch(/below freezing/);
+  });
+
+  it('says when the weather was assumed', () => {
+    const plan = resolve({
+      bank: { chemistry: 'lifepo4', capacityAh: 100 },
+      loads: [{ name: 'Parasitic draw', watts: 13 }],
+      stops: [warmNoSunStop({ weather: [] })],
+    });
+    const w = advise(plan, forecast(plan)).warnings.find((x) => x.code === 'weather-assumed');
+    expect(w?.message).toContain('Thu 21 Oct');
+    expect(w?.message).toContain('4 oktas');
+  });
+});

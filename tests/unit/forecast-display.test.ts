@@ -1,0 +1,90 @@
+// The pure display helpers of the forecast views: local times, chart series, CSV.
+import Papa from 'papaparse';
+import { describe, expect, it } from 'vitest';
+import { demoPlan, forecast, validatePlan } from '../../src/engine';
+import { cutoffX, dayTicks, nightBands, socSeries, socSummaryText, stopSegments } from '../../src/features/forecast/chart-data';
+import { CSV_COLUMNS, forecastCsv } from '../../src/features/forecast/csv';
+import { formatDay, formatOffset, formatRowTime, formatRowTimeWithZone, instantOf, localParts } from '../../src/features/forecast/time';
+
+const checked = validatePlan(demoPlan());
+if (!checked.ok) throw new Error('demo plan');
+const plan = checked.plan;
+const demo = forecast(plan);
+
+describe('local times from the row’s own offset', () => {
+  it('reads the wall clock from the string', () => {
+    expect(localParts('2027-10-23T03:00-06:00')).toMatchObject({ date: '2027-10-23', hour: 3, minute: 0, offset: '-06:00' });
+    expect(localParts('not a time')).toBeNull();
+  });
+
+  it('formats days and times the way the verdict says them', () => {
+    expect(formatDay('2027-10-23')).toBe('Sat 23 Oct');
+    expect(formatRowTime('2027-10-23T03:00-06:00')).toBe('Sat 23 Oct, 03:00');
+    expect(formatOffset('2027-10-23T03:00+05:30')).toBe('UTC+05:30');
+    expect(formatOffset('2027-10-23T03:00-06:00')).toBe('UTC−06:00');
+  });
+
+  it('names the zone, with daylight saving, for the repeated hour of a DST change', () => {
+    // 01:00 happens twice in Denver on Sun 7 Nov 2027: first as MDT (−06:00), then as MST (−07:00).
+    expect(formatRowTimeWithZone('2027-11-07T01:00-06:00', 'America/Denver')).toBe('Sun 7 Nov, 01:00 MDT (UTC−06:00)');
+    expect(formatRowTimeWithZone('2027-11-07T01:00-07:00', 'America/Denver')).toBe('Sun 7 Nov, 01:00 MST (UTC−07:00)');
+    expect(instantOf('2027-11-07T01:00-07:00') - instantOf('2027-11-07T01:00-06:00')).toBe(3_600_000);
+  });
+});
+
+describe('chart series of the demo forecast', () => {
+  it('draws the SOC from the start, one point per hour end', () => {
+    const s = socSeries(demo);
+    expect(s.length).toBe(demo.hourly.length + 1);
+    expect(s[0]).toEqual({ x: 0, soc: demo.summary.startSocPct, row: -1 });
+    expect(s[5]).toEqual({ x: 5, soc: demo.hourly[4].socPct, row: 4 });
+  });
+
+  it('shades exactly the hours with the sun at or below the horizon, merged into nights', () => {
+    const bands = nightBands(demo);
+    const dark = new Set<number>();
+    for (const b of bands) for (let x = b.x1; x < b.x2; x++) dark.add(x);
+    demo.hourly.forEach((r, i) => expect(dark.has(i)).toBe(r.sunAltitudeDeg <= 0));
+    // Five nights in the demo trip, each one band.
+    expect(bands.length).toBe(5);
+  });
+
+  it('names the two stops along the top, in order, covering every hour', () => {
+    const segs = stopSegments(demo, plan);
+    expect(segs.map((s) => s.name)).toEqual(['Juniper Mesa', 'Cinder Flat']);
+    expect(segs[0].x1).toBe(0);
+    expect(segs[1].x2).toBe(demo.hourly.length);
+    expect(segs[0].x2).toBe(segs[1].x1);
+  });
+
+  it('puts day ticks at local midnights', () => {
+    const ticks = dayTicks(demo, 10);
+    expect(ticks[0].label).toBe('Fri 22');
+    for (const t of ticks) expect(localParts(demo.hourly[t.x].time)?.hour).toBe(0);
+    expect(dayTicks(demo, 2).length).toBeLessThanOrEqual(3);
+  });
+
+  it('has no cutoff marker when the bank lasts, and a text summary that says so', () => {
+    expect(cutoffX(demo)).toBeNull();
+    const text = socSummaryText(demo, plan);
+    expect(text).toContain('No cutoff.');
+    expect(text).toContain('lowest 43 %');
+    expect(text).not.toMatch(/NaN|undefined/);
+  });
+});
+
+describe('forecastCsv', () => {
+  it('has a header and one row per hour, with the stop’s name', () => {
+    const parsed = Papa.parse<string[]>(forecastCsv(demo).trim(), { skipEmptyLines: true });
+    expect(parsed.data[0]).toEqual(['stop', ...CSV_COLUMNS]);
+    expect(parsed.data.length).toBe(demo.hourly.length + 1);
+    expect(parsed.data[1][0]).toBe('Juniper Mesa');
+    expect(Number(parsed.data[1][2])).toBe(demo.hourly[0].socPct);
+  });
+
+  it('escapes a stop name that a spreadsheet would run as a formula', () => {
+    const evil = { ...demo, stops: [{ name: '=HYPERLINK("x")', timeZone: 'America/Denver' }, demo.stops[1]] };
+    const first = Papa.parse<string[]>(forecastCsv(evil).trim()).data[1][0];
+    expect(first.startsWith("'")).toBe(true);
+  });
+});
