@@ -1,0 +1,103 @@
+import { useEffect, useState } from 'react';
+import type { Forecast, ResolvedPlan } from '../../engine';
+import { advise, CAUTIONS, whPerDay, type Advice } from './advice';
+import { useDelayed } from './useWidth';
+
+type State = { status: 'working' } | { status: 'done'; advice: Advice } | { status: 'error' };
+
+/** The two or three changes that matter most, where the energy goes, and the warnings with their cautions. */
+export default function AdvicePanel({ forecast, plan, reserveSocPct }: { forecast: Forecast; plan: ResolvedPlan; reserveSocPct?: number | null }) {
+  const [state, setState] = useState<State>({ status: 'working' });
+  const slow = useDelayed(state.status === 'working');
+
+  useEffect(() => {
+    setState({ status: 'working' });
+    // Advice reruns the engine a few times: let the verdict and charts paint first.
+    const t = setTimeout(() => {
+      try {
+        setState({ status: 'done', advice: advise(plan, forecast, reserveSocPct) });
+      } catch {
+        setState({ status: 'error' });
+      }
+    }, 16);
+    return () => clearTimeout(t);
+  }, [forecast, plan, reserveSocPct]);
+
+  return (
+    <section aria-labelledby="advice-heading" className="card p-4 sm:p-5" data-testid="advice">
+      <h2 id="advice-heading" className="text-xl">Advice</h2>
+      <p className="text-sm text-slate-text">What would change the answer most — each effect worked out by running the forecast again. All figures are estimates.</p>
+      {state.status === 'working' ? (
+        slow ? (
+          <p role="status" className="mt-3 flex items-center gap-2 text-slate-text">
+            <span aria-hidden="true" className="inline-block h-4 w-4 animate-spin rounded-full border-[3px] border-sand-dark border-t-ember" />
+            Working out the advice…
+          </p>
+        ) : (
+          <div className="mt-3 h-16" aria-hidden="true" />
+        )
+      ) : state.status === 'error' ? (
+        <p role="alert" className="caution mt-3">The advice could not be worked out for this plan. The forecast above still stands.</p>
+      ) : (
+        <AdviceBody advice={state.advice} />
+      )}
+      <p className="caution mt-4 text-sm">{CAUTIONS.estimate}</p>
+    </section>
+  );
+}
+
+function AdviceBody({ advice }: { advice: Advice }) {
+  return (
+    <>
+      {advice.changes.length > 0 ? (
+        <ol className="mt-3 space-y-3" data-testid="advice-changes">
+          {advice.changes.map((c) => (
+            <li key={c.kind + c.title} className="rounded-xl border border-sand-dark bg-white/70 p-3" data-kind={c.kind}>
+              <p className="font-extrabold">{c.title}</p>
+              <p className={c.fixes ? 'text-moss-deep' : 'text-dusk'}>{c.effect}</p>
+              <p className="text-sm text-slate-text">{c.detail}</p>
+              {c.caution ? <p className="caution mt-2 text-sm"><strong>Caution:</strong> {c.caution}</p> : null}
+            </li>
+          ))}
+        </ol>
+      ) : (
+        <p className="mt-3">No single change stands out for this plan.</p>
+      )}
+
+      {advice.topLoads.length > 0 ? (
+        <div className="mt-5">
+          <h3 className="text-base">Where the energy goes</h3>
+          <p className="text-sm text-slate-text">About {whPerDay(advice.totalWhPerDay)} from all loads (estimate).</p>
+          <ul className="mt-2 space-y-2" data-testid="top-loads">
+            {advice.topLoads.map((l) => (
+              <li key={l.name}>
+                <div className="flex justify-between gap-2 text-sm">
+                  <span className="font-bold">{l.name}</span>
+                  <span className="tabular-nums">{whPerDay(l.whPerDay)} · {Math.round(l.sharePct)} %</span>
+                </div>
+                <div className="mt-1 h-2 rounded-full bg-sand" aria-hidden="true">
+                  <div className="h-2 rounded-full bg-slate" style={{ width: `${Math.min(100, Math.max(2, l.sharePct))}%` }} />
+                </div>
+              </li>
+            ))}
+          </ul>
+        </div>
+      ) : null}
+
+      {advice.warnings.length > 0 ? (
+        <div className="mt-5">
+          <h3 className="text-base">Warnings</h3>
+          <ul className="mt-2 space-y-2" data-testid="advice-warnings">
+            {advice.warnings.map((w) => (
+              <li key={w.code + w.message} className="rounded-xl border border-sand-dark bg-white/70 p-3">
+                <p className="font-bold">{w.title}</p>
+                <p className="text-sm">{w.message}</p>
+                {w.caution ? <p className="caution mt-2 text-sm"><strong>Caution:</strong> {w.caution}</p> : null}
+              </li>
+            ))}
+          </ul>
+        </div>
+      ) : null}
+    </>
+  );
+}

@@ -1,0 +1,29 @@
+import type { Forecast } from '../../engine';
+import { csvFileName, forecastCsv } from './csv';
+
+/** Downloads the hourly numbers: the saved forecast's CSV route when there is an id, else a CSV built here. */
+export default function CsvButton({ forecast, forecastId, name }: { forecast: Forecast; forecastId?: string | null; name?: string }) {
+  if (forecastId) {
+    return (
+      <a className="btn btn-quiet no-print" href={`/api/forecasts/${encodeURIComponent(forecastId)}/hourly.csv`} download data-testid="csv-download">
+        Download CSV
+      </a>
+    );
+  }
+  const download = () => {
+    const blob = new Blob([forecastCsv(forecast)], { type: 'text/csv;charset=utf-8' });
+    const url = URL.createObjectURL(blob);
+    const a = document.createElement('a');
+    a.href = url;
+    a.download = csvFileName(forecast, name);
+    document.body.appendChild(a);
+    a.click();
+    a.remove();
+    setTimeout(() => URL.revokeObjectURL(url), 1000);
+  };
+  return (
+    <button type="button" className="btn btn-quiet no-print" onClick={download} data-testid="csv-download">
+      Download CSV
+    </button>
+  );
+}

@@ -1,0 +1,25 @@
+// Plain fetchers of the forecast area (no React).
+import type { Forecast, Plan, ResolvedPlan } from '../../engine';
+import { apiFetch } from '../../lib/query-client';
+
+/** A saved forecast as `GET /api/forecasts/:id` returns it. */
+export interface SavedForecast {
+  id: string;
+  tripId: string;
+  name: string;
+  createdAt: string;
+  createdBy: { id: string; name: string } | null;
+  plan: ResolvedPlan;
+  forecast: Forecast;
+  reserveSocPct: number | null;
+}
+
+/** Loads one saved forecast. */
+export function fetchForecast(id: string, signal?: AbortSignal): Promise<SavedForecast> {
+  return apiFetch<SavedForecast>(`/api/forecasts/${encodeURIComponent(id)}`, { signal });
+}
+
+/** Forecasts a plan without saving it (anonymous, rate limited): `POST /api/forecasts/preview`. */
+export function previewForecast(plan: Plan, signal?: AbortSignal): Promise<Forecast> {
+  return apiFetch<Forecast>('/api/forecasts/preview', { method: 'POST', json: plan, signal });
+}
