@@ -49,7 +49,8 @@ export function kastenCzeplak(oktas: number): number {
 /** Diffuse fraction DHI/GHI from the clearness index (Erbs, Klein & Duffie 1982, Solar Energy 28:293, eq. 1). */
 export function erbsDiffuseFraction(kt: number): number {
   if (kt <= 0.22) return 1 - 0.09 * kt;
-  if (kt <= 0.8) return 0.9511 - 0.1604 * kt + 4.388 * kt * kt - 16.638 * kt ** 3 + 12.336 * kt ** 4;
+  // 0.9511 − 0.1604·kt + 4.388·kt² − 16.638·kt³ + 12.336·kt⁴, in Horner form.
+  if (kt <= 0.8) return 0.9511 + kt * (-0.1604 + kt * (4.388 + kt * (-16.638 + kt * 12.336)));
   return 0.165;
 }
 
