@@ -54,9 +54,9 @@ export async function listLoads(db: Kysely<DB>, rigId: string): Promise<LoadDto[
   return rows.map(toLoadDto);
 }
 
-/** The DTO's view of a row's editable fields, for diffs and snapshots. */
-function fieldsOf(row: LoadRow): Record<Field, unknown> {
-  const d = toLoadDto({ ...row, added_by_name: null });
+/** A row's editable fields as the API shows them, for diffs and snapshots. */
+function fieldsOf(row: LoadRow | LoadDto): Record<Field, unknown> {
+  const d = 'rig_id' in row ? toLoadDto({ ...row, added_by_name: null }) : row;
   return Object.fromEntries(FIELDS.map((f) => [f, d[f]])) as Record<Field, unknown>;
 }
 
@@ -82,13 +82,22 @@ function columnsOf(v: Partial<LoadValues>) {
   };
 }
 
-async function logActivity(
-  trx: Kysely<DB>,
-  e: { rigId: string; loadId: string; userId: string; action: LoadAction; loadName: string; changes: Record<string, [unknown, unknown]>; at: string },
-): Promise<void> {
+interface ActivityEntry {
+  rigId: string;
+  loadId: string;
+  userId: string;
+  action: LoadAction;
+  loadName: string;
+  changes: Record<string, [unknown, unknown]>;
+  at: string;
+}
+
+/** Writes activity rows; callers run it in the transaction of the load write it records. */
+async function logActivity(trx: Kysely<DB>, entries: ActivityEntry[]): Promise<void> {
+  if (entries.length === 0) return;
   await trx
     .insertInto('load_activity')
-    .values({ id: crypto.randomUUID(), rig_id: e.rigId, load_id: e.loadId, user_id: e.userId, action: e.action, load_name: e.loadName, changes: JSON.stringify(e.changes), at: e.at })
+    .values(entries.map((e) => ({ id: crypto.randomUUID(), rig_id: e.rigId, load_id: e.loadId, user_id: e.userId, action: e.action, load_name: e.loadName, changes: JSON.stringify(e.changes), at: e.at })))
     .execute();
 }
 
@@ -108,40 +117,35 @@ async function insertLoads(db: Kysely<DB>, rigId: string, userId: string, values
       throw new HttpError('invalid_request', `A rig holds at most ${LIMITS.maxLoads} loads; this one has ${n}.`, [{ path: '(body)', message: `at most ${LIMITS.maxLoads} loads per rig` }]);
     }
     let position = last === null ? 0 : Number(last) + 1;
-    const ids: string[] = [];
-    for (const v of values) {
-      const now = nowIso();
-      const id = crypto.randomUUID();
-      const pos = v.position ?? position++;
-      await trx
-        .insertInto('loads')
-        .values({
-          id,
-          rig_id: rigId,
-          name: lf(v.name),
-          watts: v.watts,
-          quantity: v.quantity,
-          supply: v.supply,
-          windows: JSON.stringify(v.windows),
-          duty_pct: v.dutyPct,
-          days: v.days,
-          response: v.response,
-          setpoint_c: v.setpointC,
-          note: lf(v.note),
-          standby: v.standby ? 1 : 0,
-          position: pos,
-          added_by: userId,
-          created_at: now,
-          updated_at: now,
-        })
-        .execute();
-      const row = await trx.selectFrom('loads').selectAll().where('id', '=', id).executeTakeFirstOrThrow();
-      await logActivity(trx, { rigId, loadId: id, userId, action, loadName: row.name, changes: snapshot(fieldsOf(row), 'after'), at: now });
-      ids.push(id);
-    }
-    const out: LoadDto[] = [];
-    for (const id of ids) out.push((await loadDto(trx, id))!);
-    return out;
+    const now = nowIso();
+    const rows = values.map((v) => ({
+      id: crypto.randomUUID(),
+      rig_id: rigId,
+      name: lf(v.name),
+      watts: v.watts,
+      quantity: v.quantity,
+      supply: v.supply,
+      windows: JSON.stringify(v.windows),
+      duty_pct: v.dutyPct,
+      days: v.days,
+      response: v.response,
+      setpoint_c: v.setpointC,
+      note: lf(v.note),
+      standby: v.standby ? 1 : 0,
+      position: v.position ?? position++,
+      added_by: userId,
+      created_at: now,
+      updated_at: now,
+    }));
+    await trx.insertInto('loads').values(rows).execute();
+    const ids = rows.map((r) => r.id);
+    const byId = new Map((await withAuthor(trx).where('loads.id', 'in', ids).execute()).map((r) => [r.id, toLoadDto(r)]));
+    const loads = ids.map((id) => byId.get(id)!);
+    await logActivity(
+      trx,
+      loads.map((l) => ({ rigId, loadId: l.id, userId, action, loadName: l.name, changes: snapshot(fieldsOf(l), 'after'), at: now })),
+    );
+    return loads;
   });
 }
 
@@ -188,7 +192,7 @@ export async function updateLoad(db: Kysely<DB>, loadId: string, userId: string,
     const changes: Record<string, [unknown, unknown]> = {};
     for (const f of FIELDS) if (JSON.stringify(b[f]) !== JSON.stringify(a[f])) changes[f] = [b[f], a[f]];
     if (Object.keys(changes).length) {
-      await logActivity(trx, { rigId: after.rig_id, loadId, userId, action: 'changed', loadName: after.name, changes, at: now });
+      await logActivity(trx, [{ rigId: after.rig_id, loadId, userId, action: 'changed', loadName: after.name, changes, at: now }]);
     }
     return (await loadDto(trx, loadId))!;
   });
@@ -201,6 +205,6 @@ export async function deleteLoad(db: Kysely<DB>, loadId: string, userId: string,
     if (!before) throw notFound();
     const res = await trx.deleteFrom('loads').where('id', '=', loadId).where('version', '=', version).executeTakeFirst();
     if (res.numDeletedRows === 0n) throw conflict('load', await loadDto(trx, loadId));
-    await logActivity(trx, { rigId: before.rig_id, loadId, userId, action: 'removed', loadName: before.name, changes: snapshot(fieldsOf(before), 'before'), at: nowIso() });
+    await logActivity(trx, [{ rigId: before.rig_id, loadId, userId, action: 'removed', loadName: before.name, changes: snapshot(fieldsOf(before), 'before'), at: nowIso() }]);
   });
 }
