@@ -1,0 +1,28 @@
+import { QueryClientProvider, useQueries } from '@tanstack/react-query';
+import { queryClient } from '../../lib/query-client';
+import { ErrorState, LoadingState } from '../../components/ui/States';
+import CompareView from '../forecast/CompareView';
+import { forecastQueries } from '../forecast/forecast.queries';
+
+/** Two saved forecasts loaded by id and overlaid. */
+export default function CompareFromApi(props: { a: string; b: string }) {
+  return (
+    <QueryClientProvider client={queryClient}>
+      <Inner {...props} />
+    </QueryClientProvider>
+  );
+}
+
+function Inner({ a, b }: { a: string; b: string }) {
+  const [qa, qb] = useQueries({ queries: [forecastQueries.detail(a), forecastQueries.detail(b)] });
+  if (qa.isPending || qb.isPending) return <LoadingState label="Loading both forecasts…" />;
+  if (qa.isError) return <ErrorState error={qa.error} title="Couldn't load the first forecast." onRetry={() => qa.refetch()} />;
+  if (qb.isError) return <ErrorState error={qb.error} title="Couldn't load the second forecast." onRetry={() => qb.refetch()} />;
+  return (
+    <CompareView
+      a={{ name: qa.data.name, forecast: qa.data.forecast, plan: qa.data.plan }}
+      b={{ name: qb.data.name, forecast: qb.data.forecast, plan: qb.data.plan }}
+      reserveSocPct={qa.data.reserveSocPct}
+    />
+  );
+}
