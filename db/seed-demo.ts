@@ -1,5 +1,55 @@
 import type { Kysely } from 'kysely';
 import type { DB } from './schema';
+import { demoPlan } from '../src/engine/demo-plan';
+import { rigInputSchema } from '../src/schemas/rigs';
+import { loadInputSchema } from '../src/schemas/loads';
+import { tripInputSchema } from '../src/schemas/trips';
+import { createRig } from '../src/server/rigs';
+import { createLoad, listLoads } from '../src/server/loads';
+import { createTrip } from '../src/server/trips';
+import { createForecast } from '../src/server/forecasts';
 
-/** Demo rigs, loads and trip; filled in once the rig tables exist. */
-export async function seedDemoRigs(_db: Kysely<DB>, _ids: { crewId: string; ownerId: string; memberId: string }): Promise<void> {}
+// The Reyes-Okafor crew's two invented rigs (product.md, "Demo scenario") and the same five-night
+// late-October loop planned for each: the van makes it, the older trailer runs out.
+
+const trailer = {
+  name: 'Travel trailer (5.5 m)',
+  // Two 6 V flooded golf-cart batteries in series: 12 V, 225 Ah.
+  bank: { chemistry: 'flooded', nominalVolts: 12, capacityAh: 225, initialSocPct: 100, cutoffVolts: 10.5 },
+  arrays: [{ name: 'Portable panel (100 W)', ratedWatts: 100, tiltDeg: 45, aim: 'follow', controller: 'pwm', controllerMaxAmps: 10 }],
+  chargers: [],
+  inverter: null,
+};
+
+const trailerLoads = [
+  { name: 'Absorption fridge control board', watts: 6, note: 'Runs on propane; the board draws ~0.5 A.' },
+  { name: 'LED lights', watts: 1.2, quantity: 8, windows: [[6, 8], [18, 23]] },
+  { name: 'Water pump', watts: 55, windows: [[7, 9], [18, 21]], dutyPct: 8 },
+  { name: 'Furnace blower', watts: 60, windows: [[0, 24]], response: 'heating', setpointC: 17, note: 'Larger older furnace, ~5 A.' },
+  { name: 'Phones', watts: 10, quantity: 2, windows: [[19, 21]] },
+  { name: 'Radio', watts: 15, windows: [[17, 22]] },
+  { name: 'Parasitic draw', watts: 14, standby: true, note: 'LP/CO detector, radio memory, control panel (~1.1 A).' },
+];
+
+/** Seeds the demo rigs, loads, trips and one saved forecast each, unless the crew has rigs already. */
+export async function seedDemoRigs(db: Kysely<DB>, ids: { crewId: string; ownerId: string; memberId: string }): Promise<void> {
+  const existing = await db.selectFrom('rigs').select('id').where('crew_id', '=', ids.crewId).executeTakeFirst();
+  if (existing) return;
+  const plan = demoPlan() as Record<string, any>;
+
+  const van = await createRig(db, ids.ownerId, ids.crewId, rigInputSchema.parse({ name: 'Camper van (6.1 m)', bank: plan.bank, arrays: plan.arrays, chargers: plan.chargers, inverter: plan.inverter }));
+  for (const load of plan.loads) {
+    const standby = load.name === 'Parasitic draw';
+    await createLoad(db, van.id, load.name === 'CPAP' || load.name === 'Laptop' ? ids.memberId : ids.ownerId, loadInputSchema.parse({ ...load, standby }));
+  }
+  const trailerRig = await createRig(db, ids.ownerId, ids.crewId, rigInputSchema.parse(trailer));
+  for (const load of trailerLoads) await createLoad(db, trailerRig.id, ids.ownerId, loadInputSchema.parse(load));
+
+  for (const [rig, name] of [
+    [van, 'High desert loop, late October'],
+    [trailerRig, 'High desert loop with the trailer'],
+  ] as const) {
+    const trip = await createTrip(db, ids.ownerId, { id: rig.id, crew_id: ids.crewId }, tripInputSchema.parse({ rigId: rig.id, name, stops: plan.stops, drives: plan.drives, reserveSocPct: rig === van ? 20 : 50 }));
+    await createForecast(db, { rig, loads: await listLoads(db, rig.id), trip, userId: ids.ownerId, name: 'First look' });
+  }
+}
