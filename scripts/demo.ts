@@ -25,7 +25,7 @@ if (!process.env.SMTP_URL) {
   const dbPath = path.resolve(root, env.DATABASE_PATH);
   const wanted = Number(process.env.MAIL_CATCHER_PORT ?? 2525);
   catcher = await startMailCatcher({ dbPath, port: wanted }).catch(() => startMailCatcher({ dbPath, port: 0 }));
-  env.SMTP_URL = catcher.url;
+  Object.assign(env, { SMTP_URL: catcher.url });
 }
 console.log(`\nSunreckon is starting on http://${env.HOST}:${env.PORT}  (Ctrl+C stops it)`);
 if (catcher) console.log(`Mail is caught on ${catcher.url}: read it at http://${env.HOST}:${env.PORT}/dev/mail`);

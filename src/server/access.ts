@@ -2,18 +2,26 @@ import type { Kysely } from 'kysely';
 import type { CrewRole, DB, LoadRow, RigRow, TripRow } from '../../db/schema';
 import { HttpError } from './errors';
 
-// Authorization, in one place. Every route asks here before it reads or writes a rig, a load or
-// a trip. Access is decided per rig: a load or a trip is reachable exactly when its rig is.
-// A later issue adds installer grants (read-only on one rig): extend `visibleRigs` with the grant
-// and give `RigRole` an 'installer' entry in WRITES — nothing else needs to change.
+// Authorization, in one place. Every route asks here before it reads or writes a rig, a load, a
+// trip or a crew. Access is decided per rig: a load, a trip or a saved forecast is reachable
+// exactly when its rig is. A user reaches a rig through their role in the rig's crew, or — for an
+// installer account, which is never a crew member — through a grant on that one rig, read-only.
+//
+//              rig/loads/trips/forecasts   write them   members, invitations, grants, crew name
+//   owner      read                        yes          yes
+//   editor     read                        yes          no (403)
+//   viewer     read                        no (403)     no (403)
+//   installer  read (granted rig only)     no (403)     no (403)
+//   anyone else: 404 — a row outside the caller's crews and grants is never revealed.
 
-export type Need = 'read' | 'write';
+/** read and write: the rig's data; manage: who may see the rig (installer grants) — crew owners only. */
+export type Need = 'read' | 'write' | 'manage';
 
-/** How a user reaches a rig: through their role in the rig's crew. */
-export type RigRole = CrewRole;
+/** How a user reaches a rig: their role in the rig's crew, or 'installer' through a grant. */
+export type RigRole = CrewRole | 'installer';
 
-/** Which roles may change a rig, its loads and its trips. */
-const WRITES: Record<RigRole, boolean> = { owner: true, editor: true, viewer: false };
+/** Which roles may change a rig, its loads, its trips and its forecasts. */
+const WRITES: Record<RigRole, boolean> = { owner: true, editor: true, viewer: false, installer: false };
 
 /** The signed-in user, as far as access needs it. */
 export interface Actor {
@@ -26,16 +34,24 @@ export interface RigGrant {
   canWrite: boolean;
 }
 
-/** Rigs the user can see, joined with the role that lets them: the base of every rig lookup and list. */
+/**
+ * Rigs the user can see — through crew membership or an installer grant — with the role that
+ * lets them: the base of every rig lookup and list.
+ */
 function visibleRigs(db: Kysely<DB>, userId: string) {
   return db
     .selectFrom('rigs')
-    .innerJoin('crew_members', (j) => j.onRef('crew_members.crew_id', '=', 'rigs.crew_id').on('crew_members.user_id', '=', userId));
+    .leftJoin('crew_members', (j) => j.onRef('crew_members.crew_id', '=', 'rigs.crew_id').on('crew_members.user_id', '=', userId))
+    .leftJoin('rig_grants', (j) => j.onRef('rig_grants.rig_id', '=', 'rigs.id').on('rig_grants.installer_id', '=', userId))
+    .where((eb) => eb.or([eb('crew_members.user_id', 'is not', null), eb('rig_grants.id', 'is not', null)]))
+    .selectAll('rigs')
+    // An installer is never a crew member, so at most one of the two joins matches.
+    .select((eb) => eb.fn.coalesce('crew_members.role', eb.val('installer')).$castTo<RigRole>().as('role'));
 }
 
 /** Every rig the user can see with their role on it, oldest first. */
 export async function listVisibleRigs(db: Kysely<DB>, userId: string): Promise<RigGrant[]> {
-  const rows = await visibleRigs(db, userId).selectAll('rigs').select('crew_members.role as role').orderBy('rigs.created_at').orderBy('rigs.id').execute();
+  const rows = await visibleRigs(db, userId).orderBy('rigs.created_at').orderBy('rigs.id').execute();
   return rows.map(({ role, ...rig }) => ({ rig, role, canWrite: WRITES[role] }));
 }
 
@@ -43,14 +59,26 @@ function notFound(what: string): HttpError {
   return new HttpError('not_found', `There is no ${what} with this id among your crews' rigs.`);
 }
 
-function forbidden(what: string): HttpError {
+function forbidden(what: string, role: RigRole): HttpError {
+  if (role === 'installer') {
+    return new HttpError('forbidden', `This ${what} was shared with you to read: installers cannot change a crew's rigs, loads, trips or forecasts. Suggest changes in a proposal.`);
+  }
   return new HttpError('forbidden', `You can view this ${what} but not change it: your crew role is viewer. Ask the crew's owner to make you an editor.`);
 }
 
 function grant(rig: RigRow, role: RigRole, need: Need, what: string): RigGrant {
   const canWrite = WRITES[role];
-  if (need === 'write' && !canWrite) throw forbidden(what);
+  if (need === 'write' && !canWrite) throw forbidden(what, role);
+  if (need === 'manage' && role !== 'owner') {
+    throw new HttpError('forbidden', `Only the crew's owners can decide who else sees this ${what}${role === 'installer' ? '' : `; your role is ${role}`}.`);
+  }
   return { rig, role, canWrite };
+}
+
+/** For what only the rig's crew sees (its activity, its installer list): 403 for a granted installer. */
+export function crewOnly(access: RigGrant, what: string): RigGrant {
+  if (access.role === 'installer') throw new HttpError('forbidden', `The ${what} of a rig is shown to its crew only.`);
+  return access;
 }
 
 /**
@@ -58,7 +86,7 @@ function grant(rig: RigRow, role: RigRole, need: Need, what: string): RigGrant {
  * it exists); a viewer asking to write → 403.
  */
 export async function rigAccess(db: Kysely<DB>, user: Actor, rigId: string, need: Need, what = 'rig'): Promise<RigGrant> {
-  const row = await visibleRigs(db, user.id).selectAll('rigs').select('crew_members.role as role').where('rigs.id', '=', rigId).executeTakeFirst();
+  const row = await visibleRigs(db, user.id).where('rigs.id', '=', rigId).executeTakeFirst();
   if (!row) throw notFound(what);
   const { role, ...rig } = row;
   return grant(rig, role, need, what);
@@ -86,7 +114,8 @@ export async function tripAccess(db: Kysely<DB>, user: Actor, tripId: string, ne
 
 /**
  * The crew a new rig goes into: `crewId` when the user may write there (else 404 / 403 naming
- * `crewId`), or else the user's oldest crew in which they are owner or editor.
+ * `crewId`), or else the user's active crew when they may write there, or else their oldest crew
+ * in which they are owner or editor.
  */
 export async function crewForNewRig(db: Kysely<DB>, user: Actor, crewId?: string): Promise<string> {
   const memberships = await db
@@ -102,7 +131,8 @@ export async function crewForNewRig(db: Kysely<DB>, user: Actor, crewId?: string
     if (!WRITES[m.role]) throw new HttpError('forbidden', 'Your role in this crew is viewer: you cannot add rigs to it.', [{ path: 'crewId', message: 'you are a viewer in this crew' }]);
     return m.crew_id;
   }
-  const first = memberships.find((x) => WRITES[x.role]);
+  const active = await db.selectFrom('active_crews').select('crew_id').where('user_id', '=', user.id).executeTakeFirst();
+  const first = memberships.find((x) => x.crew_id === active?.crew_id && WRITES[x.role]) ?? memberships.find((x) => WRITES[x.role]);
   if (!first) throw new HttpError('forbidden', 'You are not an owner or editor of any crew, so there is nowhere to add a rig.', [{ path: 'crewId', message: 'no crew you can add rigs to' }]);
   return first.crew_id;
 }
@@ -117,4 +147,33 @@ export async function rigAccessByField(db: Kysely<DB>, user: Actor, rigId: strin
     }
     throw e;
   }
+}
+
+/**
+ * The user's role in a crew when they may `need` it: 'read' for any member, 'manage' (members,
+ * invitations, the crew's name) for owners. Not a member → 404; a member who is not an owner → 403.
+ */
+export async function crewAccess(db: Kysely<DB>, user: Actor, crewId: string, need: 'read' | 'manage', what = 'crew'): Promise<CrewRole> {
+  const row = await db.selectFrom('crew_members').select('role').where('crew_id', '=', crewId).where('user_id', '=', user.id).executeTakeFirst();
+  if (!row) throw new HttpError('not_found', `There is no ${what} with this id among your crews.`);
+  if (need === 'manage' && row.role !== 'owner') {
+    throw new HttpError('forbidden', `Only the crew's owners can manage members, invitations and installers; your role is ${row.role}.`);
+  }
+  return row.role;
+}
+
+/** An installer grant, for taking it away: owners of the rig's crew only; 404 to anyone else but the installer. */
+export async function grantAccess(db: Kysely<DB>, user: Actor, grantId: string): Promise<{ id: string; rigId: string }> {
+  const row = await db
+    .selectFrom('rig_grants')
+    .innerJoin('rigs', 'rigs.id', 'rig_grants.rig_id')
+    .leftJoin('crew_members', (j) => j.onRef('crew_members.crew_id', '=', 'rigs.crew_id').on('crew_members.user_id', '=', user.id))
+    .select(['rig_grants.id as id', 'rig_grants.rig_id as rigId', 'rig_grants.installer_id as installerId', 'crew_members.role as role'])
+    .where('rig_grants.id', '=', grantId)
+    .executeTakeFirst();
+  if (!row || (!row.role && row.installerId !== user.id)) throw new HttpError('not_found', 'There is no installer access with this id among your rigs.');
+  if (row.role !== 'owner') {
+    throw new HttpError('forbidden', `Only the crew's owners can take an installer's access away${row.role ? `; your role is ${row.role}` : ''}.`);
+  }
+  return { id: row.id, rigId: row.rigId };
 }
