@@ -57,6 +57,17 @@ describe('advise: generator hours', () => {
     expect(gen!.caution).toMatch(/windows.*vents.*CO alarm/);
   });
 
+  it('when no generator hours can hold the trip’s reserve, still says how to avoid the cutoff', () => {
+    // A 70 % reserve cannot hold: even full at 20:00 (the window's end) the bank loses 12 × 3 = 36
+    // points by 08:00. Avoiding the cutoff still takes the same 2 hours on Friday morning.
+    const advice = advise(plan, base, 70);
+    const gen = advice.changes.find((c) => c.kind === 'generator');
+    expect(gen!.title).toBe('Run a generator 2 h on Fri 22 Oct from 08:00');
+    expect(gen!.fixes).toBe(false);
+    expect(gen!.effect).toContain('below the 70 % reserve');
+    expect(gen!.detail).toContain('above your 70 % reserve');
+  });
+
   it('uses the rig’s own converter/charger when the plan has shore power: a 60 A one needs only 1 h', () => {
     // 60 A × 12.8 V = 768 W: 57 A into the bank, 56.4 points in one hour → 100 % by 09:00 → same 25 % end.
     const withShore = resolve({ ...plan, chargers: [{ kind: 'shore', amps: 60 }] });

@@ -2,7 +2,7 @@
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { demoPlan, forecast, validatePlan } from '../../src/engine';
-import { cutoffX, dayTicks, nightBands, socSeries, socSummaryText, stopSegments } from '../../src/features/forecast/chart-data';
+import { cutoffX, dayTicks, daysSummaryText, nightBands, socSeries, socSummaryText, stopSegments } from '../../src/features/forecast/chart-data';
 import { CSV_COLUMNS, forecastCsv } from '../../src/features/forecast/csv';
 import { formatDay, formatOffset, formatRowTime, formatRowTimeWithZone, instantOf, localParts } from '../../src/features/forecast/time';
 
@@ -70,6 +70,15 @@ describe('chart series of the demo forecast', () => {
     expect(text).toContain('No cutoff.');
     expect(text).toContain('lowest 43 %');
     expect(text).not.toMatch(/NaN|undefined/);
+  });
+});
+
+describe('daysSummaryText', () => {
+  it('names the hardest whole day, not a short first or last day', () => {
+    // Whole demo days: Fri 22 (−249 Wh net), Sat 23 (−503), Sun 24 (+1,016, the drive), Mon 25 (−119).
+    const worst = demo.days.filter((d) => d.date > '2027-10-21' && d.date < '2027-10-26').reduce((a, b) => (b.netWh < a.netWh ? b : a));
+    expect(worst.date).toBe('2027-10-23');
+    expect(daysSummaryText(demo)).toContain(`The hardest whole day is Sat 23 Oct: ${(-worst.netWh).toLocaleString('en-US')} Wh more used than charged.`);
   });
 });
 

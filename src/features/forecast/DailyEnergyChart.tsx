@@ -11,8 +11,9 @@ const SERIES = [
   { key: 'charge', name: 'Other charging', color: COLORS.charging },
 ] as const;
 
+// A no-break space keeps "1.2 kWh" on one line (recharts wraps tick text at spaces).
 function kwhTick(v: number): string {
-  return v >= 1000 ? `${(v / 1000).toLocaleString('en-US', { maximumFractionDigits: 1 })} kWh` : `${v} Wh`;
+  return v >= 1000 ? `${(v / 1000).toLocaleString('en-US', { maximumFractionDigits: 1 })}\u00a0kWh` : `${v}\u00a0Wh`;
 }
 
 /** A bar per day: loads against solar and other charging (alternator, shore, generator). */
@@ -30,7 +31,7 @@ export default function DailyEnergyChart({ forecast, height = 240 }: { forecast:
           <BarChart width={width} height={height} data={data} margin={{ top: 8, right: 8, bottom: 4, left: 0 }} title="Energy per day" desc={summary} barCategoryGap="18%">
             <CartesianGrid vertical={false} stroke={COLORS.grid} />
             <XAxis dataKey="label" tick={{ fontSize: 12, fill: COLORS.axis }} stroke={COLORS.axis} interval={data.length > 10 && width < 520 ? 'preserveStartEnd' : 0} />
-            <YAxis tickFormatter={kwhTick} width={58} tick={{ fontSize: 12, fill: COLORS.axis }} stroke={COLORS.axis} />
+            <YAxis tickFormatter={kwhTick} width={62} tick={{ fontSize: 12, fill: COLORS.axis }} stroke={COLORS.axis} />
             <Tooltip
               formatter={(v, name) => [`${Number(v).toLocaleString('en-US')} Wh`, String(name)]}
               labelFormatter={(_, p) => (p?.[0]?.payload ? formatDay((p[0].payload as { date: string }).date) : '')}

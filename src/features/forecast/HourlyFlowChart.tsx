@@ -22,16 +22,18 @@ export default function HourlyFlowChart({ forecast, height = 240 }: { forecast: 
         solar: row.solarWatts,
         charge: row.chargeWatts,
         soc: row.socPct,
+        unmet: row.unmetWatts,
       })),
     [forecast, day],
   );
+  const unmetWh = data.reduce((s, d) => s + d.unmet, 0);
   const peak = data.reduce((a, b) => (b.load > a.load ? b : a), data[0] ?? { load: 0, clock: '' });
   const solarWh = data.reduce((s, d) => s + d.solar, 0);
   const loadWh = data.reduce((s, d) => s + d.load, 0);
   const summary =
     data.length === 0
       ? 'No hours on this day.'
-      : `${formatDay(day)}, ${data[0].clock} to ${data[data.length - 1].clock}: loads ${loadWh.toLocaleString('en-US')} Wh (peak ${peak.load} W at ${peak.clock}), solar ${solarWh.toLocaleString('en-US')} Wh; state of charge from ${data[0].soc} % to ${data[data.length - 1].soc} %.`;
+      : `${formatDay(day)}, ${data[0].clock} to ${data[data.length - 1].clock}: loads ${loadWh.toLocaleString('en-US')} Wh (peak ${peak.load} W at ${peak.clock}), solar ${solarWh.toLocaleString('en-US')} Wh; state of charge from ${data[0].soc} % to ${data[data.length - 1].soc} %.${unmetWh > 0 ? ` Unmet: ${unmetWh.toLocaleString('en-US')} Wh while the bank is disconnected.` : ''}`;
 
   return (
     <figure className="m-0" data-testid="hourly-flow-chart">
@@ -48,7 +50,7 @@ export default function HourlyFlowChart({ forecast, height = 240 }: { forecast: 
           <ComposedChart width={width} height={height} data={data} margin={{ top: 8, right: 0, bottom: 4, left: 0 }} title={`Power by hour on ${formatDay(day)}`} desc={summary}>
             <CartesianGrid vertical={false} stroke={COLORS.grid} />
             <XAxis dataKey="clock" tick={{ fontSize: 12, fill: COLORS.axis }} stroke={COLORS.axis} interval={width < 520 ? 3 : 1} />
-            <YAxis yAxisId="w" tickFormatter={(v: number) => `${v} W`} width={56} tick={{ fontSize: 12, fill: COLORS.axis }} stroke={COLORS.axis} />
+            <YAxis yAxisId="w" tickFormatter={(v: number) => `${v}\u00a0W`} width={56} tick={{ fontSize: 12, fill: COLORS.axis }} stroke={COLORS.axis} />
             <YAxis yAxisId="soc" orientation="right" domain={[0, 100]} ticks={[0, 50, 100]} tickFormatter={(v: number) => `${v}%`} width={40} tick={{ fontSize: 12, fill: COLORS.axis }} stroke={COLORS.axis} />
             <Tooltip
               formatter={(v, name) => [name === 'State of charge' ? `${v} %` : `${v} W`, String(name)]}
@@ -58,6 +60,9 @@ export default function HourlyFlowChart({ forecast, height = 240 }: { forecast: 
             <Area yAxisId="w" type="stepAfter" dataKey="solar" name="Solar" stroke={COLORS.solar} fill={COLORS.solar} fillOpacity={0.45} isAnimationActive={false} />
             <Area yAxisId="w" type="stepAfter" dataKey="charge" name="Other charging" stroke={COLORS.charging} fill={COLORS.charging} fillOpacity={0.35} isAnimationActive={false} />
             <Line yAxisId="w" type="stepAfter" dataKey="load" name="Loads" stroke={COLORS.loads} strokeWidth={2} dot={false} isAnimationActive={false} />
+            {unmetWh > 0 ? (
+              <Line yAxisId="w" type="stepAfter" dataKey="unmet" name="Unmet" stroke={COLORS.cutoff} strokeWidth={2} strokeDasharray="5 3" dot={false} isAnimationActive={false} />
+            ) : null}
             <Line yAxisId="soc" type="monotone" dataKey="soc" name="State of charge" stroke={COLORS.soc} strokeWidth={1.5} strokeDasharray="3 3" dot={false} isAnimationActive={false} />
           </ComposedChart>
         ) : (
@@ -68,6 +73,9 @@ export default function HourlyFlowChart({ forecast, height = 240 }: { forecast: 
         <li className="flex items-center gap-1.5"><span aria-hidden="true" className="inline-block h-3 w-3 rounded-sm" style={{ background: COLORS.solar }} />Solar</li>
         <li className="flex items-center gap-1.5"><span aria-hidden="true" className="inline-block h-3 w-3 rounded-sm" style={{ background: COLORS.charging }} />Other charging</li>
         <li className="flex items-center gap-1.5"><svg width="18" height="8" aria-hidden="true"><line x1="0" y1="4" x2="18" y2="4" stroke={COLORS.loads} strokeWidth="2" /></svg>Loads</li>
+        {unmetWh > 0 ? (
+          <li className="flex items-center gap-1.5"><svg width="18" height="8" aria-hidden="true"><line x1="0" y1="4" x2="18" y2="4" stroke={COLORS.cutoff} strokeWidth="2" strokeDasharray="5 3" /></svg>Unmet</li>
+        ) : null}
         <li className="flex items-center gap-1.5"><svg width="18" height="8" aria-hidden="true"><line x1="0" y1="4" x2="18" y2="4" stroke={COLORS.soc} strokeWidth="1.5" strokeDasharray="3 3" /></svg>State of charge (right axis)</li>
       </ul>
       <figcaption className="mt-1 text-sm text-slate-text">{summary}</figcaption>

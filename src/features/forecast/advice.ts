@@ -147,7 +147,8 @@ export function effectOf(base: Forecast, alt: Forecast, reservePct: number): { t
   const lowest = `lowest ${pct(alt.summary.minSocPct)} on ${formatRowTime(alt.summary.minSocAt)}`;
   if (base.summary.firstCutoffAt) {
     if (!alt.summary.firstCutoffAt) {
-      return { text: `No cutoff — ${lowest}.`, score: 1000 + alt.summary.minSocPct, fixes };
+      const under = !fixes ? `, below the ${pct(reservePct)} reserve` : '';
+      return { text: `No cutoff — ${lowest}${under}.`, score: 1000 + alt.summary.minSocPct, fixes };
     }
     const b = hoursShort(base);
     const a = hoursShort(alt);
@@ -242,54 +243,28 @@ function generatorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: num
     };
   }
 
-  // Greedy and measured: fix the first trouble with the fewest whole hours on the last allowed
-  // morning before it (or the one before that), then the next trouble, until the trip is fine.
-  const runs = new Map<number, { rows: number[]; hours: number }>();
-  const forcedRows = () => [...runs.values()].flatMap((r) => r.rows.slice(0, r.hours));
-  let current = base;
-  for (let step = 0; step < 8 && !isFine(current, reservePct); step++) {
-    const p = firstProblemRow(current, reservePct);
-    const windows = generatorWindows(prepared, p);
-    let fixed = false;
-    for (let back = 1; back <= Math.min(2, windows.length) && !fixed; back++) {
-      const rows = windows[windows.length - back];
-      const day = prepared.grid.localDay[rows[0]];
-      const had = runs.get(day)?.hours ?? 0;
-      for (let h = had + 1; h <= rows.length; h++) {
-        runs.set(day, { rows, hours: h });
-        const alt = withForcedGenerator(prepared, forcedRows(), amps, fuel);
-        const p2 = firstProblemRow(alt, reservePct);
-        if (p2 < 0 || p2 > p) {
-          current = alt;
-          fixed = true;
-          break;
-        }
-      }
-      if (!fixed) {
-        if (had > 0) runs.set(day, { rows, hours: had });
-        else runs.delete(day);
-      }
-    }
-    if (!fixed) break;
+  // Aim for the reserve; if no generator hours can hold it, at least avoid the cutoff.
+  const floor = base.summary.floorSocPct;
+  let plan1 = greedyRuns(prepared, base, reservePct, amps, fuel);
+  let belowReserve = false;
+  if (!plan1 && reservePct > floor) {
+    plan1 = greedyRuns(prepared, base, floor, amps, fuel);
+    belowReserve = plan1 !== null;
   }
-
-  if (runs.size > 0 && isFine(current, reservePct)) {
+  if (plan1) {
+    const { runs, current } = plan1;
     const e = effectOf(base, current, reservePct);
-    const list = [...runs.values()]
-      .sort((a, b) => a.rows[0] - b.rows[0])
-      .map((r) => {
-        const t = base.hourly[r.rows[0]].time;
-        return `${r.hours} h on ${formatDay(localParts(t)?.date ?? '')} from ${formatClock(t)}`;
-      });
-    const total = [...runs.values()].reduce((s, r) => s + r.hours, 0);
+    const list = runs.map((r) => `${r.hours} h on ${formatDay(localParts(r.startTime)?.date ?? '')} from ${formatClock(r.startTime)}`);
+    const total = runs.reduce((s, r) => s + r.hours, 0);
     const ran = current.summary.generatorHours;
+    const target = belowReserve ? floor : reservePct;
     return {
       kind: 'generator',
       title: `Run a generator ${joinAnd(list)}`,
-      effect: `${e.text} About ${litres(current.summary.generatorLitres)} of fuel${ran < total ? ` (it runs ${ran} h: the bank is full sooner)` : ''}.${current.summary.minSocPct < reservePct + 5 ? ' That leaves little margin: an extra hour gives room for error.' : ''}`,
-      detail: `Through ${source}; worked out by running the forecast again with the generator on for those hours${runs.size > 1 ? ' (one morning is not enough)' : ''}.`,
+      effect: `${e.text} About ${litres(current.summary.generatorLitres)} of fuel${ran < total ? ` (it runs ${ran} h: the bank is full sooner)` : ''}.${current.summary.minSocPct < target + 5 ? ' That leaves little margin: an extra hour gives room for error.' : ''}`,
+      detail: `Through ${source}; worked out by running the forecast again with the generator on for those hours${runs.length > 1 ? ' (one morning is not enough)' : ''}.${belowReserve ? ` No generator hours keep the bank above your ${pct(reservePct)} reserve: it falls below it where no generator may run.` : ''}`,
       caution: CAUTIONS.generator,
-      fixes: true,
+      fixes: !belowReserve,
       score: e.score + 100 - total,
     };
   }
@@ -298,6 +273,50 @@ function generatorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: num
   const alt = withForcedGenerator(prepared, all, amps, fuel);
   const e = effectOf(base, alt, reservePct);
   return notEnough(e, `Through ${source}, in every allowed generator hour.`);
+}
+
+interface Run {
+  rows: number[];
+  hours: number;
+  startTime: string;
+}
+
+/**
+ * Greedy and measured: fixes the first trouble (cutoff, or a dip below `target`) with the fewest
+ * whole hours on the last allowed morning before it (or the one before that), then the next
+ * trouble, until the whole trip stays at or above `target`. Null when that cannot be done.
+ */
+function greedyRuns(prepared: PreparedTrip, base: Forecast, target: number, amps: number, fuel: number): { runs: Run[]; current: Forecast } | null {
+  const runs = new Map<number, Run>();
+  const forcedRows = () => [...runs.values()].flatMap((r) => r.rows.slice(0, r.hours));
+  let current = base;
+  for (let step = 0; step < 8 && !isFine(current, target); step++) {
+    const p = firstProblemRow(current, target);
+    const windows = generatorWindows(prepared, p);
+    let fixed = false;
+    for (let back = 1; back <= Math.min(2, windows.length) && !fixed; back++) {
+      const rows = windows[windows.length - back];
+      const day = prepared.grid.localDay[rows[0]];
+      const had = runs.get(day)?.hours ?? 0;
+      for (let h = had + 1; h <= rows.length; h++) {
+        runs.set(day, { rows, hours: h, startTime: prepared.grid.time[rows[0]] });
+        const alt = withForcedGenerator(prepared, forcedRows(), amps, fuel);
+        const p2 = firstProblemRow(alt, target);
+        if (p2 < 0 || p2 > p) {
+          current = alt;
+          fixed = true;
+          break;
+        }
+      }
+      if (!fixed) {
+        if (had > 0) runs.set(day, { rows, hours: had, startTime: prepared.grid.time[rows[0]] });
+        else runs.delete(day);
+      }
+    }
+    if (!fixed) break;
+  }
+  if (runs.size === 0 || !isFine(current, target)) return null;
+  return { runs: [...runs.values()].sort((a, b) => a.rows[0] - b.rows[0]), current };
 }
 
 function joinAnd(items: string[]): string {

@@ -112,8 +112,17 @@ export function socSummaryText(f: Forecast, plan: ResolvedPlan, reserveSocPct?: 
 /** Text summary of the daily energy chart. */
 export function daysSummaryText(f: Forecast): string {
   if (f.days.length === 0) return 'No days to show.';
-  const worst = f.days.reduce((a, b) => (b.netWh < a.netWh ? b : a));
-  return `Over ${f.days.length} days the loads use ${wh(f.summary.loadWh)}; solar delivers ${wh(f.summary.solarWh)} and other charging ${wh(f.summary.chargeWh)}. The hardest day is ${formatDay(worst.date)}, ${wh(worst.netWh)} net.`;
+  // Partial first and last days would look easy or hard only for being short: judge whole days.
+  const hours = new Map<string, number>();
+  for (const r of f.hourly) {
+    const d = localParts(r.time)?.date ?? '';
+    hours.set(d, (hours.get(d) ?? 0) + 1);
+  }
+  const whole = f.days.filter((d) => (hours.get(d.date) ?? 0) >= 23);
+  const pool = whole.length > 0 ? whole : f.days;
+  const worst = pool.reduce((a, b) => (b.netWh < a.netWh ? b : a));
+  const net = worst.netWh < 0 ? `${wh(-worst.netWh)} more used than charged` : `${wh(worst.netWh)} more charged than used`;
+  return `Over ${f.days.length} days the loads use ${wh(f.summary.loadWh)}; solar delivers ${wh(f.summary.solarWh)} and other charging ${wh(f.summary.chargeWh)}. The hardest ${whole.length > 0 ? 'whole ' : ''}day is ${formatDay(worst.date)}: ${net}.`;
 }
 
 /** Rows of one local day (by the row's own local date). */
