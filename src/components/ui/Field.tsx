@@ -7,16 +7,30 @@ interface FieldProps {
   hint?: ReactNode;
   children: ReactNode;
   className?: string;
+  /** What the error message calls the field, when the label is long or has a unit; the label otherwise. */
+  errorName?: string;
+}
+
+/**
+ * Names the field in a message that starts with a verb ("must be a number" → "Capacity (Ah) must
+ * be a number"); messages that already read as a sentence are kept as they are.
+ */
+export function fieldMessage(name: string, message?: string): string | undefined {
+  if (!message) return undefined;
+  // zod says "must be a number" both for an empty box and for text: one plain instruction covers both.
+  if (message === 'must be a number') return `${name}: enter a number.`;
+  return /^[a-z]/.test(message) ? `${name} ${message}` : message;
 }
 
 /** A labelled form field with its hint and its error next to it. */
-export function Field({ id, label, error, hint, children, className = '' }: FieldProps) {
+export function Field({ id, label, error, hint, children, className = '', errorName }: FieldProps) {
+  const message = fieldMessage(errorName ?? label, error);
   return (
     <div className={className}>
       <label htmlFor={id} className="field-label">{label}</label>
       {children}
-      {hint && !error ? <p id={`${id}-hint`} className="field-hint mt-1">{hint}</p> : null}
-      {error ? <p id={`${id}-error`} className="field-error" role="alert">{error}</p> : null}
+      {hint && !message ? <p id={`${id}-hint`} className="field-hint mt-1">{hint}</p> : null}
+      {message ? <p id={`${id}-error`} className="field-error" role="alert">{message}</p> : null}
     </div>
   );
 }
