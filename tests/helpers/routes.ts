@@ -1,0 +1,164 @@
+import type { Session } from './api';
+import { uniqueEmail } from './api';
+import { LOAD_INPUT, TRIP_INPUT } from './crew';
+
+/**
+ * Every API route of the app, with the status each kind of caller must get. The authorization
+ * matrix test (tests/integration/authz-matrix.test.ts) runs each row for each actor, and fails
+ * when a route file under src/pages/api has a method that is not listed here: a new route is
+ * added to this table in the same change that adds the route.
+ */
+
+/** Who calls: nobody signed in; the fixture crew's owner, editor and viewer; a camper in another crew; an installer with a grant on the fixture rig; one without. */
+export const ACTORS = ['anonymous', 'owner', 'editor', 'viewer', 'outsider', 'installer', 'stranger'] as const;
+export type Actor = (typeof ACTORS)[number];
+
+/** The people of the matrix, signed in once. */
+export interface Cast {
+  owner: Session;
+  editor: Session;
+  viewer: Session;
+  outsider: Session;
+  installer: Session;
+  stranger: Session;
+  crewId: string;
+  /** A member (editor) whose role rows can change without affecting the actors. */
+  spare: Session;
+}
+
+/** The rows a request targets, all in the owner's crew: a rig with a load, a trip with a saved forecast, an open invitation, the installer's grant. */
+export interface World {
+  cast: Cast;
+  crewId: string;
+  rig: { id: string; version: number };
+  load: { id: string; version: number };
+  trip: { id: string; version: number };
+  forecast: { id: string };
+  invitation: { id: string; version: number; token: string };
+  grant: { id: string };
+  /** Present when the route asked for `needs: ['member']`: a member only this request touches. */
+  member?: { userId: string };
+  /** The current version of a crew or member row, read at request time. */
+  crewVersion(): Promise<number>;
+  memberVersion(userId: string): Promise<number>;
+}
+
+export type Expect = Record<Actor, number>;
+
+export interface RouteCase {
+  method: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+  /** The route as its file names it under src/pages: `/api/rigs/[id]/loads`. */
+  route: string;
+  url: (w: World) => string;
+  /** A valid JSON body, so that an allowed caller gets the success status. */
+  body?: (w: World) => unknown | Promise<unknown>;
+  /** A non-JSON body (CSV). */
+  raw?: { contentType: string; body: string };
+  expect: Expect;
+  /** The request changes or removes what it targets: each actor gets a world of its own. */
+  fresh?: boolean;
+  needs?: 'member'[];
+}
+
+const all = (status: number): Expect => ({ anonymous: status, owner: status, editor: status, viewer: status, outsider: status, installer: status, stranger: status });
+const signedIn = (status: number): Expect => ({ ...all(status), anonymous: 401 });
+
+/** Reading a rig and what hangs off it: the crew and a granted installer; everyone else never learns it exists. */
+const RIG_READ: Expect = { anonymous: 401, owner: 200, editor: 200, viewer: 200, outsider: 404, installer: 200, stranger: 404 };
+/** Changing a rig, its loads, trips or forecasts: owners and editors. */
+const RIG_WRITE = (ok: number): Expect => ({ anonymous: 401, owner: ok, editor: ok, viewer: 403, outsider: 404, installer: 403, stranger: 404 });
+/** What only the rig's crew sees (activity, the installer list). */
+const RIG_CREW_READ: Expect = { ...RIG_READ, installer: 403 };
+/** Deciding who sees the rig (installer grants): owners. */
+const RIG_MANAGE = (ok: number): Expect => ({ anonymous: 401, owner: ok, editor: 403, viewer: 403, outsider: 404, installer: 403, stranger: 404 });
+/** Reading a crew: its members. Installers are never members. */
+const CREW_READ: Expect = { anonymous: 401, owner: 200, editor: 200, viewer: 200, outsider: 404, installer: 404, stranger: 404 };
+/** Members, invitations, the crew's name: owners. */
+const CREW_MANAGE = (ok: number): Expect => ({ anonymous: 401, owner: ok, editor: 403, viewer: 403, outsider: 404, installer: 404, stranger: 404 });
+
+const PLAN = { bank: { chemistry: 'lifepo4', capacityAh: 200 }, stops: TRIP_INPUT('x').stops };
+
+export const ROUTES: RouteCase[] = [
+  // Public
+  { method: 'GET', route: '/api/health', url: () => '/api/health', expect: all(200) },
+  { method: 'GET', route: '/api/auth/[...all]', url: () => '/api/auth/get-session', expect: all(200) },
+  { method: 'POST', route: '/api/forecasts/preview', url: () => '/api/forecasts/preview', body: () => PLAN, expect: all(200) },
+  { method: 'GET', route: '/api/places', url: () => '/api/places?q=Flagstaff', expect: all(200) },
+  { method: 'GET', route: '/api/timezone', url: () => '/api/timezone?lat=35.2&lon=-111.6', expect: all(200) },
+
+  // The signed-in user's own things
+  { method: 'PATCH', route: '/api/settings', url: () => '/api/settings', body: () => ({ units: 'metric' }), expect: signedIn(200) },
+  { method: 'GET', route: '/api/crews', url: () => '/api/crews', expect: signedIn(200) },
+  { method: 'POST', route: '/api/crews', url: () => '/api/crews', body: () => ({ name: 'Second household' }), expect: { ...signedIn(201), installer: 403, stranger: 403 } },
+  { method: 'GET', route: '/api/installer/rigs', url: () => '/api/installer/rigs', expect: { ...signedIn(403), installer: 200, stranger: 200 } },
+  // A link addressed to someone else's e-mail: refused for every account.
+  { method: 'POST', route: '/api/invitations/accept', url: () => '/api/invitations/accept', body: (w) => ({ token: w.invitation.token }), expect: signedIn(403) },
+
+  // Crews
+  { method: 'PUT', route: '/api/crews/active', url: () => '/api/crews/active', body: (w) => ({ crewId: w.crewId }), expect: CREW_READ },
+  { method: 'GET', route: '/api/crews/[id]', url: (w) => `/api/crews/${w.crewId}`, expect: CREW_READ },
+  { method: 'PATCH', route: '/api/crews/[id]', url: (w) => `/api/crews/${w.crewId}`, body: async (w) => ({ name: 'Reyes-Okafor', version: await w.crewVersion() }), expect: CREW_MANAGE(200) },
+  { method: 'GET', route: '/api/crews/[id]/invitations', url: (w) => `/api/crews/${w.crewId}/invitations`, expect: CREW_MANAGE(200) },
+  { method: 'POST', route: '/api/crews/[id]/invitations', url: (w) => `/api/crews/${w.crewId}/invitations`, body: () => ({ email: uniqueEmail('matrix'), role: 'viewer' }), expect: CREW_MANAGE(201) },
+  {
+    method: 'PATCH',
+    route: '/api/crews/[id]/members/[userId]',
+    url: (w) => `/api/crews/${w.crewId}/members/${w.cast.spare.userId}`,
+    body: async (w) => ({ role: 'editor', version: await w.memberVersion(w.cast.spare.userId) }),
+    expect: CREW_MANAGE(200),
+  },
+  {
+    method: 'DELETE',
+    route: '/api/crews/[id]/members/[userId]',
+    url: (w) => `/api/crews/${w.crewId}/members/${w.member!.userId}?version=1`,
+    expect: CREW_MANAGE(204),
+    fresh: true,
+    needs: ['member'],
+  },
+  { method: 'POST', route: '/api/invitations/[id]/resend', url: (w) => `/api/invitations/${w.invitation.id}/resend`, body: (w) => ({ version: w.invitation.version }), expect: CREW_MANAGE(200), fresh: true },
+  { method: 'DELETE', route: '/api/invitations/[id]', url: (w) => `/api/invitations/${w.invitation.id}?version=${w.invitation.version}`, expect: CREW_MANAGE(204), fresh: true },
+
+  // Rigs and their loads
+  { method: 'GET', route: '/api/rigs', url: () => '/api/rigs', expect: signedIn(200) },
+  {
+    method: 'POST',
+    route: '/api/rigs',
+    url: () => '/api/rigs',
+    body: (w) => ({ name: 'Matrix rig', bank: { chemistry: 'agm', capacityAh: 100 }, crewId: w.crewId }),
+    expect: { anonymous: 401, owner: 201, editor: 201, viewer: 403, outsider: 404, installer: 404, stranger: 404 },
+  },
+  { method: 'GET', route: '/api/rigs/[id]', url: (w) => `/api/rigs/${w.rig.id}`, expect: RIG_READ },
+  { method: 'PATCH', route: '/api/rigs/[id]', url: (w) => `/api/rigs/${w.rig.id}`, body: (w) => ({ name: 'Renamed van', version: w.rig.version }), expect: RIG_WRITE(200), fresh: true },
+  { method: 'DELETE', route: '/api/rigs/[id]', url: (w) => `/api/rigs/${w.rig.id}?version=${w.rig.version}`, expect: RIG_WRITE(204), fresh: true },
+  { method: 'GET', route: '/api/rigs/[id]/loads', url: (w) => `/api/rigs/${w.rig.id}/loads`, expect: RIG_READ },
+  { method: 'POST', route: '/api/rigs/[id]/loads', url: (w) => `/api/rigs/${w.rig.id}/loads`, body: () => LOAD_INPUT, expect: RIG_WRITE(201) },
+  { method: 'POST', route: '/api/rigs/[id]/loads/import', url: (w) => `/api/rigs/${w.rig.id}/loads/import`, raw: { contentType: 'text/csv', body: 'name,watts\nWater pump,60\n' }, expect: RIG_WRITE(201) },
+  { method: 'GET', route: '/api/rigs/[id]/loads.csv', url: (w) => `/api/rigs/${w.rig.id}/loads.csv`, expect: RIG_READ },
+  { method: 'PATCH', route: '/api/loads/[id]', url: (w) => `/api/loads/${w.load.id}`, body: (w) => ({ watts: 50, version: w.load.version }), expect: RIG_WRITE(200), fresh: true },
+  { method: 'DELETE', route: '/api/loads/[id]', url: (w) => `/api/loads/${w.load.id}?version=${w.load.version}`, expect: RIG_WRITE(204), fresh: true },
+  { method: 'GET', route: '/api/rigs/[id]/activity', url: (w) => `/api/rigs/${w.rig.id}/activity`, expect: RIG_CREW_READ },
+  { method: 'GET', route: '/api/rigs/[id]/grants', url: (w) => `/api/rigs/${w.rig.id}/grants`, expect: RIG_CREW_READ },
+  // Granting the installer without a grant: each actor on a rig of its own, so the grant cannot leak into other rows.
+  { method: 'POST', route: '/api/rigs/[id]/grants', url: (w) => `/api/rigs/${w.rig.id}/grants`, body: (w) => ({ email: w.cast.stranger.email }), expect: RIG_MANAGE(201), fresh: true },
+  { method: 'DELETE', route: '/api/grants/[id]', url: (w) => `/api/grants/${w.grant.id}`, expect: RIG_MANAGE(204), fresh: true },
+
+  // Trips and saved forecasts
+  { method: 'GET', route: '/api/trips', url: () => '/api/trips', expect: signedIn(200) },
+  { method: 'POST', route: '/api/trips', url: () => '/api/trips', body: (w) => TRIP_INPUT(w.rig.id), expect: RIG_WRITE(201) },
+  { method: 'GET', route: '/api/trips/[id]', url: (w) => `/api/trips/${w.trip.id}`, expect: RIG_READ },
+  { method: 'PATCH', route: '/api/trips/[id]', url: (w) => `/api/trips/${w.trip.id}`, body: (w) => ({ name: 'Renamed trip', version: w.trip.version }), expect: RIG_WRITE(200), fresh: true },
+  { method: 'DELETE', route: '/api/trips/[id]', url: (w) => `/api/trips/${w.trip.id}?version=${w.trip.version}`, expect: RIG_WRITE(204), fresh: true },
+  { method: 'GET', route: '/api/trips/[id]/forecasts', url: (w) => `/api/trips/${w.trip.id}/forecasts`, expect: RIG_READ },
+  { method: 'POST', route: '/api/trips/[id]/forecasts', url: (w) => `/api/trips/${w.trip.id}/forecasts`, body: () => ({ name: 'Matrix run' }), expect: RIG_WRITE(201) },
+  { method: 'GET', route: '/api/forecasts/[id]', url: (w) => `/api/forecasts/${w.forecast.id}`, expect: RIG_READ },
+  { method: 'GET', route: '/api/forecasts/[id]/hourly.csv', url: (w) => `/api/forecasts/${w.forecast.id}/hourly.csv`, expect: RIG_READ },
+  { method: 'DELETE', route: '/api/forecasts/[id]', url: (w) => `/api/forecasts/${w.forecast.id}`, expect: RIG_WRITE(204), fresh: true },
+];
+
+/** Lists must show the fixture's rows to exactly these actors (and hide them from the rest). */
+export const LISTS: { url: string; find: (body: unknown, w: World) => boolean; visibleTo: Actor[] }[] = [
+  { url: '/api/rigs', find: (b, w) => (b as { id: string }[]).some((r) => r.id === w.rig.id), visibleTo: ['owner', 'editor', 'viewer', 'installer'] },
+  { url: '/api/trips', find: (b, w) => (b as { id: string }[]).some((t) => t.id === w.trip.id), visibleTo: ['owner', 'editor', 'viewer', 'installer'] },
+  { url: '/api/crews', find: (b, w) => (b as { id: string }[]).some((c) => c.id === w.crewId), visibleTo: ['owner', 'editor', 'viewer'] },
+  { url: '/api/installer/rigs', find: (b, w) => Array.isArray(b) && (b as { rigId: string }[]).some((r) => r.rigId === w.rig.id), visibleTo: ['installer'] },
+];
