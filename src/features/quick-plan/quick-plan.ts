@@ -1,0 +1,322 @@
+// The quick plan: a short form on the landing page, turned into an engine plan (pure, no React).
+import { z } from 'zod';
+import type { Plan } from '../../engine';
+import { isValidTimeZone } from '../../engine/tz';
+import type { LoadInput } from '../../schemas/loads';
+import type { RigInput } from '../../schemas/rigs';
+import type { TripInput } from '../../schemas/trips';
+import { SKY_CHOICES } from '../../schemas/trips';
+
+// ---------------------------------------------------------------------------------------------
+// Choices
+
+/** Bank presets: chemistry and the engine's chemistry defaults (floor, charge rate, Peukert) do the rest. */
+export const BANK_PRESETS = [
+  { value: 'lifepo4', label: 'LiFePO4 (lithium)', hint: '12.8 V; usable down to about 10 %' },
+  { value: 'agm', label: 'AGM', hint: '12 V; keep above about 50 %' },
+  { value: 'flooded', label: 'Flooded lead-acid', hint: '12 V; keep above about 50 %' },
+] as const;
+export type BankPreset = (typeof BANK_PRESETS)[number]['value'];
+
+export const MOUNTINGS = [
+  { value: 'flat', label: 'Flat on the roof' },
+  { value: 'tilted', label: 'Tilted toward the sun' },
+  { value: 'portable', label: 'Portable, re-aimed through the day' },
+] as const;
+export type Mounting = (typeof MOUNTINGS)[number]['value'];
+
+/**
+ * Common loads with typical draws (trade-notes.md ranges, labelled "typical" on screen: the camper
+ * checks the appliance's label). Each is an engine load.
+ */
+export const LOAD_CATALOGUE = [
+  {
+    id: 'fridge',
+    label: '12 V compressor fridge',
+    typical: '45 W while running, about a third of the time at 20 °C; more in heat',
+    load: { name: 'Compressor fridge', watts: 45, dutyPct: 35, response: 'cooling' as const },
+  },
+  {
+    id: 'lights',
+    label: 'LED lights',
+    typical: '6 fixtures at about 0.1 A, mornings and evenings',
+    load: { name: 'LED lights', watts: 1.5, quantity: 6, windows: [[6, 8], [18, 23]] as [number, number][] },
+  },
+  {
+    id: 'pump',
+    label: 'Water pump',
+    typical: 'about 4 A, a few minutes an hour at mealtimes',
+    load: { name: 'Water pump', watts: 50, windows: [[7, 9], [18, 21]] as [number, number][], dutyPct: 8 },
+  },
+  {
+    id: 'furnace',
+    label: 'Furnace blower',
+    typical: 'about 3 A while it runs; runs more the colder the night',
+    load: { name: 'Furnace blower', watts: 36, response: 'heating' as const, setpointC: 17 },
+  },
+  {
+    id: 'cpap',
+    label: 'CPAP (no humidifier)',
+    typical: 'about 25 W, 22:00–06:00',
+    load: { name: 'CPAP', watts: 25, windows: [[22, 6]] as [number, number][] },
+  },
+  {
+    id: 'phones',
+    label: 'Phones charging',
+    typical: '2 phones at about 0.5 A, 2 hours each evening',
+    load: { name: 'Phones', watts: 6, quantity: 2, windows: [[19, 21]] as [number, number][] },
+  },
+  {
+    id: 'laptop',
+    label: 'Laptop via inverter',
+    typical: 'about 60 W AC through the inverter, working hours',
+    load: { name: 'Laptop (via inverter)', watts: 60, supply: 'ac' as const, windows: [[9, 12], [13, 17]] as [number, number][], dutyPct: 70 },
+  },
+  {
+    id: 'parasitic',
+    label: 'Parasitic draw',
+    typical: 'about 1 A all day: detectors, control boards, radio standby',
+    load: { name: 'Parasitic draw', watts: 13 },
+  },
+] as const;
+export type LoadId = (typeof LOAD_CATALOGUE)[number]['id'];
+const LOAD_IDS = LOAD_CATALOGUE.map((l) => l.id) as [LoadId, ...LoadId[]];
+
+/** A short list of zones for when the place search and the zone lookup are not available. */
+export const COMMON_ZONES = [
+  'America/Anchorage',
+  'America/Los_Angeles',
+  'America/Phoenix',
+  'America/Denver',
+  'America/Chicago',
+  'America/New_York',
+  'America/Halifax',
+  'America/Vancouver',
+  'America/Edmonton',
+  'America/Toronto',
+  'Europe/London',
+  'Europe/Paris',
+  'Europe/Berlin',
+  'Africa/Johannesburg',
+  'Australia/Perth',
+  'Australia/Adelaide',
+  'Australia/Brisbane',
+  'Australia/Sydney',
+  'Pacific/Auckland',
+] as const;
+
+export { SKY_CHOICES };
+
+// ---------------------------------------------------------------------------------------------
+// Form
+
+const number = (message: string) => z.number({ error: message });
+
+/** The quick plan's form values, checked in the browser before anything is sent. */
+export const quickPlanFormSchema = z
+  .object({
+    chemistry: z.enum(['lifepo4', 'agm', 'flooded'], { error: 'Choose the bank’s chemistry.' }),
+    capacityAh: number('Enter the bank’s size in Ah, for example 100.')
+      .gt(0, { error: 'Enter a size above 0 Ah.' })
+      .max(20_000, { error: 'Enter at most 20,000 Ah.' }),
+    panelWatts: number('Enter the panels’ total watts (0 if you have none).')
+      .min(0, { error: 'Enter 0 or more watts.' })
+      .max(100_000, { error: 'Enter at most 100,000 W.' }),
+    mounting: z.enum(['flat', 'tilted', 'portable'], { error: 'Choose how the panels are mounted.' }),
+    shadePct: number('Enter the shade at camp as a percentage (0 for open sky).')
+      .min(0, { error: 'Enter a shade from 0 to 100 %.' })
+      .max(100, { error: 'Enter a shade from 0 to 100 %.' }),
+    loads: z.array(z.enum(LOAD_IDS)),
+    placeName: z.string().trim().min(1, { error: 'Name the place, or search for it.' }).max(100, { error: 'Use at most 100 characters.' }),
+    lat: number('Enter the latitude, between -90 and 90.').min(-90, { error: 'Enter a latitude between -90 and 90.' }).max(90, { error: 'Enter a latitude between -90 and 90.' }),
+    lon: number('Enter the longitude, between -180 and 180.').min(-180, { error: 'Enter a longitude between -180 and 180.' }).max(180, { error: 'Enter a longitude between -180 and 180.' }),
+    timeZone: z.string().refine(isValidTimeZone, { error: 'Choose the place’s time zone.' }),
+    arrive: z
+      .string()
+      .regex(/^\d{4}-\d{2}-\d{2}$/, { error: 'Choose the day you arrive.' })
+      .refine((s) => {
+        const y = Number(s.slice(0, 4));
+        const d = new Date(`${s}T00:00:00Z`);
+        return y >= 1950 && y <= 2150 && !Number.isNaN(d.getTime()) && d.toISOString().startsWith(s);
+      }, { error: 'Choose a real date.' }),
+    nights: number('Enter how many nights, 1 to 60.')
+      .int({ error: 'Enter a whole number of nights.' })
+      .min(1, { error: 'Enter at least 1 night.' })
+      .max(60, { error: 'Enter at most 60 nights.' }),
+    cloudOktas: number('Choose the expected sky.').min(0).max(8),
+    tempUnit: z.enum(['C', 'F']),
+    high: number('Enter the expected daytime high.'),
+    low: number('Enter the expected overnight low.'),
+  })
+  .superRefine((v, ctx) => {
+    const hi = toCelsius(v.high, v.tempUnit);
+    const lo = toCelsius(v.low, v.tempUnit);
+    const range = v.tempUnit === 'C' ? '-60 to 60 °C' : '-76 to 140 °F';
+    if (hi < -60 || hi > 60) ctx.addIssue({ code: 'custom', path: ['high'], message: `Enter a high from ${range}.` });
+    if (lo < -60 || lo > 60) ctx.addIssue({ code: 'custom', path: ['low'], message: `Enter a low from ${range}.` });
+    if (hi < lo) ctx.addIssue({ code: 'custom', path: ['low'], message: 'The low must not be above the high.' });
+  });
+
+export type QuickPlanForm = z.infer<typeof quickPlanFormSchema>;
+export type QuickPlanField = keyof QuickPlanForm;
+
+/** °F → °C (the engine works in °C); °C passes through. */
+export function toCelsius(t: number, unit: 'C' | 'F'): number {
+  return unit === 'F' ? ((t - 32) * 5) / 9 : t;
+}
+
+function round1(x: number): number {
+  return Math.round(x * 10) / 10;
+}
+
+/** Default form values: a week from `today` (YYYY-MM-DD), three nights, a small LiFePO4 van. */
+export function defaultQuickPlan(today: string): QuickPlanForm {
+  const d = new Date(`${today}T00:00:00Z`);
+  d.setUTCDate(d.getUTCDate() + 7);
+  return {
+    chemistry: 'lifepo4',
+    capacityAh: 100,
+    panelWatts: 200,
+    mounting: 'flat',
+    shadePct: 0,
+    loads: ['fridge', 'lights', 'pump', 'phones', 'parasitic'],
+    placeName: 'Your camp',
+    lat: 38.6,
+    lon: -109.6,
+    timeZone: 'America/Denver',
+    arrive: d.toISOString().slice(0, 10),
+    nights: 3,
+    cloudOktas: 2,
+    tempUnit: 'C',
+    high: 22,
+    low: 6,
+  };
+}
+
+/** The panels' tilt and aim for a mounting: a fixed tilt near the latitude, facing the equator. */
+export function mountingGeometry(mounting: Mounting, lat: number): { tiltDeg: number; azimuthDeg: number; aim: 'fixed' | 'follow' } {
+  if (mounting === 'flat') return { tiltDeg: 0, azimuthDeg: 180, aim: 'fixed' };
+  const tilt = Math.min(60, Math.max(10, Math.round(Math.abs(lat))));
+  if (mounting === 'portable') return { tiltDeg: tilt, azimuthDeg: lat >= 0 ? 180 : 0, aim: 'follow' };
+  return { tiltDeg: tilt, azimuthDeg: lat >= 0 ? 180 : 0, aim: 'fixed' };
+}
+
+/** Builds the engine plan of a quick plan: one stop, the chosen loads, the same expected weather every day. */
+export function buildQuickPlan(v: QuickPlanForm): Plan {
+  const geometry = mountingGeometry(v.mounting, v.lat);
+  const chosen = new Set(v.loads);
+  return {
+    bank: { chemistry: v.chemistry, capacityAh: v.capacityAh, initialSocPct: 100 },
+    arrays:
+      v.panelWatts > 0
+        ? [{ name: `Panels (${MOUNTINGS.find((m) => m.value === v.mounting)?.label.toLowerCase() ?? v.mounting})`, ratedWatts: v.panelWatts, ...geometry, controller: 'mppt' }]
+        : [],
+    chargers: [],
+    inverter: { efficiencyPct: 90, idleWatts: 12, alwaysOn: false },
+    loads: LOAD_CATALOGUE.filter((l) => chosen.has(l.id)).map((l) => structuredClone({ ...l.load }) as NonNullable<Plan['loads']>[number]),
+    stops: [
+      {
+        name: v.placeName.trim(),
+        lat: v.lat,
+        lon: v.lon,
+        timeZone: v.timeZone,
+        arrive: v.arrive,
+        nights: v.nights,
+        arriveHour: 15,
+        shadePct: v.shadePct,
+        // One day's weather: the engine gives every other day the nearest given day.
+        weather: [{ date: v.arrive, cloudOktas: v.cloudOktas, highC: round1(toCelsius(v.high, v.tempUnit)), lowC: round1(toCelsius(v.low, v.tempUnit)) }],
+      },
+    ],
+    drives: [],
+  };
+}
+
+// ---------------------------------------------------------------------------------------------
+// API issues → fields
+
+/**
+ * The form field an API issue path belongs to (`bank.capacityAh` → `capacityAh`), or null when it
+ * belongs to no single field and is shown above the form.
+ */
+export function fieldForIssue(path: string): QuickPlanField | null {
+  const p = path.split('.');
+  if (p[0] === 'bank') return p[1] === 'capacityAh' ? 'capacityAh' : 'chemistry';
+  if (p[0] === 'arrays') {
+    if (p[2] === 'ratedWatts') return 'panelWatts';
+    if (p[2] === 'shadePct') return 'shadePct';
+    return 'mounting';
+  }
+  if (p[0] === 'loads') return 'loads';
+  if (p[0] === 'stops') {
+    const f = p[2];
+    if (f === 'weather') {
+      const w = p[4];
+      if (w === 'highC') return 'high';
+      if (w === 'lowC') return 'low';
+      if (w === 'cloudOktas') return 'cloudOktas';
+      return 'arrive';
+    }
+    const map: Record<string, QuickPlanField> = {
+      name: 'placeName',
+      lat: 'lat',
+      lon: 'lon',
+      timeZone: 'timeZone',
+      arrive: 'arrive',
+      nights: 'nights',
+      arriveHour: 'arrive',
+      shadePct: 'shadePct',
+    };
+    return map[f] ?? null;
+  }
+  return null;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Keeping the plan after sign-up
+
+/** sessionStorage key under which "Keep this plan" leaves the quick plan for the rig pages. */
+export const QUICK_PLAN_STORAGE_KEY = 'sunreckon.quickPlan';
+
+/** Where "Keep this plan" sends the visitor: sign up, then the rigs page picks the plan up. */
+export const KEEP_PLAN_URL = `/sign-up?next=${encodeURIComponent('/rigs?fromQuickPlan=1')}`;
+
+/** The stored quick plan, or null (nothing stored, storage blocked, or not JSON). */
+export function readStoredQuickPlan(storage: Pick<Storage, 'getItem'> | undefined = typeof sessionStorage === 'undefined' ? undefined : sessionStorage): Plan | null {
+  try {
+    const raw = storage?.getItem(QUICK_PLAN_STORAGE_KEY);
+    return raw ? (JSON.parse(raw) as Plan) : null;
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * Splits a quick plan into what the rig pages save after sign-up: the rig (bank, panels, chargers,
+ * inverter), its loads (the parasitic draw marked as standby) and the trip (without its rig id).
+ */
+export function quickPlanToRigAndTrip(plan: Plan): { rig: RigInput; loads: LoadInput[]; trip: Omit<TripInput, 'rigId'> } {
+  const stop = plan.stops[0];
+  return {
+    rig: {
+      name: 'My rig',
+      bank: { ...plan.bank },
+      arrays: (plan.arrays ?? []).map((a) => ({ ...a })),
+      chargers: (plan.chargers ?? []).map((c) => ({ ...c })),
+      inverter: plan.inverter ? { ...plan.inverter } : null,
+    },
+    loads: (plan.loads ?? []).map((l, i) => ({
+      ...l,
+      name: l.name ?? `Load ${i + 1}`,
+      note: 'From the quick plan: a typical figure, check the appliance’s label.',
+      standby: l.name === 'Parasitic draw',
+      position: i,
+    })),
+    trip: {
+      name: stop ? `${stop.name.slice(0, 80)}, ${stop.arrive}` : 'My trip',
+      stops: plan.stops.map((s) => ({ ...s })),
+      drives: (plan.drives ?? []).map((d) => ({ ...d })),
+      reserveSocPct: null,
+    },
+  };
+}
