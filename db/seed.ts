@@ -1,5 +1,7 @@
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import type { Kysely } from 'kysely';
+import type { DB } from './schema';
 
 /**
  * The invented demo crew of product.md: the Reyes-Okafor household's camper account, a second
@@ -33,8 +35,28 @@ export async function seed(): Promise<void> {
 
   const { seedDemoRigs } = await import('./seed-demo');
   await seedDemoRigs(db, { crewId: crew.crew_id, ownerId: ids.camper, memberId: ids.member });
+  await seedCrewAndGrant(db, { crewId: crew.crew_id, ownerId: ids.camper, memberId: ids.member, installerId: ids.installer });
   await db.destroy();
   console.log(`Demo crew "Reyes-Okafor" ready. Sign in as ${DEMO_ACCOUNTS.camper.email} / ${DEMO_ACCOUNTS.camper.password}`);
+}
+
+/** Tobi edits in the Reyes-Okafor crew (and works in it by default); the installer may read the van. Safe to run twice. */
+async function seedCrewAndGrant(db: Kysely<DB>, ids: { crewId: string; ownerId: string; memberId: string; installerId: string }): Promise<void> {
+  const now = new Date().toISOString();
+  await db.insertInto('crew_members').values({ crew_id: ids.crewId, user_id: ids.memberId, role: 'editor', created_at: now }).onConflict((oc) => oc.doNothing()).execute();
+  await db
+    .insertInto('active_crews')
+    .values({ user_id: ids.memberId, crew_id: ids.crewId, updated_at: now })
+    .onConflict((oc) => oc.column('user_id').doUpdateSet({ crew_id: ids.crewId, updated_at: now }))
+    .execute();
+  const van = await db.selectFrom('rigs').select('id').where('crew_id', '=', ids.crewId).where('name', 'like', 'Camper van%').executeTakeFirst();
+  if (van) {
+    await db
+      .insertInto('rig_grants')
+      .values({ id: crypto.randomUUID(), rig_id: van.id, installer_id: ids.installerId, granted_by: ids.ownerId, created_at: now })
+      .onConflict((oc) => oc.doNothing())
+      .execute();
+  }
 }
 
 const isMain = process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url);
