@@ -95,6 +95,17 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('landing and quick plan 
     await shot(page, `quick-plan-error-${viewport}`);
   });
 
+  it('finds a camp’s town by name and fills its coordinates and time zone', async () => {
+    await page.locator('#qp-placeName').fill('Moab');
+    const hit = page.getByRole('button', { name: /^Moab, UT/ });
+    await hit.waitFor();
+    await hit.click();
+    expect(await page.locator('#qp-placeName').inputValue()).toBe('Moab, UT, US');
+    expect(Number(await page.locator('#qp-lat').inputValue())).toBeCloseTo(38.573, 2);
+    expect(Number(await page.locator('#qp-lon').inputValue())).toBeCloseTo(-109.55, 2);
+    expect(await page.locator('#qp-timeZone').inputValue()).toBe('America/Denver');
+  });
+
   it('forecasts a filled-in quick plan: verdict, SOC chart with the line and the reserve band, summary', async () => {
     await page.locator('#qp-capacityAh').fill(String(ENTRY.capacityAh));
     await page.locator('#qp-panelWatts').fill(String(ENTRY.panelWatts));
