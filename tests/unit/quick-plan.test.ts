@@ -15,6 +15,7 @@ import {
   toCelsius,
   type QuickPlanForm,
 } from '../../src/features/quick-plan/quick-plan';
+import { toPlace } from '../../src/features/quick-plan/quick-plan.api';
 
 const values = (over: Partial<QuickPlanForm> = {}): QuickPlanForm => ({ ...defaultQuickPlan('2027-10-14'), ...over });
 
@@ -134,5 +135,20 @@ describe('quickPlanToRigAndTrip', () => {
     expect(readStoredQuickPlan({ getItem: (k) => store.get(k) ?? null })).toEqual(plan);
     expect(readStoredQuickPlan({ getItem: () => null })).toBeNull();
     expect(readStoredQuickPlan({ getItem: () => '{not json' })).toBeNull();
+  });
+});
+
+describe('toPlace', () => {
+  it('reads the place search’s rows, naming region and country, leaving out numeric region codes', () => {
+    expect(toPlace({ name: 'Moab', country: 'US', adminCode: 'UT', lat: 38.57332, lon: -109.54984, population: 5235, timeZone: 'America/Denver' })).toEqual({
+      name: 'Moab',
+      where: 'UT, US',
+      lat: 38.57332,
+      lon: -109.54984,
+      timeZone: 'America/Denver',
+    });
+    expect(toPlace({ name: 'Springs', country: 'ZA', adminCode: '06', lat: -26.25, lon: 28.4, timeZone: 'Africa/Johannesburg' })?.where).toBe('ZA');
+    expect(toPlace({ name: 'Nowhere' })).toBeNull();
+    expect(toPlace(null)).toBeNull();
   });
 });

@@ -17,7 +17,7 @@ function num(x: unknown): number | null {
   return typeof n === 'number' && Number.isFinite(n) ? n : null;
 }
 
-/** Reads one place from the search's JSON, whatever its exact field names; null when unusable. */
+/** Reads one place from the search's JSON, whatever its exact field names; null when unusable. Numeric region codes ("06") mean nothing to a camper and are left out. */
 export function toPlace(raw: unknown): Place | null {
   if (!raw || typeof raw !== 'object') return null;
   const r = raw as Record<string, unknown>;
@@ -25,7 +25,7 @@ export function toPlace(raw: unknown): Place | null {
   const lat = num(r.lat ?? r.latitude);
   const lon = num(r.lon ?? r.lng ?? r.longitude);
   if (!name || lat === null || lon === null) return null;
-  const where = [r.region ?? r.adminName ?? r.admin1 ?? r.state ?? r.adminCode, r.country ?? r.countryName ?? r.countryCode].filter((x) => typeof x === 'string' && x).join(', ');
+  const where = [r.region ?? r.adminName ?? r.admin1 ?? r.state ?? r.adminCode, r.country ?? r.countryName ?? r.countryCode].filter((x) => typeof x === 'string' && x && !/^\d+$/.test(x)).join(', ');
   const tz = r.timeZone ?? r.timezone ?? r.tz;
   return { name, where: typeof r.label === 'string' && !where ? r.label : where, lat, lon, timeZone: typeof tz === 'string' ? tz : null };
 }
