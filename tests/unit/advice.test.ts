@@ -77,6 +77,22 @@ describe('advise: generator hours', () => {
     expect(gen!.detail).toContain('60 A converter/charger');
   });
 
+  it('on a long trip, names a run for every morning that needs one, each carrying the bank to the next', () => {
+    // Ten nights of the same 3 points an hour: a day uses 72 points, so every morning from Fri 22
+    // to Sat 30 needs a run (Sun 31 ends at 11:00 with the bank still above the floor).
+    const long = resolve({ ...plan, stops: [warmNoSunStop({ nights: 10 })] });
+    const f = forecast(long);
+    const gen = advise(long, f).changes.find((c) => c.kind === 'generator');
+    expect(gen!.title).toMatch(/^Run a generator on 9 mornings, \d(–\d)? h each$/);
+    expect(gen!.fixes).toBe(true);
+    expect(gen!.detail).toContain('on Fri 22 Oct from 08:00');
+    expect(gen!.detail).toContain('on Sat 30 Oct from 08:00');
+    // Far less than running all allowed hours: at most 3 h a morning.
+    const litres = Number(/About ([\d.]+) L/.exec(gen!.effect)?.[1]);
+    expect(litres).toBeGreaterThan(0);
+    expect(litres).toBeLessThanOrEqual(9 * 3 * 0.6);
+  });
+
   it('says no generator is needed when the bank lasts', () => {
     const light = resolve({ ...plan, loads: [{ name: 'Test load', watts: 12.8 }] });
     const f = forecast(light);

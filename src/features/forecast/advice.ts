@@ -148,7 +148,7 @@ export function effectOf(base: Forecast, alt: Forecast, reservePct: number): { t
   if (base.summary.firstCutoffAt) {
     if (!alt.summary.firstCutoffAt) {
       const under = !fixes ? `, below the ${pct(reservePct)} reserve` : '';
-      return { text: `No cutoff — ${lowest}${under}.`, score: 1000 + alt.summary.minSocPct, fixes };
+      return { text: `No cutoff — ${lowest}${under}.`, score: 1_000_000 + alt.summary.minSocPct, fixes };
     }
     const b = hoursShort(base);
     const a = hoursShort(alt);
@@ -258,19 +258,46 @@ function generatorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: num
     const total = runs.reduce((s, r) => s + r.hours, 0);
     const ran = current.summary.generatorHours;
     const target = belowReserve ? floor : reservePct;
+    const hoursEach = runs.map((r) => r.hours);
+    const lo = Math.min(...hoursEach);
+    const hi = Math.max(...hoursEach);
+    const title =
+      runs.length <= 3
+        ? `Run a generator ${joinAnd(list)}`
+        : `Run a generator on ${runs.length} mornings, ${lo === hi ? `${lo} h` : `${lo}–${hi} h`} each`;
     return {
       kind: 'generator',
-      title: `Run a generator ${joinAnd(list)}`,
+      title,
       effect: `${e.text} About ${litres(current.summary.generatorLitres)} of fuel${ran < total ? ` (it runs ${ran} h: the bank is full sooner)` : ''}.${current.summary.minSocPct < target + 5 ? ' That leaves little margin: an extra hour gives room for error.' : ''}`,
-      detail: `Through ${source}; worked out by running the forecast again with the generator on for those hours${runs.length > 1 ? ' (one morning is not enough)' : ''}.${belowReserve ? ` No generator hours keep the bank above your ${pct(reservePct)} reserve: it falls below it where no generator may run.` : ''}`,
+      detail: `${runs.length > 3 ? `${list.join('; ')}. ` : ''}Through ${source}; worked out by running the forecast again with the generator on for those hours${runs.length > 1 ? ' (one morning is not enough)' : ''}.${belowReserve ? ` No generator hours keep the bank above your ${pct(reservePct)} reserve: it falls below it where no generator may run.` : ''}`,
       caution: CAUTIONS.generator,
       fixes: !belowReserve,
       score: e.score + 100 - total,
     };
   }
 
-  const all = generatorWindows(prepared, prepared.n).flat();
-  const alt = withForcedGenerator(prepared, all, amps, fuel);
+  // Trouble on many mornings (a long trip): the same hours every morning.
+  const days = generatorWindows(prepared, prepared.n);
+  const longest = Math.max(...days.map((w) => w.length));
+  for (const target of reservePct > floor ? [reservePct, floor] : [floor]) {
+    for (let h = 1; h <= longest; h++) {
+      const alt = withForcedGenerator(prepared, days.flatMap((w) => w.slice(0, h)), amps, fuel);
+      if (!isFine(alt, target)) continue;
+      const e = effectOf(base, alt, reservePct);
+      const under = target < reservePct;
+      return {
+        kind: 'generator',
+        title: `Run a generator ${h} h a day from ${formatClock(prepared.grid.time[days[days.length - 1][0]])}`,
+        effect: `${e.text} It would run about ${alt.summary.generatorHours} h in all (${litres(alt.summary.generatorLitres)} of fuel).`,
+        detail: `Through ${source}; worked out by running the forecast again with the generator on for those hours.${under ? ` No generator hours keep the bank above your ${pct(reservePct)} reserve.` : ''}`,
+        caution: CAUTIONS.generator,
+        fixes: !under,
+        score: e.score + 50 - h,
+      };
+    }
+  }
+
+  const alt = withForcedGenerator(prepared, days.flat(), amps, fuel);
   const e = effectOf(base, alt, reservePct);
   return notEnough(e, `Through ${source}, in every allowed generator hour.`);
 }
@@ -290,7 +317,9 @@ function greedyRuns(prepared: PreparedTrip, base: Forecast, target: number, amps
   const runs = new Map<number, Run>();
   const forcedRows = () => [...runs.values()].flatMap((r) => r.rows.slice(0, r.hours));
   let current = base;
-  for (let step = 0; step < 8 && !isFine(current, target); step++) {
+  // A budget of engine runs keeps long trips quick; they fall back to "every morning".
+  let budget = 60;
+  for (let step = 0; step < 12 && budget > 0 && !isFine(current, target); step++) {
     const p = firstProblemRow(current, target);
     const windows = generatorWindows(prepared, p);
     let fixed = false;
@@ -298,15 +327,26 @@ function greedyRuns(prepared: PreparedTrip, base: Forecast, target: number, amps
       const rows = windows[windows.length - back];
       const day = prepared.grid.localDay[rows[0]];
       const had = runs.get(day)?.hours ?? 0;
-      for (let h = had + 1; h <= rows.length; h++) {
+      // A run should carry the bank to the next allowed generator hours (or the trip's end);
+      // failing that, the smallest run that at least moves the trouble later.
+      const next = nextWindowStart(prepared, rows[rows.length - 1]);
+      let progress: { hours: number; alt: Forecast } | null = null;
+      for (let h = had + 1; h <= rows.length && budget > 0; h++) {
+        budget--;
         runs.set(day, { rows, hours: h, startTime: prepared.grid.time[rows[0]] });
         const alt = withForcedGenerator(prepared, forcedRows(), amps, fuel);
         const p2 = firstProblemRow(alt, target);
-        if (p2 < 0 || p2 > p) {
+        if (p2 < 0 || (next >= 0 && p2 > next)) {
           current = alt;
           fixed = true;
           break;
         }
+        if (p2 > p && !progress) progress = { hours: h, alt };
+      }
+      if (!fixed && progress) {
+        runs.set(day, { rows, hours: progress.hours, startTime: prepared.grid.time[rows[0]] });
+        current = progress.alt;
+        fixed = true;
       }
       if (!fixed) {
         if (had > 0) runs.set(day, { rows, hours: had, startTime: prepared.grid.time[rows[0]] });
@@ -317,6 +357,15 @@ function greedyRuns(prepared: PreparedTrip, base: Forecast, target: number, amps
   }
   if (runs.size === 0 || !isFine(current, target)) return null;
   return { runs: [...runs.values()].sort((a, b) => a.rows[0] - b.rows[0]), current };
+}
+
+/** First row after `row` on a later local day where the plan allows a generator; −1 when none. */
+function nextWindowStart(prepared: PreparedTrip, row: number): number {
+  const day = prepared.grid.localDay[row];
+  for (let r = row + 1; r < prepared.n; r++) {
+    if (prepared.generatorAllowed[r] === 1 && prepared.grid.localDay[r] !== day) return r;
+  }
+  return -1;
 }
 
 function joinAnd(items: string[]): string {
