@@ -373,11 +373,11 @@ function joinAnd(items: string[]): string {
   return `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
 }
 
-function notEnough(e: { text: string; score: number }, detail: string): AdviceChange {
+function notEnough(e: { text: string; score: number }, detail: string, lead = 'Even running in every allowed hour'): AdviceChange {
   return {
     kind: 'generator',
     title: 'A generator alone is not enough',
-    effect: `Even running in every allowed hour: ${e.text[0].toLowerCase()}${e.text.slice(1)}`,
+    effect: `${lead}: ${e.text[0].toLowerCase()}${e.text.slice(1)}`,
     detail: `${detail} The bank runs low where no generator may run (at night, or while driving): it needs more capacity, more charging or fewer loads.`,
     caution: CAUTIONS.generator,
     fixes: false,
@@ -409,7 +409,7 @@ function ownGeneratorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: 
   }
   if (own.startSocPct >= 95) return null;
   const e = effectOf(base, withStart(95).alt, reservePct);
-  return notEnough(e, `With the rig’s generator starting below 95 %.`);
+  return notEnough(e, 'With the rig’s generator starting below 95 %, in its allowed hours.', 'Even starting the generator below 95 %');
 }
 
 // ---------------------------------------------------------------------------------------------
