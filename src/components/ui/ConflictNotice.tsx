@@ -15,7 +15,8 @@ interface ConflictNoticeProps {
  * they choose: keep their own edit (sent again on top of the other version) or take the other one.
  */
 export function ConflictNotice({ what, theirs, onKeepMine, onTakeTheirs, busy, children }: ConflictNoticeProps) {
-  const when = theirs.updatedAt ? `${formatDistanceToNowStrict(new Date(theirs.updatedAt), { addSuffix: true })}` : 'while you were editing';
+  const age = theirs.updatedAt ? Date.now() - new Date(theirs.updatedAt).getTime() : NaN;
+  const when = !Number.isFinite(age) ? 'while you were editing' : age < 60_000 ? 'just now' : formatDistanceToNowStrict(new Date(theirs.updatedAt!), { addSuffix: true });
   return (
     <div role="alert" className="caution my-3" data-conflict>
       <p className="font-bold">Someone else saved this {what} {when} (version {theirs.version}).</p>

@@ -1,16 +1,36 @@
-import type { ComponentType } from 'react';
+import { useSyncExternalStore, type ComponentType, type ReactNode } from 'react';
 import { QueryClientProvider } from '@tanstack/react-query';
 import { queryClient } from '../../lib/query-client';
+import { LoadingState } from './States';
+
+const noSubscribe = () => () => {};
+
+/** False on the server and during hydration, true once the island runs in the browser. */
+function useHydrated(): boolean {
+  return useSyncExternalStore(noSubscribe, () => true, () => false);
+}
+
+interface Options {
+  /**
+   * What the island shows on the server and while it hydrates. Islands on one page share the
+   * cache, so one island may already hold another's data when it hydrates; rendering that data
+   * straight away would not match the server's HTML. With a fallback, the island first renders
+   * exactly what the server sent, then its real content. Leave it out for islands whose first
+   * render reads no shared data (plain forms).
+   */
+  fallback?: ReactNode;
+}
 
 /** Wraps an island in the page's one QueryClient, so islands share their cache. */
-export function withQueryClient<P extends object>(Component: ComponentType<P>): ComponentType<P> {
+export function withQueryClient<P extends object>(Component: ComponentType<P>, options: Options = {}): ComponentType<P> {
   function WithQueryClient(props: P) {
-    return (
-      <QueryClientProvider client={queryClient}>
-        <Component {...props} />
-      </QueryClientProvider>
-    );
+    const hydrated = useHydrated();
+    const gate = options.fallback !== undefined && !hydrated;
+    return <QueryClientProvider client={queryClient}>{gate ? options.fallback : <Component {...props} />}</QueryClientProvider>;
   }
   WithQueryClient.displayName = `WithQueryClient(${Component.displayName ?? Component.name ?? 'Island'})`;
   return WithQueryClient;
 }
+
+/** The usual fallback: a loading line. */
+export const loadingFallback = (label: string) => <LoadingState label={label} />;
