@@ -1,0 +1,207 @@
+import { useState, type ReactNode } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { LoadDto } from '../../schemas/loads';
+import { Field, describedBy } from '../../components/ui/Field';
+import { NumberField } from '../../components/ui/NumberField';
+import { TemperatureInput } from '../../components/ui/TemperatureInput';
+import { ConflictNotice } from '../../components/ui/ConflictNotice';
+import { applyServerIssues, asNumber, errorAt } from '../../components/ui/form';
+import { ApiError, isConflict, isNotFound } from '../../lib/query-client';
+import { formatAh, formatNumber, formatWh } from '../../lib/format';
+import { formatTemp, formatTempDelta, type Units } from '../../lib/units';
+import { loadWhPerDay, whToAh, type EnergyRig } from './energy';
+import { LOAD_FIELDS, loadFormSchema, loadToForm, type LoadFormOutput, type LoadFormValues } from './load-form';
+import { describeWindows, parseWindows } from './windows';
+
+interface LoadEditorProps {
+  /** Unique per editor on the page; prefixes the field ids. */
+  idPrefix: string;
+  initial: LoadFormValues;
+  units: Units;
+  rig: EnergyRig;
+  title: string;
+  intro?: ReactNode;
+  submitLabel: string;
+  /** Saves; `version` is given when the user keeps their edit over a newer version. */
+  save: (values: LoadFormOutput, version?: number) => Promise<void>;
+  onCancel: () => void;
+  /** The other version won: show it and close. */
+  onTakeTheirs?: (current: LoadDto) => void;
+}
+
+const num = { setValueAs: asNumber };
+
+function show(key: string, v: unknown, units: Units): string {
+  if (v === undefined || v === null || v === '') return '—';
+  if (key === 'windows' && Array.isArray(v)) return describeWindows(v as [number, number][]);
+  if (key === 'setpointC' && typeof v === 'number') return formatTemp(v, units);
+  if (key === 'standby') return v ? 'yes' : 'no';
+  if (key === 'supply') return String(v).toUpperCase();
+  return String(v);
+}
+
+/** One load's fields, in place in the table: used to add, edit, and confirm a catalogue item. */
+export function LoadEditor({ idPrefix, initial, units, rig, title, intro, submitLabel, save, onCancel, onTakeTheirs }: LoadEditorProps) {
+  const [formError, setFormError] = useState<string | null>(null);
+  const [conflict, setConflict] = useState<{ current: LoadDto; mine: LoadFormOutput } | null>(null);
+  const form = useForm<LoadFormValues, unknown, LoadFormOutput>({ resolver: zodResolver(loadFormSchema), defaultValues: initial, mode: 'onTouched' });
+  const { register, control, handleSubmit, setError, formState: { errors, isSubmitting } } = form;
+  const id = (k: string) => `${idPrefix}-${k}`;
+  const err = (k: string) => errorAt(errors, k);
+
+  const values = useWatch({ control });
+  const standby = values.standby === true;
+  const response = values.response;
+  const parsed = parseWindows(typeof values.windows === 'string' ? values.windows : '');
+  const estimate =
+    typeof values.watts === 'number' && Number.isFinite(values.watts) && parsed.ok
+      ? loadWhPerDay(
+          {
+            watts: values.watts,
+            quantity: typeof values.quantity === 'number' && Number.isFinite(values.quantity) ? values.quantity : 1,
+            supply: values.supply,
+            windows: standby ? [[0, 24]] : parsed.windows,
+            dutyPct: standby ? 100 : typeof values.dutyPct === 'number' && Number.isFinite(values.dutyPct) ? values.dutyPct : 100,
+          },
+          rig,
+        )
+      : null;
+
+  const run = async (out: LoadFormOutput, version?: number) => {
+    setFormError(null);
+    try {
+      await save(out, version);
+    } catch (e) {
+      if (isConflict(e)) {
+        const current = e.current<LoadDto>();
+        if (current) return setConflict({ current, mine: out });
+      }
+      if (isNotFound(e)) return setFormError('Someone deleted this load while you were editing it. Cancel, or add it again as a new load.');
+      if (e instanceof ApiError) {
+        const loose = applyServerIssues(e.issues, setError, `${idPrefix}-`);
+        setFormError(loose.length ? `${e.message} ${loose.map((i) => `${i.path}: ${i.message}`).join('; ')}` : e.message);
+      } else setFormError('Could not save the load. Try again.');
+    }
+  };
+
+  const onSubmit = handleSubmit((out) => run(out), () => setFormError('Some fields need fixing: see the messages next to them.'));
+
+  return (
+    <form onSubmit={onSubmit} noValidate aria-label={title} className="rounded-xl border-2 border-ember/60 bg-white p-3 text-left sm:p-4">
+      <h3 className="text-base font-extrabold">{title}</h3>
+      {intro}
+      {formError ? <p role="alert" className="caution mt-2 font-semibold text-alert">{formError}</p> : null}
+      {conflict ? (
+        <ConflictNotice
+          what="load"
+          theirs={conflict.current}
+          busy={isSubmitting}
+          onKeepMine={() => {
+            const { mine, current } = conflict;
+            setConflict(null);
+            void run(mine, current.version);
+          }}
+          onTakeTheirs={() => {
+            const current = conflict.current;
+            setConflict(null);
+            onTakeTheirs?.(current);
+          }}
+        >
+          <table className="mt-2 w-full text-sm">
+            <thead>
+              <tr className="text-left"><th className="py-1 pr-2">Field</th><th className="py-1 pr-2">Theirs</th><th className="py-1">Yours</th></tr>
+            </thead>
+            <tbody>
+              {LOAD_FIELDS.filter(({ key }) => JSON.stringify(conflict.current[key as keyof LoadDto]) !== JSON.stringify(conflict.mine[key as keyof LoadFormOutput])).map(({ key, label }) => (
+                <tr key={key} className="border-t border-sand-dark">
+                  <th scope="row" className="py-1 pr-2 text-left font-semibold">{label}</th>
+                  <td className="py-1 pr-2">{show(key, conflict.current[key as keyof LoadDto], units)}</td>
+                  <td className="py-1">{show(key, conflict.mine[key as keyof LoadFormOutput], units)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </ConflictNotice>
+      ) : null}
+
+      <div className="mt-3 grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
+        <Field id={id('name')} label="Name" error={err('name')} className="sm:col-span-2">
+          <input id={id('name')} className="field-input" autoComplete="off" {...describedBy(id('name'), err('name'))} {...register('name')} />
+        </Field>
+        <NumberField id={id('watts')} label="Watts (each)" errorName="Watts" unit="W" registration={register('watts', num)} error={err('watts')} hint="Running draw from the label; AC watts for AC loads." />
+        <NumberField id={id('quantity')} label="Quantity" registration={register('quantity', num)} error={err('quantity')} />
+
+        <fieldset>
+          <legend className="field-label">Supply</legend>
+          <div className="flex gap-2">
+            {(['dc', 'ac'] as const).map((s) => (
+              <label key={s} className="flex min-h-[44px] flex-1 cursor-pointer items-center gap-2 rounded-xl border-2 border-sand-dark bg-white px-3 font-bold has-[:checked]:border-ember">
+                <input type="radio" value={s} className="accent-ember" {...register('supply')} /> {s === 'dc' ? '12 V DC' : 'AC (inverter)'}
+              </label>
+            ))}
+          </div>
+          {values.supply === 'ac' && !rig.inverter ? <p className="field-hint mt-1">This rig has no inverter yet; the estimate assumes one at 90 % efficiency.</p> : null}
+        </fieldset>
+        <Field id={id('days')} label="Runs on" error={err('days')}>
+          <select id={id('days')} className="field-input" disabled={standby} {...describedBy(id('days'), err('days'))} {...register('days')}>
+            <option value="all">Every day</option>
+            <option value="camp">Camp days only</option>
+            <option value="drive">Drive days only</option>
+          </select>
+        </Field>
+        <label className="flex items-start gap-2 rounded-xl bg-sand/50 p-3 sm:col-span-2">
+          <input type="checkbox" className="mt-1.5 h-4 w-4 accent-ember" {...register('standby')} />
+          <span>
+            <span className="font-bold">Standby / parasitic draw</span>
+            <br />
+            <span className="field-hint">Runs every hour of every day, even with everything “off” (detectors, radio memory, control panels).</span>
+          </span>
+        </label>
+
+        <Field
+          id={id('windows')}
+          label="When it runs"
+          errorName="Schedule"
+          error={err('windows')}
+          hint="Hours like 18-23; 6-8. 22-6 runs past midnight. “all day” for every hour."
+          className="sm:col-span-2"
+        >
+          <input id={id('windows')} className="field-input" autoComplete="off" disabled={standby} {...describedBy(id('windows'), err('windows'), true)} {...register('windows')} />
+        </Field>
+        <NumberField id={id('dutyPct')} label="Duty" unit="%" registration={register('dutyPct', num)} error={err('dutyPct')} disabled={standby}
+          hint={response === 'cooling' ? `Share of the time it runs at ${formatTemp(20, units)}; more in heat.` : response === 'heating' ? `Share of the time it runs when it is ${formatTempDelta(25, units)} colder than the setpoint.` : 'Share of those hours it actually runs.'} />
+        <Field id={id('response')} label="Temperature" error={err('response')}>
+          <select id={id('response')} className="field-input" {...describedBy(id('response'), err('response'))} {...register('response')}>
+            <option value="none">Not affected</option>
+            <option value="cooling">Cooling (fridge): more in heat</option>
+            <option value="heating">Heating (furnace): below a setpoint</option>
+          </select>
+        </Field>
+        {response === 'heating' ? (
+          <TemperatureInput control={control} name="setpointC" id={id('setpointC')} label="Thermostat setpoint" errorName="Setpoint" units={units} minC={-30} maxC={40} />
+        ) : null}
+        <Field id={id('note')} label="Note" error={err('note')} className="sm:col-span-2 lg:col-span-4">
+          <input id={id('note')} className="field-input" autoComplete="off" placeholder="Optional: model, where it is, who uses it" {...describedBy(id('note'), err('note'))} {...register('note')} />
+        </Field>
+      </div>
+
+      <p className="mt-3 text-sm" aria-live="polite">
+        {estimate !== null ? (
+          <>
+            <span className="font-bold">≈ {formatWh(estimate)} · {formatAh(whToAh(estimate, rig.nominalVolts))} a day</span>{' '}
+            <span className="text-slate-text">at {formatNumber(rig.nominalVolts, 1)} V — an estimate before temperature response.</span>
+          </>
+        ) : (
+          <span className="text-slate-text">Enter the watts to see the daily estimate.</span>
+        )}
+      </p>
+      <div className="mt-3 flex flex-wrap gap-2">
+        <button type="submit" className="btn btn-primary" disabled={isSubmitting}>{isSubmitting ? 'Saving…' : submitLabel}</button>
+        <button type="button" className="btn btn-quiet" onClick={onCancel}>Cancel</button>
+      </div>
+    </form>
+  );
+}
+
+export { loadToForm };
