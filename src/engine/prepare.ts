@@ -6,7 +6,7 @@ import { ambientForRow } from './ambient';
 import { inGeneratorWindow } from './chargers';
 import { inverterDcWatts, runsOnDay, windowMask, dutyAt } from './loads';
 import type { ResolvedArray, ResolvedPlan } from './schema';
-import { cosIncidence, extraterrestrial, haurwitz, kastenCzeplak, poaIsotropic, splitErbs } from './sun';
+import { cosIncidenceTrig, extraterrestrial, haurwitz, kastenCzeplak, poaIsotropicCos, splitErbs } from './sun';
 import { cellTempNoct, dcPerWatt } from './pv';
 import { getPosition } from 'suncalc';
 import { buildGrid, type Grid } from './timeline';
@@ -112,6 +112,8 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   const na = arrays.length;
   const follow = plan.arrays.map((a) => a.aim === 'follow');
   const arrayShade = plan.arrays.map((a) => 1 - a.shadePct / 100);
+  const cosTilt = plan.arrays.map((a) => Math.cos(a.tiltDeg * RAD));
+  const sinTilt = plan.arrays.map((a) => Math.sin(a.tiltDeg * RAD));
 
   const ambientC = new Float64Array(n);
   const sunAltitudeDeg = new Float64Array(n);
@@ -123,8 +125,10 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   const generatorSite = new Uint8Array(n);
   const dayIndex = new Uint16Array(n);
 
-  // ---- loads: masks once ----
+  // ---- loads: masks and constant parts once ----
   const masks = plan.loads.map((l) => windowMask(l.windows));
+  const loadWatts = plan.loads.map((l) => l.watts * l.quantity);
+  const fixedDuty = plan.loads.map((l) => (l.response === 'none' ? dutyAt(l, 0) : -1));
 
   // suncalc 2.x directly (see sun.ts sunPosition for its conventions), with one reused Date:
   // thousands of sub-steps per trip make allocation show up in the timings.
@@ -153,7 +157,7 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     for (let i = 0; i < plan.loads.length; i++) {
       const l = plan.loads[i];
       if (((masks[i] >>> hour) & 1) === 0 || !runsOnDay(l.days, isDriveDay)) continue;
-      const wts = l.watts * l.quantity * dutyAt(l, ta);
+      const wts = loadWatts[i] * (fixedDuty[i] >= 0 ? fixedDuty[i] : dutyAt(l, ta));
       if (l.supply === 'ac') ac += wts;
       else dc += wts;
     }
@@ -179,13 +183,14 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
       if (!(cosZ > 0)) continue;
       // Steps 3–5: clear sky, clouds, beam/diffuse split.
       const sky = splitErbs(haurwitz(cosZ) * cloud, cosZ, e0);
-      const zenith = 90 - p.altitude;
+      const sinZ = Math.cos(p.altitude * RAD);
       for (let a = 0; a < na; a++) {
         const spec = plan.arrays[a];
         // Step 6: a panel that follows the sun faces the sun's azimuth at every sub-step.
-        const cosT = cosIncidence(zenith, p.azimuth, spec.tiltDeg, follow[a] ? p.azimuth : spec.azimuthDeg);
+        const cosDaz = follow[a] ? 1 : Math.cos((p.azimuth - spec.azimuthDeg) * RAD);
+        const cosT = cosIncidenceTrig(cosZ, sinZ, cosTilt[a], sinTilt[a], cosDaz);
         // Step 7: shade scales the plane-of-array irradiance before the cell temperature.
-        const poa = poaIsotropic(sky.dni, sky.dhi, sky.ghi, cosT, spec.tiltDeg) * shadeStop * arrayShade[a];
+        const poa = poaIsotropicCos(sky.dni, sky.dhi, sky.ghi, cosT, cosTilt[a]) * shadeStop * arrayShade[a];
         poaSub[a] = poa;
         // Step 8: NOCT cell temperature and DC output per rated watt.
         const pw = dcPerWatt(poa, cellTempNoct(ta, poa, spec.nocC), spec.tempCoeffPctPerC, spec.lossesPct);

@@ -80,7 +80,12 @@ export function splitErbs(ghi: number, cosZ: number, e0: number): Irradiance {
 export function cosIncidence(zenithDeg: number, sunAzimuthDeg: number, tiltDeg: number, panelAzimuthDeg: number): number {
   const z = zenithDeg * RAD;
   const b = tiltDeg * RAD;
-  return Math.cos(z) * Math.cos(b) + Math.sin(z) * Math.sin(b) * Math.cos((sunAzimuthDeg - panelAzimuthDeg) * RAD);
+  return cosIncidenceTrig(Math.cos(z), Math.sin(z), Math.cos(b), Math.sin(b), Math.cos((sunAzimuthDeg - panelAzimuthDeg) * RAD));
+}
+
+/** The same cos θ from precomputed cosines and sines (the hot loop reuses them across arrays and hours). */
+export function cosIncidenceTrig(cosZ: number, sinZ: number, cosTilt: number, sinTilt: number, cosAzimuthDiff: number): number {
+  return cosZ * cosTilt + sinZ * sinTilt * cosAzimuthDiff;
 }
 
 /**
@@ -88,6 +93,10 @@ export function cosIncidence(zenithDeg: number, sunAzimuthDeg: number, tiltDeg: 
  * DNI·max(0, cos θ) + DHI·(1 + cos β)/2 + GHI·ρ·(1 − cos β)/2.
  */
 export function poaIsotropic(dni: number, dhi: number, ghi: number, cosTheta: number, tiltDeg: number, albedo = ALBEDO): number {
-  const cb = Math.cos(tiltDeg * RAD);
-  return dni * Math.max(0, cosTheta) + (dhi * (1 + cb)) / 2 + (ghi * albedo * (1 - cb)) / 2;
+  return poaIsotropicCos(dni, dhi, ghi, cosTheta, Math.cos(tiltDeg * RAD), albedo);
+}
+
+/** The same sum with cos β precomputed. */
+export function poaIsotropicCos(dni: number, dhi: number, ghi: number, cosTheta: number, cosTilt: number, albedo = ALBEDO): number {
+  return dni * (cosTheta > 0 ? cosTheta : 0) + (dhi * (1 + cosTilt)) / 2 + (ghi * albedo * (1 - cosTilt)) / 2;
 }
