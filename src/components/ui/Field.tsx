@@ -12,14 +12,16 @@ interface FieldProps {
 }
 
 /**
- * Names the field in a message that starts with a verb ("must be a number" → "Capacity (Ah) must
- * be a number"); messages that already read as a sentence are kept as they are.
+ * Names the field in a message that starts with a verb ("must be at least 0" → "Capacity must be
+ * at least 0"); other messages are kept, starting with a capital.
  */
 export function fieldMessage(name: string, message?: string): string | undefined {
   if (!message) return undefined;
   // zod says "must be a number" both for an empty box and for text: one plain instruction covers both.
   if (message === 'must be a number') return `${name}: enter a number.`;
-  return /^[a-z]/.test(message) ? `${name} ${message}` : message;
+  // "must be at least 0" → "Capacity must be at least 0"; any other lower-case message gets a capital.
+  if (/^(must|is|are|should|cannot|needs?|overlaps)\b/.test(message)) return `${name} ${message}`;
+  return message.charAt(0).toUpperCase() + message.slice(1);
 }
 
 /** A labelled form field with its hint and its error next to it. */

@@ -18,7 +18,7 @@ import { describeWindows } from './windows';
 
 type SortKey = 'added' | 'name' | 'watts' | 'supply' | 'duty' | 'wh';
 const SORTS: { key: SortKey; label: string }[] = [
-  { key: 'added', label: 'Order added' },
+  { key: 'added', label: 'List order' },
   { key: 'name', label: 'Name' },
   { key: 'watts', label: 'Draw' },
   { key: 'supply', label: 'AC/DC' },
@@ -50,7 +50,7 @@ function LoadsTable({ rigId, units: unitsProp }: { rigId: string; units: Units }
     const list = (loads.data ?? []).map((l, i) => ({ load: l, index: i, wh: energyRig ? loadWhPerDay(l, energyRig) : 0 }));
     const dir = sort.dir === 'asc' ? 1 : -1;
     const by: Record<SortKey, (a: (typeof list)[number], b: (typeof list)[number]) => number> = {
-      added: (a, b) => a.index - b.index,
+      added: (a, b) => (a.load.position ?? a.index) - (b.load.position ?? b.index),
       name: (a, b) => a.load.name.localeCompare(b.load.name),
       watts: (a, b) => a.load.watts * a.load.quantity - b.load.watts * b.load.quantity,
       supply: (a, b) => a.load.supply.localeCompare(b.load.supply),
