@@ -32,17 +32,17 @@ export function planTimeline(stops: StopTime[], drives: DriveTime[]): TripTimeli
   const last = stops[stops.length - 1];
   const endLocal = localToInstant(last.timeZone, dayNumber(last.arrive) + last.nights, 11);
   const hours = Math.max(1, Math.ceil((endLocal - startMs) / HOUR_MS));
+  const arriveDays = stops.map((s) => dayNumber(s.arrive));
   const driveTimes = drives.map((d) => {
     const day = dayNumber(d.date);
-    // A drive's clock time is read in the zone of the stop that owns that instant: try the
-    // latest stop first and walk back until that stop has arrived by then.
-    let t = localToInstant(stops[0].timeZone, day, d.startHour);
-    for (let s = stops.length - 1; s >= 0; s--) {
-      const ts = localToInstant(stops[s].timeZone, day, d.startHour);
-      if (ts >= arrivals[s] || s === 0) {
-        t = ts;
-        break;
-      }
+    // A drive's clock time is read in the zone of the stop that owns that instant: start from
+    // the last stop that has arrived by that date and walk back while it has not yet arrived.
+    let s = stops.length - 1;
+    while (s > 0 && arriveDays[s] > day) s--;
+    let t = localToInstant(stops[s].timeZone, day, d.startHour);
+    while (s > 0 && t < arrivals[s]) {
+      s--;
+      t = localToInstant(stops[s].timeZone, day, d.startHour);
     }
     return { startMs: t, endMs: t + d.hours * HOUR_MS, day };
   });
