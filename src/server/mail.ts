@@ -53,7 +53,8 @@ export function renderMail(parts: MailParts): MailContent {
   ].join('\n');
 
   const para = (p: string) => `<p style="margin:0 0 16px;font-size:16px;line-height:1.6;color:${PALETTE.dusk};">${escapeHtml(p)}</p>`;
-  const small = (p: string) => `<p style="margin:0 0 12px;font-size:14px;line-height:1.55;color:${PALETTE.slateText};">${escapeHtml(p)}</p>`;
+  // Long link addresses must wrap on a phone instead of widening the card.
+  const small = (p: string) => `<p style="margin:0 0 12px;font-size:14px;line-height:1.55;color:${PALETTE.slateText};word-break:break-word;overflow-wrap:anywhere;">${escapeHtml(p)}</p>`;
   const button = parts.action
     ? `<table role="presentation" cellpadding="0" cellspacing="0" style="margin:8px 0 24px;"><tr><td style="border-radius:10px;background:${PALETTE.ember};">` +
       `<a href="${escapeHtml(parts.action.url)}" style="display:inline-block;padding:12px 22px;font-family:${FONT};font-size:16px;font-weight:700;color:#ffffff;text-decoration:none;border-radius:10px;">${escapeHtml(parts.action.label)}</a>` +

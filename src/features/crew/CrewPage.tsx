@@ -159,6 +159,8 @@ function CrewName({ crew }: { crew: CrewDetailDto }) {
 function MemberRow({ crew, member, onNotice }: { crew: CrewDetailDto; member: MemberDto; onNotice: (t: string, tone?: 'ok' | 'alert') => void }) {
   const qc = useQueryClient();
   const isOwner = crew.role === 'owner';
+  // The server refuses it too; the page just does not offer it.
+  const lastOwner = member.role === 'owner' && crew.members.filter((m) => m.role === 'owner').length === 1;
   const selectId = useId();
   const refresh = () => qc.invalidateQueries({ queryKey: crewKeys.all });
   const role = useMutation({
@@ -199,6 +201,7 @@ function MemberRow({ crew, member, onNotice }: { crew: CrewDetailDto; member: Me
           {member.name} {member.isYou ? <span className="font-semibold text-slate-text">(you)</span> : null}
         </p>
         <p className="truncate text-sm text-slate-text">{member.email}</p>
+        {lastOwner && isOwner ? <p className="text-sm text-slate-text">The crew’s only owner: make someone else owner before changing this role or leaving.</p> : null}
       </div>
       <div className="flex flex-wrap items-center gap-2">
         {isOwner ? (
@@ -208,7 +211,7 @@ function MemberRow({ crew, member, onNotice }: { crew: CrewDetailDto; member: Me
               id={selectId}
               className="field-input w-auto min-w-[8.5rem]"
               value={member.role}
-              disabled={role.isPending}
+              disabled={role.isPending || lastOwner}
               onChange={(e) => role.mutate(e.target.value as CrewRoleName)}
             >
               {CREW_ROLES.map((r) => <option key={r} value={r}>{ROLE_LABEL[r]}</option>)}
@@ -217,7 +220,7 @@ function MemberRow({ crew, member, onNotice }: { crew: CrewDetailDto; member: Me
         ) : (
           <RoleBadge role={member.role} />
         )}
-        {isOwner || member.isYou ? (
+        {(isOwner || member.isYou) && !lastOwner ? (
           <button type="button" className="btn btn-quiet text-alert" onClick={confirmRemove} disabled={remove.isPending}>
             {member.isYou ? 'Leave crew' : 'Remove'}
           </button>
@@ -337,9 +340,12 @@ function NewCrewForm() {
   );
 }
 
-function CrewBody({ crewId, crews }: { crewId: string; crews: CrewSummaryDto[] }) {
+function CrewBody({ crewId, crews, joined }: { crewId: string; crews: CrewSummaryDto[]; joined: boolean }) {
   const crew = useQuery(crewQuery(crewId));
-  const [notice, setNotice] = useState<{ text: string; tone: 'ok' | 'alert' } | null>(null);
+  const [notice, setNotice] = useState<{ text: string; tone: 'ok' | 'alert' } | null>(() => {
+    const c = crews.find((x) => x.id === crewId);
+    return joined && c ? { text: `Welcome to ${c.name}. You joined as ${c.role === 'owner' ? 'an owner' : `an ${c.role}`}; its rigs are under Rigs.`, tone: 'ok' } : null;
+  });
   const onNotice = (text: string, tone: 'ok' | 'alert' = 'ok') => setNotice({ text, tone });
   if (crew.isPending) return <LoadingState label="Loading the crew…" />;
   if (crew.isError) return <ErrorState error={crew.error} title="The crew could not be loaded." onRetry={() => void crew.refetch()} />;
@@ -390,8 +396,8 @@ function CrewBody({ crewId, crews }: { crewId: string; crews: CrewSummaryDto[] }
   );
 }
 
-/** The /crew page: switch crews, members and roles, invitations, rename. */
-function CrewPage() {
+/** The /crew page: switch crews, members and roles, invitations, rename; `joined` right after accepting an invitation. */
+function CrewPage({ joined = false }: { joined?: boolean }) {
   const crews = useQuery(crewsQuery());
   if (crews.isPending) return <LoadingState label="Loading your crews…" />;
   if (crews.isError) return <ErrorState error={crews.error} title="Your crews could not be loaded." onRetry={() => void crews.refetch()} />;
@@ -404,7 +410,7 @@ function CrewPage() {
       </EmptyState>
     );
   }
-  return <CrewBody key={active.id} crewId={active.id} crews={crews.data} />;
+  return <CrewBody key={active.id} crewId={active.id} crews={crews.data} joined={joined} />;
 }
 
 export default withQueryClient(CrewPage);

@@ -1,0 +1,150 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { api, baseUrl, signUp, uniqueEmail, type Session } from '../helpers/api';
+import { hydrated, launch, shot, type ViewportName } from '../helpers/browser';
+import { activeCrew, makeRig, member } from '../helpers/crew';
+
+const PASSWORD = 'dusk-and-ember-27';
+
+async function signIn(page: Page, email: string, next: string, password = PASSWORD) {
+  await page.goto(`${baseUrl()}/sign-in?next=${encodeURIComponent(next)}`);
+  await hydrated(page);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((u) => u.pathname === next.split('?')[0]!.split('#')[0]);
+  await hydrated(page);
+}
+
+describe('a household shares one rig (Chromium)', () => {
+  let owner: Session;
+  let crewId: string;
+  let rigId: string;
+  const inviteeEmail = uniqueEmail('tobi');
+  const browsers: { close(): Promise<void> }[] = [];
+  async function open(viewport: ViewportName = 'desktop') {
+    const b = await launch(viewport);
+    browsers.push(b);
+    return b.page;
+  }
+
+  beforeAll(async () => {
+    owner = await signUp({ name: 'Inés', password: PASSWORD });
+    crewId = (await activeCrew(owner)).id;
+    await api(`/api/crews/${crewId}`, { method: 'PATCH', session: owner, json: { name: 'Reyes-Okafor', version: 1 } });
+    rigId = (await makeRig(owner, crewId)).id;
+  });
+  afterAll(async () => {
+    for (const b of browsers) await b.close();
+  });
+
+  it('the owner invites a household member by e-mail from the Crew page', async () => {
+    const page = await open();
+    await signIn(page, owner.email, '/crew');
+    await expect(page.getByRole('heading', { level: 1 }).textContent()).resolves.toBe('Reyes-Okafor');
+    await page.getByLabel('E-mail').fill('not-an-address');
+    await page.getByRole('button', { name: 'Send invitation' }).click();
+    await expect(page.locator('#invite-email-error').textContent()).resolves.toMatch(/e-mail address/);
+
+    await page.getByLabel('E-mail').fill(inviteeEmail);
+    await page.getByLabel('Role', { exact: true }).selectOption('editor');
+    await page.getByRole('button', { name: 'Send invitation' }).click();
+    await page.getByText(`Invitation sent to ${inviteeEmail}`).waitFor();
+    await page.locator(`[data-invitation="${inviteeEmail}"]`).waitFor();
+    await shot(page, 'crew-owner-desktop');
+  });
+
+  it('the member follows the e-mailed link, signs up with that address and joins as editor', async () => {
+    const page = await open('phone');
+    await page.goto(`${baseUrl()}/dev/mail?to=${encodeURIComponent(inviteeEmail)}`);
+    await expect(page.locator('[data-mail-to]').first().textContent()).resolves.toBe(inviteeEmail);
+    await shot(page, 'dev-mail-phone');
+    await page.locator('a[data-mail-link][href*="/invite/"]').first().click();
+    await page.waitForURL('**/invite/**');
+    await hydrated(page);
+    await expect(page.getByRole('heading', { level: 1 }).textContent()).resolves.toBe('Join “Reyes-Okafor”');
+    await expect(page.locator('[data-invited-email]').textContent()).resolves.toBe(inviteeEmail);
+    await shot(page, 'invite-signup-phone');
+
+    await page.getByLabel('Your name').fill('Tobi');
+    await page.getByLabel('Password').fill(PASSWORD);
+    await page.getByRole('button', { name: 'Create account and join' }).click();
+    await page.waitForURL('**/crew?joined=1');
+    await hydrated(page);
+    await expect(page.getByRole('heading', { level: 1 }).textContent()).resolves.toBe('Reyes-Okafor');
+    await page.getByText('Welcome to Reyes-Okafor. You joined as an editor').waitFor();
+    await page.locator(`[data-member="${inviteeEmail}"]`).waitFor();
+    await shot(page, 'crew-member-phone');
+  });
+
+  it('the member adds a load to the shared rig, and the owner sees it', async () => {
+    const page = await open();
+    await signIn(page, inviteeEmail, `/rigs/${rigId}#loads`);
+    await page.getByRole('button', { name: '+ Add a load' }).click();
+    const form = page.getByRole('form', { name: 'New load' });
+    await form.getByLabel('Name').fill('Tobi’s laptop');
+    await form.getByLabel('Watts (each)').fill('60');
+    await form.getByRole('button', { name: 'Add load' }).click();
+    await page.getByRole('table', { name: 'Loads' }).getByText('Tobi’s laptop').waitFor();
+
+    const ownerPage = await open();
+    await signIn(ownerPage, owner.email, `/rigs/${rigId}#loads`);
+    await ownerPage.getByRole('table', { name: 'Loads' }).getByText('Tobi’s laptop').waitFor();
+    const activity = await api(`/api/rigs/${rigId}/activity`, { session: owner });
+    expect(((await activity.json()) as { items: { by: string; action: string; loadName: string }[] }).items[0]).toMatchObject({ by: 'Tobi', action: 'added', loadName: 'Tobi’s laptop' });
+  });
+
+  it('a viewer reads the loads but cannot change them', async () => {
+    const viewer = await member(owner, crewId, 'viewer', 'Vera');
+    const page = await open('phone');
+    // The helper signs members up with its default password.
+    await signIn(page, viewer.email, `/rigs/${rigId}#loads`, 'correct-horse-1');
+    await page.getByRole('table', { name: 'Loads' }).getByText('Tobi’s laptop').waitFor();
+    expect(await page.getByRole('button', { name: '+ Add a load' }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: /^Edit / }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: /^Delete / }).count()).toBe(0);
+    await shot(page, 'rig-loads-viewer-phone');
+
+    // The server refuses the write too, whatever the page shows.
+    const res = await page.request.post(`${baseUrl()}/api/rigs/${rigId}/loads`, { data: { name: 'Kettle', watts: 1200 }, headers: { origin: baseUrl() } });
+    expect(res.status()).toBe(403);
+
+    await page.goto(`${baseUrl()}/crew`);
+    await hydrated(page);
+    await page.getByText('Only the crew’s owners can invite people or change roles.').waitFor();
+    expect(await page.getByRole('button', { name: 'Send invitation' }).count()).toBe(0);
+  });
+});
+
+describe('installer and crew pages at both widths (Chromium)', () => {
+  it.each(['phone', 'desktop'] as ViewportName[])('%s: the granted installer lists the rig; the owner sees members and open invitations', async (viewport) => {
+    const owner = await signUp({ name: 'Marisol', password: PASSWORD });
+    const crewId = (await activeCrew(owner)).id;
+    const rig = await makeRig(owner, crewId);
+    await member(owner, crewId, 'editor', 'Tobi');
+    await api(`/api/crews/${crewId}/invitations`, { method: 'POST', session: owner, json: { email: uniqueEmail('pending'), role: 'viewer' } });
+    const installer = await signUp({ kind: 'installer', name: 'Wren', password: PASSWORD });
+    expect((await api(`/api/rigs/${rig.id}/grants`, { method: 'POST', session: owner, json: { email: installer.email } })).status).toBe(201);
+
+    const b = await launch(viewport);
+    try {
+      const { page } = b;
+      await signIn(page, owner.email, '/crew');
+      await page.locator('[data-member]').nth(1).waitFor();
+      await shot(page, `crew-${viewport}`);
+      await page.getByRole('button', { name: 'Sign out' }).click();
+      await page.waitForURL(baseUrl() + '/');
+
+      await signIn(page, installer.email, '/installer');
+      await page.locator('[data-shared-rig="Test van"]').waitFor();
+      await shot(page, `installer-${viewport}`);
+      await page.getByRole('link', { name: 'Open rig' }).click();
+      await page.waitForURL(`**/rigs/${rig.id}`);
+      await hydrated(page);
+      await page.getByRole('heading', { name: 'Test van' }).first().waitFor();
+      await shot(page, `rig-installer-${viewport}`);
+    } finally {
+      await b.close();
+    }
+  });
+});
