@@ -161,3 +161,45 @@ const combo = time(() => {
 }, 10, 2);
 console.log(`\n${combos.length} combos of a 14-day trip (bank × array × alternator × generator), prepared once`);
 console.log(`  prepare + ${combos.length} simulations: median ${ms(combo)}   [target < 1000 ms]`);
+
+// ---------------------------------------------------------------------------------------------
+// Installer upgrade sweep (issue 7, src/proposals/sweep.ts): the whole POST /api/forecasts/:id/sweep
+// computation on a 14-day trip — prepare the plan once plus once per new panel geometry, simulate
+// every combination, price and rank. Target: 200 runs in under a second.
+{
+  const { runSweep } = await import('../src/proposals/sweep');
+  const { candidatesSchema, priceListSchema, countCombinations } = await import('../src/proposals/schema');
+  const plan14 = resolved(benchPlan(14));
+  const candidates = candidatesSchema.parse({
+    banks: [
+      { chemistry: 'lifepo4', capacityAh: 400 },
+      { chemistry: 'lifepo4', capacityAh: 500 },
+      { chemistry: 'lifepo4', capacityAh: 600 },
+      { chemistry: 'agm', capacityAh: 600 },
+    ],
+    panels: [
+      { watts: 200, mounting: 'flat' },
+      { watts: 400, mounting: 'flat' },
+      { watts: 200, mounting: 'tilted' },
+      { watts: 200, mounting: 'portable' },
+    ],
+    dcdcAmps: [20, 40, 60],
+    generatorHours: [2],
+  });
+  const prices = priceListSchema.parse({
+    currency: 'USD',
+    bankPerAh: { lifepo4: 5, agm: 2, flooded: 1.5, gel: 2.5 },
+    bankInstall: 100,
+    panelPerWatt: 1,
+    arrayInstall: { flat: 200, tilted: 260, portable: 150 },
+    dcdcPerAmp: 8,
+    dcdcInstall: 120,
+    generator: 900,
+    generatorPerHour: 2,
+  });
+  const runs = countCombinations(candidates) + 1;
+  const t = time(() => void runSweep({ plan: plan14, reserveSocPct: 30, candidates, prices }), 10, 2);
+  const r = runSweep({ plan: plan14, reserveSocPct: 30, candidates, prices });
+  console.log(`\nUpgrade sweep of a 14-day trip: ${runs} runs (${r.combinations} options + the saved plan), ${r.prepared} preparations (plan + 3 panel geometries), priced and ranked`);
+  console.log(`  runSweep: median ${ms(t)}   [target < 1000 ms]`);
+}

@@ -1,0 +1,192 @@
+// Request shapes of price lists, sweeps and proposals: declared once, shared by API routes and
+// forms. Every number has bounds and a message that reads after the field's name.
+import { z } from 'zod';
+import { CHEMISTRIES } from '../engine/schema';
+import { AMPACITY_TABLES, AWG_SIZES } from './cable';
+
+function num(min: number, max: number) {
+  return z.number({ error: 'must be a number' }).min(min, { error: `must be at least ${min}` }).max(max, { error: `must be at most ${max}` });
+}
+function int(min: number, max: number) {
+  return num(min, max).int({ error: 'must be a whole number' });
+}
+const money = num(0, 1_000_000);
+const text = (max: number) => z.string({ error: 'must be text' }).trim().max(max, { error: `must be at most ${max} characters` });
+
+/** An ISO 4217 code: three capital letters. */
+export const currencyField = z
+  .string({ error: 'must be a currency code such as USD' })
+  .trim()
+  .toUpperCase()
+  .regex(/^[A-Z]{3}$/, { error: 'must be a three-letter currency code such as USD, EUR or CAD' });
+
+/** How an added array is mounted. */
+export const MOUNTINGS = ['flat', 'tilted', 'portable'] as const;
+export type Mounting = (typeof MOUNTINGS)[number];
+
+/** An installer's prices, per unit, in one currency. */
+export const priceListSchema = z.object({
+  currency: currencyField,
+  /** A new bank, per Ah, by chemistry. */
+  bankPerAh: z.object({ lifepo4: money, agm: money, flooded: money, gel: money }),
+  /** Labour and parts to swap a bank (terminals, lugs, the main fuse). */
+  bankInstall: money,
+  /** Panels, per rated watt. */
+  panelPerWatt: money,
+  /** One added array by mounting: frame or stand, its MPPT controller and wiring. */
+  arrayInstall: z.object({ flat: money, tilted: money, portable: money }),
+  /** A DC-DC charger, per amp, and its installation. */
+  dcdcPerAmp: money,
+  dcdcInstall: money,
+  /** A generator and its charger, when the rig has none. */
+  generator: money,
+  /** Running a generator (fuel and wear), per hour. */
+  generatorPerHour: money,
+});
+export type PriceList = z.output<typeof priceListSchema>;
+export type PriceListInput = z.input<typeof priceListSchema>;
+
+/** Saving a price list: the version read (0 when none was saved yet). */
+export const priceListPutSchema = priceListSchema.extend({
+  version: z.number({ error: 'Send the version you read (0 for a first save).' }).int({ error: 'must be a whole number' }).min(0, { error: 'must be at least 0' }),
+});
+
+/** A bank to try instead of the rig's: its chemistry's defaults apply. */
+export const bankCandidateSchema = z.object({
+  chemistry: z.enum(CHEMISTRIES, { error: 'must be one of lifepo4, agm, flooded, gel' }),
+  capacityAh: num(1, 20_000),
+});
+export type BankCandidate = z.output<typeof bankCandidateSchema>;
+
+/** Panels to add as a new array. */
+export const panelCandidateSchema = z.object({
+  watts: num(1, 10_000),
+  mounting: z.enum(MOUNTINGS, { error: 'must be flat, tilted or portable' }),
+  /** Tilted: default 30°; portable: default 35°. */
+  tiltDeg: num(0, 90).optional(),
+  /** Tilted: default facing the equator. */
+  azimuthDeg: num(0, 360).optional(),
+});
+export type PanelCandidate = z.output<typeof panelCandidateSchema>;
+
+/** At most this many combinations per sweep (the product asks for 200 in under a second). */
+export const MAX_COMBINATIONS = 1000;
+
+/** What the sweep tries: each list adds options to one dimension; "no change" is always tried too. */
+export const candidatesSchema = z
+  .object({
+    banks: z.array(bankCandidateSchema).max(12, { error: 'at most 12 banks' }).default([]),
+    panels: z.array(panelCandidateSchema).max(10, { error: 'at most 10 panel options' }).default([]),
+    dcdcAmps: z.array(num(1, 200)).max(6, { error: 'at most 6 DC-DC charger sizes' }).default([]),
+    generatorHours: z.array(int(1, 24)).max(6, { error: 'at most 6 generator options' }).default([]),
+    /** Generator windows start at this local hour. */
+    generatorStartHour: int(0, 23).default(8),
+    /** Converter/charger amps of a generator added to a rig without one (common practice: 30 A). */
+    generatorAmps: num(1, 300).default(30),
+  })
+  .superRefine((c, ctx) => {
+    const n = countCombinations(c);
+    if (n === 0) ctx.addIssue({ code: 'custom', path: [], message: 'add at least one bank, panel, DC-DC charger or generator option to try' });
+    if (n > MAX_COMBINATIONS) ctx.addIssue({ code: 'custom', path: [], message: `make ${n} combinations; at most ${MAX_COMBINATIONS} — remove some options` });
+    c.generatorHours.forEach((h, i) => {
+      if (c.generatorStartHour + h > 24) ctx.addIssue({ code: 'custom', path: ['generatorHours', i], message: `runs past midnight from ${c.generatorStartHour}:00; start earlier or run fewer hours` });
+    });
+  });
+export type Candidates = z.output<typeof candidatesSchema>;
+export type CandidatesInput = z.input<typeof candidatesSchema>;
+
+/** Options besides "as it is": (1 + banks)(1 + panels)(1 + chargers)(1 + generator) − 1. */
+export function countCombinations(c: Pick<Candidates, 'banks' | 'panels' | 'dcdcAmps' | 'generatorHours'>): number {
+  return (1 + c.banks.length) * (1 + c.panels.length) * (1 + c.dcdcAmps.length) * (1 + c.generatorHours.length) - 1;
+}
+
+/** A sweep request: the candidates, and prices unless the installer's saved list should be used. */
+export const sweepRequestSchema = z.object({
+  candidates: candidatesSchema,
+  prices: priceListSchema.optional(),
+});
+export type SweepRequest = z.input<typeof sweepRequestSchema>;
+
+/** One option: what changes against the saved forecast's plan. */
+export const changesSchema = z
+  .object({
+    bank: bankCandidateSchema.nullable().default(null),
+    panel: panelCandidateSchema.nullable().default(null),
+    dcdcAmps: num(1, 200).nullable().default(null),
+    generatorHours: int(1, 24).nullable().default(null),
+    generatorStartHour: int(0, 23).default(8),
+    generatorAmps: num(1, 300).default(30),
+  })
+  .superRefine((c, ctx) => {
+    if (!c.bank && !c.panel && c.dcdcAmps === null && c.generatorHours === null) ctx.addIssue({ code: 'custom', path: [], message: 'name at least one change: a bank, panels, a DC-DC charger or generator hours' });
+    if (c.generatorHours !== null && c.generatorStartHour + c.generatorHours > 24) ctx.addIssue({ code: 'custom', path: ['generatorHours'], message: 'runs past midnight; start earlier or run fewer hours' });
+  });
+export type Changes = z.output<typeof changesSchema>;
+export type ChangesInput = z.input<typeof changesSchema>;
+
+/** A line of the parts list. */
+export const partSchema = z.object({
+  name: text(120).min(1, { error: 'must not be empty' }),
+  quantity: num(0.001, 100_000),
+  unit: text(20).default(''),
+  unitPrice: money,
+});
+export type Part = z.output<typeof partSchema>;
+
+const awgField = z.enum(AWG_SIZES as [string, ...string[]], { error: `must be one of ${AWG_SIZES.join(', ')} (AWG)` });
+
+/** A cable run to check. */
+export const cableRowSchema = z.object({
+  label: text(120).min(1, { error: 'must not be empty' }),
+  source: z.discriminatedUnion(
+    'kind',
+    [
+      z.object({ kind: z.literal('charger'), amps: num(0.1, 1000) }),
+      z.object({ kind: z.literal('inverter'), watts: num(1, 20_000), efficiencyPct: num(50, 100), lowestVolts: num(5, 60) }),
+      z.object({ kind: z.literal('current'), amps: num(0.1, 1000) }),
+    ],
+    { error: 'must be a charger (amps), an inverter (watts, efficiency, lowest volts) or a current (amps)' },
+  ),
+  oneWayM: num(0.05, 100),
+  circuit: z.enum(['critical', 'non-critical'], { error: 'must be critical or non-critical' }),
+  table: z.enum(AMPACITY_TABLES, { error: `must be one of ${AMPACITY_TABLES.join(', ')}` }).default('abyc-105c'),
+  chosenAwg: awgField.nullable().default(null),
+});
+export type CableRow = z.output<typeof cableRowSchema>;
+export type CableRowInput = z.input<typeof cableRowSchema>;
+
+/** Creating a draft proposal from a saved forecast and one option. */
+export const proposalCreateSchema = z.object({
+  forecastId: z.string({ error: 'name the saved forecast' }).min(1, { error: 'name the saved forecast' }).max(100),
+  changes: changesSchema,
+  prices: priceListSchema.optional(),
+  title: text(120).optional(),
+});
+export type ProposalCreateInput = z.input<typeof proposalCreateSchema>;
+
+const versionField = z.number({ error: 'Send the version you read.' }).int({ error: 'must be a whole number' }).min(1, { error: 'must be at least 1' });
+
+/** Editing a draft: any of its own fields, with the version read. */
+export const proposalPatchSchema = z.object({
+  version: versionField,
+  title: text(120).min(1, { error: 'must not be empty' }).optional(),
+  notes: text(5000).optional(),
+  currency: currencyField.optional(),
+  parts: z.array(partSchema).max(60, { error: 'at most 60 parts' }).optional(),
+  cables: z.array(cableRowSchema).max(20, { error: 'at most 20 cable runs' }).optional(),
+});
+export type ProposalPatchInput = z.input<typeof proposalPatchSchema>;
+
+/** Sending a draft. */
+export const proposalSendSchema = z.object({ version: versionField });
+
+/** The crew owner's answer. */
+export const decisionSchema = z.object({
+  version: versionField,
+  decision: z.enum(['accepted', 'declined'], { error: 'must be accepted or declined' }),
+  comment: text(2000).default(''),
+});
+export type DecisionInput = z.input<typeof decisionSchema>;
+
+export const PROPOSAL_STATUSES = ['draft', 'sent', 'accepted', 'declined'] as const;
+export type ProposalStatus = (typeof PROPOSAL_STATUSES)[number];

@@ -1,0 +1,199 @@
+import { describe, expect, it } from 'vitest';
+import { demoPlan, prepareTrip, validatePlan, type Plan, type ResolvedPlan } from '../../src/engine';
+import { candidatesSchema, changesSchema, countCombinations, priceListSchema, type Candidates, type PriceList } from '../../src/proposals/schema';
+import { applyChanges, bankFrom, chargersFrom, forecastAfter, runSweep } from '../../src/proposals/sweep';
+
+function resolved(p: Plan): ResolvedPlan {
+  const v = validatePlan(p);
+  if (!v.ok) throw new Error(JSON.stringify(v.envelope));
+  return v.plan;
+}
+
+const PRICES: PriceList = priceListSchema.parse({
+  currency: 'USD',
+  bankPerAh: { lifepo4: 5, agm: 2.2, flooded: 1.5, gel: 2.5 },
+  bankInstall: 100,
+  panelPerWatt: 1,
+  arrayInstall: { flat: 200, tilted: 260, portable: 150 },
+  dcdcPerAmp: 8,
+  dcdcInstall: 120,
+  generator: 900,
+  generatorPerHour: 2,
+});
+
+// A week of polar night at 78.2° N (Longyearbyen, 10–17 December): the sun stays more than 8.5°
+// below the horizon all day, so no panel harvests anything and the answer is arithmetic. One DC
+// load of 12.8 W draws exactly 1 A from a 12.8 V LiFePO4 bank (12.8/12 A from a 12 V lead-acid
+// one) every hour; the bank sits in the heated
+// space (18 °C), where the engine's cold capacity factor is f = 1 − 0.008 × (25 − 18) = 0.944 for
+// LiFePO4 and 1 − 0.012 × 7 = 0.916 for lead-acid (the engine's documented rule, common practice).
+// Those currents stay below every candidate's 20-hour rate, so Peukert costs nothing.
+const POLAR: Plan = {
+  bank: { chemistry: 'lifepo4', capacityAh: 100, insideHeatedSpace: true },
+  loads: [{ name: 'Heater fan and fridge', watts: 12.8, supply: 'dc' }],
+  stops: [{ name: 'Longyearbyen', lat: 78.22, lon: 15.65, timeZone: 'Arctic/Longyearbyen', arrive: '2027-12-10', nights: 7 }],
+};
+const RESERVE = 20;
+const LEAD_AMPS = 12.8 / 12;
+
+describe('the sweep on a no-sun trip: the cheapest passing option is the arithmetic minimum', () => {
+  const plan = resolved(POLAR);
+  const hours = prepareTrip(plan).n;
+  const candidates: Candidates = candidatesSchema.parse({
+    banks: [
+      ...[150, 200, 210, 215, 220, 230, 250, 300].map((capacityAh) => ({ chemistry: 'lifepo4', capacityAh })),
+      ...[300, 350, 360, 400].map((capacityAh) => ({ chemistry: 'flooded', capacityAh })),
+    ],
+    panels: [
+      { watts: 200, mounting: 'flat' },
+      { watts: 400, mounting: 'tilted' },
+    ],
+  });
+  const result = runSweep({ plan, reserveSocPct: RESERVE, candidates, prices: PRICES });
+
+  it('draws 1 Ah an hour from LiFePO4, so the whole trip needs `hours` Ah from the bank', () => {
+    expect(hours).toBeGreaterThan(150);
+    expect(result.base.solarWh).toBe(0);
+    expect(result.base.passes).toBe(false);
+  });
+
+  it('tries every combination and ranks them by cost', () => {
+    expect(result.combinations).toBe(countCombinations(candidates));
+    expect(result.options).toHaveLength(13 * 3 - 1);
+    for (let i = 1; i < result.options.length; i++) expect(result.options[i]!.total).toBeGreaterThanOrEqual(result.options[i - 1]!.total);
+    // The plan plus one preparation per new geometry (flat and tilted).
+    expect(result.prepared).toBe(3);
+  });
+
+  it('passes exactly the banks big enough by arithmetic: LiFePO4 above its 20 % reserve, lead-acid above its 50 % floor', () => {
+    const needLfp = hours / (0.944 * (1 - RESERVE / 100));
+    const needLead = (hours * LEAD_AMPS) / (0.916 * 0.5);
+    for (const o of result.options) {
+      const b = o.changes.bank;
+      const expected = b === null ? false : b.chemistry === 'lifepo4' ? b.capacityAh >= needLfp : b.capacityAh > needLead;
+      expect(o.passes, `${o.label}: needs ${b?.chemistry === 'lifepo4' ? needLfp : needLead} Ah`).toBe(expected);
+      expect(o.solarWh).toBe(0);
+    }
+  });
+
+  it('picks the true minimum: the cheapest bank step that covers the need, no panels', () => {
+    const needLfp = hours / (0.944 * 0.8);
+    const needLead = (hours * LEAD_AMPS) / (0.916 * 0.5);
+    const lfp = Math.min(...candidates.banks.filter((b) => b.chemistry === 'lifepo4' && b.capacityAh >= needLfp).map((b) => b.capacityAh));
+    const lead = Math.min(...candidates.banks.filter((b) => b.chemistry === 'flooded' && b.capacityAh > needLead).map((b) => b.capacityAh));
+    const cost = Math.min(lfp * 5 + 100, lead * 1.5 + 100);
+    const cheapest = result.options.find((o) => o.key === result.cheapestPassing)!;
+    expect(cheapest.total).toBe(cost);
+    expect(cheapest.changes.panel).toBeNull();
+    // Brute force over every option agrees.
+    expect(Math.min(...result.options.filter((o) => o.passes).map((o) => o.total))).toBe(cost);
+    expect(cheapest.items.map((i) => i.name)).toContain(`${lead * 1.5 < lfp * 5 ? lead : lfp} Ah ${lead * 1.5 < lfp * 5 ? 'flooded lead-acid' : 'LiFePO4'} bank`);
+  });
+
+  it('reports the lowest SOC the arithmetic gives: 100 % − hours / (C · f)', () => {
+    const o = result.options.find((x) => x.changes.bank?.chemistry === 'lifepo4' && x.changes.bank.capacityAh === 250 && !x.changes.panel)!;
+    expect(o.minSocPct).toBeCloseTo(100 - (hours / (250 * 0.944)) * 100, 6);
+    expect(o.unmetWh).toBe(0);
+    expect(o.firstCutoffAt).toBeNull();
+  });
+});
+
+describe('the sweep on a sunny trip (the demo van)', () => {
+  const plan = resolved(demoPlan());
+  const candidates = candidatesSchema.parse({
+    banks: [{ chemistry: 'lifepo4', capacityAh: 400 }, { chemistry: 'agm', capacityAh: 400 }],
+    panels: [{ watts: 200, mounting: 'flat' }, { watts: 400, mounting: 'flat' }, { watts: 200, mounting: 'portable' }],
+    dcdcAmps: [40],
+    generatorHours: [2],
+  });
+  const result = runSweep({ plan, reserveSocPct: 50, candidates, prices: PRICES });
+
+  it('prepares once per distinct geometry: two flat wattages share one', () => {
+    expect(result.prepared).toBe(3);
+    expect(result.combinations).toBe(3 * 4 * 2 * 2 - 1);
+  });
+
+  it('puts passing options first among equal costs', () => {
+    for (let i = 1; i < result.options.length; i++) {
+      const a = result.options[i - 1]!;
+      const b = result.options[i]!;
+      if (a.total === b.total) expect(Number(a.passes)).toBeGreaterThanOrEqual(Number(b.passes));
+    }
+  });
+
+  it('more panels harvest more than the saved forecast', () => {
+    const flat400 = result.options.find((o) => o.key === 'b0.p2.d0.g0')!;
+    expect(flat400.label).toBe('+400 W flat panels');
+    expect(flat400.extraHarvestWh).toBeGreaterThan(0);
+    expect(flat400.solarWh).toBeGreaterThan(result.base.solarWh);
+  });
+
+  it('matches a full forecast of the plan the option makes (prepare once + simulate = forecast of the changed plan)', () => {
+    for (const key of ['b1.p0.d0.g0', 'b0.p3.d0.g0', 'b2.p1.d1.g1', 'b0.p0.d0.g1', 'b1.p2.d1.g0']) {
+      const o = result.options.find((x) => x.key === key)!;
+      const after = forecastAfter(plan, o.changes).forecast.summary;
+      expect(after.minSocPct, key).toBe(Math.round(o.minSocPct * 10) / 10);
+      expect(after.solarWh, key).toBe(Math.round(o.solarWh));
+      expect(after.generatorHours, key).toBe(o.generatorHours);
+      expect(after.firstCutoffAt, key).toBe(o.firstCutoffAt);
+    }
+  });
+
+  it('prices generator running from the simulated hours, and a generator when the rig has none', () => {
+    const g = result.options.find((o) => o.key === 'b0.p0.d0.g1')!;
+    expect(g.items.find((i) => i.name.startsWith('Generator with'))?.amount).toBe(900);
+    const run = g.items.find((i) => i.kind === 'running');
+    expect(run?.amount ?? 0).toBe(g.generatorHours * 2);
+    expect(g.total).toBe(900 + g.generatorHours * 2);
+  });
+});
+
+describe('what an option does to the plan', () => {
+  const plan = resolved(demoPlan());
+
+  it('a chemistry swap takes the new chemistry’s defaults at the same voltage class', () => {
+    const flooded = resolved({ ...demoPlan(), bank: { chemistry: 'flooded', capacityAh: 225 } });
+    const b = bankFrom(flooded.bank, { chemistry: 'lifepo4', capacityAh: 200 });
+    expect(b).toMatchObject({ chemistry: 'lifepo4', capacityAh: 200, nominalVolts: 12.8, floorSocPct: 10, maxChargeAmps: 100 });
+  });
+
+  it('a bigger bank of the same chemistry keeps what the old one set', () => {
+    const b = bankFrom(plan.bank, { chemistry: 'lifepo4', capacityAh: 600 });
+    expect(b).toMatchObject({ capacityAh: 600, initialSocPct: 95, floorSocPct: plan.bank.floorSocPct, maxChargeAmps: plan.bank.maxChargeAmps * 2 });
+  });
+
+  it('a DC-DC charger replaces the alternator chargers; generator hours add a generator where there is none', () => {
+    const c = chargersFrom(plan, { dcdcAmps: 50, generatorHours: 3, generatorAmps: 30 })!;
+    expect(c.filter((x) => x.kind === 'alternator')).toEqual([expect.objectContaining({ amps: 50 })]);
+    expect(c.filter((x) => x.kind === 'generator')).toHaveLength(1);
+    const after = applyChanges(plan, changesSchema.parse({ generatorHours: 3, generatorStartHour: 9 }));
+    expect(after.stops.every((s) => s.hookup !== 'none' || (s.generatorHours[0] === 9 && s.generatorHours[1] === 12))).toBe(true);
+  });
+
+  it('an added array faces the equator unless told otherwise', () => {
+    const south = resolved({ ...demoPlan(), stops: demoPlan().stops.map((s) => ({ ...s, lat: -s.lat, timeZone: 'America/Santiago' })), drives: [] });
+    expect(applyChanges(south, changesSchema.parse({ panel: { watts: 100, mounting: 'tilted' } })).arrays.at(-1)).toMatchObject({ azimuthDeg: 0, tiltDeg: 30, ratedWatts: 100 });
+    expect(applyChanges(plan, changesSchema.parse({ panel: { watts: 100, mounting: 'tilted' } })).arrays.at(-1)).toMatchObject({ azimuthDeg: 180 });
+  });
+});
+
+describe('candidate limits name their field', () => {
+  it('refuses an empty sweep and one over 1000 combinations', () => {
+    const empty = candidatesSchema.safeParse({});
+    expect(empty.success).toBe(false);
+    const many = candidatesSchema.safeParse({
+      banks: Array.from({ length: 12 }, (_, i) => ({ chemistry: 'lifepo4', capacityAh: 100 + i * 50 })),
+      panels: Array.from({ length: 10 }, (_, i) => ({ watts: 100 + i * 100, mounting: 'flat' })),
+      dcdcAmps: [20, 30, 40, 60],
+      generatorHours: [1, 2, 3],
+    });
+    expect(many.success).toBe(false);
+    expect(many.error!.issues[0]!.message).toMatch(/at most 1000/);
+  });
+
+  it('names a generator window that runs past midnight', () => {
+    const r = candidatesSchema.safeParse({ generatorHours: [2, 6], generatorStartHour: 20 });
+    expect(r.success).toBe(false);
+    expect(r.error!.issues.map((i) => i.path.join('.'))).toEqual(['generatorHours.1']);
+  });
+});
