@@ -90,8 +90,12 @@ describe('a household shares one rig (Chromium)', () => {
     const ownerPage = await open();
     await signIn(ownerPage, owner.email, `/rigs/${rigId}#loads`);
     await ownerPage.getByRole('table', { name: 'Loads' }).getByText('Tobi’s laptop').waitFor();
-    const activity = await api(`/api/rigs/${rigId}/activity`, { session: owner });
-    expect(((await activity.json()) as { items: { by: string; action: string; loadName: string }[] }).items[0]).toMatchObject({ by: 'Tobi', action: 'added', loadName: 'Tobi’s laptop' });
+    // The rig's Activity section says who added it.
+    await ownerPage.getByRole('link', { name: 'Activity', exact: true }).click();
+    const entry = ownerPage.locator('[data-activity="added"]').first();
+    await entry.waitFor();
+    await expect(entry.textContent()).resolves.toMatch(/^Tobi added Tobi’s laptop/);
+    await shot(ownerPage, 'rig-activity-desktop');
   });
 
   it('a viewer reads the loads but cannot change them', async () => {
@@ -124,7 +128,6 @@ describe('installer and crew pages at both widths (Chromium)', () => {
     await member(owner, crewId, 'editor', 'Tobi');
     await api(`/api/crews/${crewId}/invitations`, { method: 'POST', session: owner, json: { email: uniqueEmail('pending'), role: 'viewer' } });
     const installer = await signUp({ kind: 'installer', name: 'Wren', password: PASSWORD });
-    expect((await api(`/api/rigs/${rig.id}/grants`, { method: 'POST', session: owner, json: { email: installer.email } })).status).toBe(201);
 
     const b = await launch(viewport);
     try {
@@ -132,6 +135,17 @@ describe('installer and crew pages at both widths (Chromium)', () => {
       await signIn(page, owner.email, '/crew');
       await page.locator('[data-member]').nth(1).waitFor();
       await shot(page, `crew-${viewport}`);
+
+      // The owner shares the rig from its Installers section; a camper's e-mail is refused next to the field.
+      await page.goto(`${baseUrl()}/rigs/${rig.id}#installers`);
+      await hydrated(page);
+      await page.getByLabel('Installer’s e-mail').fill(owner.email);
+      await page.getByRole('button', { name: 'Share this rig' }).click();
+      await expect(page.locator('#grant-email-error').textContent()).resolves.toMatch(/camper account/);
+      await page.getByLabel('Installer’s e-mail').fill(installer.email);
+      await page.getByRole('button', { name: 'Share this rig' }).click();
+      await page.locator(`[data-grant="${installer.email}"]`).waitFor();
+      await shot(page, `rig-installers-${viewport}`);
       await page.getByRole('button', { name: 'Sign out' }).click();
       await page.waitForURL(baseUrl() + '/');
 
@@ -142,7 +156,19 @@ describe('installer and crew pages at both widths (Chromium)', () => {
       await page.waitForURL(`**/rigs/${rig.id}`);
       await hydrated(page);
       await page.getByRole('heading', { name: 'Test van' }).first().waitFor();
+      // The crew's own sections are not offered to an installer.
+      expect(await page.getByRole('link', { name: 'Installers', exact: true }).count()).toBe(0);
+      expect(await page.getByRole('link', { name: 'Activity', exact: true }).count()).toBe(0);
       await shot(page, `rig-installer-${viewport}`);
+      await page.getByRole('button', { name: 'Sign out' }).click();
+      await page.waitForURL(baseUrl() + '/');
+
+      // The owner revokes; the installer's list is empty again.
+      await signIn(page, owner.email, `/rigs/${rig.id}#installers`);
+      page.once('dialog', (d) => void d.accept());
+      await page.getByRole('button', { name: 'Revoke access' }).click();
+      await page.getByText('Wren no longer has access to this rig.').waitFor();
+      expect(await (await api('/api/installer/rigs', { session: installer })).json()).toEqual([]);
     } finally {
       await b.close();
     }

@@ -1,10 +1,12 @@
-import { useInfiniteQuery } from '@tanstack/react-query';
+import { useEffect } from 'react';
+import { hashKey, useInfiniteQuery, useQueryClient } from '@tanstack/react-query';
 import { format, isSameDay } from 'date-fns';
 import { withQueryClient } from '../../components/ui/QueryProvider';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
 import { ApiError } from '../../lib/query-client';
 import type { ActivityDto } from '../../schemas/crews';
-import { activityQuery } from './activity.queries';
+import { loadKeys } from '../loads/loads.queries';
+import { activityKeys, activityQuery } from './activity.queries';
 
 const FIELD_LABEL: Record<string, string> = {
   name: 'name',
@@ -63,6 +65,16 @@ function Entry({ e }: { e: ActivityDto }) {
  */
 function RigActivity({ rigId }: { rigId: string }) {
   const q = useInfiniteQuery(activityQuery(rigId));
+  const qc = useQueryClient();
+  // Every load write adds an entry: when the rig's load list changes on this page, read the trail again.
+  useEffect(() => {
+    const loadsHash = hashKey(loadKeys.list(rigId));
+    return qc.getQueryCache().subscribe((event) => {
+      if (event.type === 'updated' && event.action.type === 'success' && event.query.queryHash === loadsHash) {
+        void qc.invalidateQueries({ queryKey: activityKeys.rig(rigId) });
+      }
+    });
+  }, [qc, rigId]);
   const items = q.data?.pages.flatMap((p) => p.items) ?? [];
   const days: { day: Date; items: ActivityDto[] }[] = [];
   for (const e of items) {

@@ -28,8 +28,9 @@ function GrantRow({ grant, canManage, onDone }: { grant: GrantDto; canManage: bo
     <li className="flex flex-col gap-2 py-3 sm:flex-row sm:items-center sm:justify-between" data-grant={grant.installer.email}>
       <div className="min-w-0">
         <p className="font-bold">{grant.installer.name}</p>
-        <p className="truncate text-sm text-slate-text">
-          {grant.installer.email} · since {format(new Date(grant.createdAt), 'd MMM yyyy')}
+        <p className="truncate text-sm text-slate-text">{grant.installer.email}</p>
+        <p className="text-sm text-slate-text">
+          Since {format(new Date(grant.createdAt), 'd MMM yyyy')}
           {grant.grantedBy ? <> · shared by {grant.grantedBy}</> : null}
         </p>
       </div>
