@@ -38,6 +38,7 @@ export function CsvImport({ rigId, onImported, onClose }: { rigId: string; onImp
   const errorsByLine = new Map<number, CsvLineError[]>();
   for (const e of preview?.errors ?? []) errorsByLine.set(e.line, [...(errorsByLine.get(e.line) ?? []), e]);
   const stale = preview !== null && checkedText !== csv;
+  const checkedLines = (checkedText ?? '').split(/\r?\n/);
   const canImport = preview !== null && !stale && preview.errors.length === 0 && preview.rows.length > 0;
 
   return (
@@ -78,7 +79,11 @@ export function CsvImport({ rigId, onImported, onClose }: { rigId: string; onImp
           {check.isPending ? 'Checking…' : 'Check the file'}
         </button>
         <button type="button" className="btn btn-primary" disabled={!canImport || save.isPending} onClick={() => save.mutate(csv)}>
-          {save.isPending ? 'Importing…' : preview && !stale ? `Import ${preview.rows.length} ${preview.rows.length === 1 ? 'load' : 'loads'}` : 'Import'}
+          {save.isPending
+            ? 'Importing…'
+            : preview && !stale && preview.errors.length === 0
+              ? `Import ${preview.rows.length} ${preview.rows.length === 1 ? 'load' : 'loads'}`
+              : 'Import'}
         </button>
       </div>
       {stale ? <p className="field-hint mt-2">The text changed since the check: check it again before importing.</p> : null}
@@ -100,26 +105,36 @@ export function CsvImport({ rigId, onImported, onClose }: { rigId: string; onImp
             <p className="font-bold text-moss-deep">All {preview.rows.length} lines read cleanly. Check the preview, then import.</p>
           )}
           <div className="mt-2 overflow-x-auto">
-            <table className="w-full min-w-[36rem] text-sm" aria-label="CSV preview">
+            <table className="w-full min-w-[22rem] text-sm" aria-label="CSV preview">
               <thead>
                 <tr className="border-b-2 border-sand-dark text-left">
                   <th className="py-1 pr-2">Line</th><th className="py-1 pr-2">Name</th><th className="py-1 pr-2 text-right">W</th><th className="py-1 pr-2 text-right">Qty</th>
-                  <th className="py-1 pr-2">Supply</th><th className="py-1 pr-2">When</th><th className="py-1 pr-2 text-right">Duty</th><th className="py-1">Problems</th>
+                  <th className="py-1 pr-2">Supply</th><th className="py-1 pr-2">When</th><th className="py-1 text-right">Duty</th>
                 </tr>
               </thead>
               <tbody>
                 {previewLines(preview).map(({ line, row }) => {
                   const errs = errorsByLine.get(line) ?? [];
+                  if (errs.length) {
+                    return (
+                      <tr key={line} className="border-b border-sand-dark bg-[#fbe9e4] align-top">
+                        <td className="py-1 pr-2 tabular-nums">{line}</td>
+                        <td colSpan={6} className="py-1">
+                          <code className="block break-all text-xs">{checkedLines[line - 1] ?? ''}</code>
+                          <span className="font-semibold text-alert">{errs.map((e) => `${e.column ? `${e.column}: ` : ''}${e.message}`).join('; ')}</span>
+                        </td>
+                      </tr>
+                    );
+                  }
                   return (
-                    <tr key={line} className={`border-b border-sand-dark ${errs.length ? 'bg-[#fbe9e4]' : ''}`}>
+                    <tr key={line} className="border-b border-sand-dark">
                       <td className="py-1 pr-2 tabular-nums">{line}</td>
                       <td className="py-1 pr-2">{row?.name ?? '—'}</td>
                       <td className="py-1 pr-2 text-right tabular-nums">{typeof row?.watts === 'number' ? formatNumber(row.watts, 1) : '—'}</td>
-                      <td className="py-1 pr-2 text-right tabular-nums">{row?.quantity ?? (row ? 1 : '—')}</td>
-                      <td className="py-1 pr-2">{row?.supply ? row.supply.toUpperCase() : '—'}</td>
-                      <td className="py-1 pr-2">{row?.windows ? describeWindows(row.windows as [number, number][]) : '—'}</td>
-                      <td className="py-1 pr-2 text-right tabular-nums">{typeof row?.dutyPct === 'number' ? `${formatNumber(row.dutyPct)} %` : '—'}</td>
-                      <td className="py-1 font-semibold text-alert">{errs.map((e) => `${e.column ? `${e.column}: ` : ''}${e.message}`).join('; ')}</td>
+                      <td className="py-1 pr-2 text-right tabular-nums">{row?.quantity ?? 1}</td>
+                      <td className="py-1 pr-2">{row?.supply ? row.supply.toUpperCase() : 'DC'}</td>
+                      <td className="py-1 pr-2">{row?.windows ? describeWindows(row.windows as [number, number][]) : 'all day'}</td>
+                      <td className="py-1 text-right tabular-nums">{typeof row?.dutyPct === 'number' ? `${formatNumber(row.dutyPct)} %` : '100 %'}</td>
                     </tr>
                   );
                 })}

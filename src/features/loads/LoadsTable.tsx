@@ -134,6 +134,7 @@ function LoadsTable({ rigId, units: unitsProp }: { rigId: string; units: Units }
         </div>
       </div>
 
+      {!canEdit ? <p className="text-sm text-slate-text">You can view this list. A crew owner or editor can change it.</p> : null}
       <p role="status" aria-live="polite" className={status ? 'font-semibold text-moss-deep' : 'sr-only'}>{status ?? ''}</p>
 
       {panel === 'new' ? (
@@ -208,7 +209,7 @@ function LoadsTable({ rigId, units: unitsProp }: { rigId: string; units: Units }
                   </tr>
                 ) : (
                   <tr key={l.id} className="border-b border-sand-dark last:border-0 max-md:grid max-md:grid-cols-2 max-md:gap-x-4 max-md:gap-y-2 max-md:rounded-[14px] max-md:border-0 max-md:bg-card max-md:p-4 max-md:shadow-soft" data-load-row={l.name}>
-                    <td className="px-3 py-2 align-top max-md:col-span-2 max-md:block max-md:p-0">
+                    <td className="px-3 py-2 align-top max-md:col-span-2 max-md:block max-md:p-0 md:min-w-56">
                       <span className="font-bold">{l.name}</span>
                       {l.standby ? <span className="ml-2 rounded-full bg-sand-dark px-2 py-0.5 text-xs font-bold">standby</span> : null}
                       {l.note ? <span className="block text-sm text-slate-text">{l.note}</span> : null}
@@ -218,7 +219,7 @@ function LoadsTable({ rigId, units: unitsProp }: { rigId: string; units: Units }
                     <td data-label="Supply" className={TD}>{l.supply === 'ac' ? 'AC' : 'DC'}</td>
                     <td data-label="When" className={TD}>{l.standby ? 'always' : describeWindows(l.windows)}{DAYS_LABEL[l.days] ? `, ${DAYS_LABEL[l.days]}` : ''}</td>
                     <td data-label="Duty" className={`${TD} text-right tabular-nums`}>{formatNumber(l.dutyPct)} %</td>
-                    <td data-label="Temperature" className={`${TD} ${l.response === 'none' ? 'max-md:hidden' : ''}`}>{l.response === 'none' ? '—' : l.response === 'cooling' ? 'cooling' : `heating below ${formatTemp(l.setpointC, units)}`}</td>
+                    <td data-label="Temperature" className={`${TD} max-md:col-span-2 ${l.response === 'none' ? 'max-md:hidden' : ''}`}>{l.response === 'none' ? '—' : l.response === 'cooling' ? 'cooling' : `heating below ${formatTemp(l.setpointC, units)}`}</td>
                     <td data-label="Wh/day" className={`${TD} text-right font-bold tabular-nums`}>{formatWh(wh)}</td>
                     <td data-label="Ah/day" className={`${TD} text-right tabular-nums`}>{formatAh(whToAh(wh, er.nominalVolts))}</td>
                     <td className="px-3 py-2 align-top max-md:col-span-2 max-md:block max-md:p-0">

@@ -11,7 +11,7 @@ import { ConflictNotice } from '../../components/ui/ConflictNotice';
 import { applyServerIssues, asNumber, asNumberOrNull, errorAt, fieldId } from '../../components/ui/form';
 import { ApiError, isConflict, type ApiIssue } from '../../lib/query-client';
 import { formatDate, formatHour, formatNumber, rigSummary } from '../../lib/format';
-import type { Units } from '../../lib/units';
+import { formatTemp, type Units } from '../../lib/units';
 import { rigsQuery } from '../rigs/rigs.queries';
 import { PlaceSearch } from './PlaceSearch';
 import { createTrip, deleteTrip, updateTrip } from './trips.api';
@@ -338,9 +338,6 @@ function StopLocation({ index: i, ctx }: { index: number; ctx: Ctx }) {
 
   return (
     <div className="grid gap-4 sm:grid-cols-2">
-      <Field id={id('name')} label="Camp name" errorName="Camp name" error={err('name')} hint="What you call this stop, e.g. “Mesa camp”.">
-        <input id={id('name')} className="field-input" autoComplete="off" {...describedBy(id('name'), err('name'), true)} {...register(`stops.${i}.name`)} />
-      </Field>
       <PlaceSearch
         id={id('place')}
         label="Find the place"
@@ -355,6 +352,9 @@ function StopLocation({ index: i, ctx }: { index: number; ctx: Ctx }) {
           setTzNote(`Time zone of ${place.name}: ${place.timeZone}.`);
         }}
       />
+      <Field id={id('name')} label="Camp name" errorName="Camp name" error={err('name')} hint="What you call this stop, e.g. “Mesa camp”.">
+        <input id={id('name')} className="field-input" autoComplete="off" {...describedBy(id('name'), err('name'), true)} {...register(`stops.${i}.name`)} />
+      </Field>
       <div className="grid grid-cols-2 gap-4 sm:col-span-2 lg:grid-cols-3">
         <NumberField id={id('lat')} label="Latitude" unit="°" registration={register(`stops.${i}.lat`, num)} error={err('lat')} hint="North is +, e.g. 38.57" />
         <NumberField id={id('lon')} label="Longitude" unit="°" registration={register(`stops.${i}.lon`, num)} error={err('lon')} hint="West is −, e.g. −109.55" />
@@ -398,7 +398,10 @@ function StopWeather({ index: i, ctx }: { index: number; ctx: Ctx }) {
   return (
     <div>
       <h4 className="font-extrabold">Weather you expect</h4>
-      <p className="field-hint">Choose the sky for each day with its high and low. A day left on “—” takes the nearest day you set.</p>
+      <p className="field-hint">
+        Choose the sky for each day with its high and low. A day left on “—” takes the nearest day you set at this stop
+        {values.length === 0 ? `; with none set, the forecast assumes partly cloudy, ${formatTemp(20, units)} by day and ${formatTemp(10, units)} at night` : ''}.
+      </p>
       {errorAt(errors, `stops.${i}.weather`) ? <p className="field-error" role="alert">Weather: {errorAt(errors, `stops.${i}.weather`)}</p> : null}
       <ul className="mt-2 divide-y divide-sand-dark">
         {allDates.map((date) => {
@@ -445,7 +448,7 @@ function StopWeather({ index: i, ctx }: { index: number; ctx: Ctx }) {
                   <TemperatureInput control={control} name={`stops.${i}.weather.${j}.lowC`} id={fieldId(`stops.${i}.weather.${j}.lowC`)} label="Low" units={units} minC={-60} maxC={60} />
                 </>
               ) : (
-                <p className="col-span-2 pt-2 text-sm text-slate-text">Uses the nearest day you set.</p>
+                <p className="col-span-2 pt-2 text-sm text-slate-text">{values.length ? 'Uses the nearest day you set.' : 'Not set yet.'}</p>
               )}
             </li>
           );
