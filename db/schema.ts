@@ -215,6 +215,57 @@ export interface ForecastTable {
   created_at: string;
 }
 
+/** An installer's prices: `prices` is JSON of src/proposals/schema.ts priceListSchema without its currency. */
+export interface PriceListTable {
+  installer_id: string;
+  currency: string;
+  prices: string;
+  version: Generated<number>;
+  created_at: string;
+  updated_at: string;
+}
+
+export type ProposalStatus = 'draft' | 'sent' | 'accepted' | 'declined';
+
+/** An installer's upgrade proposal: its own copies of the before/after plans and forecasts (JSON, hourly column-wise). */
+export interface ProposalTable {
+  id: string;
+  crew_id: string;
+  rig_id: string;
+  trip_id: string | null;
+  forecast_id: string | null;
+  installer_id: string | null;
+  installer_name: string;
+  title: string;
+  notes: Generated<string>;
+  status: Generated<ProposalStatus>;
+  /** JSON: the option's changes (src/proposals/schema.ts changesSchema). */
+  changes: string;
+  currency: string;
+  /** JSON: parts list lines. */
+  parts: string;
+  /** JSON: running-cost lines over the trip (generator hours). */
+  running: string;
+  /** JSON: cable runs, each with its input and its computed check. */
+  cables: string;
+  /** JSON: the cautions shown with the proposal. */
+  cautions: string;
+  reserve_soc_pct: number | null;
+  /** JSON: { before, after } forecast summaries, for lists. */
+  summary: string;
+  before_plan: string;
+  before_result: string;
+  after_plan: string;
+  after_result: string;
+  decision_comment: string | null;
+  decided_by: string | null;
+  decided_at: string | null;
+  sent_at: string | null;
+  version: Generated<number>;
+  created_at: string;
+  updated_at: string;
+}
+
 export interface DB {
   user: UserTable;
   session: SessionTable;
@@ -232,6 +283,8 @@ export interface DB {
   active_crews: ActiveCrewTable;
   outbox: OutboxTable;
   caught_mail: CaughtMailTable;
+  price_lists: PriceListTable;
+  proposals: ProposalTable;
 }
 
 export type User = Selectable<UserTable>;
@@ -247,3 +300,5 @@ export type InvitationRow = Selectable<InvitationTable>;
 export type RigGrantRow = Selectable<RigGrantTable>;
 export type OutboxRow = Selectable<OutboxTable>;
 export type CaughtMail = Selectable<CaughtMailTable>;
+export type PriceListRow = Selectable<PriceListTable>;
+export type ProposalRow = Selectable<ProposalTable>;

@@ -3,6 +3,7 @@ import * as accounts from './2026_12_01_0001_accounts';
 import * as rigsLoadsTrips from './2026_12_01_0002_rigs_loads_trips';
 import * as forecasts from './2026_12_01_0003_forecasts';
 import * as crewsMail from './2026_12_01_0004_crews_mail';
+import * as proposals from './2026_12_01_0005_proposals';
 
 /**
  * Every migration, in order. Listed statically (not read from the folder) so the same list runs
@@ -13,4 +14,5 @@ export const migrations: Record<string, Migration> = {
   '2026_12_01_0002_rigs_loads_trips': rigsLoadsTrips,
   '2026_12_01_0003_forecasts': forecasts,
   '2026_12_01_0004_crews_mail': crewsMail,
+  '2026_12_01_0005_proposals': proposals,
 };

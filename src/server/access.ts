@@ -1,5 +1,5 @@
 import type { Kysely } from 'kysely';
-import type { CrewRole, DB, LoadRow, RigRow, TripRow } from '../../db/schema';
+import type { CrewRole, DB, LoadRow, ProposalRow, RigRow, TripRow } from '../../db/schema';
 import { HttpError } from './errors';
 
 // Authorization, in one place. Every route asks here before it reads or writes a rig, a load, a
@@ -13,6 +13,11 @@ import { HttpError } from './errors';
 //   viewer     read                        no (403)     no (403)
 //   installer  read (granted rig only)     no (403)     no (403)
 //   anyone else: 404 — a row outside the caller's crews and grants is never revealed.
+//
+// Upgrade sweeps and proposals (issue 7): a granted installer sweeps the rig's saved forecasts and
+// writes proposals (the crew gets 403); the installer reads and edits their own proposals only; the
+// crew reads a proposal once it is sent (a draft is 404 to them), and only the crew's owners accept
+// or decline it.
 
 /** read and write: the rig's data; manage: who may see the rig (installer grants) — crew owners only. */
 export type Need = 'read' | 'write' | 'manage';
@@ -176,4 +181,40 @@ export async function grantAccess(db: Kysely<DB>, user: Actor, grantId: string):
     throw new HttpError('forbidden', `Only the crew's owners can take an installer's access away${row.role ? `; your role is ${row.role}` : ''}.`);
   }
   return { id: row.id, rigId: row.rigId };
+}
+
+/** Sweeps and proposals are an installer's work: a crew member on the rig gets 403. */
+export function installerOnly(access: RigGrant, what: string): RigGrant {
+  if (access.role !== 'installer') {
+    throw new HttpError('forbidden', `${what} are prepared by the installer the crew shares this rig with; crew members read the proposals they send.`);
+  }
+  return access;
+}
+
+/** What a user does with a proposal: read it, edit/send/delete it (its installer), accept or decline it (the crew's owners). */
+export type ProposalNeed = 'read' | 'write' | 'decide';
+
+/**
+ * A proposal and its rig, when the user may do `need` with it. Another crew, an installer without a
+ * grant on the rig, another installer's proposal, or a draft the crew has not been sent → 404; a
+ * crew member editing, or anyone but an owner deciding → 403.
+ */
+export async function proposalAccess(db: Kysely<DB>, user: Actor, proposalId: string, need: ProposalNeed): Promise<RigGrant & { proposal: ProposalRow }> {
+  const missing = () => new HttpError('not_found', 'There is no proposal with this id among your rigs.');
+  const proposal = await db.selectFrom('proposals').selectAll().where('id', '=', proposalId).executeTakeFirst();
+  if (!proposal) throw missing();
+  const access = await rigAccess(db, user, proposal.rig_id, 'read').catch((e: unknown) => {
+    throw e instanceof HttpError && e.code === 'not_found' ? missing() : e;
+  });
+  if (access.role === 'installer') {
+    if (proposal.installer_id !== user.id) throw missing();
+    if (need === 'decide') throw new HttpError('forbidden', 'The crew’s owner accepts or declines a proposal, not its installer.');
+    return { ...access, proposal };
+  }
+  if (proposal.status === 'draft') throw missing();
+  if (need === 'write') throw new HttpError('forbidden', 'Only the installer who wrote this proposal can change it.');
+  if (need === 'decide' && access.role !== 'owner') {
+    throw new HttpError('forbidden', `Only the crew’s owners can accept or decline a proposal; your role is ${access.role}.`);
+  }
+  return { ...access, proposal };
 }

@@ -36,6 +36,9 @@ export interface World {
   forecast: { id: string };
   invitation: { id: string; version: number; token: string };
   grant: { id: string };
+  /** The granted installer's proposals on the forecast: one sent to the crew, one still a draft. */
+  proposal: { id: string; version: number };
+  draft: { id: string; version: number };
   /** Present when the route asked for `needs: ['member']`: a member only this request touches. */
   member?: { userId: string };
   /** The current version of a crew or member row, read at request time. */
@@ -77,6 +80,28 @@ const CREW_READ: Expect = { anonymous: 401, owner: 200, editor: 200, viewer: 200
 const CREW_MANAGE = (ok: number): Expect => ({ anonymous: 401, owner: ok, editor: 403, viewer: 403, outsider: 404, installer: 404, stranger: 404 });
 
 const PLAN = { bank: { chemistry: 'lifepo4', capacityAh: 200 }, stops: TRIP_INPUT('x').stops };
+
+/** Sweeping and proposing on a rig's saved forecasts: an installer with a grant; the crew reads proposals but does not write them. */
+const INSTALLER_WORK = (ok: number): Expect => ({ anonymous: 401, owner: 403, editor: 403, viewer: 403, outsider: 404, installer: ok, stranger: 404 });
+/** A draft proposal: its installer only; nobody else learns it exists. */
+const DRAFT = (ok: number): Expect => ({ ...signedIn(404), installer: ok });
+/** Accepting or declining a sent proposal: the crew's owners. */
+const DECIDE = (ok: number): Expect => ({ anonymous: 401, owner: ok, editor: 403, viewer: 403, outsider: 404, installer: 403, stranger: 404 });
+/** An installer account's own price list. */
+const INSTALLER_ACCOUNT = (ok: number): Expect => ({ ...signedIn(403), installer: ok, stranger: ok });
+
+/** A price list for sweeps and proposals in the matrix (invented test prices). */
+export const TEST_PRICES = {
+  currency: 'USD',
+  bankPerAh: { lifepo4: 5, agm: 2.2, flooded: 1.5, gel: 2.5 },
+  bankInstall: 100,
+  panelPerWatt: 1,
+  arrayInstall: { flat: 200, tilted: 260, portable: 150 },
+  dcdcPerAmp: 8,
+  dcdcInstall: 120,
+  generator: 900,
+  generatorPerHour: 2,
+};
 
 export const ROUTES: RouteCase[] = [
   // Public
@@ -153,6 +178,38 @@ export const ROUTES: RouteCase[] = [
   { method: 'GET', route: '/api/forecasts/[id]', url: (w) => `/api/forecasts/${w.forecast.id}`, expect: RIG_READ },
   { method: 'GET', route: '/api/forecasts/[id]/hourly.csv', url: (w) => `/api/forecasts/${w.forecast.id}/hourly.csv`, expect: RIG_READ },
   { method: 'DELETE', route: '/api/forecasts/[id]', url: (w) => `/api/forecasts/${w.forecast.id}`, expect: RIG_WRITE(204), fresh: true },
+
+  // Installer proposals: sweeps, price lists, proposals and the crew's answer
+  {
+    method: 'POST',
+    route: '/api/forecasts/[id]/sweep',
+    url: (w) => `/api/forecasts/${w.forecast.id}/sweep`,
+    body: () => ({ candidates: { banks: [{ chemistry: 'lifepo4', capacityAh: 300 }], panels: [{ watts: 200, mounting: 'flat' }] }, prices: TEST_PRICES }),
+    expect: INSTALLER_WORK(200),
+  },
+  { method: 'GET', route: '/api/price-list', url: () => '/api/price-list', expect: INSTALLER_ACCOUNT(200) },
+  // Each installer saves once in the matrix, so version 0 (a first save) is the current one.
+  { method: 'PUT', route: '/api/price-list', url: () => '/api/price-list', body: () => ({ ...TEST_PRICES, version: 0 }), expect: INSTALLER_ACCOUNT(200) },
+  { method: 'GET', route: '/api/proposals', url: () => '/api/proposals', expect: signedIn(200) },
+  {
+    method: 'POST',
+    route: '/api/proposals',
+    url: () => '/api/proposals',
+    body: (w) => ({ forecastId: w.forecast.id, changes: { bank: { chemistry: 'lifepo4', capacityAh: 300 } }, prices: TEST_PRICES }),
+    expect: INSTALLER_WORK(201),
+  },
+  { method: 'GET', route: '/api/proposals/[id]', url: (w) => `/api/proposals/${w.proposal.id}`, expect: RIG_READ },
+  { method: 'PATCH', route: '/api/proposals/[id]', url: (w) => `/api/proposals/${w.draft.id}`, body: (w) => ({ notes: 'Mount the fuse by the bank.', version: w.draft.version }), expect: DRAFT(200), fresh: true },
+  { method: 'DELETE', route: '/api/proposals/[id]', url: (w) => `/api/proposals/${w.draft.id}?version=${w.draft.version}`, expect: DRAFT(204), fresh: true },
+  { method: 'POST', route: '/api/proposals/[id]/send', url: (w) => `/api/proposals/${w.draft.id}/send`, body: (w) => ({ version: w.draft.version }), expect: DRAFT(200), fresh: true },
+  {
+    method: 'POST',
+    route: '/api/proposals/[id]/decision',
+    url: (w) => `/api/proposals/${w.proposal.id}/decision`,
+    body: (w) => ({ decision: 'accepted', comment: 'Go ahead.', version: w.proposal.version }),
+    expect: DECIDE(200),
+    fresh: true,
+  },
 ];
 
 /** Lists must show the fixture's rows to exactly these actors (and hide them from the rest). */
@@ -160,5 +217,6 @@ export const LISTS: { url: string; find: (body: unknown, w: World) => boolean; v
   { url: '/api/rigs', find: (b, w) => (b as { id: string }[]).some((r) => r.id === w.rig.id), visibleTo: ['owner', 'editor', 'viewer', 'installer'] },
   { url: '/api/trips', find: (b, w) => (b as { id: string }[]).some((t) => t.id === w.trip.id), visibleTo: ['owner', 'editor', 'viewer', 'installer'] },
   { url: '/api/crews', find: (b, w) => (b as { id: string }[]).some((c) => c.id === w.crewId), visibleTo: ['owner', 'editor', 'viewer'] },
+  { url: '/api/proposals', find: (b, w) => Array.isArray(b) && (b as { id: string }[]).some((p) => p.id === w.proposal.id), visibleTo: ['owner', 'editor', 'viewer', 'installer'] },
   { url: '/api/installer/rigs', find: (b, w) => Array.isArray(b) && (b as { rigId: string }[]).some((r) => r.rigId === w.rig.id), visibleTo: ['installer'] },
 ];

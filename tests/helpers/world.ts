@@ -1,7 +1,7 @@
 import { api, signUp, type Session } from './api';
 import { activeCrew, inviteToken, makeLoad, makeRig, makeTrip, member } from './crew';
 import { uniqueEmail } from './api';
-import type { Actor, Cast, World } from './routes';
+import { TEST_PRICES, type Actor, type Cast, type World } from './routes';
 
 /** Signs up the matrix's people: a crew with owner, editor, viewer (and a spare editor), a camper elsewhere, two installers. */
 export async function makeCast(): Promise<Cast> {
@@ -33,6 +33,15 @@ export async function makeWorld(cast: Cast, needs: 'member'[] = []): Promise<Wor
   const crew = await ok<{ invitations: { id: string; email: string; version: number }[] }>(await api(`/api/crews/${crewId}`, { session: owner }), 200, 'crew');
   const inv = crew.invitations.find((i) => i.email === email)!;
   const grant = await ok<{ id: string }>(await api(`/api/rigs/${rig.id}/grants`, { method: 'POST', session: owner, json: { email: cast.installer.email } }), 201, 'grant');
+  const propose = async () =>
+    ok<{ id: string; version: number }>(
+      await api('/api/proposals', { method: 'POST', session: cast.installer, json: { forecastId: forecast.id, changes: { bank: { chemistry: 'lifepo4', capacityAh: 300 } }, prices: TEST_PRICES } }),
+      201,
+      'proposal',
+    );
+  const draft = await propose();
+  const toSend = await propose();
+  const proposal = await ok<{ id: string; version: number }>(await api(`/api/proposals/${toSend.id}/send`, { method: 'POST', session: cast.installer, json: { version: toSend.version } }), 200, 'send');
   const extra = needs.includes('member') ? await member(owner, crewId, 'viewer', 'Short-stay member') : undefined;
   return {
     cast,
@@ -43,6 +52,8 @@ export async function makeWorld(cast: Cast, needs: 'member'[] = []): Promise<Wor
     forecast: { id: forecast.id },
     invitation: { id: inv.id, version: inv.version, token },
     grant: { id: grant.id },
+    proposal: { id: proposal.id, version: proposal.version },
+    draft: { id: draft.id, version: draft.version },
     member: extra ? { userId: extra.userId } : undefined,
     crewVersion: async () => (await ok<{ version: number }>(await api(`/api/crews/${crewId}`, { session: owner }), 200, 'crew')).version,
     memberVersion: async (userId: string) =>

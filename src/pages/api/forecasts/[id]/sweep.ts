@@ -1,0 +1,23 @@
+import { db } from '../../../../server/db';
+import { json, parseWith, readJson, requireUser, route } from '../../../../server/http';
+import { savedPricesOrThrow } from '../../../../server/price-lists';
+import { forecastForInstaller } from '../../../../server/proposals';
+import { sweepRequestSchema } from '../../../../proposals/schema';
+import { runSweep } from '../../../../proposals/sweep';
+
+export const prerender = false;
+
+/**
+ * Upgrade sweep on a saved forecast (installers with a grant on its rig): every combination of the
+ * candidates rerun with the engine, priced from the sent prices or the installer's saved list,
+ * ranked by cost, each marked as keeping the whole trip above the reserve with no cutoff or not.
+ */
+export const POST = route(async (ctx) => {
+  const user = requireUser(ctx);
+  const { forecast } = await forecastForInstaller(db, user, ctx.params.id!);
+  const body = parseWith(sweepRequestSchema, await readJson(ctx.request, 64 * 1024));
+  const prices = body.prices ?? (await savedPricesOrThrow(db, user.id));
+  const started = performance.now();
+  const result = runSweep({ plan: forecast.plan, reserveSocPct: forecast.reserveSocPct, candidates: body.candidates, prices });
+  return json({ ...result, forecastId: forecast.id, ms: Math.round((performance.now() - started) * 10) / 10 });
+});

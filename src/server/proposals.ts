@@ -1,0 +1,358 @@
+import type { Kysely } from 'kysely';
+import type { DB, ProposalRow } from '../../db/schema';
+import type { Forecast, ForecastSummary, ResolvedPlan } from '../engine';
+import type { ProposalDto, ProposalListItem } from '../proposals/dto';
+import { checkCables, defaultCables, formatMoney, lineAmount, partsTotal, proposalCautions, type CheckedCable } from '../proposals/proposal';
+import type { CableRow, Changes, Part, PriceList, ProposalPatchInput } from '../proposals/schema';
+import { forecastAfter, labelOf, oneOffItems, type CostItem } from '../proposals/sweep';
+import { installerOnly, tripAccess, type Actor, type RigGrant } from './access';
+import { HttpError, type Issue } from './errors';
+import { forecastTripId, getForecast, packHourly, unpackHourly, type ForecastDto } from './forecasts';
+import { renderMail, type MailContent } from './mail';
+import { enqueueMail, kickOutbox } from './outbox';
+import { conflict, nowIso } from './versions';
+
+// Proposals: an installer turns a saved forecast and one sweep option into a priced upgrade with
+// its before/after forecasts, parts, cable and fuse checks and cautions; sends it to the crew's
+// owners by e-mail; an owner accepts or declines it. Access is decided in access.ts.
+
+/** A saved forecast an installer with a grant may sweep or propose on: 404 when not theirs to see, 403 for the crew. */
+export async function forecastForInstaller(db: Kysely<DB>, user: Actor, forecastId: string, field?: string): Promise<{ forecast: ForecastDto & { crewId: string }; access: RigGrant }> {
+  const issues: Issue[] = field ? [{ path: field, message: 'not a saved forecast of a rig shared with you' }] : [];
+  const missing = () => new HttpError('not_found', "There is no saved forecast with this id among the rigs shared with you.", issues);
+  const tripId = await forecastTripId(db, forecastId);
+  if (!tripId) throw missing();
+  const access = await tripAccess(db, user, tripId, 'read').catch((e: unknown) => {
+    throw e instanceof HttpError && e.code === 'not_found' ? missing() : e;
+  });
+  installerOnly(access, 'Upgrade sweeps and proposals');
+  const forecast = await getForecast(db, forecastId);
+  if (!forecast) throw missing();
+  return { forecast, access };
+}
+
+function packForecast(f: Forecast): string {
+  const { hourly, ...rest } = f;
+  return JSON.stringify({ ...rest, hourly: packHourly(hourly) });
+}
+
+function unpackForecast(s: string): Forecast {
+  const stored = JSON.parse(s) as Omit<Forecast, 'hourly'> & { hourly: Parameters<typeof unpackHourly>[0] };
+  return { ...stored, hourly: unpackHourly(stored.hourly) };
+}
+
+type Brief = Pick<ForecastSummary, 'minSocPct' | 'firstCutoffAt' | 'unmetWh'>;
+const brief = (s: ForecastSummary): Brief => ({ minSocPct: s.minSocPct, firstCutoffAt: s.firstCutoffAt, unmetWh: s.unmetWh });
+
+function runningLines(after: Forecast, prices: PriceList): CostItem[] {
+  const h = after.summary.generatorHours;
+  if (!(h > 0) || !(prices.generatorPerHour > 0)) return [];
+  return [{ name: 'Generator running on this trip (fuel and wear, estimate)', quantity: h, unit: 'h', unitPrice: prices.generatorPerHour, amount: h * prices.generatorPerHour, kind: 'running' }];
+}
+
+/** Creates a draft from a saved forecast and one option: the after plan is forecast in full, parts priced from the list. */
+export async function createProposal(
+  db: Kysely<DB>,
+  p: { forecast: ForecastDto & { crewId: string }; access: RigGrant; installer: { id: string; name: string }; changes: Changes; prices: PriceList; title?: string },
+): Promise<ProposalDto> {
+  const before = p.forecast;
+  let after: { plan: ResolvedPlan; forecast: Forecast };
+  try {
+    after = forecastAfter(before.plan, p.changes);
+  } catch (e) {
+    // A change the engine refuses (a bank out of its limits) is the request's fault: name the field.
+    const envelope = (e as { envelope?: { issues?: Issue[]; error?: { message?: string } } }).envelope;
+    if (envelope) throw new HttpError('invalid_request', `This option cannot be forecast: ${envelope.error?.message ?? 'invalid change'}`, (envelope.issues ?? []).map((i) => ({ path: `changes.${i.path}`, message: i.message })));
+    throw e;
+  }
+  const parts: Part[] = oneOffItems(before.plan, p.changes, p.prices).map((i) => ({ name: i.name, quantity: i.quantity, unit: i.unit, unitPrice: i.unitPrice }));
+  const cables = checkCables(defaultCables(after.plan, p.changes), after.plan);
+  const id = crypto.randomUUID();
+  const now = nowIso();
+  const label = labelOf(p.changes, before.plan);
+  await db
+    .insertInto('proposals')
+    .values({
+      id,
+      crew_id: p.access.rig.crew_id,
+      rig_id: p.access.rig.id,
+      trip_id: before.tripId,
+      forecast_id: before.id,
+      installer_id: p.installer.id,
+      installer_name: p.installer.name,
+      title: p.title?.trim() || `Upgrade for ${p.access.rig.name}: ${label}`,
+      changes: JSON.stringify(p.changes),
+      currency: p.prices.currency,
+      parts: JSON.stringify(parts),
+      running: JSON.stringify(runningLines(after.forecast, p.prices)),
+      cables: JSON.stringify(cables),
+      cautions: JSON.stringify(proposalCautions(after.plan, p.changes)),
+      reserve_soc_pct: before.reserveSocPct,
+      summary: JSON.stringify({ before: brief(before.forecast.summary), after: brief(after.forecast.summary) }),
+      before_plan: JSON.stringify(before.plan),
+      before_result: packForecast(before.forecast),
+      after_plan: JSON.stringify(after.plan),
+      after_result: packForecast(after.forecast),
+      created_at: now,
+      updated_at: now,
+    })
+    .execute();
+  const row = await db.selectFrom('proposals').selectAll().where('id', '=', id).executeTakeFirstOrThrow();
+  return toDto(db, row, { ...p.access, role: 'installer' }, p.installer.id);
+}
+
+function listQuery(db: Kysely<DB>) {
+  return db
+    .selectFrom('proposals')
+    .innerJoin('rigs', 'rigs.id', 'proposals.rig_id')
+    .innerJoin('crews', 'crews.id', 'proposals.crew_id')
+    .leftJoin('trips', 'trips.id', 'proposals.trip_id')
+    .select([
+      'proposals.id',
+      'proposals.title',
+      'proposals.status',
+      'proposals.version',
+      'proposals.rig_id',
+      'proposals.trip_id',
+      'proposals.installer_name',
+      'proposals.currency',
+      'proposals.parts',
+      'proposals.changes',
+      'proposals.summary',
+      'proposals.before_plan',
+      'proposals.created_at',
+      'proposals.updated_at',
+      'proposals.sent_at',
+      'proposals.decided_at',
+      'rigs.name as rig_name',
+      'crews.name as crew_name',
+      'trips.name as trip_name',
+    ]);
+}
+
+type ListRow = Pick<ProposalRow, 'id' | 'title' | 'status' | 'version' | 'rig_id' | 'trip_id' | 'installer_name' | 'currency' | 'parts' | 'changes' | 'summary' | 'before_plan' | 'created_at' | 'updated_at' | 'sent_at' | 'decided_at'> & {
+  rig_name: string;
+  crew_name: string;
+  trip_name: string | null;
+};
+
+function toListItem(r: ListRow): ProposalListItem {
+  const summary = JSON.parse(r.summary) as { before: Brief; after: Brief };
+  const plan = JSON.parse(r.before_plan) as ResolvedPlan;
+  return {
+    id: r.id,
+    title: r.title,
+    status: r.status,
+    version: r.version,
+    rigId: r.rig_id,
+    rigName: r.rig_name,
+    crewName: r.crew_name,
+    tripId: r.trip_id,
+    tripName: r.trip_name,
+    installerName: r.installer_name,
+    currency: r.currency,
+    total: partsTotal(JSON.parse(r.parts) as Part[]),
+    label: labelOf(JSON.parse(r.changes) as Changes, plan),
+    before: summary.before,
+    after: summary.after,
+    createdAt: r.created_at,
+    updatedAt: r.updated_at,
+    sentAt: r.sent_at,
+    decidedAt: r.decided_at,
+  };
+}
+
+/**
+ * The proposals a user sees, newest first: an installer, their own on rigs still shared with them;
+ * a crew member, those sent to the crews they are in.
+ */
+export async function listProposals(db: Kysely<DB>, user: Actor & { kind?: string }): Promise<ProposalListItem[]> {
+  let q = listQuery(db);
+  if (user.kind === 'installer') {
+    q = q
+      .innerJoin('rig_grants', (j) => j.onRef('rig_grants.rig_id', '=', 'proposals.rig_id').on('rig_grants.installer_id', '=', user.id))
+      .where('proposals.installer_id', '=', user.id);
+  } else {
+    q = q
+      .innerJoin('crew_members', (j) => j.onRef('crew_members.crew_id', '=', 'rigs.crew_id').on('crew_members.user_id', '=', user.id))
+      .where('proposals.status', '!=', 'draft');
+  }
+  const rows = await q.orderBy('proposals.created_at', 'desc').orderBy('proposals.id').execute();
+  return rows.map(toListItem);
+}
+
+/** The whole proposal as the caller may see it. */
+export async function toDto(db: Kysely<DB>, row: ProposalRow, access: Pick<RigGrant, 'role'>, userId: string): Promise<ProposalDto> {
+  const item = await listQuery(db).where('proposals.id', '=', row.id).executeTakeFirstOrThrow();
+  const decider = row.decided_by ? await db.selectFrom('user').select('name').where('id', '=', row.decided_by).executeTakeFirst() : undefined;
+  const list = toListItem(item);
+  const parts = (JSON.parse(row.parts) as Part[]).map((p) => ({ ...p, amount: lineAmount(p) }));
+  return {
+    ...list,
+    forecastId: row.forecast_id,
+    notes: row.notes,
+    changes: JSON.parse(row.changes) as Changes,
+    parts,
+    running: JSON.parse(row.running) as CostItem[],
+    cables: JSON.parse(row.cables) as CheckedCable[],
+    cautions: JSON.parse(row.cautions) as string[],
+    reserveSocPct: row.reserve_soc_pct,
+    before: { ...list.before, plan: JSON.parse(row.before_plan) as ResolvedPlan, forecast: unpackForecast(row.before_result) },
+    after: { ...list.after, plan: JSON.parse(row.after_plan) as ResolvedPlan, forecast: unpackForecast(row.after_result) },
+    decision: row.decided_at ? { comment: row.decision_comment ?? '', by: decider?.name ?? null, at: row.decided_at } : null,
+    canEdit: access.role === 'installer' && row.installer_id === userId && row.status === 'draft',
+    canDecide: access.role === 'owner' && row.status === 'sent',
+    mine: access.role === 'installer',
+  };
+}
+
+async function reread(db: Kysely<DB>, id: string): Promise<ProposalRow> {
+  return db.selectFrom('proposals').selectAll().where('id', '=', id).executeTakeFirstOrThrow();
+}
+
+async function staleOr(db: Kysely<DB>, id: string, access: Pick<RigGrant, 'role'>, userId: string): Promise<never> {
+  const now = await db.selectFrom('proposals').selectAll().where('id', '=', id).executeTakeFirst();
+  if (!now) throw new HttpError('not_found', 'This proposal was deleted meanwhile.');
+  throw conflict('proposal', await toDto(db, now, access, userId));
+}
+
+/** Edits a draft's title, notes, currency, parts or cable runs (checks rerun here, never trusted from the client). */
+export async function patchProposal(db: Kysely<DB>, row: ProposalRow, access: RigGrant, userId: string, input: ProposalPatchInput & { parts?: Part[]; cables?: CableRow[] }): Promise<ProposalDto> {
+  if (row.status !== 'draft') {
+    throw new HttpError('conflict', 'This proposal was sent to the crew, so it can no longer be changed.', [], { current: await toDto(db, row, access, userId) });
+  }
+  const after = JSON.parse(row.after_plan) as ResolvedPlan;
+  const res = await db
+    .updateTable('proposals')
+    .set({
+      ...(input.title !== undefined ? { title: input.title } : {}),
+      ...(input.notes !== undefined ? { notes: input.notes } : {}),
+      ...(input.currency !== undefined ? { currency: input.currency } : {}),
+      ...(input.parts !== undefined ? { parts: JSON.stringify(input.parts) } : {}),
+      ...(input.cables !== undefined ? { cables: JSON.stringify(checkCables(input.cables, after)) } : {}),
+      version: row.version + 1,
+      updated_at: nowIso(),
+    })
+    .where('id', '=', row.id)
+    .where('version', '=', input.version)
+    .where('status', '=', 'draft')
+    .executeTakeFirst();
+  if (res.numUpdatedRows !== 1n) await staleOr(db, row.id, access, userId);
+  return toDto(db, await reread(db, row.id), access, userId);
+}
+
+/** The e-mail to a crew owner: who proposes what for which rig, the total, and the link. */
+export function proposalMail(p: { ownerName: string; installerName: string; rigName: string; title: string; total: string; url: string }): MailContent {
+  return renderMail({
+    subject: `${p.installerName} sent a proposal for “${p.rigName}”`,
+    greeting: `Hello ${p.ownerName},`,
+    intro: [
+      `${p.installerName} sent you an upgrade proposal for the rig “${p.rigName}”: “${p.title}”.`,
+      `It shows your saved forecast before and after the change, the parts (${p.total} in all), the cable and fuse sizes, and the cautions that go with them. Figures are estimates.`,
+      'Open it in Sunreckon to accept or decline it, with a comment for your installer.',
+    ],
+    action: { label: 'Open the proposal', url: p.url },
+    outro: ['Nothing is ordered or changed on your rig until you and your installer agree.'],
+  });
+}
+
+/** The e-mail to the installer when the crew answers. */
+export function decisionMail(p: { installerName: string; ownerName: string; rigName: string; title: string; decision: 'accepted' | 'declined'; comment: string; url: string }): MailContent {
+  return renderMail({
+    subject: `${p.ownerName} ${p.decision} your proposal for “${p.rigName}”`,
+    greeting: `Hello ${p.installerName},`,
+    intro: [
+      `${p.ownerName} ${p.decision} your proposal “${p.title}” for the rig “${p.rigName}”.`,
+      ...(p.comment ? [`Their comment: “${p.comment}”`] : []),
+    ],
+    action: { label: 'Open the proposal', url: p.url },
+  });
+}
+
+/** Sends a draft to the crew: status sent, and an e-mail to each owner through the outbox in the same transaction. */
+export async function sendProposal(db: Kysely<DB>, row: ProposalRow, access: RigGrant, userId: string, version: number, origin: string): Promise<ProposalDto> {
+  if (row.status !== 'draft') {
+    throw new HttpError('conflict', 'This proposal was already sent.', [], { current: await toDto(db, row, access, userId) });
+  }
+  let stale = false;
+  await db.transaction().execute(async (trx) => {
+    const now = nowIso();
+    const res = await trx
+      .updateTable('proposals')
+      .set({ status: 'sent', sent_at: now, version: row.version + 1, updated_at: now })
+      .where('id', '=', row.id)
+      .where('version', '=', version)
+      .where('status', '=', 'draft')
+      .executeTakeFirst();
+    if (res.numUpdatedRows !== 1n) {
+      stale = true;
+      return;
+    }
+    const owners = await trx
+      .selectFrom('crew_members')
+      .innerJoin('user', 'user.id', 'crew_members.user_id')
+      .select(['user.name', 'user.email'])
+      .where('crew_members.crew_id', '=', row.crew_id)
+      .where('crew_members.role', '=', 'owner')
+      .execute();
+    const rig = await trx.selectFrom('rigs').select('name').where('id', '=', row.rig_id).executeTakeFirstOrThrow();
+    const total = formatMoney(partsTotal(JSON.parse(row.parts) as Part[]), row.currency);
+    for (const o of owners) {
+      await enqueueMail(trx, 'proposal', o.email, proposalMail({ ownerName: o.name, installerName: row.installer_name, rigName: rig.name, title: row.title, total, url: `${origin}/proposals/${row.id}` }));
+    }
+  });
+  if (stale) await staleOr(db, row.id, access, userId);
+  kickOutbox();
+  return toDto(db, await reread(db, row.id), access, userId);
+}
+
+/** The owner's answer: accepted or declined with a comment; the installer hears of it by e-mail. */
+export async function decideProposal(
+  db: Kysely<DB>,
+  row: ProposalRow,
+  access: RigGrant,
+  user: Actor & { name: string },
+  input: { version: number; decision: 'accepted' | 'declined'; comment: string },
+  origin: string,
+): Promise<ProposalDto> {
+  if (row.status !== 'sent') {
+    throw new HttpError('conflict', `This proposal was already ${row.status}.`, [], { current: await toDto(db, row, access, user.id) });
+  }
+  let stale = false;
+  await db.transaction().execute(async (trx) => {
+    const now = nowIso();
+    const res = await trx
+      .updateTable('proposals')
+      .set({ status: input.decision, decision_comment: input.comment, decided_by: user.id, decided_at: now, version: row.version + 1, updated_at: now })
+      .where('id', '=', row.id)
+      .where('version', '=', input.version)
+      .where('status', '=', 'sent')
+      .executeTakeFirst();
+    if (res.numUpdatedRows !== 1n) {
+      stale = true;
+      return;
+    }
+    const installer = row.installer_id ? await trx.selectFrom('user').select(['name', 'email']).where('id', '=', row.installer_id).executeTakeFirst() : undefined;
+    if (installer) {
+      const rig = await trx.selectFrom('rigs').select('name').where('id', '=', row.rig_id).executeTakeFirstOrThrow();
+      await enqueueMail(
+        trx,
+        'proposal-decision',
+        installer.email,
+        decisionMail({ installerName: installer.name, ownerName: user.name, rigName: rig.name, title: row.title, decision: input.decision, comment: input.comment, url: `${origin}/proposals/${row.id}` }),
+      );
+    }
+  });
+  if (stale) await staleOr(db, row.id, access, user.id);
+  kickOutbox();
+  return toDto(db, await reread(db, row.id), access, user.id);
+}
+
+/** Deletes a draft (a sent proposal stays: the crew has it). */
+export async function deleteProposal(db: Kysely<DB>, row: ProposalRow, access: RigGrant, userId: string, version: number): Promise<void> {
+  if (row.status !== 'draft') {
+    throw new HttpError('conflict', 'A sent proposal cannot be deleted: the crew has it.', [], { current: await toDto(db, row, access, userId) });
+  }
+  const res = await db.deleteFrom('proposals').where('id', '=', row.id).where('version', '=', version).where('status', '=', 'draft').executeTakeFirst();
+  if (res.numDeletedRows !== 1n) await staleOr(db, row.id, access, userId);
+}
