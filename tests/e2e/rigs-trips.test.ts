@@ -169,6 +169,30 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     await expect(page.locator('tr[data-load-row="Reading lights"] td[data-label="When"]').textContent()).resolves.toBe('18:00–23:00, 06:00–08:00');
   });
 
+  it('shows both versions of a load someone else saved meanwhile, and takes theirs', async () => {
+    const list = await (await page.request.get(`${baseUrl()}/api/rigs/${rigId}/loads`)).json();
+    const furnace = list.find((l: { name: string }) => l.name === 'Furnace blower');
+    await page.getByRole('button', { name: 'Edit Furnace blower' }).click();
+    const editor = page.getByRole('form', { name: 'Edit Furnace blower' });
+    await editor.getByLabel('Watts (each)').fill('75');
+    const other = await page.request.patch(`${baseUrl()}/api/loads/${furnace.id}`, { headers: origin(), data: { version: furnace.version, watts: 90, dutyPct: 80 } });
+    expect(other.status()).toBe(200);
+    await editor.getByRole('button', { name: 'Save load' }).click();
+    const notice = editor.locator('[data-conflict]');
+    await notice.waitFor();
+    const rows = await notice.locator('tbody tr').evaluateAll((trs) => trs.map((tr) => [...tr.children].map((c) => c.textContent)));
+    expect(rows).toEqual([
+      ['Watts', '90', '75'],
+      ['Duty %', '80', '100'],
+    ]);
+    await shot(page, `load-conflict-${viewport}`);
+    await notice.getByRole('button', { name: 'Take theirs' }).click();
+    await page.getByText('Showing the other version of Furnace blower.').waitFor();
+    await expect(page.locator('tr[data-load-row="Furnace blower"] td[data-label="Draw"]').textContent()).resolves.toBe('90 W');
+    const saved = (await (await page.request.get(`${baseUrl()}/api/rigs/${rigId}/loads`)).json()).find((l: { id: string }) => l.id === furnace.id);
+    expect(saved).toMatchObject({ watts: 90, dutyPct: 80, version: furnace.version + 1 });
+  });
+
   it('sorts the loads by energy a day', async () => {
     const names = async () => page.locator('tr[data-load-row]').evaluateAll((rows) => rows.map((r) => r.getAttribute('data-load-row')));
     if (viewport === 'phone') await page.getByLabel('Sort by').selectOption('wh:desc');

@@ -105,11 +105,11 @@ export function CsvImport({ rigId, onImported, onClose }: { rigId: string; onImp
             <p className="font-bold text-moss-deep">All {preview.rows.length} lines read cleanly. Check the preview, then import.</p>
           )}
           <div className="mt-2 overflow-x-auto">
-            <table className="w-full min-w-[22rem] text-sm" aria-label="CSV preview">
+            <table className="w-full text-sm" aria-label="CSV preview">
               <thead>
                 <tr className="border-b-2 border-sand-dark text-left">
                   <th className="py-1 pr-2">Line</th><th className="py-1 pr-2">Name</th><th className="py-1 pr-2 text-right">W</th><th className="py-1 pr-2 text-right">Qty</th>
-                  <th className="py-1 pr-2">Supply</th><th className="py-1 pr-2">When</th><th className="py-1 text-right">Duty</th>
+                  <th className="py-1 pr-2 max-sm:hidden">Supply</th><th className="py-1 pr-2">When</th><th className="py-1 text-right max-sm:hidden">Duty</th>
                 </tr>
               </thead>
               <tbody>
@@ -132,9 +132,9 @@ export function CsvImport({ rigId, onImported, onClose }: { rigId: string; onImp
                       <td className="py-1 pr-2">{row?.name ?? '—'}</td>
                       <td className="py-1 pr-2 text-right tabular-nums">{typeof row?.watts === 'number' ? formatNumber(row.watts, 1) : '—'}</td>
                       <td className="py-1 pr-2 text-right tabular-nums">{row?.quantity ?? 1}</td>
-                      <td className="py-1 pr-2">{row?.supply ? row.supply.toUpperCase() : 'DC'}</td>
+                      <td className="py-1 pr-2 max-sm:hidden">{row?.supply ? row.supply.toUpperCase() : 'DC'}</td>
                       <td className="py-1 pr-2">{row?.windows ? describeWindows(row.windows as [number, number][]) : 'all day'}</td>
-                      <td className="py-1 text-right tabular-nums">{typeof row?.dutyPct === 'number' ? `${formatNumber(row.dutyPct)} %` : '100 %'}</td>
+                      <td className="py-1 text-right tabular-nums max-sm:hidden">{typeof row?.dutyPct === 'number' ? `${formatNumber(row.dutyPct)} %` : '100 %'}</td>
                     </tr>
                   );
                 })}
