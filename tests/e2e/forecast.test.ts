@@ -1,0 +1,103 @@
+import { execFileSync } from 'node:child_process';
+import { readFileSync } from 'node:fs';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import AxeBuilder from '@axe-core/playwright';
+import type { Page } from 'playwright-core';
+import { DEMO_ACCOUNTS } from '../../db/seed';
+import { baseUrl } from '../helpers/api';
+import { hydrated, launch, shot, VIEWPORTS, type ViewportName } from '../helpers/browser';
+import { ROOT } from '../helpers/server';
+
+/** Serious and critical axe violations of the page as it is now, as readable lines. */
+async function seriousViolations(page: Page): Promise<string[]> {
+  const results = await new AxeBuilder({ page }).analyze();
+  return results.violations
+    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v) => `${v.id} (${v.impact}): ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
+}
+
+async function signIn(page: Page): Promise<void> {
+  await page.goto(baseUrl() + '/sign-in');
+  await hydrated(page);
+  await page.getByLabel('E-mail').fill(DEMO_ACCOUNTS.camper.email);
+  await page.getByLabel('Password').fill(DEMO_ACCOUNTS.camper.password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL('**/trips');
+}
+
+beforeAll(() => {
+  // The invented demo crew, seeded into the test server's database (the seed is idempotent).
+  execFileSync('npx', ['tsx', 'db/seed.ts'], { cwd: ROOT, env: { ...process.env, DATABASE_PATH: inject('dbPath') }, stdio: 'pipe' });
+});
+
+describe.each(Object.keys(VIEWPORTS) as ViewportName[])('forecasts in Chromium at %s width', (viewport) => {
+  let page: Page;
+  let close: () => Promise<void>;
+
+  beforeAll(async () => {
+    ({ page, close } = await launch(viewport));
+    await signIn(page);
+  });
+  afterAll(async () => close?.());
+
+  it('runs a forecast of the seeded trailer trip and shows when the bank runs out', async () => {
+    await page.getByRole('link', { name: /High desert loop with the trailer/ }).first().click();
+    await page.waitForURL(/\/trips\/[^/]+$/);
+    await hydrated(page);
+    expect(await seriousViolations(page)).toEqual([]);
+    await shot(page, `trip-${viewport}`);
+    await page.getByLabel('Name this forecast (optional)').fill(`Run at ${viewport} width`);
+    await page.getByRole('button', { name: 'Run a forecast' }).click();
+    await page.waitForURL(/\/forecasts\/[^/]+$/);
+    await page.getByTestId('verdict-headline').waitFor();
+    const headline = await page.getByTestId('verdict-headline').textContent();
+    // The verdict names the day and local time of the cutoff, e.g. "Runs out Fri 22 Oct at 21:00 at …".
+    expect(headline).toMatch(/^Runs out \w{3} \d{1,2} \w{3} at \d{2}:\d{2}/);
+    const chart = page.getByTestId('soc-chart');
+    expect(await chart.locator('.soc-line path.recharts-curve').count()).toBeGreaterThan(0);
+    expect(await chart.getByTestId('reserve-band').count()).toBe(1);
+    expect(await chart.getByTestId('cutoff-marker').count()).toBe(1);
+    expect(await chart.getByTestId('cutoff-label').textContent()).toMatch(/\d{2}:\d{2}/);
+    expect(await seriousViolations(page)).toEqual([]);
+    await shot(page, `forecast-${viewport}`);
+  });
+
+  it('downloads the hourly CSV', async () => {
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('csv-download').first().click()]);
+    const file = await download.path();
+    const lines = readFileSync(file, 'utf8').trim().split(/\r?\n/);
+    expect(lines[0]).toMatch(/^stop,time,socPct/);
+    expect(lines.length).toBeGreaterThan(100);
+  });
+
+  it('compares two saved forecasts', async () => {
+    await page.getByRole('link', { name: 'High desert loop with the trailer' }).click();
+    await page.waitForURL(/\/trips\/[^/]+(#forecasts)?$/);
+    await hydrated(page);
+    const boxes = page.getByRole('checkbox', { name: /^Pick .* to compare$/ });
+    await boxes.first().waitFor();
+    expect(await boxes.count()).toBeGreaterThanOrEqual(2);
+    await boxes.nth(0).check();
+    await boxes.nth(1).check();
+    await page.getByRole('link', { name: 'Compare the two picked' }).click();
+    await page.waitForURL(/\/compare\?a=.+&b=.+/);
+    await page.getByTestId('compare-view').waitFor();
+    expect(await page.locator('.soc-line path.recharts-curve').count()).toBeGreaterThan(0);
+    expect(await page.locator('.soc-line-compare path.recharts-curve').count()).toBeGreaterThan(0);
+    expect(await page.getByTestId('compare-table').locator('tr').count()).toBeGreaterThan(4);
+    await shot(page, `compare-${viewport}`);
+  });
+});
+
+describe('landing page accessibility', () => {
+  it('has no serious or critical axe violations', async () => {
+    const { page, close } = await launch('phone');
+    try {
+      await page.goto(baseUrl() + '/');
+      await hydrated(page);
+      expect(await seriousViolations(page)).toEqual([]);
+    } finally {
+      await close();
+    }
+  });
+});
