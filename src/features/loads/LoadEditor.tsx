@@ -132,7 +132,7 @@ export function LoadEditor({ idPrefix, initial, units, rig, title, intro, submit
         <NumberField id={id('watts')} label="Watts (each)" errorName="Watts" unit="W" registration={register('watts', num)} error={err('watts')} hint="Running draw from the label; AC watts for AC loads." />
         <NumberField id={id('quantity')} label="Quantity" registration={register('quantity', num)} error={err('quantity')} />
 
-        <fieldset>
+        <fieldset className="sm:col-span-2">
           <legend className="field-label">Supply</legend>
           <div className="flex gap-2">
             {(['dc', 'ac'] as const).map((s) => (
@@ -143,13 +143,6 @@ export function LoadEditor({ idPrefix, initial, units, rig, title, intro, submit
           </div>
           {values.supply === 'ac' && !rig.inverter ? <p className="field-hint mt-1">This rig has no inverter yet; the estimate assumes one at 90 % efficiency.</p> : null}
         </fieldset>
-        <Field id={id('days')} label="Runs on" error={err('days')}>
-          <select id={id('days')} className="field-input" disabled={standby} {...describedBy(id('days'), err('days'))} {...register('days')}>
-            <option value="all">Every day</option>
-            <option value="camp">Camp days only</option>
-            <option value="drive">Drive days only</option>
-          </select>
-        </Field>
         <label className="flex items-start gap-2 rounded-xl bg-sand/50 p-3 sm:col-span-2">
           <input type="checkbox" className="mt-1.5 h-4 w-4 accent-ember" {...register('standby')} />
           <span>
@@ -171,7 +164,14 @@ export function LoadEditor({ idPrefix, initial, units, rig, title, intro, submit
         </Field>
         <NumberField id={id('dutyPct')} label="Duty" unit="%" registration={register('dutyPct', num)} error={err('dutyPct')} disabled={standby}
           hint={response === 'cooling' ? `Share of the time it runs at ${formatTemp(20, units)}; more in heat.` : response === 'heating' ? `Share of the time it runs when it is ${formatTempDelta(25, units)} colder than the setpoint.` : 'Share of those hours it actually runs.'} />
-        <Field id={id('response')} label="Temperature" error={err('response')}>
+        <Field id={id('days')} label="Runs on" error={err('days')}>
+          <select id={id('days')} className="field-input" disabled={standby} {...describedBy(id('days'), err('days'))} {...register('days')}>
+            <option value="all">Every day</option>
+            <option value="camp">Camp days only</option>
+            <option value="drive">Drive days only</option>
+          </select>
+        </Field>
+        <Field id={id('response')} label="Temperature" error={err('response')} className="sm:col-span-2 lg:col-span-2">
           <select id={id('response')} className="field-input" {...describedBy(id('response'), err('response'))} {...register('response')}>
             <option value="none">Not affected</option>
             <option value="cooling">Cooling (fridge): more in heat</option>
