@@ -215,6 +215,55 @@ export interface ForecastTable {
   created_at: string;
 }
 
+/** An uploaded battery-monitor CSV: the original file, the column mapping it was read with, its span. */
+export interface MonitorLogTable {
+  id: string;
+  crew_id: string;
+  rig_id: string;
+  name: string;
+  original: Uint8Array;
+  original_bytes: number;
+  /** JSON: the confirmed column mapping (src/monitor/mapping.ts). */
+  mapping: string;
+  time_zone: string;
+  sample_count: number;
+  started_at: string;
+  ended_at: string;
+  version: Generated<number>;
+  created_by: string | null;
+  created_at: string;
+}
+
+/** One reading of a monitor log; amps are positive while charging. */
+export interface MonitorSampleTable {
+  log_id: string;
+  t: number;
+  volts: number | null;
+  amps: number | null;
+  soc_pct: number | null;
+  temp_c: number | null;
+}
+
+/** An at-camp reading and the re-forecast of the rest of the trip made from it. */
+export interface CheckInTable {
+  id: string;
+  crew_id: string;
+  trip_id: string;
+  /** ISO 8601 with the offset the reading was given with. */
+  at: string;
+  at_ms: number;
+  source: 'soc' | 'volts';
+  soc_pct: number;
+  resting_volts: number | null;
+  /** The saved forecast whose plan the re-forecast ran on (null: the trip as it was then). */
+  forecast_id: string | null;
+  /** JSON: the re-forecast's summary and the saved forecast's, side by side. */
+  result: string;
+  version: Generated<number>;
+  created_by: string | null;
+  created_at: string;
+}
+
 /** An installer's prices: `prices` is JSON of src/proposals/schema.ts priceListSchema without its currency. */
 export interface PriceListTable {
   installer_id: string;
@@ -285,6 +334,9 @@ export interface DB {
   caught_mail: CaughtMailTable;
   price_lists: PriceListTable;
   proposals: ProposalTable;
+  monitor_logs: MonitorLogTable;
+  monitor_samples: MonitorSampleTable;
+  check_ins: CheckInTable;
 }
 
 export type User = Selectable<UserTable>;
@@ -302,3 +354,5 @@ export type OutboxRow = Selectable<OutboxTable>;
 export type CaughtMail = Selectable<CaughtMailTable>;
 export type PriceListRow = Selectable<PriceListTable>;
 export type ProposalRow = Selectable<ProposalTable>;
+export type MonitorLogRow = Selectable<MonitorLogTable>;
+export type CheckInRow = Selectable<CheckInTable>;

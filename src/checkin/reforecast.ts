@@ -1,0 +1,215 @@
+import { forecast as runEngine, validatePlan, type DayRow, type Forecast, type HourlyRow, type ResolvedDrive, type ResolvedPlan, type ResolvedStop } from '../engine';
+import { planTimeline } from '../engine/timeline';
+import { dayNumber, HOUR_MS, isoDate, localToInstant, offsetMinutes } from '../engine/tz';
+import type { CheckInOutcome } from './schema';
+
+// The rest of a trip from a check-in: the same plan, starting at the hour of the reading with the
+// reading as the bank's state of charge, run by the same engine (which builds for the browser, so
+// a phone without signal computes exactly what the server will). Pure.
+//
+// The engine starts a forecast at a stop's arrival hour and lets a stop stay whole nights, so the
+// plan is rewritten: the stop the camper is at "arrives" at the check-in's hour and keeps its
+// departure. On the morning a stop is left (before the next arrival or the trip's end) that stop
+// has less than a night left; then it runs as a one-night stop cut where it really ends, and the
+// rest of the trip runs on from there with the state of charge reached.
+
+export type ReforecastResult = { ok: true; forecast: Forecast; stopIndex: number } | { ok: false; path: 'at'; message: string };
+
+const DAY = 86_400_000;
+
+function label(plan: ResolvedPlan, ms: number): string {
+  // The owning stop's local time, as the forecast writes it (YYYY-MM-DD HH:MM).
+  const tl = planTimeline(plan.stops, plan.drives);
+  let s = 0;
+  while (s + 1 < plan.stops.length && tl.arrivals[s + 1] <= ms) s++;
+  const off = offsetMinutes(plan.stops[s].timeZone, ms);
+  const local = new Date(ms + off * 60_000).toISOString();
+  return `${local.slice(0, 10)} ${local.slice(11, 16)} at ${plan.stops[s].name}`;
+}
+
+/** Drives (whole hours) that fall inside [from, to), cut to it, in the local terms of the stop owning each one's start. */
+function drivesWithin(plan: ResolvedPlan, stops: ResolvedStop[], arrivals: number[], from: number, to: number): ResolvedDrive[] {
+  const tl = planTimeline(plan.stops, plan.drives);
+  const out: ResolvedDrive[] = [];
+  for (const d of tl.drives) {
+    const a = Math.max(d.startMs, from);
+    const b = Math.min(d.endMs, to);
+    if (b <= a) continue;
+    let s = 0;
+    while (s + 1 < stops.length && arrivals[s + 1] <= a) s++;
+    const off = offsetMinutes(stops[s].timeZone, a);
+    const local = a + off * 60_000;
+    const day = Math.floor(local / DAY);
+    out.push({ date: isoDate(day), startHour: Math.floor((local - day * DAY) / HOUR_MS), hours: Math.max(1, Math.ceil((b - a) / HOUR_MS)) });
+  }
+  return out;
+}
+
+function run(plan: ResolvedPlan): Forecast | string {
+  const v = validatePlan(plan);
+  if (!v.ok) return v.envelope.error.message;
+  return runEngine(v.plan);
+}
+
+/** Rows of `f` that start before `endMs`, with the summary and days read from those rows. */
+function cut(f: Forecast, endMs: number): Forecast {
+  const start = Date.parse(f.hourly[0].time);
+  const k = Math.max(0, Math.min(f.hourly.length, Math.ceil((endMs - start) / HOUR_MS)));
+  return rebuild(f, f.hourly.slice(0, k), f.warnings.filter((w) => Date.parse(w.at) < endMs));
+}
+
+/** A forecast made of these rows: summary and days recomputed from them (watts are hour averages, so Wh = W × 1 h). */
+function rebuild(base: Forecast, hourly: HourlyRow[], warnings: Forecast['warnings'], stops = base.stops): Forecast {
+  const days = new Map<string, DayRow>();
+  let minIdx = -1;
+  // The engine's own cutoff events (floor or voltage), as its summary reads them.
+  const cutoffs = warnings.filter((w) => w.code === 'floor-cutoff' || w.code === 'voltage-cutoff').map((w) => w.at);
+  const cutoff = cutoffs.length ? cutoffs.reduce((a, b) => (Date.parse(b) < Date.parse(a) ? b : a)) : null;
+  const sum = { load: 0, solar: 0, charge: 0, unmet: 0, curtailed: 0, gen: 0 };
+  hourly.forEach((r, i) => {
+    const date = r.time.slice(0, 10);
+    const d = days.get(date) ?? { date, loadWh: 0, solarWh: 0, chargeWh: 0, netWh: 0, minSocPct: r.socPct, endSocPct: r.socPct, unmetWh: 0, curtailedWh: 0 };
+    d.loadWh += r.loadWatts;
+    d.solarWh += r.solarWatts;
+    d.chargeWh += r.chargeWatts;
+    d.netWh += r.solarWatts + r.chargeWatts - r.loadWatts;
+    d.unmetWh += r.unmetWatts;
+    d.curtailedWh += r.curtailedWatts;
+    d.minSocPct = Math.min(d.minSocPct, r.socPct);
+    d.endSocPct = r.socPct;
+    days.set(date, d);
+    if (minIdx < 0 || r.socPct < hourly[minIdx].socPct) minIdx = i;
+    sum.load += r.loadWatts;
+    sum.solar += r.solarWatts;
+    sum.charge += r.chargeWatts;
+    sum.unmet += r.unmetWatts;
+    sum.curtailed += r.curtailedWatts;
+    if (r.generatorOn) sum.gen++;
+  });
+  const last = hourly[hourly.length - 1];
+  return {
+    hourly,
+    days: [...days.values()],
+    warnings,
+    stops,
+    summary: {
+      ...base.summary,
+      minSocPct: minIdx >= 0 ? hourly[minIdx].socPct : base.summary.startSocPct,
+      minSocAt: minIdx >= 0 ? hourly[minIdx].time : base.summary.minSocAt,
+      firstCutoffAt: cutoff,
+      unmetWh: sum.unmet,
+      solarWh: sum.solar,
+      curtailedWh: sum.curtailed,
+      generatorHours: sum.gen,
+      endSocPct: last ? last.socPct : base.summary.startSocPct,
+      hoursSimulated: hourly.length,
+      loadWh: sum.load,
+      chargeWh: sum.charge,
+      coldBlockedHours: warnings.filter((w) => w.code === 'cold-charge-blocked').length,
+    },
+  };
+}
+
+/** Loads for a stretch of one local day whose drive-day status the rewritten plan would get wrong. */
+function loadsForDay(plan: ResolvedPlan, driveDay: boolean): ResolvedPlan['loads'] {
+  return plan.loads.flatMap((l) => {
+    if (l.days === 'all') return [l];
+    if ((l.days === 'drive') === driveDay) return [{ ...l, days: 'all' as const }];
+    return [];
+  });
+}
+
+/**
+ * The forecast from `fromMs` (an hour boundary) to the trip's end with the bank at `socPct`, in
+ * pieces when one run cannot say it: the stop's last morning (less than a night left) runs as a
+ * one-night stop cut where the stop really ends; a first day whose drive already happened (or
+ * a drive that began the day before) keeps the original day's drive-day loads until midnight.
+ * Each piece starts with the state of charge the one before ended with.
+ */
+function span(plan: ResolvedPlan, fromMs: number, socPct: number, depth = 0): Forecast | string {
+  const tl = planTimeline(plan.stops, plan.drives);
+  let s = 0;
+  while (s + 1 < plan.stops.length && tl.arrivals[s + 1] <= fromMs) s++;
+  const stop = plan.stops[s];
+  const off = offsetMinutes(stop.timeZone, fromMs);
+  const local = fromMs + off * 60_000;
+  const day = Math.floor(local / DAY);
+  const hour = Math.floor((local - day * DAY) / HOUR_MS);
+  const bank = { ...plan.bank, initialSocPct: Math.max(0, Math.min(100, socPct)) };
+  const rest = plan.stops.slice(s + 1);
+  const isLast = rest.length === 0;
+  const departDay = dayNumber(stop.arrive) + stop.nights;
+  const nextDay = isLast ? Infinity : dayNumber(rest[0].arrive);
+  const weather = stop.weather.filter((w) => dayNumber(w.date) >= day);
+
+  let stops: ResolvedStop[];
+  let arrivals: number[];
+  let cutAt = tl.endMs;
+  if ((isLast && day < departDay) || (!isLast && day < nextDay)) {
+    // At least a night of this stop is left (or a gap day before the next one): one run to the end.
+    stops = [{ ...stop, arrive: isoDate(day), nights: day < departDay ? departDay - day : nextDay - day, arriveHour: hour, weather }, ...rest];
+    arrivals = [fromMs, ...tl.arrivals.slice(s + 1)];
+  } else {
+    // The morning the stop is left: a one-night stop, cut where the stop really ends.
+    stops = [{ ...stop, arrive: isoDate(day), nights: 1, arriveHour: hour, weather }];
+    arrivals = [fromMs];
+    cutAt = isLast ? tl.endMs : tl.arrivals[s + 1];
+  }
+  const drives = drivesWithin(plan, stops, arrivals, fromMs, cutAt);
+  let loads = plan.loads;
+  const wasDriveDay = plan.drives.some((d) => dayNumber(d.date) === day);
+  if (wasDriveDay !== drives.some((d) => dayNumber(d.date) === day)) {
+    // Until midnight, keep the original day's drive-day loads; from midnight the plan says it right.
+    cutAt = Math.min(cutAt, localToInstant(stop.timeZone, day + 1, 0));
+    loads = loadsForDay(plan, wasDriveDay);
+  }
+  const f = run({ ...plan, bank, loads, stops, drives: drivesWithin(plan, stops, arrivals, fromMs, Math.min(cutAt, tl.endMs)) });
+  if (typeof f === 'string') return f;
+  const mine = { ...f, hourly: f.hourly.map((r) => ({ ...r, stop: r.stop + s })), stops: plan.stops.map(({ name, timeZone }) => ({ name, timeZone })) };
+  const runEnd = fromMs + mine.hourly.length * HOUR_MS;
+  const part = runEnd > cutAt ? cut(mine, cutAt) : mine;
+  if (cutAt >= tl.endMs) return part;
+  if (depth > 4 * plan.stops.length + 8) return 'the trip could not be split into runs';
+  const carried = part.hourly.length ? part.hourly[part.hourly.length - 1].socPct : bank.initialSocPct;
+  const later = span(plan, cutAt, carried, depth + 1);
+  if (typeof later === 'string') return later;
+  return rebuild({ ...part, summary: { ...part.summary, startSocPct: bank.initialSocPct } }, [...part.hourly, ...later.hourly], [...part.warnings, ...later.warnings]);
+}
+
+/**
+ * Re-forecasts the rest of the trip from a reading taken at `atMs` (ms since the epoch) with the
+ * bank at `socPct`. The forecast starts at the start of the reading's local hour at the stop the
+ * camper is at. A reading before the trip starts or after it ends is refused, naming `at`.
+ */
+export function reforecastFrom(plan: ResolvedPlan, atMs: number, socPct: number): ReforecastResult {
+  const tl = planTimeline(plan.stops, plan.drives);
+  if (!(atMs >= tl.startMs)) return { ok: false, path: 'at', message: `is before the trip starts (${label(plan, tl.startMs)}): check in once you are at camp.` };
+  if (atMs >= tl.endMs) return { ok: false, path: 'at', message: `is after the trip ends (${label(plan, tl.endMs - HOUR_MS)}).` };
+  let s = 0;
+  while (s + 1 < plan.stops.length && tl.arrivals[s + 1] <= atMs) s++;
+  const zone = plan.stops[s].timeZone;
+  const local = atMs + offsetMinutes(zone, atMs) * 60_000;
+  const day = Math.floor(local / DAY);
+  const startMs = Math.max(tl.arrivals[s], localToInstant(zone, day, Math.floor((local - day * DAY) / HOUR_MS)));
+  const f = span(plan, startMs, socPct);
+  if (typeof f === 'string') return { ok: false, path: 'at', message: `cannot start a forecast here: ${f}` };
+  return { ok: true, forecast: f, stopIndex: s };
+}
+
+/** The figures a check-in keeps from its re-forecast. */
+export function outcomeOf(f: Forecast): CheckInOutcome {
+  const s = f.summary;
+  const cutRow = s.firstCutoffAt ? f.hourly.find((r) => r.time === s.firstCutoffAt) : undefined;
+  return {
+    startAt: f.hourly[0]?.time ?? '',
+    startSocPct: s.startSocPct,
+    firstCutoffAt: s.firstCutoffAt,
+    cutoffStop: cutRow ? (f.stops[cutRow.stop]?.name ?? null) : null,
+    minSocPct: s.minSocPct,
+    minSocAt: s.minSocAt,
+    endSocPct: s.endSocPct,
+    unmetWh: Math.round(s.unmetWh),
+    hoursSimulated: s.hoursSimulated,
+    floorSocPct: s.floorSocPct,
+  };
+}

@@ -1,0 +1,69 @@
+import { detectLog, type DetectedMapping } from './detect';
+import type { ColumnMapping } from './mapping';
+import { splitLine } from './text';
+import { parseLog, type BankLimits, type LogLineError, type ParseResult } from './parse';
+
+// Step 1 of an upload: what the file looks like read with the proposed (or the camper's) mapping —
+// the first readings, every problem by line and column, and the span. Pure.
+
+export interface LogPreview {
+  /** The mapping used: the detected one, or the one sent. */
+  mapping: DetectedMapping;
+  detected: boolean;
+  headers: string[];
+  /** The first data rows as written. */
+  rows: string[][];
+  notes: string[];
+  /** The first readings as they will be stored, with their file lines. */
+  sample: { line: number; t: number; volts: number | null; amps: number | null; socPct: number | null; tempC: number | null }[];
+  errors: LogLineError[];
+  errorCount: number;
+  warnings: string[];
+  count: number;
+  from: number | null;
+  to: number | null;
+}
+
+/** Detects (when no mapping is given) and reads the whole file, as the save will. */
+export function previewLog(text: string, opts: { timeZone: string; mapping: ColumnMapping | null; limits: BankLimits | null }): { preview: LogPreview; parsed: ParseResult | null } {
+  const detection = opts.mapping ? null : detectLog(text, opts.timeZone);
+  const mapping: DetectedMapping = opts.mapping ?? detection!.mapping;
+  let parsed: ParseResult | null = null;
+  let errors: LogLineError[] = [];
+  let errorCount = 0;
+  if (mapping.time) {
+    parsed = parseLog(text, { ...mapping, time: mapping.time }, opts.limits);
+    errors = parsed.errors;
+    errorCount = parsed.errorCount;
+  } else {
+    errors = [{ line: Math.max(1, mapping.headerLine), column: null, message: 'The log has no time column: choose the column that holds the time of each reading.' }];
+    errorCount = 1;
+  }
+  const samples = parsed?.samples ?? [];
+  const rows = detection?.rows ?? firstRows(text, mapping);
+  return {
+    parsed,
+    preview: {
+      mapping,
+      detected: detection !== null,
+      headers: parsed?.headers.length ? parsed.headers : (detection?.headers ?? []),
+      rows,
+      notes: detection?.notes ?? [],
+      sample: samples.slice(0, 10).map((s, i) => ({ line: parsed!.lines[i], ...s })),
+      errors,
+      errorCount,
+      warnings: parsed?.warnings ?? [],
+      count: samples.length,
+      from: samples.length ? samples[0].t : null,
+      to: samples.length ? samples[samples.length - 1].t : null,
+    },
+  };
+}
+
+/** The first data rows as written, split with the mapping's delimiter. */
+function firstRows(text: string, mapping: DetectedMapping, n = 8): string[][] {
+  const out: string[][] = [];
+  const lines = text.split('\n');
+  for (let i = mapping.headerLine; i < lines.length && out.length < n; i++) if (lines[i].trim() !== '') out.push(splitLine(lines[i], mapping.delimiter));
+  return out;
+}

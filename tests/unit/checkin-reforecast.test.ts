@@ -1,0 +1,103 @@
+import { describe, expect, it } from 'vitest';
+import { outcomeOf, reforecastFrom } from '../../src/checkin/reforecast';
+import { checkInInputSchema } from '../../src/checkin/schema';
+import { demoPlan, forecast, validatePlan, type ResolvedPlan } from '../../src/engine';
+
+// The rest of a trip from a check-in, run by the engine: the demo trip (Juniper Mesa, 3 nights,
+// America/Denver; a drive day; Cinder Flat, 2 nights, America/Phoenix).
+
+const v = validatePlan(demoPlan());
+if (!v.ok) throw new Error('demo plan');
+const plan: ResolvedPlan = v.plan;
+const full = forecast(plan);
+const at = (iso: string) => Date.parse(iso);
+
+function run(iso: string, soc: number) {
+  const r = reforecastFrom(plan, at(iso), soc);
+  if (!r.ok) throw new Error(r.message);
+  return r.forecast;
+}
+
+describe('re-forecast from a check-in', () => {
+  it('from the trip’s first hour with its starting SOC, it is the forecast itself', () => {
+    const r = run(full.hourly[0].time, plan.bank.initialSocPct);
+    expect(r.hourly).toEqual(full.hourly);
+    expect(r.summary).toEqual(full.summary);
+  });
+
+  // A check-in that reads exactly what the forecast said must continue the forecast's line. The
+  // times cover a camp evening, the drive-day morning before the next stop (two runs joined) and
+  // the last morning (a run cut at the trip's end), across two time zones.
+  it.each(['2027-10-22T19:20-06:00', '2027-10-24T08:10-06:00', '2027-10-25T03:00-07:00', '2027-10-26T07:45-07:00'])('continues the forecast when the reading agrees with it (%s)', (iso) => {
+    const t = at(iso);
+    const k = full.hourly.findIndex((r) => Date.parse(r.time) <= t && t < Date.parse(r.time) + 3_600_000);
+    const socAtStart = k === 0 ? full.summary.startSocPct : full.hourly[k - 1].socPct;
+    const r = run(iso, socAtStart);
+    expect(r.hourly[0].time).toBe(full.hourly[k].time);
+    expect(r.hourly.length).toBe(full.hourly.length - k);
+    expect(r.hourly.at(-1)!.time).toBe(full.hourly.at(-1)!.time);
+    r.hourly.forEach((row, i) => {
+      expect(row.time).toBe(full.hourly[k + i].time);
+      expect(Math.abs(row.socPct - full.hourly[k + i].socPct)).toBeLessThanOrEqual(0.3);
+      expect(row.driving).toBe(full.hourly[k + i].driving);
+      expect(r.stops[row.stop].name).toBe(full.stops[full.hourly[k + i].stop].name);
+    });
+  });
+
+  it('continues the forecast from every hour of the trip', () => {
+    full.hourly.forEach((row, k) => {
+      const soc = k === 0 ? full.summary.startSocPct : full.hourly[k - 1].socPct;
+      const r = run(row.time, soc);
+      expect(r.hourly.length, row.time).toBe(full.hourly.length - k);
+      const worst = Math.max(...r.hourly.map((x, i) => Math.abs(x.socPct - full.hourly[k + i].socPct)));
+      expect(worst, row.time).toBeLessThanOrEqual(0.3);
+      expect(r.hourly.map((x) => x.loadWatts), row.time).toEqual(full.hourly.slice(k).map((x) => x.loadWatts));
+    });
+  });
+
+  it('the new cutoff moves earlier as the reading falls, and goes away as it rises', () => {
+    const cut = (soc: number) => outcomeOf(run('2027-10-22T07:30-06:00', soc)).firstCutoffAt;
+    const times = [60, 40, 25, 18, 12].map(cut);
+    expect(times[0]).toBeNull();
+    const found = times.filter((x): x is string => x !== null).map(Date.parse);
+    expect(found.length).toBeGreaterThanOrEqual(2);
+    for (let i = 1; i < found.length; i++) expect(found[i]).toBeLessThanOrEqual(found[i - 1]);
+    expect(found[0]).toBeGreaterThan(found[found.length - 1]);
+  });
+
+  it('a reading at or below the floor cuts off at once', () => {
+    const o = outcomeOf(run('2027-10-23T20:00-06:00', plan.bank.floorSocPct));
+    expect(o.firstCutoffAt).toBe(o.startAt);
+    expect(o.cutoffStop).toBe('Juniper Mesa');
+  });
+
+  it('the start SOC is the reading, and the outcome names the stop of a cutoff', () => {
+    const o = outcomeOf(run('2027-10-24T16:00-06:00', 20));
+    expect(o.startSocPct).toBe(20);
+    expect(o.cutoffStop).toBe('Cinder Flat');
+    expect(Date.parse(o.firstCutoffAt!)).toBeGreaterThan(at('2027-10-24T16:00-06:00'));
+  });
+
+  it('refuses readings before the trip starts and after it ends, naming `at`', () => {
+    const before = reforecastFrom(plan, at('2027-10-21T14:59-06:00'), 80);
+    expect(before).toMatchObject({ ok: false, path: 'at', message: expect.stringContaining('before the trip starts (2027-10-21 15:00 at Juniper Mesa)') });
+    const after = reforecastFrom(plan, at('2027-10-26T11:00-07:00'), 80);
+    expect(after).toMatchObject({ ok: false, path: 'at', message: expect.stringContaining('after the trip ends') });
+  });
+});
+
+describe('the check-in body', () => {
+  const id = '0b4f7f0e-4a77-4c9b-9a57-5b1f2d0f6a11';
+  it('takes a SOC or a resting voltage, never both or neither', () => {
+    expect(checkInInputSchema.safeParse({ id, at: '2027-10-22T07:30-06:00', socPct: 64 }).success).toBe(true);
+    expect(checkInInputSchema.safeParse({ id, at: '2027-10-22T07:30-06:00', restingVolts: 12.4 }).success).toBe(true);
+    const both = checkInInputSchema.safeParse({ id, at: '2027-10-22T07:30-06:00', socPct: 64, restingVolts: 12.4 });
+    expect(both.error?.issues.map((i) => i.path.join('.'))).toEqual(['restingVolts']);
+    const neither = checkInInputSchema.safeParse({ id, at: '2027-10-22T07:30-06:00' });
+    expect(neither.error?.issues.map((i) => i.path.join('.'))).toEqual(['socPct']);
+  });
+  it('needs a time with its offset and a UUID', () => {
+    const r = checkInInputSchema.safeParse({ id: 'abc', at: '2027-10-22 07:30', socPct: 120 });
+    expect(r.error?.issues.map((i) => i.path.join('.')).sort()).toEqual(['at', 'id', 'socPct']);
+  });
+});
