@@ -16,9 +16,15 @@ import { assumedMessage, ignoredMessage, resolveStopWeather, type DayWeather } f
 /** Solar sub-steps per hour: midpoints of 6 equal slices (forecast-engine.md asks for at least 6). */
 export const SUBSTEPS = 6;
 
-// With the sun's altitude this far below the horizon at the hour's midpoint it cannot rise above
-// it within ±30 min (altitude changes ≤ 15°/h, curvature adds < 0.5°), so the hour is dark.
-const DARK_ALTITUDE_DEG = -8.5;
+/**
+ * Midpoint altitude (apparent, degrees) below which an hour at this latitude has no sun at all,
+ * so its sub-steps can be skipped. The altitude changes at most ω·cos φ (dh/dt = ω·cos φ·sin A,
+ * ω ≈ 15.04°/h), so 7.55°·cos φ in half an hour; 0.6° more covers suncalc's refraction at the
+ * horizon (0.48°).
+ */
+export function darkBelowDeg(latDeg: number): number {
+  return -(7.55 * Math.cos((latDeg * Math.PI) / 180) + 0.6);
+}
 
 const RAD = Math.PI / 180;
 
@@ -132,6 +138,7 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
 
   // suncalc 2.x directly (see sun.ts sunPosition for its conventions), with one reused Date:
   // thousands of sub-steps per trip make allocation show up in the timings.
+  const dark = plan.stops.map((st) => darkBelowDeg(st.lat));
   const date = new Date(0);
   const poaSub = new Float64Array(na);
   for (let r = 0; r < n; r++) {
@@ -169,7 +176,7 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     date.setTime(t0 + HOUR_MS / 2);
     const mid = getPosition(date, stop.lat, stop.lon);
     sunAltitudeDeg[r] = mid.altitude;
-    if (na === 0 || mid.altitude < DARK_ALTITUDE_DEG) continue;
+    if (na === 0 || mid.altitude < dark[s]) continue;
 
     // ---- irradiance at each sub-step (forecast-engine.md steps 1–8) ----
     const e0 = extraterrestrial(dayOfYear(day));
