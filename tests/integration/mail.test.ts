@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { inject } from 'vitest';
 import { api, baseUrl, signUp, uniqueEmail } from '../helpers/api';
 import { caughtFor, linkIn, outboxFor, waitForMail, waitForSent } from '../helpers/mail';
+import { cleanup, startServer } from '../helpers/server';
 
 async function requestReset(email: string) {
   return api('/api/auth/request-password-reset', { method: 'POST', json: { email, redirectTo: '/reset-password' } });
@@ -108,5 +109,17 @@ describe('/dev/mail', () => {
     expect(html).toContain('Plain text');
     expect(html).toContain('srcdoc=');
     expect(html).toMatch(/<time datetime="\d{4}-\d\d-\d\dT/);
+  });
+
+  it('does not exist in production', async () => {
+    const prod = await startServer({ SUNRECKON_ENV: 'production', BETTER_AUTH_URL: 'http://127.0.0.1' });
+    try {
+      const res = await fetch(`${prod.url}/dev/mail`, { redirect: 'manual' });
+      expect(res.status).toBe(404);
+      expect(await res.text()).not.toContain('Caught mail');
+    } finally {
+      await prod.stop();
+      cleanup(prod.dir);
+    }
   });
 });
