@@ -92,7 +92,7 @@ export function invitationMail(p: { crewName: string; inviterName: string; role:
     subject: `${p.inviterName} invited you to the crew “${p.crewName}” on Sunreckon`,
     greeting: 'Hello,',
     intro: [
-      `${p.inviterName} invited you to join the crew “${p.crewName}” as ${p.role === 'owner' ? 'an owner' : `an ${p.role}`}: you will be able to ${what[p.role] ?? 'use the crew'}.`,
+      `${p.inviterName} invited you to join the crew “${p.crewName}” as ${p.role === 'viewer' ? 'a viewer' : `an ${p.role}`}: you will be able to ${what[p.role] ?? 'use the crew'}.`,
       'Open the link and sign in or create an account with this e-mail address.',
     ],
     action: { label: 'Join the crew', url: p.url },

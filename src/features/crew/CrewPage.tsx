@@ -29,6 +29,7 @@ export const ROLE_TEXT: Record<CrewRoleName, string> = {
 };
 
 const ROLE_LABEL: Record<CrewRoleName, string> = { owner: 'Owner', editor: 'Editor', viewer: 'Viewer' };
+const WITH_ARTICLE: Record<CrewRoleName, string> = { owner: 'an owner', editor: 'an editor', viewer: 'a viewer' };
 
 function RoleBadge({ role }: { role: CrewRoleName }) {
   const tone = role === 'owner' ? 'bg-dusk text-white' : role === 'editor' ? 'bg-moss-deep text-white' : 'bg-sand-dark text-dusk';
@@ -166,7 +167,7 @@ function MemberRow({ crew, member, onNotice }: { crew: CrewDetailDto; member: Me
   const role = useMutation({
     mutationFn: (next: CrewRoleName) => api.changeRole(crew.id, member.userId, next, member.version),
     onSuccess: (m) => {
-      onNotice(`${m.name} is now ${m.role === 'owner' ? 'an owner' : `an ${m.role}`}.`);
+      onNotice(`${m.name} is now ${WITH_ARTICLE[m.role]}.`);
       void refresh();
     },
     onError: (e) => {
@@ -344,7 +345,7 @@ function CrewBody({ crewId, crews, joined }: { crewId: string; crews: CrewSummar
   const crew = useQuery(crewQuery(crewId));
   const [notice, setNotice] = useState<{ text: string; tone: 'ok' | 'alert' } | null>(() => {
     const c = crews.find((x) => x.id === crewId);
-    return joined && c ? { text: `Welcome to ${c.name}. You joined as ${c.role === 'owner' ? 'an owner' : `an ${c.role}`}; its rigs are under Rigs.`, tone: 'ok' } : null;
+    return joined && c ? { text: `Welcome to ${c.name}. You joined as ${WITH_ARTICLE[c.role]}; its rigs are under Rigs.`, tone: 'ok' } : null;
   });
   const onNotice = (text: string, tone: 'ok' | 'alert' = 'ok') => setNotice({ text, tone });
   if (crew.isPending) return <LoadingState label="Loading the crew…" />;
