@@ -26,7 +26,7 @@ describe('darkBelowDeg', () => {
       { numRuns: 2000 },
     );
     expect(dark).toBeGreaterThan(500);
-  });
+  }, 30_000);
 
   it('holds on a dense sweep of hours starting near sunrise and sunset', () => {
     let nearThreshold = 0;
@@ -45,7 +45,7 @@ describe('darkBelowDeg', () => {
       }
     }
     expect(nearThreshold).toBeGreaterThan(50);
-  });
+  }, 30_000);
 
   it('is about −8.2° at the equator and −6.5° at 38° N', () => {
     expect(darkBelowDeg(0)).toBeCloseTo(-8.15, 2);

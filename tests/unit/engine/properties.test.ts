@@ -208,7 +208,7 @@ describe('properties of random valid plans', () => {
     expect(stats.unmet).toBeGreaterThan(0);
     expect(stats.generator).toBeGreaterThan(0);
     expect(stats.curtailed).toBeGreaterThan(0);
-  });
+  }, 30_000);
 
   it('the same plan gives byte-identical JSON', () => {
     fc.assert(
@@ -222,5 +222,5 @@ describe('properties of random valid plans', () => {
       }),
       { numRuns: 30 },
     );
-  });
+  }, 30_000);
 });

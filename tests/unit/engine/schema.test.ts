@@ -147,7 +147,7 @@ describe('refusals name the field with a dot path', () => {
       }),
       { numRuns: 200 },
     );
-  });
+  }, 30_000);
 
   it('never throws on a demo plan with one field replaced by arbitrary JSON', () => {
     const paths: string[][] = [['bank', 'capacityAh'], ['bank'], ['stops', '0', 'timeZone'], ['stops', '0', 'arrive'], ['stops', '1', 'weather'], ['loads', '0', 'windows'], ['drives'], ['chargers', '0'], ['arrays', '0', 'aim'], ['inverter']];
@@ -162,7 +162,7 @@ describe('refusals name the field with a dot path', () => {
       }),
       { numRuns: 200 },
     );
-  });
+  }, 30_000);
 });
 
 describe('types', () => {
