@@ -107,7 +107,9 @@ function snapshot(fields: Record<Field, unknown>, side: 'before' | 'after'): Rec
 
 /** Inserts loads at the end of a rig's list, each with its activity row, all in one transaction. */
 async function insertLoads(db: Kysely<DB>, rigId: string, userId: string, values: LoadValues[], action: 'added' | 'imported'): Promise<LoadDto[]> {
-  return db.transaction().execute(async (trx) => {
+  // Joins the caller's transaction when given one (Kysely cannot nest transactions).
+  const inTransaction = <T>(fn: (trx: Kysely<DB>) => Promise<T>) => (db.isTransaction ? fn(db) : db.transaction().execute(fn));
+  return inTransaction(async (trx) => {
     const { n, last } = (await trx
       .selectFrom('loads')
       .select((eb) => [eb.fn.countAll<number>().as('n'), eb.fn.max('position').as('last')])

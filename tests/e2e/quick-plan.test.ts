@@ -6,7 +6,7 @@ import type { Page } from 'playwright-core';
 import { demoPlan, forecast, validatePlan } from '../../src/engine';
 import { verdict } from '../../src/features/forecast/verdict';
 import { buildQuickPlan, QUICK_PLAN_STORAGE_KEY, type QuickPlanForm } from '../../src/features/quick-plan/quick-plan';
-import { baseUrl } from '../helpers/api';
+import { uniqueEmail, baseUrl } from '../helpers/api';
 import { hydrated, launch, shot, VIEWPORTS, type ViewportName } from '../helpers/browser';
 
 /** What the test types into the form (the same values build the expected plan). */
@@ -177,8 +177,24 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('landing and quick plan 
   it('keeps the plan for after sign-up', async () => {
     await page.getByTestId('keep-plan').click();
     await page.waitForURL('**/sign-up?next=*');
-    expect(new URL(page.url()).searchParams.get('next')).toBe('/rigs?fromQuickPlan=1');
+    expect(new URL(page.url()).searchParams.get('next')).toBe('/keep-plan');
     const stored = JSON.parse((await page.evaluate(`sessionStorage.getItem(${JSON.stringify(QUICK_PLAN_STORAGE_KEY)})`)) as string);
     expect(stored).toEqual(JSON.parse(JSON.stringify(buildQuickPlan(ENTRY))));
+  });
+
+  it('saves the kept plan as the new camper\'s first rig and trip', async () => {
+    await hydrated(page);
+    await page.getByLabel('Your name').fill('Quick Planner');
+    await page.getByLabel('E-mail').fill(uniqueEmail('quick'));
+    await page.getByLabel('Password').fill('kept-plan-2027');
+    await page.getByRole('button', { name: 'Create account' }).click();
+    await page.waitForURL(/\/trips\/[^/?#]+/);
+    await hydrated(page);
+    await page.getByRole('button', { name: 'Run a forecast' }).waitFor();
+    expect(await page.evaluate(`sessionStorage.getItem(${JSON.stringify(QUICK_PLAN_STORAGE_KEY)})`)).toBeNull();
+    const rigs = await page.evaluate(async () => (await fetch('/api/rigs')).json());
+    expect(rigs).toHaveLength(1);
+    const loads = await page.evaluate(async (id: string) => (await fetch(`/api/rigs/${id}/loads`)).json(), rigs[0].id);
+    expect(loads.length).toBe(buildQuickPlan(ENTRY).loads?.length);
   });
 });

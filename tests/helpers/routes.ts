@@ -112,6 +112,7 @@ export const ROUTES: RouteCase[] = [
   { method: 'GET', route: '/api/timezone', url: () => '/api/timezone?lat=35.2&lon=-111.6', expect: all(200) },
 
   // The signed-in user's own things
+  { method: 'POST', route: '/api/quick-plan/keep', url: () => '/api/quick-plan/keep', body: () => PLAN, expect: { ...signedIn(201), installer: 403, stranger: 403 } },
   { method: 'PATCH', route: '/api/settings', url: () => '/api/settings', body: () => ({ units: 'metric' }), expect: signedIn(200) },
   { method: 'GET', route: '/api/crews', url: () => '/api/crews', expect: signedIn(200) },
   { method: 'POST', route: '/api/crews', url: () => '/api/crews', body: () => ({ name: 'Second household' }), expect: { ...signedIn(201), installer: 403, stranger: 403 } },

@@ -279,7 +279,7 @@ export function fieldForIssue(path: string): QuickPlanField | null {
 export const QUICK_PLAN_STORAGE_KEY = 'sunreckon.quickPlan';
 
 /** Where "Keep this plan" sends the visitor: sign up, then the rigs page picks the plan up. */
-export const KEEP_PLAN_URL = `/sign-up?next=${encodeURIComponent('/rigs?fromQuickPlan=1')}`;
+export const KEEP_PLAN_URL = `/sign-up?next=${encodeURIComponent('/keep-plan')}`;
 
 /** The stored quick plan, or null (nothing stored, storage blocked, or not JSON). */
 export function readStoredQuickPlan(storage: Pick<Storage, 'getItem'> | undefined = typeof sessionStorage === 'undefined' ? undefined : sessionStorage): Plan | null {

@@ -1,0 +1,64 @@
+import { describe, expect, it } from 'vitest';
+import { buildQuickPlan, type QuickPlanForm } from '../../src/features/quick-plan/quick-plan';
+import { api, openTestDb, signUp } from '../helpers/api';
+
+const ENTRY: QuickPlanForm = {
+  chemistry: 'agm',
+  capacityAh: 200,
+  panelWatts: 300,
+  mounting: 'flat',
+  shadePct: 0,
+  loads: ['fridge', 'lights', 'parasitic'],
+  placeName: 'Ridge camp',
+  lat: 36.1,
+  lon: -112.1,
+  timeZone: 'America/Phoenix',
+  arrive: '2027-05-10',
+  nights: 2,
+  cloudOktas: 2,
+  tempUnit: 'C',
+  high: 24,
+  low: 8,
+};
+
+const count = (sql: string, id: string) => {
+  const db = openTestDb();
+  const n = (db.prepare(sql).get(id) as { n: number }).n;
+  db.close();
+  return n;
+};
+
+describe('POST /api/quick-plan/keep', () => {
+  it('saves the plan as a rig with its loads and a trip, in the camper\'s crew', async () => {
+    const s = await signUp();
+    const plan = buildQuickPlan(ENTRY);
+    const res = await api('/api/quick-plan/keep', { method: 'POST', session: s, json: plan });
+    expect(res.status).toBe(201);
+    const { rigId, tripId } = await res.json();
+    expect(res.headers.get('location')).toBe(`/trips/${tripId}`);
+    expect(count('select count(*) as n from loads where rig_id = ?', rigId)).toBe(plan.loads!.length);
+    const trip = await (await api(`/api/trips/${tripId}`, { session: s })).json();
+    expect(trip.rigId).toBe(rigId);
+    expect(trip.stops[0].name).toBe(plan.stops[0].name);
+    // The kept plan forecasts exactly as the preview did.
+    const saved = await (await api(`/api/trips/${tripId}/forecasts`, { method: 'POST', session: s })).json();
+    const preview = await (await api('/api/forecasts/preview', { method: 'POST', json: plan })).json();
+    expect(saved.forecast.summary).toEqual(preview.summary);
+  });
+
+  it('saves nothing when the plan is refused, and names the field', async () => {
+    const s = await signUp();
+    const plan = buildQuickPlan(ENTRY) as { bank: { capacityAh: number } };
+    plan.bank.capacityAh = -1;
+    const res = await api('/api/quick-plan/keep', { method: 'POST', session: s, json: plan });
+    expect(res.status).toBe(400);
+    expect((await res.json()).issues.map((i: { path: string }) => i.path)).toContain('bank.capacityAh');
+    expect(count('select count(*) as n from rigs where created_by = ?', s.userId)).toBe(0);
+  });
+
+  it('refuses an installer, who has no crew to keep rigs in', async () => {
+    const s = await signUp({ kind: 'installer' });
+    const res = await api('/api/quick-plan/keep', { method: 'POST', session: s, json: buildQuickPlan(ENTRY) });
+    expect(res.status).toBe(403);
+  });
+});
