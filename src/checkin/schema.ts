@@ -12,7 +12,7 @@ export const checkInInputSchema = z
     id: z.uuid({ error: 'must be a UUID made by the app' }),
     at: z
       .string({ error: 'must be a time such as 2027-10-22T07:30-06:00' })
-      .regex(ISO_WITH_OFFSET, { error: 'must be a time with its UTC offset, such as 2027-10-22T07:30-06:00' })
+      .regex(ISO_WITH_OFFSET, { error: 'must be a time with its UTC offset, such as 2027-10-22T07:30-06:00', abort: true })
       .refine((s) => Number.isFinite(Date.parse(s)), { error: 'is not a real date and time' }),
     socPct: z.number({ error: 'must be a number' }).min(0, { error: 'must be at least 0 %' }).max(100, { error: 'must be at most 100 %' }).optional(),
     restingVolts: z.number({ error: 'must be a number' }).gt(0, { error: 'must be more than 0 V' }).max(100, { error: 'must be at most 100 V' }).optional(),

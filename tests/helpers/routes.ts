@@ -39,6 +39,9 @@ export interface World {
   /** The granted installer's proposals on the forecast: one sent to the crew, one still a draft. */
   proposal: { id: string; version: number };
   draft: { id: string; version: number };
+  /** A monitor log uploaded on the rig, and a check-in on the trip. */
+  monitorLog: { id: string; version: number };
+  checkIn: { id: string; version: number };
   /** Present when the route asked for `needs: ['member']`: a member only this request touches. */
   member?: { userId: string };
   /** The current version of a crew or member row, read at request time. */
@@ -102,6 +105,23 @@ export const TEST_PRICES = {
   generator: 900,
   generatorPerHour: 2,
 };
+
+/** A two-reading monitor log in our generic layout, as a multipart upload (with the confirmed mapping when saving). */
+export function monitorLogUpload(withMapping: boolean): { contentType: string; body: string } {
+  const boundary = 'sunreckon-matrix-boundary';
+  const csv = 'Timestamp,Voltage (V),Current (A),SOC (%)\r\n2027-10-20 22:00:00,13.2,-1.5,80\r\n2027-10-20 22:10:00,13.2,-1.4,79.9\r\n';
+  const mapping = { delimiter: ',', headerLine: 1, timeZone: 'America/Phoenix', time: { column: 0, format: 'iso' }, voltage: { column: 1, unit: 'V' }, current: { column: 2, unit: 'A', sign: 'charge-positive' }, soc: { column: 3, unit: '%' } };
+  const parts = [
+    `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="night.csv"\r\nContent-Type: text/csv\r\n\r\n${csv}\r\n`,
+    `--${boundary}\r\nContent-Disposition: form-data; name="timeZone"\r\n\r\nAmerica/Phoenix\r\n`,
+    ...(withMapping ? [`--${boundary}\r\nContent-Disposition: form-data; name="mapping"\r\n\r\n${JSON.stringify(mapping)}\r\n`] : []),
+    `--${boundary}--\r\n`,
+  ];
+  return { contentType: `multipart/form-data; boundary=${boundary}`, body: parts.join('') };
+}
+
+/** A check-in inside the fixture trip (Mesa camp, America/Phoenix, 20–22 Oct 2027), with a new id each time. */
+export const CHECK_IN_INPUT = () => ({ id: crypto.randomUUID(), at: '2027-10-21T08:00-07:00', socPct: 70 });
 
 export const ROUTES: RouteCase[] = [
   // Public
@@ -179,6 +199,17 @@ export const ROUTES: RouteCase[] = [
   { method: 'GET', route: '/api/forecasts/[id]', url: (w) => `/api/forecasts/${w.forecast.id}`, expect: RIG_READ },
   { method: 'GET', route: '/api/forecasts/[id]/hourly.csv', url: (w) => `/api/forecasts/${w.forecast.id}/hourly.csv`, expect: RIG_READ },
   { method: 'DELETE', route: '/api/forecasts/[id]', url: (w) => `/api/forecasts/${w.forecast.id}`, expect: RIG_WRITE(204), fresh: true },
+
+  // Monitor logs and check-ins
+  { method: 'GET', route: '/api/rigs/[id]/monitor-logs', url: (w) => `/api/rigs/${w.rig.id}/monitor-logs`, expect: RIG_READ },
+  { method: 'POST', route: '/api/rigs/[id]/monitor-logs', url: (w) => `/api/rigs/${w.rig.id}/monitor-logs?preview=1`, raw: monitorLogUpload(false), expect: RIG_WRITE(200) },
+  { method: 'POST', route: '/api/rigs/[id]/monitor-logs', url: (w) => `/api/rigs/${w.rig.id}/monitor-logs`, raw: monitorLogUpload(true), expect: RIG_WRITE(201) },
+  { method: 'GET', route: '/api/monitor-logs/[id]', url: (w) => `/api/monitor-logs/${w.monitorLog.id}`, expect: RIG_READ },
+  { method: 'GET', route: '/api/monitor-logs/[id]/original', url: (w) => `/api/monitor-logs/${w.monitorLog.id}/original`, expect: RIG_READ },
+  { method: 'DELETE', route: '/api/monitor-logs/[id]', url: (w) => `/api/monitor-logs/${w.monitorLog.id}?version=${w.monitorLog.version}`, expect: RIG_WRITE(204), fresh: true },
+  { method: 'GET', route: '/api/trips/[id]/check-ins', url: (w) => `/api/trips/${w.trip.id}/check-ins`, expect: RIG_READ },
+  { method: 'POST', route: '/api/trips/[id]/check-ins', url: (w) => `/api/trips/${w.trip.id}/check-ins`, body: () => CHECK_IN_INPUT(), expect: RIG_WRITE(201) },
+  { method: 'DELETE', route: '/api/check-ins/[id]', url: (w) => `/api/check-ins/${w.checkIn.id}?version=${w.checkIn.version}`, expect: RIG_WRITE(204), fresh: true },
 
   // Installer proposals: sweeps, price lists, proposals and the crew's answer
   {

@@ -1,7 +1,7 @@
 import { api, signUp, type Session } from './api';
 import { activeCrew, inviteToken, makeLoad, makeRig, makeTrip, member } from './crew';
 import { uniqueEmail } from './api';
-import { TEST_PRICES, type Actor, type Cast, type World } from './routes';
+import { CHECK_IN_INPUT, monitorLogUpload, TEST_PRICES, type Actor, type Cast, type World } from './routes';
 
 /** Signs up the matrix's people: a crew with owner, editor, viewer (and a spare editor), a camper elsewhere, two installers. */
 export async function makeCast(): Promise<Cast> {
@@ -42,6 +42,13 @@ export async function makeWorld(cast: Cast, needs: 'member'[] = []): Promise<Wor
   const draft = await propose();
   const toSend = await propose();
   const proposal = await ok<{ id: string; version: number }>(await api(`/api/proposals/${toSend.id}/send`, { method: 'POST', session: cast.installer, json: { version: toSend.version } }), 200, 'send');
+  const upload = monitorLogUpload(true);
+  const monitorLog = await ok<{ id: string; version: number }>(
+    await api(`/api/rigs/${rig.id}/monitor-logs`, { method: 'POST', session: owner, body: upload.body, headers: { 'content-type': upload.contentType } }),
+    201,
+    'monitor log',
+  );
+  const checkIn = await ok<{ id: string; version: number }>(await api(`/api/trips/${trip.id}/check-ins`, { method: 'POST', session: owner, json: CHECK_IN_INPUT() }), 201, 'check-in');
   const extra = needs.includes('member') ? await member(owner, crewId, 'viewer', 'Short-stay member') : undefined;
   return {
     cast,
@@ -54,6 +61,8 @@ export async function makeWorld(cast: Cast, needs: 'member'[] = []): Promise<Wor
     grant: { id: grant.id },
     proposal: { id: proposal.id, version: proposal.version },
     draft: { id: draft.id, version: draft.version },
+    monitorLog: { id: monitorLog.id, version: monitorLog.version },
+    checkIn: { id: checkIn.id, version: checkIn.version },
     member: extra ? { userId: extra.userId } : undefined,
     crewVersion: async () => (await ok<{ version: number }>(await api(`/api/crews/${crewId}`, { session: owner }), 200, 'crew')).version,
     memberVersion: async (userId: string) =>
