@@ -1,5 +1,6 @@
 import { defineMiddleware, sequence } from 'astro:middleware';
 import { auth } from './server/auth';
+import { env } from './server/env';
 import { errorResponse } from './server/http';
 
 const PUBLIC_PAGES = new Set(['/', '/sign-in', '/sign-up', '/reset-password', '/about']);
@@ -36,6 +37,27 @@ const guard = defineMiddleware(async (ctx, next) => {
   return ctx.redirect(`/sign-in?next=${back}`, 302);
 });
 
+const WRITE_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+
+const AUTH_ORIGIN = env.authUrl ? new URL(env.authUrl).origin : null;
+
+/**
+ * API writes from another site are refused. Astro's checkOrigin covers form content types only, and
+ * better-auth checks Origin only when cookies are sent (so a cross-site sign-in would pass). A
+ * browser sends Origin on every write; one naming another site is refused. In production with
+ * BETTER_AUTH_URL that URL's origin is the only one; elsewhere the origin the request came in on.
+ * Requests without Origin (scripts, curl) still need the SameSite=Lax session cookie.
+ */
+const sameOrigin = defineMiddleware(async (ctx, next) => {
+  if (!WRITE_METHODS.has(ctx.request.method) || !ctx.url.pathname.startsWith('/api/')) return next();
+  const expected = env.isProduction && AUTH_ORIGIN ? AUTH_ORIGIN : ctx.url.origin;
+  const origin = ctx.request.headers.get('origin');
+  if (origin !== null && origin !== expected) {
+    return errorResponse('forbidden', 'Cross-site requests are refused: send this from Sunreckon itself.', [{ path: '(headers).origin', message: `expected ${expected}` }]);
+  }
+  return next();
+});
+
 /** Security headers on every response. */
 const headers = defineMiddleware(async (_ctx, next) => {
   const res = await next();
@@ -52,4 +74,4 @@ const headers = defineMiddleware(async (_ctx, next) => {
   return res;
 });
 
-export const onRequest = sequence(headers, session, guard);
+export const onRequest = sequence(headers, sameOrigin, session, guard);

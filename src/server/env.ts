@@ -16,6 +16,8 @@ const schema = z.object({
   MAIL_FROM: z.string().default('Sunreckon <no-reply@sunreckon.test>'),
   /** First retry delay of an unsent e-mail; doubles per attempt up to 15 minutes. */
   OUTBOX_RETRY_BASE_MS: z.coerce.number().int().min(50).default(30_000),
+  /** Set to 1 behind one reverse proxy that appends the client to X-Forwarded-For; otherwise that header is never believed. */
+  SUNRECKON_TRUST_PROXY: z.enum(['0', '1']).default('0'),
   SUNRECKON_ENV: z.enum(['production', 'development', 'test', 'demo']).optional(),
 });
 

@@ -1,11 +1,23 @@
 import { RateLimiterMemory, RateLimiterRes } from 'rate-limiter-flexible';
 import type { APIContext } from 'astro';
+import { env } from './env';
 import { HttpError } from './errors';
 
 const limiters = new Map<string, RateLimiterMemory>();
 
-/** The client's socket address (Astro's), never a client-sent header. */
+/**
+ * The key a client's requests are counted under. Astro's clientAddress takes the first
+ * X-Forwarded-For value, which the client writes itself; so without a trusted proxy every request
+ * that sends the header shares one bucket (a made-up address never buys a fresh allowance), and
+ * behind one (SUNRECKON_TRUST_PROXY=1) the last hop — the one our proxy appended — counts.
+ */
 export function clientKey(ctx: APIContext): string {
+  const forwarded = ctx.request.headers.get('x-forwarded-for');
+  if (forwarded !== null) {
+    if (env.SUNRECKON_TRUST_PROXY !== '1') return 'forwarded-untrusted';
+    const hops = forwarded.split(',').map((h) => h.trim()).filter(Boolean);
+    return hops.at(-1) ?? 'forwarded-empty';
+  }
   try {
     return ctx.clientAddress || 'unknown';
   } catch {

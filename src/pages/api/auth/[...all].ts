@@ -1,5 +1,6 @@
 import type { APIRoute } from 'astro';
 import { auth, CLIENT_IP_HEADER } from '../../../server/auth';
+import { clientKey } from '../../../server/rate-limit';
 
 export const prerender = false;
 
@@ -7,13 +8,7 @@ export const prerender = false;
 export const ALL: APIRoute = async (ctx) => {
   // Rate limits key on the socket address; a header sent by the client is never trusted.
   const headers = new Headers(ctx.request.headers);
-  let ip = 'unknown';
-  try {
-    ip = ctx.clientAddress;
-  } catch {
-    // No socket address (e.g. prerender): one shared bucket.
-  }
-  headers.set(CLIENT_IP_HEADER, ip);
+  headers.set(CLIENT_IP_HEADER, clientKey(ctx));
   const body = ctx.request.method === 'GET' || ctx.request.method === 'HEAD' ? undefined : await ctx.request.arrayBuffer();
   return auth.handler(new Request(ctx.request.url, { method: ctx.request.method, headers, body }));
 };
