@@ -1,0 +1,37 @@
+// Plain fetchers of the proposals area (no React).
+import { apiFetch } from '../../lib/query-client';
+import type { ProposalDto, ProposalListItem } from '../../proposals/dto';
+import type { CandidatesInput, ChangesInput, DecisionInput, PriceList, ProposalPatchInput } from '../../proposals/schema';
+import type { SweepResult } from '../../proposals/sweep';
+
+const enc = encodeURIComponent;
+
+/** The installer's price list as `GET /api/price-list` returns it. */
+export type PriceListDto = PriceList & { version: number; saved: boolean; updatedAt: string | null };
+
+/** What `POST /api/forecasts/:id/sweep` returns. */
+export type SweepResponse = SweepResult & { forecastId: string; ms: number };
+
+export const fetchPriceList = () => apiFetch<PriceListDto>('/api/price-list');
+
+/** Saves the price list over the version read (0 for a first save). */
+export const savePriceList = (input: PriceList & { version: number }) => apiFetch<PriceListDto>('/api/price-list', { method: 'PUT', json: input });
+
+/** Runs the upgrade sweep on a saved forecast with the installer's saved prices. */
+export const runSweep = (forecastId: string, candidates: CandidatesInput, signal?: AbortSignal) =>
+  apiFetch<SweepResponse>(`/api/forecasts/${enc(forecastId)}/sweep`, { method: 'POST', json: { candidates }, signal });
+
+/** A draft proposal from a saved forecast and one option. */
+export const createProposal = (forecastId: string, changes: ChangesInput) => apiFetch<ProposalDto>('/api/proposals', { method: 'POST', json: { forecastId, changes } });
+
+export const fetchProposals = () => apiFetch<ProposalListItem[]>('/api/proposals');
+
+export const fetchProposal = (id: string) => apiFetch<ProposalDto>(`/api/proposals/${enc(id)}`);
+
+export const patchProposal = (id: string, input: ProposalPatchInput) => apiFetch<ProposalDto>(`/api/proposals/${enc(id)}`, { method: 'PATCH', json: input });
+
+export const sendProposal = (id: string, version: number) => apiFetch<ProposalDto>(`/api/proposals/${enc(id)}/send`, { method: 'POST', json: { version } });
+
+export const decideProposal = (id: string, input: DecisionInput) => apiFetch<ProposalDto>(`/api/proposals/${enc(id)}/decision`, { method: 'POST', json: input });
+
+export const deleteProposal = (id: string, version: number) => apiFetch<void>(`/api/proposals/${enc(id)}?version=${version}`, { method: 'DELETE' });
