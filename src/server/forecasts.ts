@@ -5,6 +5,7 @@ import type { LoadDto } from '../schemas/loads';
 import type { RigDto } from '../schemas/rigs';
 import type { TripDto } from '../schemas/trips';
 import { HttpError } from './errors';
+import { needsFormulaEscape } from './csv';
 
 /** Builds the engine plan of a trip from its rig and the rig's loads (as they are now). */
 export function assemblePlan(rig: RigDto, loads: LoadDto[], trip: TripDto): Plan {
@@ -181,7 +182,8 @@ const CSV_COLUMNS: (keyof HourlyRow)[] = ['time', 'socPct', 'volts', 'solarWatts
 export function hourlyCsv(f: Forecast): string {
   const esc = (v: unknown) => {
     const s = String(v);
-    const safe = /^[=+\-@\t\r]/.test(s) && !/^-?\d/.test(s) ? `'${s}` : s;
+    // The loads export's rule: a leading = + - @ TAB CR gets an apostrophe unless the whole cell is a plain number ("-2+3" is a formula).
+    const safe = needsFormulaEscape(s) ? `'${s}` : s;
     return /[",\n\r]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
   };
   const lines = [['stop', ...CSV_COLUMNS].join(',')];
