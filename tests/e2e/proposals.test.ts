@@ -162,6 +162,15 @@ describe('installer proposals in Chromium', () => {
     await page.getByTestId('decision').waitFor();
     expect(await page.getByTestId('draft-editor').count()).toBe(0);
     await shot(page, `proposal-installer-${viewport}`);
+    if (viewport === 'desktop') {
+      // The printout: the proposal with the installer's name, without the app's header and buttons.
+      await page.emulateMedia({ media: 'print' });
+      expect(await page.locator('body > header').isVisible()).toBe(false);
+      expect(await page.getByRole('button', { name: 'Print' }).isVisible()).toBe(false);
+      expect(await page.getByText('Prepared with Sunreckon by Wren Solar').isVisible()).toBe(true);
+      await shot(page, 'proposal-print-desktop');
+      await page.emulateMedia({ media: 'screen' });
+    }
     await page.goto(`${baseUrl()}/proposals/new?forecast=${forecastId}`);
     await hydrated(page);
     await page.getByRole('button', { name: 'Run the sweep' }).waitFor();

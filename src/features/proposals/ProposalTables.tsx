@@ -6,6 +6,8 @@ import { formatMoney } from '../../proposals/proposal';
 import { formatLength, type Units } from '../../lib/units';
 import { formatNumber } from '../../lib/format';
 
+const qty = (p: { quantity: number; unit: string }) => `${formatNumber(p.quantity, 2)}${p.unit ? ` ${p.unit}` : ''}`;
+
 /** Parts with quantities, unit prices and amounts, their total, and running costs apart. */
 export function PartsTable({ p }: { p: Pick<ProposalDto, 'parts' | 'running' | 'currency' | 'total'> }) {
   const money = (x: number) => formatMoney(x, p.currency);
@@ -16,8 +18,8 @@ export function PartsTable({ p }: { p: Pick<ProposalDto, 'parts' | 'running' | '
         <thead>
           <tr className="text-left">
             <th scope="col" className="py-1.5 pr-2">Part</th>
-            <th scope="col" className="py-1.5 pr-2 text-right">Qty</th>
-            <th scope="col" className="py-1.5 pr-2 text-right">Unit price</th>
+            <th scope="col" className="hidden py-1.5 pr-2 text-right sm:table-cell print:table-cell">Qty</th>
+            <th scope="col" className="hidden py-1.5 pr-2 text-right sm:table-cell print:table-cell">Unit price</th>
             <th scope="col" className="py-1.5 text-right">Amount</th>
           </tr>
         </thead>
@@ -27,16 +29,21 @@ export function PartsTable({ p }: { p: Pick<ProposalDto, 'parts' | 'running' | '
           ) : null}
           {p.parts.map((part, i) => (
             <tr key={i} className="border-t border-sand-dark align-top">
-              <td className="py-1.5 pr-2">{part.name}</td>
-              <td className="whitespace-nowrap py-1.5 pr-2 text-right">{formatNumber(part.quantity, 2)}{part.unit ? ` ${part.unit}` : ''}</td>
-              <td className="whitespace-nowrap py-1.5 pr-2 text-right">{money(part.unitPrice)}</td>
+              <td className="py-1.5 pr-2">
+                {part.name}
+                {/* On a phone the quantity and unit price go under the name. */}
+                <span className="block text-sm text-slate-text sm:hidden print:hidden">{qty(part)} × {money(part.unitPrice)}</span>
+              </td>
+              <td className="hidden whitespace-nowrap py-1.5 pr-2 text-right sm:table-cell print:table-cell">{qty(part)}</td>
+              <td className="hidden whitespace-nowrap py-1.5 pr-2 text-right sm:table-cell print:table-cell">{money(part.unitPrice)}</td>
               <td className="whitespace-nowrap py-1.5 text-right">{money(part.amount)}</td>
             </tr>
           ))}
         </tbody>
         <tfoot>
           <tr className="border-t-2 border-dusk font-extrabold">
-            <th scope="row" colSpan={3} className="py-2 pr-2 text-left">Total</th>
+            <th scope="row" className="py-2 pr-2 text-left">Total</th>
+            <td className="hidden sm:table-cell print:table-cell" colSpan={2} />
             <td className="whitespace-nowrap py-2 text-right" data-testid="parts-total">{money(p.total)}</td>
           </tr>
         </tfoot>

@@ -26,7 +26,7 @@ interface PanelRow {
   mounting: Mounting;
 }
 
-const MOUNT_LABEL: Record<Mounting, string> = { flat: 'Flat on the roof', tilted: 'Tilted (30°, facing the equator)', portable: 'Portable, aimed at the sun' };
+const MOUNT_LABEL: Record<Mounting, string> = { flat: 'Flat on the roof', tilted: 'Tilted 30°, to the equator', portable: 'Portable, sun-aimed' };
 const round50 = (x: number) => Math.max(50, Math.round(x / 50) * 50);
 
 /** Starting candidates from the plan: bigger banks of the same chemistry (and LiFePO4 for a lead-acid bank), panels, a DC-DC charger when the trip drives. */
@@ -136,18 +136,18 @@ function Planner({ forecastId, plan, saved, pricesSaved, currency }: { forecastI
           <legend className="field-label text-base">Banks instead of the rig’s (chemistry defaults apply)</legend>
           <ul className="space-y-2">
             {banks.map((b, i) => (
-              <li key={i} className="flex flex-wrap items-start gap-2">
+              <li key={i} className="grid grid-cols-[minmax(0,1fr)_6.5rem_2.75rem] items-start gap-2 sm:grid-cols-[12rem_8rem_auto] sm:justify-start">
                 <label className="sr-only" htmlFor={`cand-banks-${i}-chemistry`}>Bank {i + 1} chemistry</label>
-                <select id={`cand-banks-${i}-chemistry`} className="field-input w-auto" value={b.chemistry} onChange={(e) => setBanks(banks.map((x, j) => (j === i ? { ...x, chemistry: e.target.value as Chemistry } : x)))}>
+                <select id={`cand-banks-${i}-chemistry`} className="field-input" value={b.chemistry} onChange={(e) => setBanks(banks.map((x, j) => (j === i ? { ...x, chemistry: e.target.value as Chemistry } : x)))}>
                   {CHEMISTRIES.map((c) => <option key={c} value={c}>{CHEMISTRY_LABELS[c]}</option>)}
                 </select>
-                <div className="relative w-32">
+                <div className="relative">
                   <label className="sr-only" htmlFor={`cand-banks-${i}-capacityAh`}>Bank {i + 1} capacity (Ah)</label>
                   <input id={`cand-banks-${i}-capacityAh`} inputMode="decimal" className="field-input pr-10 tabular-nums" value={b.capacityAh} aria-invalid={issueAt(`banks.${i}.capacityAh`) ? true : undefined} aria-describedby={issueAt(`banks.${i}.capacityAh`) ? `cand-banks-${i}-capacityAh-error` : undefined} onChange={(e) => setBanks(banks.map((x, j) => (j === i ? { ...x, capacityAh: e.target.value } : x)))} />
                   <span aria-hidden="true" className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm font-semibold text-slate-text">Ah</span>
                 </div>
-                <button type="button" className="btn btn-quiet text-sm" aria-label={`Remove bank ${i + 1}`} onClick={() => setBanks(banks.filter((_, j) => j !== i))}>Remove</button>
-                {issueAt(`banks.${i}.capacityAh`) ? <p id={`cand-banks-${i}-capacityAh-error`} className="field-error w-full" role="alert">Capacity {issueAt(`banks.${i}.capacityAh`)}</p> : null}
+                <button type="button" className="btn btn-quiet px-0 text-sm" aria-label={`Remove bank ${i + 1}`} title="Remove" onClick={() => setBanks(banks.filter((_, j) => j !== i))}><span aria-hidden="true">✕</span></button>
+                {issueAt(`banks.${i}.capacityAh`) ? <p id={`cand-banks-${i}-capacityAh-error`} className="field-error col-span-3" role="alert">Capacity {issueAt(`banks.${i}.capacityAh`)}</p> : null}
               </li>
             ))}
           </ul>
@@ -158,18 +158,18 @@ function Planner({ forecastId, plan, saved, pricesSaved, currency }: { forecastI
           <legend className="field-label text-base">Panels to add, as a new array with its own MPPT controller</legend>
           <ul className="space-y-2">
             {panels.map((p, i) => (
-              <li key={i} className="flex flex-wrap items-start gap-2">
-                <div className="relative w-32">
+              <li key={i} className="grid grid-cols-[6.5rem_minmax(0,1fr)_2.75rem] items-start gap-2 sm:grid-cols-[8rem_18rem_auto] sm:justify-start">
+                <div className="relative">
                   <label className="sr-only" htmlFor={`cand-panels-${i}-watts`}>Panel option {i + 1} watts</label>
                   <input id={`cand-panels-${i}-watts`} inputMode="decimal" className="field-input pr-9 tabular-nums" value={p.watts} aria-invalid={issueAt(`panels.${i}.watts`) ? true : undefined} onChange={(e) => setPanels(panels.map((x, j) => (j === i ? { ...x, watts: e.target.value } : x)))} />
                   <span aria-hidden="true" className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm font-semibold text-slate-text">W</span>
                 </div>
                 <label className="sr-only" htmlFor={`cand-panels-${i}-mounting`}>Panel option {i + 1} mounting</label>
-                <select id={`cand-panels-${i}-mounting`} className="field-input w-auto" value={p.mounting} onChange={(e) => setPanels(panels.map((x, j) => (j === i ? { ...x, mounting: e.target.value as Mounting } : x)))}>
+                <select id={`cand-panels-${i}-mounting`} className="field-input" value={p.mounting} onChange={(e) => setPanels(panels.map((x, j) => (j === i ? { ...x, mounting: e.target.value as Mounting } : x)))}>
                   {MOUNTINGS.map((m) => <option key={m} value={m}>{MOUNT_LABEL[m]}</option>)}
                 </select>
-                <button type="button" className="btn btn-quiet text-sm" aria-label={`Remove panel option ${i + 1}`} onClick={() => setPanels(panels.filter((_, j) => j !== i))}>Remove</button>
-                {issueAt(`panels.${i}.watts`) ? <p className="field-error w-full" role="alert">Watts {issueAt(`panels.${i}.watts`)}</p> : null}
+                <button type="button" className="btn btn-quiet px-0 text-sm" aria-label={`Remove panel option ${i + 1}`} title="Remove" onClick={() => setPanels(panels.filter((_, j) => j !== i))}><span aria-hidden="true">✕</span></button>
+                {issueAt(`panels.${i}.watts`) ? <p className="field-error col-span-3" role="alert">Watts {issueAt(`panels.${i}.watts`)}</p> : null}
               </li>
             ))}
           </ul>
