@@ -94,11 +94,12 @@ export function bankFrom(old: ResolvedBank, c: BankCandidate): ResolvedBank {
             nominalVolts: old.nominalVolts,
             floorSocPct: old.floorSocPct,
             cutoffVolts: old.cutoffVolts,
-            // A charge limit set as a C-rate scales with the bank; one set in amps is kept per Ah too.
-            maxChargeAmps: (old.maxChargeAmps / old.capacityAh) * c.capacityAh,
+            // The charge limit scales with the bank and the resistance falls as cells are added in
+            // parallel; both stay inside the engine's limits so an extreme step cannot fail the sweep.
+            maxChargeAmps: Math.min(10_000, (old.maxChargeAmps / old.capacityAh) * c.capacityAh),
             peukertExponent: old.peukertExponent,
             chargeEfficiencyPct: old.chargeEfficiencyPct,
-            internalResistanceMilliohm: (old.internalResistanceMilliohm * old.capacityAh) / c.capacityAh,
+            internalResistanceMilliohm: Math.min(1000, (old.internalResistanceMilliohm * old.capacityAh) / c.capacityAh),
             selfHeating: old.selfHeating,
           }
         : { nominalVolts: volts }),

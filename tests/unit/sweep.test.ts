@@ -162,6 +162,13 @@ describe('what an option does to the plan', () => {
     expect(b).toMatchObject({ capacityAh: 600, initialSocPct: 95, floorSocPct: plan.bank.floorSocPct, maxChargeAmps: plan.bank.maxChargeAmps * 2 });
   });
 
+  it('keeps an extreme bank step inside the engine’s limits instead of failing the sweep', () => {
+    const huge = resolved({ ...demoPlan(), bank: { chemistry: 'lifepo4', capacityAh: 20_000, maxChargeAmps: 10_000 } });
+    const b = bankFrom(huge.bank, { chemistry: 'lifepo4', capacityAh: 1 });
+    expect(b.internalResistanceMilliohm).toBe(1000);
+    expect(bankFrom(resolved({ ...demoPlan(), bank: { chemistry: 'lifepo4', capacityAh: 1, maxChargeAmps: 10_000 } }).bank, { chemistry: 'lifepo4', capacityAh: 20_000 }).maxChargeAmps).toBe(10_000);
+  });
+
   it('a DC-DC charger replaces the alternator chargers; generator hours add a generator where there is none', () => {
     const c = chargersFrom(plan, { dcdcAmps: 50, generatorHours: 3, generatorAmps: 30 })!;
     expect(c.filter((x) => x.kind === 'alternator')).toEqual([expect.objectContaining({ amps: 50 })]);
