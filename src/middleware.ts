@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import { defineMiddleware, sequence } from 'astro:middleware';
 import { auth } from './server/auth';
 import { env } from './server/env';
@@ -58,19 +59,35 @@ const sameOrigin = defineMiddleware(async (ctx, next) => {
   return next();
 });
 
-/** Security headers on every response. */
+const INLINE_SCRIPT = /<script\b(?![^>]*\bsrc\s*=)[^>]*>([\s\S]*?)<\/script>/gi;
+
+/** The CSP with script-src limited to our files and the SHA-256 of each inline script on the page. */
+function policy(scriptHashes: string[]): string {
+  const scripts = ["'self'", ...scriptHashes.map((h) => `'sha256-${h}'`)].join(' ');
+  // Styles keep 'unsafe-inline': React islands and the chart set style attributes (see DEVELOPERS.md).
+  return `default-src 'self'; img-src 'self' data:; font-src 'self'; style-src 'self' 'unsafe-inline'; script-src ${scripts}; connect-src 'self'; frame-ancestors 'none'; base-uri 'self'; form-action 'self'; object-src 'none'`;
+}
+
+/**
+ * Security headers on every response. HTML pages are read once so that each inline script Astro
+ * writes (the island loader and hydration directives) is allowed by its hash, and no other.
+ */
 const headers = defineMiddleware(async (_ctx, next) => {
-  const res = await next();
+  let res = await next();
+  if (!res.headers.has('Content-Security-Policy') && /^text\/html\b/i.test(res.headers.get('content-type') ?? '') && res.body) {
+    const html = await res.text();
+    const hashes = new Set<string>();
+    for (const m of html.matchAll(INLINE_SCRIPT)) hashes.add(createHash('sha256').update(m[1]!, 'utf8').digest('base64'));
+    const h = new Headers(res.headers);
+    h.delete('content-length');
+    h.set('Content-Security-Policy', policy([...hashes]));
+    res = new Response(html, { status: res.status, statusText: res.statusText, headers: h });
+  }
   const h = res.headers;
   h.set('X-Content-Type-Options', 'nosniff');
   h.set('Referrer-Policy', 'strict-origin-when-cross-origin');
   h.set('X-Frame-Options', 'DENY');
-  if (!h.has('Content-Security-Policy')) {
-    h.set(
-      'Content-Security-Policy',
-      "default-src 'self'; img-src 'self' data:; font-src 'self'; style-src 'self' 'unsafe-inline'; script-src 'self' 'unsafe-inline'; connect-src 'self'; frame-ancestors 'none'; base-uri 'self'; form-action 'self'",
-    );
-  }
+  if (!h.has('Content-Security-Policy')) h.set('Content-Security-Policy', policy([]));
   return res;
 });
 
