@@ -59,7 +59,7 @@ describe('daily energy of a load (estimate before temperature response)', () => 
     expect(loadWhPerDay({ watts: 90, supply: 'ac', windows: [[9, 17]] }, acRig)).toBeCloseTo(800, 9);
     // With no inverter on the rig the engine's default efficiency (90 %) applies.
     expect(loadWhPerDay({ watts: 90, supply: 'ac', windows: [[9, 17]] }, dcRig)).toBeCloseTo(800, 9);
-    expect(loadWhPerDay({ watts: 90, supply: 'ac', windows: [[9, 17]] }, { nominalVolts: 12, inverter: { efficiencyPct: 80 } })).toBeCloseTo(900, 9);
+    expect(loadWhPerDay({ watts: 90, supply: 'ac', windows: [[9, 17]] }, { inverter: { efficiencyPct: 80 } })).toBeCloseTo(900, 9);
   });
 
   it('is zero for an empty schedule or no duty, never NaN', () => {
