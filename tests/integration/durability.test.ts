@@ -1,8 +1,10 @@
 import Database from 'better-sqlite3';
 import { afterAll, describe, expect, it } from 'vitest';
 import { openSqlite } from '../../db/client';
+import { startMailCatcher, type MailCatcher } from '../../src/server/mail-catcher';
 import { openTestDb } from '../helpers/api';
-import { cleanup, startServer, type RunningServer } from '../helpers/server';
+import { caughtFor, outboxFor, waitForMail, waitForSent } from '../helpers/mail';
+import { cleanup, freePort, startServer, type RunningServer } from '../helpers/server';
 
 // Data safety when the process dies: SQLite in WAL mode with a busy timeout, every acknowledged
 // write still there after a SIGKILL, and multi-row writes (CSV imports) all-or-nothing.
@@ -153,4 +155,43 @@ describe('SIGKILL in the middle of a stream of writes', () => {
     expect(seen).toBe(ackedLoads.size);
     expect(ackedLoads.size + ackedImports.size).toBeGreaterThanOrEqual(60);
   }, 90_000);
+});
+
+describe('the mail outbox across a SIGKILL', () => {
+  let catcher: MailCatcher | null = null;
+  afterAll(async () => {
+    await catcher?.stop();
+  });
+
+  it('a message queued while mail was down is still queued after the kill and is sent once by the next server', async () => {
+    const port = await freePort();
+    const env = { SMTP_URL: `smtp://127.0.0.1:${port}`, OUTBOX_RETRY_BASE_MS: '200' };
+    const first = await startServer(env);
+    servers.push(first);
+    const email = `outbox.kill.${Date.now()}@example.test`;
+    const headers = { 'content-type': 'application/json', origin: first.url };
+    const up = await fetch(`${first.url}/api/auth/sign-up/email`, { method: 'POST', headers, body: JSON.stringify({ name: 'Outbox Camper', email, password: 'outbox-kill-pass-1', kind: 'camper' }) });
+    expect(up.status).toBe(200);
+    expect((await fetch(`${first.url}/api/auth/request-password-reset`, { method: 'POST', headers, body: JSON.stringify({ email, redirectTo: '/reset-password' }) })).status).toBe(200);
+    const deadline = Date.now() + 10_000;
+    while (!outboxFor(email, first.dbPath).some((r) => r.attempts >= 1)) {
+      if (Date.now() > deadline) throw new Error('no failed send recorded');
+      await new Promise((r) => setTimeout(r, 50));
+    }
+
+    first.child.kill('SIGKILL');
+    await first.stop();
+    expect(first.child.signalCode).toBe('SIGKILL');
+    const queued = outboxFor(email, first.dbPath);
+    expect(queued).toHaveLength(1);
+    expect(queued[0]!.status).toBe('queued');
+
+    catcher = await startMailCatcher({ dbPath: first.dbPath, port, quiet: true });
+    const second = await startServer(env, { dir: first.dir, dbPath: first.dbPath });
+    servers.push(second);
+    await waitForMail(email, { dbPath: second.dbPath, timeoutMs: 15_000 });
+    await waitForSent(email, { dbPath: second.dbPath });
+    await new Promise((r) => setTimeout(r, 1_000));
+    expect(caughtFor(email, second.dbPath)).toHaveLength(1);
+  }, 60_000);
 });
