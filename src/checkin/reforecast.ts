@@ -200,10 +200,16 @@ export function reforecastFrom(plan: ResolvedPlan, atMs: number, socPct: number)
 export function outcomeOf(f: Forecast): CheckInOutcome {
   const s = f.summary;
   const cutRow = s.firstCutoffAt ? f.hourly.find((r) => r.time === s.firstCutoffAt) : undefined;
+  const first = s.firstCutoffAt ? Date.parse(s.firstCutoffAt) : NaN;
+  const next = f.warnings
+    .filter((w) => (w.code === 'floor-cutoff' || w.code === 'voltage-cutoff') && Date.parse(w.at) > first)
+    .map((w) => w.at)
+    .sort((a, b) => Date.parse(a) - Date.parse(b))[0] ?? null;
   return {
     startAt: f.hourly[0]?.time ?? '',
     startSocPct: s.startSocPct,
     firstCutoffAt: s.firstCutoffAt,
+    nextCutoffAt: next,
     cutoffStop: cutRow ? (f.stops[cutRow.stop]?.name ?? null) : null,
     minSocPct: s.minSocPct,
     minSocAt: s.minSocAt,

@@ -33,6 +33,8 @@ export interface CheckInOutcome {
   startAt: string;
   startSocPct: number;
   firstCutoffAt: string | null;
+  /** The next cutoff after the bank reconnects (a reading at the floor cuts off at once; this is when it runs out again). */
+  nextCutoffAt: string | null;
   /** Name of the stop where the bank cuts off. */
   cutoffStop: string | null;
   minSocPct: number;

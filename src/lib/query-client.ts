@@ -78,7 +78,9 @@ function shouldRetry(failureCount: number, error: unknown): boolean {
 
 export const queryClient = new QueryClient({
   defaultOptions: {
-    queries: { staleTime: 30_000, retry: shouldRetry, refetchOnWindowFocus: true },
+    // offlineFirst: without signal a query still asks once, and the service worker answers with
+    // the copy saved on the phone (public/sw.js); 'online' would leave it paused and loading.
+    queries: { staleTime: 30_000, retry: shouldRetry, refetchOnWindowFocus: true, networkMode: 'offlineFirst' },
     mutations: { retry: false },
   },
 });

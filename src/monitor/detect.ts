@@ -191,7 +191,8 @@ export function detectLog(text: string, timeZone: string): Detection {
   let headerIdx = -1;
   if (firstWide >= 0 && !dataLike(split[firstWide].cells)) headerIdx = firstWide;
   const headerLine = headerIdx >= 0 ? split[headerIdx].line : firstWide > 0 ? split[firstWide - 1].line : 0;
-  if (headerIdx > 0 || (headerIdx < 0 && firstWide > 0)) notes.push(`The first ${headerLine - (headerIdx >= 0 ? 1 : 0)} line(s) describe the device, not readings; they are skipped.`);
+  const skipped = headerLine - (headerIdx >= 0 ? 1 : 0);
+  if (skipped > 0) notes.push(skipped === 1 ? 'The first line describes the device, not readings; it is skipped.' : `The first ${skipped} lines describe the device, not readings; they are skipped.`);
   if (headerIdx < 0) notes.push('The file has no header row: choose what each column holds.');
   const headerCells = headerIdx >= 0 ? split[headerIdx].cells.map((c) => c.trim().replace(/^"|"$/g, '')) : null;
   const headers = columnNames(headerCells, width);

@@ -2,10 +2,11 @@ import type { Kysely } from 'kysely';
 import type { DB, MonitorLogRow } from '../../db/schema';
 import type { ResolvedPlan } from '../engine';
 import { planTimeline } from '../engine/timeline';
-import { dailyAh, nightBaseline, nightTemperature, type BaselineResult, type DayAh } from '../monitor/baseline';
+import { dailyAh, nightBaseline, nightTemperature } from '../monitor/baseline';
+import type { ForecastOverlap, MonitorLogDetail, MonitorLogDto } from '../monitor/dto';
 import type { ColumnMapping } from '../monitor/mapping';
 import type { Sample } from '../monitor/parse';
-import { downsample, type SeriesPoint } from '../monitor/series';
+import { downsample } from '../monitor/series';
 import { rigAccess, type Actor, type Need, type RigGrant } from './access';
 import { HttpError } from './errors';
 import { conflict, nowIso } from './versions';
@@ -13,42 +14,6 @@ import { conflict, nowIso } from './versions';
 // Monitor logs: a battery monitor's CSV (kept as uploaded) and its readings, saved together in one
 // transaction, and what they tell (night-time baseline, daily amp-hours, saved forecasts of the
 // same dates).
-
-export interface MonitorLogDto {
-  id: string;
-  rigId: string;
-  name: string;
-  bytes: number;
-  timeZone: string;
-  sampleCount: number;
-  startedAt: string;
-  endedAt: string;
-  mapping: ColumnMapping;
-  /** Which readings the log has. */
-  has: { volts: boolean; amps: boolean; soc: boolean; temperature: boolean };
-  createdBy: { id: string; name: string } | null;
-  createdAt: string;
-  version: number;
-}
-
-export interface ForecastOverlap {
-  id: string;
-  name: string;
-  tripId: string;
-  tripName: string;
-  createdAt: string;
-  /** Hours the forecast and the log share. */
-  overlapHours: number;
-}
-
-export interface MonitorLogDetail extends MonitorLogDto {
-  series: SeriesPoint[];
-  baseline: BaselineResult;
-  nightTempC: number | null;
-  days: DayAh[];
-  /** Saved forecasts of this rig whose dates the log covers, most overlap first. */
-  forecasts: ForecastOverlap[];
-}
 
 type Row = Omit<MonitorLogRow, 'original'> & { creator_name: string | null };
 

@@ -28,7 +28,7 @@ interface Send {
 function upload(o: Send, rigId = rig.id, session = owner): Promise<Response> {
   const form = new FormData();
   const data = o.bytes ?? new TextEncoder().encode(o.text ?? '');
-  form.set('file', new Blob([data], { type: 'text/csv' }), o.fileName ?? 'trip-log.csv');
+  form.set('file', new Blob([Buffer.from(data)], { type: 'text/csv' }), o.fileName ?? 'trip-log.csv');
   form.set('timeZone', o.timeZone ?? TZ);
   if (o.mapping !== undefined) form.set('mapping', typeof o.mapping === 'string' ? o.mapping : JSON.stringify(o.mapping));
   return api(`/api/rigs/${rigId}/monitor-logs${o.preview ? '?preview=1' : ''}`, { method: 'POST', session, body: form });

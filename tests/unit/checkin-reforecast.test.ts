@@ -71,6 +71,25 @@ describe('re-forecast from a check-in', () => {
     expect(o.cutoffStop).toBe('Juniper Mesa');
   });
 
+  it('after a reading at the floor, says when the bank runs out again once the sun has lifted it', () => {
+    const small = validatePlan({
+      bank: { chemistry: 'lifepo4', capacityAh: 100 },
+      arrays: [{ name: 'Roof', ratedWatts: 100 }],
+      loads: [{ name: 'Fridge and standby', watts: 40 }],
+      stops: [{ name: 'Juniper Mesa', lat: 35.6, lon: -105.9, timeZone: 'America/Denver', arrive: '2027-10-21', nights: 4, weather: [{ date: '2027-10-22', cloudOktas: 0, highC: 18, lowC: 2 }] }],
+    });
+    if (!small.ok) throw new Error('plan');
+    const r = reforecastFrom(small.plan, at('2027-10-22T20:00-06:00'), 10);
+    if (!r.ok) throw new Error(r.message);
+    const o = outcomeOf(r.forecast);
+    expect(o.firstCutoffAt).toBe('2027-10-22T20:00-06:00');
+    expect(o.nextCutoffAt).not.toBeNull();
+    expect(Date.parse(o.nextCutoffAt!)).toBeGreaterThan(at('2027-10-23T12:00-06:00'));
+    // Without the panel nothing lifts it again.
+    const dark = reforecastFrom({ ...small.plan, arrays: [] }, at('2027-10-22T20:00-06:00'), 10);
+    expect(dark.ok && outcomeOf(dark.forecast).nextCutoffAt).toBeNull();
+  });
+
   it('the start SOC is the reading, and the outcome names the stop of a cutoff', () => {
     const o = outcomeOf(run('2027-10-24T16:00-06:00', 20));
     expect(o.startSocPct).toBe(20);

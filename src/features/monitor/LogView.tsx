@@ -1,0 +1,264 @@
+import { useMemo, useState } from 'react';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { ApiError, isConflict } from '../../lib/query-client';
+import { ConflictNotice } from '../../components/ui/ConflictNotice';
+import { ErrorState, LoadingState } from '../../components/ui/States';
+import type { Plan } from '../../engine';
+import { plannedNightDraw, suggestedParasiticWatts, type NightBaseline } from '../../monitor/baseline';
+import type { MonitorLogDetail } from '../../monitor/dto';
+import { overlaySoc } from '../../monitor/overlay';
+import type { LoadDto } from '../../schemas/loads';
+import type { RigDto } from '../../schemas/rigs';
+import { forecastQueries } from '../forecast/forecast.queries';
+import { formatRowTime } from '../forecast/time';
+import { createLoad, updateLoad } from '../loads/loads.api';
+import { loadKeys, loadsQuery } from '../loads/loads.queries';
+import { deleteLog, originalUrl } from './monitor.api';
+import { monitorKeys, monitorQueries } from './monitor.queries';
+import { formatBytes, formatDate, formatReadingTime } from './format';
+import MeasuredChart from './MeasuredChart';
+
+/** One saved log: what it tells about the rig, and how it compares with a saved forecast. */
+export default function LogView({ id, rig, onDeleted }: { id: string; rig: RigDto; onDeleted: () => void }) {
+  const qc = useQueryClient();
+  const q = useQuery(monitorQueries.detail(id));
+  const remove = useMutation({
+    mutationFn: (version: number) => deleteLog(id, version),
+    onSuccess: () => {
+      qc.invalidateQueries({ queryKey: monitorKeys.list(rig.id) });
+      onDeleted();
+    },
+  });
+  if (q.isPending) return <LoadingState label="Reading the log…" />;
+  if (q.isError) return <ErrorState error={q.error} title="Couldn't load this log." onRetry={() => q.refetch()} />;
+  const d = q.data;
+  return (
+    <article className="space-y-4" aria-labelledby={`log-${d.id}-title`} data-testid="log-view">
+      <header className="card flex flex-col gap-2 p-4 sm:flex-row sm:items-center">
+        <div className="min-w-0 flex-1">
+          <h3 id={`log-${d.id}-title`} className="truncate text-lg">{d.name}</h3>
+          <p className="text-sm text-slate-text">
+            {d.sampleCount.toLocaleString('en-GB')} readings, {formatReadingTime(Date.parse(d.startedAt), d.timeZone)} to {formatReadingTime(Date.parse(d.endedAt), d.timeZone, true)} ({d.timeZone}) · {formatBytes(d.bytes)}
+          </p>
+        </div>
+        <div className="flex gap-2"><a className="btn btn-quiet text-sm" href={originalUrl(d.id)} download>Download the file</a>
+        {rig.canEdit ? (
+          <button type="button" className="btn btn-quiet text-sm" disabled={remove.isPending} onClick={() => { if (confirm(`Delete the log "${d.name}" and its readings?`)) remove.mutate(d.version); }}>
+            {remove.isPending ? 'Deleting…' : 'Delete'}
+          </button>
+        ) : null}
+        </div>
+      </header>
+      {remove.isError ? <ErrorState error={remove.error} title="The log was not deleted." /> : null}
+      <NightDraw log={d} rig={rig} />
+      <Days log={d} />
+      <AgainstForecast log={d} />
+    </article>
+  );
+}
+
+function w(x: number): string {
+  return `${Math.round(x)} W`;
+}
+
+function NightDraw({ log, rig }: { log: MonitorLogDetail; rig: RigDto }) {
+  const b = log.baseline;
+  return (
+    <section className="card space-y-3 p-4" aria-labelledby={`night-${log.id}`}>
+      <h4 id={`night-${log.id}`} className="text-base font-extrabold">Night-time draw</h4>
+      {b.ok ? <Baseline baseline={b.baseline} log={log} rig={rig} /> : <p className="text-slate-text">{b.reason}</p>}
+    </section>
+  );
+}
+
+function Baseline({ baseline, log, rig }: { baseline: NightBaseline; log: MonitorLogDetail; rig: RigDto }) {
+  const nominal = rig.bank.nominalVolts ?? (rig.bank.chemistry === 'lifepo4' ? 12.8 : 12);
+  const measuredW = baseline.drawA * nominal;
+  const loads = useQuery(loadsQuery(rig.id));
+  return (
+    <>
+      <p data-testid="baseline-text">
+        Between {String(baseline.fromHour).padStart(2, '0')}:00 and {String(baseline.toHour).padStart(2, '0')}:00, when no solar charges, the bank gave a median <strong>{baseline.drawA.toFixed(2)} A</strong> ({w(measuredW)} at {nominal} V) over {baseline.nights.length} night{baseline.nights.length === 1 ? '' : 's'}.
+        {baseline.excludedCharging > 0 ? ` ${baseline.excludedCharging} readings while something was charging were left out.` : ''}
+      </p>
+      {baseline.nights.length > 1 ? (
+        <ul className="flex flex-wrap gap-2 text-sm" aria-label="Each night">
+          {baseline.nights.map((n) => (
+            <li key={n.date} className="rounded-full bg-sand px-3 py-1 tabular-nums">
+              {formatDate(n.date)}: {n.drawA.toFixed(2)} A
+            </li>
+          ))}
+        </ul>
+      ) : null}
+      {loads.data ? <Parasitic baseline={baseline} log={log} rig={rig} loads={loads.data} nominal={nominal} /> : loads.isError ? <ErrorState error={loads.error} title="Couldn't load the rig's loads." /> : null}
+    </>
+  );
+}
+
+function Parasitic({ baseline, log, rig, loads, nominal }: { baseline: NightBaseline; log: MonitorLogDetail; rig: RigDto; loads: LoadDto[]; nominal: number }) {
+  const qc = useQueryClient();
+  const target = loads.find((l) => l.standby) ?? null;
+  const others = loads.filter((l) => l.id !== target?.id);
+  const ambient = log.nightTempC ?? 20;
+  const planned = useMemo(
+    () =>
+      plannedNightDraw(
+        {
+          bank: rig.bank as Plan['bank'],
+          inverter: rig.inverter as Plan['inverter'] | null,
+          loads: others.map((l) => ({ name: l.name, watts: l.watts, quantity: l.quantity, supply: l.supply, windows: l.windows, dutyPct: l.dutyPct, days: l.days, response: l.response, setpointC: l.setpointC })),
+        },
+        ambient,
+        baseline.fromHour,
+        baseline.toHour,
+      ),
+    [rig, others, ambient, baseline],
+  );
+  const suggestion = suggestedParasiticWatts(baseline, nominal, planned);
+  const [watts, setWatts] = useState<string | null>(null);
+  const value = watts ?? String(suggestion);
+  const [done, setDone] = useState<string | null>(null);
+  const [fieldError, setFieldError] = useState<string | null>(null);
+  const note = `From the monitor log "${log.name}": median draw ${baseline.drawA.toFixed(2)} A between ${String(baseline.fromHour).padStart(2, '0')}:00 and ${String(baseline.toHour).padStart(2, '0')}:00, less what the other loads plan then.`.slice(0, 500);
+
+  const save = useMutation({
+    mutationFn: async (v: { watts: number; version?: number }) =>
+      target
+        ? updateLoad(target.id, { watts: v.watts, quantity: 1, dutyPct: 100, windows: [[0, 24]], days: 'all', note, version: v.version ?? target.version })
+        : createLoad(rig.id, { name: 'Parasitic standby draw', watts: v.watts, standby: true, note }),
+    onSuccess: (l) => {
+      setDone(`Saved: “${l.name}” now draws ${l.watts} W all day, every day. Forecasts run from now on use it.`);
+      qc.invalidateQueries({ queryKey: loadKeys.list(rig.id) });
+    },
+  });
+
+  const submit = (version?: number) => {
+    const n = Number(value.replace(',', '.'));
+    if (!Number.isFinite(n) || n < 0 || n > 5000) {
+      setFieldError('Parasitic draw must be a number of watts from 0 to 5000.');
+      return;
+    }
+    setFieldError(null);
+    setDone(null);
+    save.mutate({ watts: Math.round(n * 10) / 10, version });
+  };
+  const theirs = isConflict(save.error) ? save.error.current<LoadDto>() : undefined;
+  const serverIssue = save.error instanceof ApiError && save.error.status !== 409 ? save.error.issues.find((i) => i.path === 'watts')?.message : undefined;
+
+  return (
+    <div className="space-y-3 rounded-xl bg-sand p-3" data-testid="parasitic">
+      <p className="text-sm">
+        Your load list plans <strong>{w(planned.watts)}</strong> in those hours without {target ? `“${target.name}”` : 'a standby load'} (at {planned.ambientC} °C{log.nightTempC === null ? ', as the log has no temperature' : ', the log’s night temperature'}).{' '}
+        {suggestion > 0 ? (
+          <>The rest, <strong>{w(suggestion)}</strong>, is draw the list does not explain: detectors, control boards, radio memory, an inverter left on.</>
+        ) : (
+          <>The list already explains the night draw; no parasitic draw is missing.</>
+        )}
+      </p>
+      {rig.canEdit ? (
+        <form
+          className="flex flex-col gap-3 sm:flex-row sm:items-end"
+          onSubmit={(e) => {
+            e.preventDefault();
+            submit();
+          }}
+        >
+          <div>
+            <label htmlFor={`parasitic-${log.id}`} className="field-label">Parasitic draw, W</label>
+            <input id={`parasitic-${log.id}`} className="field-input max-w-[10rem] tabular-nums" inputMode="decimal" value={value} onChange={(e) => setWatts(e.target.value)} aria-invalid={fieldError || serverIssue ? true : undefined} aria-describedby={fieldError || serverIssue ? `parasitic-${log.id}-error` : undefined} />
+            {fieldError || serverIssue ? <p id={`parasitic-${log.id}-error`} className="field-error" role="alert">{fieldError ?? `Parasitic draw ${serverIssue}`}</p> : null}
+          </div>
+          <button type="submit" className="btn btn-primary" disabled={save.isPending}>
+            {save.isPending ? 'Saving…' : 'Use this as the rig’s parasitic draw'}
+          </button>
+        </form>
+      ) : null}
+      <p className="text-xs text-slate-text">{target ? `Updates the standby load “${target.name}” (now ${target.watts} W).` : 'Adds a standby load “Parasitic standby draw” to the rig’s loads.'} An estimate: pick a log from nights with the furnace off for the cleanest reading.</p>
+      {theirs ? (
+        <ConflictNotice what="load" theirs={theirs} busy={save.isPending} onKeepMine={() => submit(theirs.version)} onTakeTheirs={() => { save.reset(); qc.invalidateQueries({ queryKey: loadKeys.list(rig.id) }); }}>
+          <p className="mt-1 text-sm">Theirs: {theirs.name}, {theirs.watts} W.</p>
+        </ConflictNotice>
+      ) : null}
+      {save.isError && !theirs && !serverIssue ? <ErrorState error={save.error} title="The parasitic draw was not saved." /> : null}
+      {done ? <p role="status" className="font-semibold text-moss-deep">{done}</p> : null}
+    </div>
+  );
+}
+
+function Days({ log }: { log: MonitorLogDetail }) {
+  if (!log.has.amps) return null;
+  return (
+    <section className="card p-4" aria-labelledby={`days-${log.id}`}>
+      <h4 id={`days-${log.id}`} className="text-base font-extrabold">Day by day</h4>
+      {log.days.length === 0 ? (
+        <p className="text-slate-text">Too few readings to add up a day.</p>
+      ) : (
+        <div className="mt-2 overflow-x-auto">
+          <table className="w-full min-w-[26rem] text-sm" data-testid="days-table">
+            <caption className="sr-only">Amp-hours taken from and put into the bank, per local day</caption>
+            <thead>
+              <tr className="border-b border-sand-dark text-left">
+                <th scope="col" className="py-1 pr-3">Day</th>
+                <th scope="col" className="py-1 pr-3 text-right">Used, Ah</th>
+                <th scope="col" className="py-1 pr-3 text-right">Charged, Ah</th>
+                <th scope="col" className="py-1 pr-3 text-right">Net, Ah</th>
+                <th scope="col" className="py-1 text-right">Hours logged</th>
+              </tr>
+            </thead>
+            <tbody>
+              {log.days.map((d) => (
+                <tr key={d.date} className="border-b border-sand">
+                  <th scope="row" className="py-1 pr-3 text-left font-semibold">{formatDate(d.date)}</th>
+                  <td className="py-1 pr-3 text-right">{d.consumedAh.toFixed(1)}</td>
+                  <td className="py-1 pr-3 text-right">{d.chargedAh.toFixed(1)}</td>
+                  <td className={`py-1 pr-3 text-right font-bold ${d.netAh < 0 ? 'text-alert' : 'text-moss-deep'}`}>{d.netAh > 0 ? '+' : ''}{d.netAh.toFixed(1)}</td>
+                  <td className="py-1 text-right text-slate-text">{d.hoursCovered < 23.9 ? `${d.hoursCovered} (part day)` : d.hoursCovered}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </section>
+  );
+}
+
+function AgainstForecast({ log }: { log: MonitorLogDetail }) {
+  const [picked, setPicked] = useState<string | null>(null);
+  const fid = picked ?? log.forecasts[0]?.id ?? null;
+  const f = useQuery({ ...forecastQueries.detail(fid ?? ''), enabled: fid !== null && log.has.soc });
+  const overlay = useMemo(() => (f.data ? overlaySoc(f.data.forecast, log.series) : null), [f.data, log.series]);
+  let body: React.ReactNode;
+  if (!log.has.soc) body = <p className="text-slate-text">This log has no state-of-charge column, so it cannot be laid over a forecast.</p>;
+  else if (log.forecasts.length === 0) body = <p className="text-slate-text">No saved forecast of this rig covers these dates. Run a forecast of the trip the log is from, then come back.</p>;
+  else if (f.isPending) body = <LoadingState label="Loading the forecast…" />;
+  else if (f.isError) body = <ErrorState error={f.error} title="Couldn't load that forecast." />;
+  else if (overlay && f.data) {
+    const fc = f.data.forecast;
+    const summary =
+      overlay.matched === 0
+        ? 'The log has no state-of-charge readings within half an hour of this forecast’s hours.'
+        : `Over ${overlay.matched} hours the measured state of charge ran ${Math.abs(overlay.meanDiffPct ?? 0).toFixed(1)} points ${(overlay.meanDiffPct ?? 0) < 0 ? 'below' : 'above'} the forecast on average` +
+          (overlay.worst && overlay.worst.diffPct > 0 ? `; the biggest shortfall was ${overlay.worst.diffPct.toFixed(1)} points at ${formatRowTime(fc.hourly[overlay.worst.row].time)}` : '') +
+          (overlay.measuredMin ? `. Lowest measured: ${overlay.measuredMin.socPct.toFixed(0)} % at ${formatRowTime(fc.hourly[overlay.measuredMin.row].time)}.` : '.');
+    body = <MeasuredChart forecast={fc} overlay={overlay} name={f.data.name} summary={summary} />;
+  }
+  return (
+    <section className="card space-y-3 p-4" aria-labelledby={`against-${log.id}`}>
+      <div className="flex flex-col gap-2 sm:flex-row sm:items-end">
+        <h4 id={`against-${log.id}`} className="flex-1 text-base font-extrabold">Measured against a forecast</h4>
+        {log.forecasts.length > 1 ? (
+          <div>
+            <label htmlFor={`pick-${log.id}`} className="field-label">Saved forecast</label>
+            <select id={`pick-${log.id}`} className="field-input" value={fid ?? ''} onChange={(e) => setPicked(e.target.value)}>
+              {log.forecasts.map((o) => (
+                <option key={o.id} value={o.id}>{`${o.tripName} — ${o.name} (${o.overlapHours} h shared)`}</option>
+              ))}
+            </select>
+          </div>
+        ) : null}
+      </div>
+      {body}
+    </section>
+  );
+}
