@@ -112,8 +112,26 @@ function snapshot(w: World): string {
   }
 }
 
+/** Another crew's rows: the outsider's crews, rigs and loads. */
+function otherCrew(): string {
+  const db = openTestDb();
+  try {
+    const crews = 'select crew_id from crew_members where user_id = ?';
+    return JSON.stringify({
+      crews: db.prepare(`select * from crews where id in (${crews}) order by id`).all(cast.outsider.userId),
+      members: db.prepare(`select * from crew_members where crew_id in (${crews}) order by crew_id, user_id`).all(cast.outsider.userId),
+      rigs: db.prepare(`select * from rigs where crew_id in (${crews}) order by id`).all(cast.outsider.userId),
+      loads: db.prepare(`select * from loads where rig_id in (select id from rigs where crew_id in (${crews})) order by id`).all(cast.outsider.userId),
+    });
+  } finally {
+    db.close();
+  }
+}
+
 describe('fuzzed requests to every route', () => {
-  it('the crew’s owner and editor never get a 5xx, whatever they send', async () => {
+  it('the crew’s owner, editor and a granted installer never get a 5xx, and never touch another crew', async () => {
+    const before = otherCrew();
+    expect(JSON.parse(before).rigs.length).toBeGreaterThan(0);
     await fc.assert(
       fc.asyncProperty(requestArb, fc.constantFrom<Actor>('owner', 'editor', 'installer'), async (r, actor) => {
         const res = await send(r.route, playground, actor, r);
@@ -128,6 +146,7 @@ describe('fuzzed requests to every route', () => {
       }),
       { numRuns: 600 },
     );
+    expect(otherCrew()).toBe(before);
   }, 240_000);
 
   it('callers who may not write change nothing of the crew’s, and never get a 5xx', async () => {
