@@ -1,18 +1,10 @@
 // Plain fetchers for a trip's saved forecasts.
-import type { Forecast } from '../../engine';
 import { apiFetch } from '../../lib/query-client';
+import type { ForecastListItem } from '../../server/forecasts';
 import type { SavedForecast } from '../forecast/forecast.api';
 
-/** A saved forecast in a trip's list (no hourly series). */
-export interface ForecastListItem {
-  id: string;
-  tripId: string;
-  name: string;
-  createdAt: string;
-  createdBy: { id: string; name: string } | null;
-  summary: Forecast['summary'];
-  reserveSocPct: number | null;
-}
+// A list item is the server module's type (type-only import: nothing of the server reaches the bundle).
+export type { ForecastListItem };
 
 export const fetchTripForecasts = (tripId: string, signal?: AbortSignal) =>
   apiFetch<ForecastListItem[]>(`/api/trips/${encodeURIComponent(tripId)}/forecasts`, { signal });
