@@ -230,8 +230,19 @@ const tolerate = (p) => p.catch(() => undefined);
 async function warm() {
   const trips = await getJson('/api/trips');
   await tolerate(getPage('/trips'));
+  // Trips that are on or coming up (ended at most 3 days ago), soonest first, at most 20; with
+  // fewer than 3 of those, the most recent past ones too.
+  const DAY = 86_400_000;
+  const endOf = (t) => {
+    const s = t.stops && t.stops[t.stops.length - 1];
+    return s ? Date.parse(`${s.arrive}T00:00:00Z`) + (s.nights + 1) * DAY : 0;
+  };
+  const now = Date.now();
+  const current = trips.filter((t) => endOf(t) >= now - 3 * DAY).sort((a, b) => endOf(a) - endOf(b));
+  const past = trips.filter((t) => endOf(t) < now - 3 * DAY).sort((a, b) => endOf(b) - endOf(a));
+  const chosen = [...current, ...past].slice(0, Math.max(3, Math.min(20, current.length)));
   const saved = [];
-  for (const trip of trips.slice(0, 40)) {
+  for (const trip of chosen) {
     const id = encodeURIComponent(trip.id);
     await tolerate(getPage(`/trips/${id}`));
     await Promise.all([tolerate(getJson(`/api/trips/${id}`)), tolerate(getJson(`/api/trips/${id}/check-ins`)), tolerate(getJson(`/api/rigs/${encodeURIComponent(trip.rigId)}`)), tolerate(getJson(`/api/rigs/${encodeURIComponent(trip.rigId)}/loads`))]);

@@ -273,7 +273,9 @@ export function detectLog(text: string, timeZone: string): Detection {
 
   // The current's sign, from the readings themselves.
   if (mapping.current && mapping.time) {
-    const parsed = parseLog(text, { ...mapping, time: mapping.time }, null);
+    // The first 20 000 lines are plenty to tell the sign, and keep a large file's preview quick.
+    const head = all.length > 20_000 ? all.slice(0, 20_000).join('\n') : text;
+    const parsed = parseLog(head, { ...mapping, time: mapping.time }, null);
     const s = detectSign(parsed.samples, timeZone);
     mapping.current.sign = s.sign;
     notes.push(s.reason);
