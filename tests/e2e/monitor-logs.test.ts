@@ -1,3 +1,4 @@
+import AxeBuilder from '@axe-core/playwright';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { api, baseUrl, signUp, type Session } from '../helpers/api';
@@ -52,6 +53,8 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('monitor logs at %s widt
     expect(await page.getByLabel('Decimal mark').inputValue()).toBe(',');
     expect(await page.getByLabel('Time format').inputValue()).toBe('dmy');
     expect(await page.getByRole('radio', { name: /^Charging/ }).isChecked()).toBe(true);
+    const axe = await new AxeBuilder({ page }).include('#logs').analyze();
+    expect(axe.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(' | ')}`)).toEqual([]);
     await shot(page, `logs-preview-${viewport}`);
 
     // A wrong choice shows its problems by line; putting it back clears them.
@@ -89,6 +92,8 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('monitor logs at %s widt
     expect(await chart.locator('.measured-line path.recharts-curve').count()).toBeGreaterThan(0);
     expect(await page.getByTestId('measured-summary').textContent()).toMatch(/^Over \d+ hours the measured state of charge ran/);
     expect(await page.getByTestId('days-table').locator('tbody tr').count()).toBe(3);
+    const axe = await new AxeBuilder({ page }).include('#logs').analyze();
+    expect(axe.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(' | ')}`)).toEqual([]);
     await shot(page, `logs-${viewport}`);
   });
 });

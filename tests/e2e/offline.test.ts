@@ -1,6 +1,7 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import AxeBuilder from '@axe-core/playwright';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { api, baseUrl, openTestDb, signUp, type Session } from '../helpers/api';
@@ -222,6 +223,8 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('check-ins on the trip p
       await page.locator('#check-ins').scrollIntoViewIfNeeded();
       await page.locator('#check-ins').screenshot({ path: await shot(page, `check-ins-${viewport}`).then((p) => p.replace(/\.png$/, '-section.png')) });
       expect(await page.getByTestId('check-in-result').getByTestId('new-cutoff').textContent()).toMatch(/^(Runs out|Makes it|At or below)/);
+      const axe = await new AxeBuilder({ page }).include('#check-ins').analyze();
+      expect(axe.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(' | ')}`)).toEqual([]);
     } finally {
       await close();
     }

@@ -193,7 +193,7 @@ function Days({ log }: { log: MonitorLogDetail }) {
       {log.days.length === 0 ? (
         <p className="text-slate-text">Too few readings to add up a day.</p>
       ) : (
-        <div className="mt-2 overflow-x-auto">
+        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Amp-hours per day (scrolls sideways)">
           <table className="w-full min-w-[26rem] text-sm" data-testid="days-table">
             <caption className="sr-only">Amp-hours taken from and put into the bank, per local day</caption>
             <thead>

@@ -267,7 +267,7 @@ function PreviewTable({ preview, timeZone }: { preview: PreviewAnswer; timeZone:
           : 'No readings could be read yet.'}
       </p>
       {preview.sample.length ? (
-        <div className="overflow-x-auto">
+        <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="First readings (scrolls sideways)">
           <table className="w-full min-w-[32rem] text-left text-sm">
             <caption className="sr-only">The first readings as they will be saved</caption>
             <thead>
