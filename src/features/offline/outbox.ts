@@ -7,6 +7,8 @@ import type { CheckInDto, CheckInInput, CheckInOutcome, PreviousOutcome } from '
 
 export interface QueuedCheckIn {
   id: string;
+  /** Who made it: only their session sends it (a phone shared by two campers never sends one as the other). */
+  userId: string;
   tripId: string;
   body: CheckInInput;
   /** The re-forecast the phone made with the same engine, shown until the server's arrives. */
@@ -19,6 +21,11 @@ export interface QueuedCheckIn {
 }
 
 export type OutboxEvent = { type: 'queued' | 'sent' | 'refused' | 'discarded' | 'attempted'; id: string; tripId: string; checkIn?: CheckInDto };
+
+/** The signed-in user of this page, from the layout's meta tag ('' when nobody is). */
+export function currentUserId(): string {
+  return typeof document === 'undefined' ? '' : (document.querySelector<HTMLMetaElement>('meta[name="sunreckon-user"]')?.content ?? '');
+}
 
 const DB_NAME = 'sunreckon';
 const STORE = 'checkin-outbox';
@@ -69,15 +76,15 @@ export function onOutboxChange(cb: (e: OutboxEvent) => void): () => void {
 }
 
 /** Puts a check-in in the outbox (durably, before anything is sent). */
-export async function enqueue(item: Omit<QueuedCheckIn, 'state' | 'attempts' | 'lastError' | 'issues' | 'queuedAt'>): Promise<void> {
-  const full: QueuedCheckIn = { ...item, queuedAt: new Date().toISOString(), state: 'waiting', attempts: 0, lastError: null, issues: [] };
+export async function enqueue(item: Omit<QueuedCheckIn, 'state' | 'attempts' | 'lastError' | 'issues' | 'queuedAt' | 'userId'>): Promise<void> {
+  const full: QueuedCheckIn = { ...item, userId: currentUserId(), queuedAt: new Date().toISOString(), state: 'waiting', attempts: 0, lastError: null, issues: [] };
   await tx('readwrite', (s) => s.put(full));
   emit({ type: 'queued', id: item.id, tripId: item.tripId });
 }
 
-/** Check-ins still on the phone (all trips, or one), oldest first. */
-export async function listQueued(tripId?: string): Promise<QueuedCheckIn[]> {
-  const all = ((await tx<QueuedCheckIn[]>('readonly', (s) => s.getAll() as IDBRequest<QueuedCheckIn[]>)) ?? []).filter((q) => !tripId || q.tripId === tripId);
+/** The signed-in user's check-ins still on the phone (all trips, or one), oldest first. */
+export async function listQueued(tripId?: string, userId = currentUserId()): Promise<QueuedCheckIn[]> {
+  const all = ((await tx<QueuedCheckIn[]>('readonly', (s) => s.getAll() as IDBRequest<QueuedCheckIn[]>)) ?? []).filter((q) => q.userId === userId && (!tripId || q.tripId === tripId));
   return all.sort((a, b) => a.queuedAt.localeCompare(b.queuedAt));
 }
 
