@@ -1,5 +1,5 @@
 import Database from 'better-sqlite3';
-import { Kysely, SqliteDialect } from 'kysely';
+import { CompiledQuery, Kysely, SqliteDialect, SqliteDriver, type DatabaseConnection, type SqliteDialectConfig } from 'kysely';
 import { mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
 import type { DB } from './schema';
@@ -16,10 +16,33 @@ export function openSqlite(path: string): Database.Database {
   return sqlite;
 }
 
+/**
+ * Transactions take SQLite's write lock when they begin (BEGIN IMMEDIATE). A deferred BEGIN that
+ * reads and then writes fails at once with SQLITE_BUSY when another process (the mail catcher,
+ * a backup, a seed) committed in between — the busy timeout cannot help there — whereas an
+ * immediate one simply waits its turn.
+ */
+class ImmediateSqliteDriver extends SqliteDriver {
+  override async beginTransaction(connection: DatabaseConnection): Promise<void> {
+    await connection.executeQuery(CompiledQuery.raw('begin immediate'));
+  }
+}
+
+class ImmediateSqliteDialect extends SqliteDialect {
+  readonly #driverConfig: SqliteDialectConfig;
+  constructor(config: SqliteDialectConfig) {
+    super(config);
+    this.#driverConfig = config;
+  }
+  override createDriver() {
+    return new ImmediateSqliteDriver(this.#driverConfig);
+  }
+}
+
 /** Creates the typed Kysely instance over one better-sqlite3 connection. */
 export function createDb(path: string): { db: Kysely<DB>; sqlite: Database.Database } {
   const sqlite = openSqlite(path);
-  const db = new Kysely<DB>({ dialect: new SqliteDialect({ database: sqlite }) });
+  const db = new Kysely<DB>({ dialect: new ImmediateSqliteDialect({ database: sqlite }) });
   return { db, sqlite };
 }
 
