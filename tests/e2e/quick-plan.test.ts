@@ -44,7 +44,7 @@ async function openQuickPlan(page: Page): Promise<void> {
 
 /** Attributes of the SOC chart's SVG inside `scope`: the line's path and the reserve band. */
 async function chartParts(page: Page, scope: string) {
-  const line = page.locator(`${scope} .soc-line path.recharts-line-curve`).first();
+  const line = page.locator(`${scope} .soc-line path`).first();
   await line.waitFor();
   const d = (await line.getAttribute('d')) ?? '';
   const band = page.locator(`${scope} [data-testid="reserve-band"]`);
