@@ -53,7 +53,10 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('forecasts in Chromium a
     const headline = await page.getByTestId('verdict-headline').textContent();
     // The verdict names the day and local time of the cutoff, e.g. "Runs out Fri 22 Oct at 21:00 at …".
     expect(headline).toMatch(/^Runs out \w{3} \d{1,2} \w{3} at \d{2}:\d{2}/);
+    await hydrated(page);
     const chart = page.getByTestId('soc-chart');
+    // The chart draws once it has measured its width, after hydration.
+    await chart.locator('.soc-line path.recharts-curve').first().waitFor();
     expect(await chart.locator('.soc-line path.recharts-curve').count()).toBeGreaterThan(0);
     expect(await chart.getByTestId('reserve-band').count()).toBe(1);
     expect(await chart.getByTestId('cutoff-marker').count()).toBe(1);
@@ -82,6 +85,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('forecasts in Chromium a
     await page.getByRole('link', { name: 'Compare the two picked' }).click();
     await page.waitForURL(/\/compare\?a=.+&b=.+/);
     await page.getByTestId('compare-view').waitFor();
+    await page.locator('.soc-line-compare path.recharts-curve').first().waitFor();
     expect(await page.locator('.soc-line path.recharts-curve').count()).toBeGreaterThan(0);
     expect(await page.locator('.soc-line-compare path.recharts-curve').count()).toBeGreaterThan(0);
     expect(await page.getByTestId('compare-table').locator('tr').count()).toBeGreaterThan(4);
@@ -94,6 +98,8 @@ describe('landing page accessibility', () => {
     const { page, close } = await launch('phone');
     try {
       await page.goto(baseUrl() + '/');
+      // The quick plan hydrates when it scrolls into view.
+      await page.locator('#quick-plan').scrollIntoViewIfNeeded();
       await hydrated(page);
       expect(await seriousViolations(page)).toEqual([]);
     } finally {

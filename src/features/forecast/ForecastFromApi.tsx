@@ -2,6 +2,7 @@ import { QueryClientProvider, useQuery } from '@tanstack/react-query';
 import { ApiError, queryClient } from '../../lib/query-client';
 import ForecastView from './ForecastView';
 import { forecastQueries } from './forecast.queries';
+import type { SavedForecast } from './forecast.api';
 import { useDelayed } from './useWidth';
 
 export interface ForecastFromApiProps {
@@ -9,6 +10,8 @@ export interface ForecastFromApiProps {
   id: string;
   /** Show the forecast's name and who saved it above the verdict. */
   showMeta?: boolean;
+  /** The forecast as the page read it on the server: rendered at once, no loading state. */
+  initial?: SavedForecast;
 }
 
 /** A saved forecast loaded by id, with loading and error states — never a blank chart. */
@@ -20,8 +23,8 @@ export default function ForecastFromApi(props: ForecastFromApiProps) {
   );
 }
 
-function Loaded({ id, showMeta = true }: ForecastFromApiProps) {
-  const q = useQuery(forecastQueries.detail(id));
+function Loaded({ id, showMeta = true, initial }: ForecastFromApiProps) {
+  const q = useQuery({ ...forecastQueries.detail(id), initialData: initial });
   const slow = useDelayed(q.isPending);
 
   if (q.isPending) {
