@@ -1,10 +1,8 @@
 import autocannon from 'autocannon';
 import Database from 'better-sqlite3';
-import { execFileSync, spawn } from 'node:child_process';
+import { execFileSync } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
-import { mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
-import os, { tmpdir } from 'node:os';
+import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { DEMO_ACCOUNTS } from '../db/seed';
@@ -25,74 +23,30 @@ import { demoPlan } from '../src/engine';
  */
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
-const DIST = process.env.SUNRECKON_DIST ?? '.dist-loadtest';
 const SECONDS = Number(process.env.LOADTEST_SECONDS ?? 10);
 const CONNECTIONS = Number(process.env.LOADTEST_CONNECTIONS ?? 10);
 const EDITORS = 5;
 const BASE_LOADS = 10;
 
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer();
-    srv.on('error', reject);
-    srv.listen(0, '127.0.0.1', () => {
-      const a = srv.address();
-      const port = typeof a === 'object' && a ? a.port : 0;
-      srv.close(() => resolve(port));
-    });
-  });
-}
-
-const dir = mkdtempSync(path.join(tmpdir(), 'sunreckon-load-'));
-const dbPath = path.join(dir, 'load.sqlite');
-const port = await freePort();
-const url = `http://127.0.0.1:${port}`;
-const env = {
-  ...process.env,
-  ASTRO_TELEMETRY_DISABLED: '1',
-  DATABASE_PATH: dbPath,
-  HOST: '127.0.0.1',
-  PORT: String(port),
-  BETTER_AUTH_SECRET: randomBytes(24).toString('hex'),
-  PREVIEW_RATE_LIMIT: '0',
-  AUTH_RATE_LIMIT: '0',
-  SUNRECKON_ENV: 'test',
-  NODE_ENV: 'production',
-};
-
-if (process.env.SUNRECKON_PREBUILT !== '1') {
-  console.log(`Building into ${DIST} …`);
-  execFileSync('npx', ['astro', 'build', '--outDir', DIST], { cwd: ROOT, env, stdio: 'pipe' });
-}
-console.log('Seeding a throw-away database with the demo crew …');
-execFileSync('npx', ['tsx', 'db/seed.ts'], { cwd: ROOT, env, stdio: 'pipe' });
-
-const server = spawn(process.execPath, [path.join(DIST, 'server/entry.mjs')], { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'] });
-let serverLog = '';
-server.stdout.on('data', (d) => (serverLog += d));
-server.stderr.on('data', (d) => (serverLog += d));
+// The same harness as the integration tests: build once, a throw-away migrated database, the
+// built server on a free loopback port (rate limits off), then the demo crew seeded into it.
+process.env.SUNRECKON_DIST ??= '.dist-loadtest';
+const { buildOnce, cleanup, startServer } = await import('../tests/helpers/server');
+if (process.env.SUNRECKON_PREBUILT !== '1') console.log(`Building into ${process.env.SUNRECKON_DIST} …`);
+buildOnce();
+const server = await startServer({ BETTER_AUTH_SECRET: randomBytes(24).toString('hex') });
+const { url, dbPath } = server;
+execFileSync('npx', ['tsx', 'db/seed.ts'], { cwd: ROOT, env: { ...process.env, DATABASE_PATH: dbPath }, stdio: 'pipe' });
 let failed = false;
 
 async function shutdown(code: number): Promise<never> {
-  if (server.exitCode === null) {
-    const exited = new Promise((r) => server.once('exit', r));
-    server.kill('SIGTERM');
-    await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))]);
-  }
-  rmSync(dir, { recursive: true, force: true });
+  await server.stop();
+  cleanup(server.dir);
   process.exit(code);
 }
 process.on('SIGINT', () => void shutdown(130));
 
 try {
-  const started = Date.now();
-  for (;;) {
-    if (server.exitCode !== null) throw new Error(`The server exited early:\n${serverLog}`);
-    const ok = await fetch(`${url}/api/health`).then((r) => r.ok, () => false);
-    if (ok) break;
-    if (Date.now() - started > 30_000) throw new Error(`No answer from /api/health within 30 s:\n${serverLog}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
 
   const JSON_HEADERS = { 'content-type': 'application/json', origin: url };
   const cookieOf = (res: Response) => res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
@@ -173,6 +127,9 @@ try {
 
   // 3. Editors reading and writing one rig's loads.
   const acked = { added: new Set<string>(), removed: new Set<string>(), patched: new Map<string, { version: number; watts: number }>() };
+  // Removals sent: when the run's time limit cuts a DELETE in flight, the server may have done it
+  // without the answer arriving, so such a load may be present or gone — neither is a lost write.
+  const removalSent = new Set<string>();
   const tally = { read: 0, patched: 0, conflicts: 0, added: 0, removed: 0, otherRefusals: 0 };
   type Ctx = { cookie?: string; versions?: Record<string, number>; target?: string; watts?: number; posted?: string };
   const pick = <T>(xs: T[]) => xs[Math.floor(Math.random() * xs.length)]!;
@@ -225,10 +182,11 @@ try {
       },
       {
         method: 'DELETE',
-        setupRequest: (req, ctx: Ctx): autocannon.Request =>
-          ctx.posted
-            ? { ...req, path: `/api/loads/${ctx.posted}?version=1`, headers: { origin: url, cookie: ctx.cookie! } }
-            : { ...req, method: 'GET', path: `/api/rigs/${rig.id}/loads`, headers: { cookie: ctx.cookie! } },
+        setupRequest: (req, ctx: Ctx): autocannon.Request => {
+          if (!ctx.posted) return { ...req, method: 'GET', path: `/api/rigs/${rig.id}/loads`, headers: { cookie: ctx.cookie! } };
+          removalSent.add(ctx.posted);
+          return { ...req, path: `/api/loads/${ctx.posted}?version=1`, headers: { origin: url, cookie: ctx.cookie! } };
+        },
         onResponse: (status, body, ctx: Ctx) => {
           if (!ctx.posted) return;
           if (status !== 204) return refused(status, 'DELETE', body);
@@ -245,7 +203,7 @@ try {
   const lost: string[] = [];
   const integrity = db.pragma('integrity_check', { simple: true });
   const has = db.prepare('select version, watts from loads where id = ?');
-  for (const id of acked.added) if (!acked.removed.has(id) && !has.get(id)) lost.push(`added load ${id} is missing`);
+  for (const id of acked.added) if (!removalSent.has(id) && !has.get(id)) lost.push(`added load ${id} is missing`);
   for (const id of acked.removed) if (has.get(id)) lost.push(`removed load ${id} is still there`);
   for (const [id, last] of acked.patched) {
     const row = has.get(id) as { version: number; watts: number } | undefined;
@@ -269,7 +227,7 @@ try {
   const fiveXx = rows.reduce((n, r) => n + r.fiveXx, 0);
   if (fiveXx > 0) {
     failed = true;
-    console.error(`\nFAIL: ${fiveXx} responses were 5xx.\n${serverLog.slice(-3000)}`);
+    console.error(`\nFAIL: ${fiveXx} responses were 5xx.\n${server.logs().slice(-3000)}`);
   }
   if (lost.length || integrity !== 'ok') {
     failed = true;

@@ -1,10 +1,9 @@
 import Database from 'better-sqlite3';
 import * as chromeLauncher from 'chrome-launcher';
 import lighthouse from 'lighthouse';
-import { execFileSync, spawn } from 'node:child_process';
+import { execFileSync } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
 import os, { tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -24,54 +23,22 @@ import { launch } from '../tests/helpers/browser';
  */
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
-const DIST = process.env.SUNRECKON_DIST ?? '.dist-pageweight';
 const CHROMIUM = process.env.CHROME_PATH ?? '/usr/bin/chromium';
 const FLAGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
 
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer();
-    srv.on('error', reject);
-    srv.listen(0, '127.0.0.1', () => {
-      const a = srv.address();
-      const port = typeof a === 'object' && a ? a.port : 0;
-      srv.close(() => resolve(port));
-    });
-  });
-}
-
-const dir = mkdtempSync(path.join(tmpdir(), 'sunreckon-weight-'));
-const dbPath = path.join(dir, 'weight.sqlite');
-const port = await freePort();
-const url = `http://127.0.0.1:${port}`;
-const env = {
-  ...process.env,
-  ASTRO_TELEMETRY_DISABLED: '1',
-  DATABASE_PATH: dbPath,
-  HOST: '127.0.0.1',
-  PORT: String(port),
-  BETTER_AUTH_SECRET: randomBytes(24).toString('hex'),
-  SUNRECKON_ENV: 'test',
-  NODE_ENV: 'production',
-};
-
-if (process.env.SUNRECKON_PREBUILT !== '1') {
-  console.log(`Building into ${DIST} …`);
-  execFileSync('npx', ['astro', 'build', '--outDir', DIST], { cwd: ROOT, env, stdio: 'pipe' });
-}
-execFileSync('npx', ['tsx', 'db/seed.ts'], { cwd: ROOT, env, stdio: 'pipe' });
-const server = spawn(process.execPath, [path.join(DIST, 'server/entry.mjs')], { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'] });
-let serverLog = '';
-server.stdout.on('data', (d) => (serverLog += d));
-server.stderr.on('data', (d) => (serverLog += d));
+// The same harness as the integration tests: build once, a throw-away migrated database, the
+// built server on a free loopback port (rate limits off), then the demo crew seeded into it.
+process.env.SUNRECKON_DIST ??= '.dist-pageweight';
+const { buildOnce, cleanup, startServer } = await import('../tests/helpers/server');
+if (process.env.SUNRECKON_PREBUILT !== '1') console.log(`Building into ${process.env.SUNRECKON_DIST} …`);
+buildOnce();
+const server = await startServer({ BETTER_AUTH_SECRET: randomBytes(24).toString('hex') });
+const { url, dbPath } = server;
+execFileSync('npx', ['tsx', 'db/seed.ts'], { cwd: ROOT, env: { ...process.env, DATABASE_PATH: dbPath }, stdio: 'pipe' });
 
 async function shutdown(code: number): Promise<never> {
-  if (server.exitCode === null) {
-    const exited = new Promise((r) => server.once('exit', r));
-    server.kill('SIGTERM');
-    await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))]);
-  }
-  rmSync(dir, { recursive: true, force: true });
+  await server.stop();
+  cleanup(server.dir);
   process.exit(code);
 }
 
@@ -177,13 +144,6 @@ async function audit(pagePath: string, cookie: string | null): Promise<Pick<Page
 
 let code = 0;
 try {
-  const started = Date.now();
-  for (;;) {
-    if (server.exitCode !== null) throw new Error(`The server exited early:\n${serverLog}`);
-    if (await fetch(`${url}/api/health`).then((r) => r.ok, () => false)) break;
-    if (Date.now() - started > 30_000) throw new Error(`No answer from /api/health within 30 s:\n${serverLog}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
   const signIn = await fetch(`${url}/api/auth/sign-in/email`, {
     method: 'POST',
     headers: { 'content-type': 'application/json', origin: url },
