@@ -30,7 +30,7 @@ if (!process.env.SMTP_URL) {
 console.log(`\nSunreckon is starting on http://${env.HOST}:${env.PORT}  (Ctrl+C stops it)`);
 if (catcher) console.log(`Mail is caught on ${catcher.url}: read it at http://${env.HOST}:${env.PORT}/dev/mail`);
 console.log('');
-const server = spawn(process.execPath, ['dist/server/entry.mjs'], { cwd: root, env, stdio: 'inherit' });
+const server = spawn(process.execPath, ['server.mjs'], { cwd: root, env: { ...env, SUNRECKON_DIST: 'dist' }, stdio: 'inherit' });
 const stop = () => {
   server.kill('SIGTERM');
   void catcher?.stop();

@@ -58,7 +58,7 @@ export async function startServer(extraEnv: Record<string, string> = {}, reuse?:
     ...extraEnv,
   };
   execFileSync('npx', ['tsx', 'db/migrate.ts'], { cwd: ROOT, env, stdio: 'pipe' });
-  const child = spawn(process.execPath, [path.join(DIST, 'server/entry.mjs')], { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'] });
+  const child = spawn(process.execPath, ['server.mjs'], { cwd: ROOT, env: { ...env, SUNRECKON_DIST: DIST }, stdio: ['ignore', 'pipe', 'pipe'] });
   let out = '';
   child.stdout?.on('data', (d) => (out += d));
   child.stderr?.on('data', (d) => (out += d));

@@ -89,3 +89,59 @@ describe('security headers', () => {
     expect(res.headers.get('content-security-policy')).toContain("frame-ancestors 'none'");
   });
 });
+
+describe('compression', () => {
+  /** A raw request, so the body arrives as sent (fetch would unpack it). */
+  async function raw(path: string, acceptEncoding?: string): Promise<{ status: number; headers: Headers; bytes: number; body: Buffer }> {
+    const { request } = await import('node:http');
+    return new Promise((resolve, reject) => {
+      const req = request(baseUrl() + path, { headers: acceptEncoding ? { 'accept-encoding': acceptEncoding } : {} }, (res) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => {
+          const body = Buffer.concat(chunks);
+          const headers = new Headers();
+          for (const [k, v] of Object.entries(res.headers)) if (typeof v === 'string') headers.set(k, v);
+          resolve({ status: res.statusCode ?? 0, headers, bytes: body.byteLength, body });
+        });
+      });
+      req.on('error', reject);
+      req.end();
+    });
+  }
+
+  it('sends pages and scripts gzip- or brotli-packed to browsers that ask, and plain to those that do not', async () => {
+    const { gunzipSync, brotliDecompressSync } = await import('node:zlib');
+    const plain = await raw('/');
+    expect(plain.status).toBe(200);
+    expect(plain.headers.get('content-encoding')).toBeNull();
+    const html = plain.body.toString('utf8');
+    expect(html).toContain('Sunreckon');
+
+    const gz = await raw('/', 'gzip');
+    expect(gz.headers.get('content-encoding')).toBe('gzip');
+    expect(gz.headers.get('vary')).toMatch(/accept-encoding/i);
+    expect(gz.headers.get('content-security-policy')).toContain("frame-ancestors 'none'");
+    expect(gz.bytes).toBeLessThan(plain.bytes / 2);
+    expect(gunzipSync(gz.body).toString('utf8')).toBe(html);
+
+    const script = html.match(/\/_astro\/[\w.-]+\.js/)?.[0];
+    if (!script) throw new Error('the landing page names no script');
+    const js = await raw(script);
+    const br = await raw(script, 'br, gzip');
+    expect(br.headers.get('content-encoding')).toBe('br');
+    expect(brotliDecompressSync(br.body).equals(js.body)).toBe(true);
+    expect(br.headers.get('cache-control')).toContain('immutable');
+  });
+
+  it('leaves fonts as they are (already packed)', async () => {
+    const html = (await raw('/')).body.toString('utf8');
+    const css = html.match(/\/_astro\/[\w.-]+\.css/)?.[0];
+    if (!css) throw new Error('the landing page names no stylesheet');
+    const font = (await raw(css)).body.toString('utf8').match(/\/_astro\/[\w.-]+\.woff2/)?.[0];
+    if (!font) throw new Error('the stylesheet names no font');
+    const res = await raw(font, 'gzip, br');
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-encoding')).toBeNull();
+  });
+});
