@@ -3,7 +3,7 @@ import * as chromeLauncher from 'chrome-launcher';
 import lighthouse from 'lighthouse';
 import { execFileSync } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import os, { tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -124,6 +124,11 @@ async function audit(pagePath: string, cookie: string | null): Promise<Pick<Page
     });
     if (!result) throw new Error(`Lighthouse returned nothing for ${pagePath}`);
     const lhr = result.lhr;
+    // SUNRECKON_LHR_DIR keeps each full Lighthouse report (JSON) for a closer look.
+    if (process.env.SUNRECKON_LHR_DIR) {
+      mkdirSync(process.env.SUNRECKON_LHR_DIR, { recursive: true });
+      writeFileSync(path.join(process.env.SUNRECKON_LHR_DIR, `${pagePath === '/' ? 'landing' : pagePath.includes('/forecasts/') ? 'forecast' : 'trip'}.json`), JSON.stringify(lhr, null, 1));
+    }
     const score = (k: string) => Math.round((lhr.categories[k]?.score ?? 0) * 100);
     const metric = (id: string) => lhr.audits[id]?.displayValue ?? '?';
     const failedAudits = Object.values(lhr.categories)

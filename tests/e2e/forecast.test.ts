@@ -54,15 +54,43 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('forecasts in Chromium a
     // The verdict names the day and local time of the cutoff, e.g. "Runs out Fri 22 Oct at 21:00 at …".
     expect(headline).toMatch(/^Runs out \w{3} \d{1,2} \w{3} at \d{2}:\d{2}/);
     await hydrated(page);
-    const chart = page.getByTestId('soc-chart');
-    // The chart draws once it has measured its width, after hydration.
+    // The chart comes drawn from the server (no script needed): line, reserve band, cutoff marker.
+    const sketch = page.locator('[data-testid="soc-chart"][data-sketch]');
+    expect(await sketch.locator('.soc-line path').getAttribute('d')).toMatch(/^M0\.00,[\d.]+( L[\d.]+,[\d.]+){20,}$/);
+    expect(await sketch.getByTestId('reserve-band').count()).toBe(1);
+    expect(await sketch.getByTestId('cutoff-marker').count()).toBe(1);
+    expect(await sketch.getByTestId('cutoff-label').textContent()).toMatch(/^Cutoff \d{2}:\d{2}$/);
+    expect(await seriousViolations(page)).toEqual([]);
+    await shot(page, `forecast-${viewport}`);
+
+    // Pointing at it brings the interactive chart in the same place, with each hour's figures.
+    const holder = page.getByTestId('soc-chart-on-demand');
+    const before = await holder.boundingBox();
+    if (!before) throw new Error('the chart has no box');
+    await page.mouse.move(before.x + before.width * 0.4, before.y + before.height * 0.5);
+    const chart = page.locator('[data-testid="soc-chart"]:not([data-sketch])');
     await chart.locator('.soc-line path.recharts-curve').first().waitFor();
-    expect(await chart.locator('.soc-line path.recharts-curve').count()).toBeGreaterThan(0);
     expect(await chart.getByTestId('reserve-band').count()).toBe(1);
     expect(await chart.getByTestId('cutoff-marker').count()).toBe(1);
     expect(await chart.getByTestId('cutoff-label').textContent()).toMatch(/\d{2}:\d{2}/);
-    expect(await seriousViolations(page)).toEqual([]);
-    await shot(page, `forecast-${viewport}`);
+    const after = await holder.boundingBox();
+    expect(Math.abs((after?.height ?? 0) - before.height)).toBeLessThan(8);
+    const surface = chart.locator('svg.recharts-surface').first();
+    const box = await surface.boundingBox();
+    if (!box) throw new Error('the interactive chart has no box');
+    await page.mouse.move(box.x + box.width * 0.55, box.y + box.height * 0.5);
+    await page.getByTestId('soc-tooltip').waitFor();
+    expect(await page.getByTestId('soc-tooltip').textContent()).toMatch(/State of charge[\d.]+ %/);
+    await page.mouse.move(0, 0);
+
+    // Further down, the day charts load and the advice is worked out as they come into view.
+    await page.locator('#days-heading').scrollIntoViewIfNeeded();
+    await page.locator('[data-testid="daily-chart"] .recharts-surface').first().waitFor();
+    await page.getByTestId('advice').scrollIntoViewIfNeeded();
+    await page.getByTestId('advice-changes').or(page.getByText('No single change stands out')).first().waitFor({ timeout: 20_000 });
+    // The hour-by-hour table is built when opened.
+    await page.getByTestId('hourly-details').locator('summary').click();
+    expect(await page.getByTestId('hourly-table').locator('tbody tr').count()).toBeGreaterThan(100);
   });
 
   it('downloads the hourly CSV', async () => {

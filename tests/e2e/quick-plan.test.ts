@@ -154,7 +154,8 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('landing and quick plan 
     expect(tipText).toMatch(/State of charge[\d.]+ %/);
     expect(tipText).toMatch(/Volts[\d.]+ V/);
 
-    // Advice is worked out in the browser with the same engine.
+    // Advice is worked out in the browser with the same engine, once the panel is in view.
+    await page.getByTestId('advice').scrollIntoViewIfNeeded();
     await page.getByTestId('advice-changes').waitFor({ timeout: 20_000 });
     expect(await page.getByTestId('advice').textContent()).toContain('estimates');
 

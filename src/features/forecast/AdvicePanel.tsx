@@ -1,30 +1,38 @@
 import { useEffect, useState } from 'react';
+import { useSeen } from '../../components/ui/useSeen';
 import type { Forecast, ResolvedPlan } from '../../engine';
-import { advise, CAUTIONS, whPerDay, type Advice } from './advice';
+import type { Advice } from './advice';
+import { CAUTIONS } from './cautions';
+import { whPerDay } from './verdict';
 import { useDelayed } from './useWidth';
 
 type State = { status: 'working' } | { status: 'done'; advice: Advice } | { status: 'error' };
 
 /** The two or three changes that matter most, where the energy goes, and the warnings with their cautions. */
-export default function AdvicePanel({ forecast, plan, reserveSocPct }: { forecast: Forecast; plan: ResolvedPlan; reserveSocPct?: number | null }) {
+export default function AdvicePanel({ forecast, plan, reserveSocPct, now = false }: { forecast: Forecast; plan: ResolvedPlan; reserveSocPct?: number | null; now?: boolean }) {
   const [state, setState] = useState<State>({ status: 'working' });
   const slow = useDelayed(state.status === 'working');
+  // Advice reruns the engine a few times (the engine's code loads for it): only once the panel is in view.
+  const { ref, seen } = useSeen<HTMLElement>(now);
 
   useEffect(() => {
+    if (!seen) return;
+    let gone = false;
     setState({ status: 'working' });
-    // Advice reruns the engine a few times: let the verdict and charts paint first.
-    const t = setTimeout(() => {
-      try {
-        setState({ status: 'done', advice: advise(plan, forecast, reserveSocPct) });
-      } catch {
-        setState({ status: 'error' });
-      }
-    }, 16);
-    return () => clearTimeout(t);
-  }, [forecast, plan, reserveSocPct]);
+    import('./advice')
+      .then(({ advise }) => {
+        if (!gone) setState({ status: 'done', advice: advise(plan, forecast, reserveSocPct) });
+      })
+      .catch(() => {
+        if (!gone) setState({ status: 'error' });
+      });
+    return () => {
+      gone = true;
+    };
+  }, [seen, forecast, plan, reserveSocPct]);
 
   return (
-    <section aria-labelledby="advice-heading" className="card p-4 sm:p-5" data-testid="advice">
+    <section ref={ref} aria-labelledby="advice-heading" className="card p-4 sm:p-5" data-testid="advice" data-pending={state.status === 'working' ? '' : undefined}>
       <h2 id="advice-heading" className="text-xl">Advice</h2>
       <p className="text-sm text-slate-text">What would change the answer most — each effect worked out by running the forecast again. All figures are estimates.</p>
       {state.status === 'working' ? (

@@ -1,5 +1,4 @@
 import type { Forecast } from '../../engine';
-import { csvFileName, forecastCsv } from './csv';
 
 /** Downloads the hourly numbers: the saved forecast's CSV route when there is an id, else a CSV built here. */
 export default function CsvButton({ forecast, forecastId, name }: { forecast: Forecast; forecastId?: string | null; name?: string }) {
@@ -10,7 +9,9 @@ export default function CsvButton({ forecast, forecastId, name }: { forecast: Fo
       </a>
     );
   }
-  const download = () => {
+  const download = async () => {
+    // The CSV writer (papaparse) loads on the first download.
+    const { csvFileName, forecastCsv } = await import('./csv');
     const blob = new Blob([forecastCsv(forecast)], { type: 'text/csv;charset=utf-8' });
     const url = URL.createObjectURL(blob);
     const a = document.createElement('a');
@@ -22,7 +23,7 @@ export default function CsvButton({ forecast, forecastId, name }: { forecast: Fo
     setTimeout(() => URL.revokeObjectURL(url), 1000);
   };
   return (
-    <button type="button" className="btn btn-quiet no-print" onClick={download} data-testid="csv-download">
+    <button type="button" className="btn btn-quiet no-print" onClick={() => void download()} data-testid="csv-download">
       Download CSV
     </button>
   );

@@ -1,10 +1,13 @@
+import { useState } from 'react';
 import type { Forecast, ResolvedPlan } from '../../engine';
 import { formatRowTimeWithZone } from './time';
 
 /** Every hour as a table: the accessible view of the charts, folded under "Details". */
 export default function HourlyTable({ forecast, plan, open = false }: { forecast: Forecast; plan: ResolvedPlan; open?: boolean }) {
+  // The rows (one per hour: hundreds on a long trip) are built when the table is first opened.
+  const [opened, setOpened] = useState(open);
   return (
-    <details className="group" open={open} data-testid="hourly-details">
+    <details className="group" open={open} data-testid="hourly-details" onToggle={(e) => e.currentTarget.open && setOpened(true)}>
       <summary className="cursor-pointer rounded-lg py-2 font-bold text-dusk">
         Details: the hour-by-hour table ({forecast.hourly.length} hours)
       </summary>
@@ -26,7 +29,7 @@ export default function HourlyTable({ forecast, plan, open = false }: { forecast
             </tr>
           </thead>
           <tbody>
-            {forecast.hourly.map((r) => {
+            {(opened ? forecast.hourly : []).map((r) => {
               const stop = forecast.stops?.[r.stop] ?? plan.stops[r.stop];
               return (
                 <tr key={r.time + r.stop} className={`border-t border-sand ${r.unmetWatts > 0 ? 'bg-[#fbebe2]' : ''}`}>

@@ -4,6 +4,7 @@ import type { Forecast, ResolvedPlan } from '../../engine';
 import { COLORS, cutoffX, dayTicks, nightBands, socSeries, socSummaryText, stopSegments } from './chart-data';
 import { formatClock, formatRowTimeWithZone } from './time';
 import { reserveOf } from './verdict';
+import { SOC_PLOT, SocKey, SocSketchPlot } from './SocSketch';
 import { useWidth } from './useWidth';
 
 /** A second forecast drawn over the first (compare). */
@@ -35,8 +36,9 @@ interface Point {
   row2?: number;
 }
 
-const Y_AXIS_WIDTH = 44;
-const MARGIN = { top: 10, right: 14, bottom: 4, left: 0 };
+// The sketch's plot box: recharts adds its 30 px x axis under the bottom margin.
+const Y_AXIS_WIDTH = SOC_PLOT.left;
+const MARGIN = { top: SOC_PLOT.top, right: SOC_PLOT.right, bottom: SOC_PLOT.bottom - 30, left: 0 };
 
 /** The state-of-charge line across the trip: nights shaded, the reserve as a band, the cutoff marked, stops named along the top. */
 export default function SocChart({ forecast, plan, reserveSocPct, name, compare, height = 280, showSummary = true }: SocChartProps) {
@@ -195,10 +197,11 @@ export default function SocChart({ forecast, plan, reserveSocPct, name, compare,
             ) : null}
           </ComposedChart>
         ) : (
-          <div className="animate-pulse rounded-lg bg-sand/70" style={{ height }} aria-hidden="true" />
+          // Until the width is known, the same chart drawn without measuring (no blank box, no jump).
+          <SocSketchPlot forecast={forecast} plan={plan} reserveSocPct={reserveSocPct} height={height} label={summary} />
         )}
       </div>
-      <Legend compare={compare} name={name} narrow={narrow} hasCutoff={cx !== null || cx2 !== null} />
+      <SocKey compareName={compare?.name} name={name} narrow={narrow} hasCutoff={cx !== null || cx2 !== null} />
       <figcaption className={showSummary ? 'mt-2 text-sm text-slate-text' : 'sr-only'} data-testid="soc-summary">
         {summary}
       </figcaption>
@@ -213,37 +216,6 @@ function CutoffLabel({ viewBox, text, rightHalf, dy = 0 }: { viewBox?: { x: numb
     <text x={x} y={viewBox.y + 16 + dy} textAnchor={rightHalf ? 'end' : 'start'} fill={COLORS.cutoffText} fontSize={13} fontWeight={800} data-testid="cutoff-label" paintOrder="stroke" stroke="#FFFDF9" strokeWidth={4}>
       {text}
     </text>
-  );
-}
-
-function Legend({ compare, name, narrow, hasCutoff }: { compare?: CompareSeries | null; name?: string; narrow: boolean; hasCutoff: boolean }) {
-  return (
-    <ul className={`mt-2 flex flex-wrap gap-x-4 gap-y-1 text-xs text-slate-text ${narrow ? '' : 'sm:text-sm'}`} aria-label="Chart key">
-      <li className="flex items-center gap-1.5">
-        <svg width="22" height="8" aria-hidden="true"><line x1="0" y1="4" x2="22" y2="4" stroke={COLORS.soc} strokeWidth="2.5" /></svg>
-        {compare ? name ?? 'First' : 'State of charge'}
-      </li>
-      {compare ? (
-        <li className="flex items-center gap-1.5">
-          <svg width="22" height="8" aria-hidden="true"><line x1="0" y1="4" x2="22" y2="4" stroke={COLORS.compare} strokeWidth="2.5" strokeDasharray="7 5" /></svg>
-          {compare.name}
-        </li>
-      ) : null}
-      <li className="flex items-center gap-1.5">
-        <span aria-hidden="true" className="inline-block h-3 w-5 rounded-sm border-t-2 border-dashed" style={{ background: COLORS.reserveFill, borderColor: COLORS.reserveEdge }} />
-        Reserve
-      </li>
-      <li className="flex items-center gap-1.5">
-        <span aria-hidden="true" className="inline-block h-3 w-5 rounded-sm" style={{ background: 'rgba(47,62,85,0.12)' }} />
-        Night
-      </li>
-      {hasCutoff ? (
-        <li className="flex items-center gap-1.5">
-          <span aria-hidden="true" className="inline-block h-3 w-0.5" style={{ background: COLORS.cutoff }} />
-          Cutoff
-        </li>
-      ) : null}
-    </ul>
   );
 }
 

@@ -13,15 +13,11 @@ import {
 } from '../../engine';
 import { inverterDcWatts, loadWattsAt, windowMask } from '../../engine/loads';
 import { formatClock, formatDay, formatRowTime, localParts } from './time';
-import { pct, reserveOf, wh } from './verdict';
+import { CAUTIONS } from './cautions';
+import { pct, reserveOf, wh, whPerDay } from './verdict';
 
-/** Safety cautions of product.md, shown wherever the advice touches generators, cold charging or sizing. */
-export const CAUTIONS = {
-  generator: 'Run a generator well away from windows, doors and vents, and keep a working CO alarm inside the rig.',
-  cold: 'LiFePO4 must not be charged below freezing (0 °C): keep the bank in the heated space, or use a bank with self-heating.',
-  estimate:
-    'Figures are estimates from the forecast model, not measurements. Wiring and sizing follow local codes (e.g. NEC Article 551 for RVs in the US) and a qualified electrician’s judgement.',
-} as const;
+// Re-exported for the modules that read them here (proposals).
+export { CAUTIONS, whPerDay };
 
 /** Converter/charger amps assumed for generator advice when the plan names none (common practice: 30 A is a usual RV converter). */
 export const ASSUMED_CONVERTER_AMPS = 30;
@@ -559,7 +555,3 @@ export function advise(plan: ResolvedPlan, forecast: Forecast, reserveSocPct?: n
   };
 }
 
-/** "430 Wh/day" for a load row. */
-export function whPerDay(x: number): string {
-  return `${wh(x)}/day`;
-}

@@ -96,3 +96,8 @@ export function verdict(forecast: Forecast, plan: ResolvedPlan, reserveSocPct?: 
     reservePct,
   };
 }
+
+/** Energy per day, e.g. "1.2 kWh/day". */
+export function whPerDay(x: number): string {
+  return `${wh(x)}/day`;
+}
