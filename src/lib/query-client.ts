@@ -76,11 +76,21 @@ function shouldRetry(failureCount: number, error: unknown): boolean {
   return failureCount < 2;
 }
 
-export const queryClient = new QueryClient({
-  defaultOptions: {
-    // offlineFirst: without signal a query still asks once, and the service worker answers with
-    // the copy saved on the phone (public/sw.js); 'online' would leave it paused and loading.
-    queries: { staleTime: 30_000, retry: shouldRetry, refetchOnWindowFocus: true, networkMode: 'offlineFirst' },
-    mutations: { retry: false },
-  },
-});
+/** A client with Sunreckon's defaults. */
+export function makeQueryClient(): QueryClient {
+  return new QueryClient({
+    defaultOptions: {
+      // offlineFirst: without signal a query still asks once, and the service worker answers with
+      // the copy saved on the phone (public/sw.js); 'online' would leave it paused and loading.
+      queries: { staleTime: 30_000, retry: shouldRetry, refetchOnWindowFocus: true, networkMode: 'offlineFirst' },
+      mutations: { retry: false },
+    },
+  });
+}
+
+/**
+ * The page's one client in the browser: islands share its cache. On the server each island
+ * render gets its own (see IslandQueryProvider): a shared server cache would keep every page's
+ * data for ever and hand one visitor's answers to the next.
+ */
+export const queryClient = makeQueryClient();

@@ -1,9 +1,10 @@
-import { QueryClientProvider, useQuery } from '@tanstack/react-query';
-import { ApiError, queryClient } from '../../lib/query-client';
+import { useQuery } from '@tanstack/react-query';
+import { ApiError } from '../../lib/query-client';
 import ForecastView from './ForecastView';
 import { forecastQueries } from './forecast.queries';
 import type { SavedForecast } from './forecast.api';
 import { useDelayed } from './useWidth';
+import { IslandQueryProvider } from '../../components/ui/QueryProvider';
 
 export interface ForecastFromApiProps {
   /** The saved forecast's id. */
@@ -17,9 +18,9 @@ export interface ForecastFromApiProps {
 /** A saved forecast loaded by id, with loading and error states — never a blank chart. */
 export default function ForecastFromApi(props: ForecastFromApiProps) {
   return (
-    <QueryClientProvider client={queryClient}>
+    <IslandQueryProvider>
       <Loaded {...props} />
-    </QueryClientProvider>
+    </IslandQueryProvider>
   );
 }
 

@@ -1,19 +1,19 @@
 import { useState } from 'react';
-import { QueryClientProvider, useQuery } from '@tanstack/react-query';
-import { queryClient } from '../../lib/query-client';
+import { useQuery } from '@tanstack/react-query';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
 import { rigQuery } from '../rigs/rigs.queries';
 import { formatReadingTime } from './format';
 import LogView from './LogView';
 import { monitorQueries } from './monitor.queries';
 import UploadLog from './UploadLog';
+import { IslandQueryProvider } from '../../components/ui/QueryProvider';
 
 /** The rig's Logs section: battery-monitor uploads and what they tell about the rig. */
 export default function MonitorLogs({ rigId }: { rigId: string }) {
   return (
-    <QueryClientProvider client={queryClient}>
+    <IslandQueryProvider>
       <Inner rigId={rigId} />
-    </QueryClientProvider>
+    </IslandQueryProvider>
   );
 }
 

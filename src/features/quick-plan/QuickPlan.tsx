@@ -1,10 +1,10 @@
 import { useEffect, useId, useMemo, useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { QueryClientProvider, useMutation } from '@tanstack/react-query';
+import { useMutation } from '@tanstack/react-query';
 import { validatePlan, type Forecast, type Plan, type ResolvedPlan } from '../../engine';
 import { Field, describedBy } from '../../components/ui/Field';
-import { ApiError, queryClient } from '../../lib/query-client';
+import { ApiError } from '../../lib/query-client';
 import AdvicePanel from '../forecast/AdvicePanel';
 import CsvButton from '../forecast/CsvButton';
 import { PRINT_CHARTS } from '../forecast/ForecastView';
@@ -29,6 +29,7 @@ import {
   type QuickPlanForm,
 } from './quick-plan';
 import { lookupTimeZone, searchPlaces, type Place } from './quick-plan.api';
+import { IslandQueryProvider } from '../../components/ui/QueryProvider';
 
 export interface QuickPlanProps {
   /** Today's date (YYYY-MM-DD) from the server, so the server and browser render the same defaults. */
@@ -38,9 +39,9 @@ export interface QuickPlanProps {
 /** The landing page's quick plan: a short form, an anonymous forecast, and "Keep this plan". */
 export default function QuickPlan(props: QuickPlanProps) {
   return (
-    <QueryClientProvider client={queryClient}>
+    <IslandQueryProvider>
       <QuickPlanForm {...props} />
-    </QueryClientProvider>
+    </IslandQueryProvider>
   );
 }
 

@@ -1,15 +1,15 @@
-import { QueryClientProvider, useQueries } from '@tanstack/react-query';
-import { queryClient } from '../../lib/query-client';
+import { useQueries } from '@tanstack/react-query';
 import { ErrorState, LoadingState } from '../../components/ui/States';
 import CompareView from '../forecast/CompareView';
 import { forecastQueries } from '../forecast/forecast.queries';
+import { IslandQueryProvider } from '../../components/ui/QueryProvider';
 
 /** Two saved forecasts loaded by id and overlaid. */
 export default function CompareFromApi(props: { a: string; b: string }) {
   return (
-    <QueryClientProvider client={queryClient}>
+    <IslandQueryProvider>
       <Inner {...props} />
-    </QueryClientProvider>
+    </IslandQueryProvider>
   );
 }
 
