@@ -2,6 +2,7 @@
 // its limits and its cross-field rules. `Plan` is what a client may send; `ResolvedPlan` is
 // the same plan with every default applied, which is all the rest of the engine reads.
 import { z } from 'zod';
+import { CHEMISTRIES, CHEMISTRY_DEFAULTS, type Chemistry } from './chemistry';
 import { dayNumber, isoDate, isValidTimeZone, parseIsoDate } from './tz';
 import { planTimeline } from './timeline';
 
@@ -18,28 +19,8 @@ export const LIMITS = {
   maxWindowsPerLoad: 24,
 } as const;
 
-/** Bank chemistries the engine models. */
-export const CHEMISTRIES = ['lifepo4', 'agm', 'flooded', 'gel'] as const;
-/** A bank chemistry. */
-export type Chemistry = (typeof CHEMISTRIES)[number];
-
-/** Chemistry-dependent bank defaults (forecast-engine.md defaults table; common practice). */
-export const CHEMISTRY_DEFAULTS: Record<
-  Chemistry,
-  {
-    nominalVolts: number;
-    floorSocPct: number;
-    maxChargeC: number;
-    peukertExponent: number;
-    chargeEfficiencyPct: number;
-    internalResistanceMilliohm: number;
-  }
-> = {
-  lifepo4: { nominalVolts: 12.8, floorSocPct: 10, maxChargeC: 0.5, peukertExponent: 1.05, chargeEfficiencyPct: 99, internalResistanceMilliohm: 8 },
-  agm: { nominalVolts: 12, floorSocPct: 50, maxChargeC: 0.2, peukertExponent: 1.12, chargeEfficiencyPct: 92, internalResistanceMilliohm: 12 },
-  gel: { nominalVolts: 12, floorSocPct: 50, maxChargeC: 0.2, peukertExponent: 1.12, chargeEfficiencyPct: 90, internalResistanceMilliohm: 15 },
-  flooded: { nominalVolts: 12, floorSocPct: 50, maxChargeC: 0.2, peukertExponent: 1.25, chargeEfficiencyPct: 85, internalResistanceMilliohm: 15 },
-};
+// Re-exported: the chemistry table lives in a module without zod, so pages can show it cheaply.
+export { CHEMISTRIES, CHEMISTRY_DEFAULTS, type Chemistry };
 
 // ---------- small builders, so every number has bounds and a plain-English message ----------
 

@@ -1,13 +1,19 @@
 // Display formatting shared by the islands: numbers with units, hours, dates, bank summaries.
 import { format } from 'date-fns';
-import { CHEMISTRY_DEFAULTS, type Chemistry } from '../engine/schema';
+import { CHEMISTRY_DEFAULTS, type Chemistry } from '../engine/chemistry';
 
 const LOCALE = 'en-US';
+
+// One formatter per number of decimals: toLocaleString with options builds a new one on every call,
+// which adds up over the hundreds of figures a form or forecast renders.
+const NUMBER_FORMATS = new Map<number, Intl.NumberFormat>();
 
 /** A number with thousands separators and at most `digits` decimals. */
 export function formatNumber(n: number, digits = 0): string {
   if (!Number.isFinite(n)) return '—';
-  return n.toLocaleString(LOCALE, { maximumFractionDigits: digits, minimumFractionDigits: 0 });
+  let f = NUMBER_FORMATS.get(digits);
+  if (!f) NUMBER_FORMATS.set(digits, (f = new Intl.NumberFormat(LOCALE, { maximumFractionDigits: digits, minimumFractionDigits: 0 })));
+  return f.format(n);
 }
 
 /** Watt-hours, whole: "1,234 Wh". */

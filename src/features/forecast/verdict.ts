@@ -28,9 +28,11 @@ export function pct(x: number): string {
   return `${Math.round(x)} %`;
 }
 
+const WHOLE = new Intl.NumberFormat('en-US', { maximumFractionDigits: 0 });
+
 /** "Wh" with thousands separators. */
 export function wh(x: number): string {
-  return `${Math.round(x).toLocaleString('en-US')} Wh`;
+  return `${WHOLE.format(Math.round(x))} Wh`;
 }
 
 function hours(n: number): string {
