@@ -253,6 +253,18 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     tripId = new URL(page.url()).pathname.split('/')[2];
     await hydrated(page);
     await page.getByText('Thu 21 Oct – Tue 26 Oct 2027 · 5 nights').waitFor();
+    // The saved trip opens as an itinerary to read; the editor is a button away.
+    const summary = page.getByTestId('trip-summary');
+    const text = (await summary.textContent()) ?? '';
+    expect(text).toContain('1. Mesa camp');
+    expect(text).toContain('2. Juniper flat');
+    expect(text).toContain('Thu 21 Oct 2027 from 15:00 · 3 nights · leave Sun 24 Oct');
+    expect(text).toMatch(/Thu 21 OctClear18 °C−2 °C/);
+    expect(text).toMatch(/Fri 22 OctMostly cloudy18 °C1 °C/);
+    expect(text).toContain('Sun 24 Oct 2027 from 09:00, 4 hours');
+    expect(text).toContain('Keep at least 25 % state of charge');
+    expect(text).not.toMatch(/NaN|undefined/);
+    expect(await page.locator('#stops-0-name').count()).toBe(0);
 
     const trip = await (await page.request.get(`${baseUrl()}/api/trips/${tripId}`)).json();
     expect(trip).toMatchObject({ name: 'High desert, late October', rigId, reserveSocPct: 25 });
@@ -268,6 +280,9 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
   });
 
   it('names an overlapping stop next to its arrival date, and a server-found problem next to its field', async () => {
+    await page.getByRole('button', { name: 'Edit the itinerary' }).click();
+    await page.locator('#stops-1-arrive').waitFor();
+    expect(await page.locator('#stops-0-name').inputValue()).toBe('Mesa camp');
     await page.locator('#stops-1-arrive').fill('2027-10-22');
     await page.getByRole('button', { name: 'Save trip' }).click();
     await expect(page.locator('#stops-1-arrive-error').textContent()).resolves.toBe('Arrival date overlaps the stop before, which you leave on Sun 24 Oct 2027.');
@@ -299,6 +314,9 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     const after = await (await page.request.get(`${baseUrl()}/api/trips/${tripId}`)).json();
     expect(after.name).toBe('High desert, mine');
     expect(after.version).toBe(current.version + 2);
+    // Closing the editor shows the itinerary as saved.
+    await page.getByRole('button', { name: 'Close the editor' }).click();
+    await page.getByTestId('trip-summary').getByRole('heading', { level: 1, name: 'High desert, mine' }).waitFor();
   });
 
   it('shows temperatures in °F after switching to imperial, still stored in °C', async () => {
@@ -309,6 +327,8 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     await page.getByText('Saved. Temperatures show in °F.').waitFor();
     await page.goto(`${baseUrl()}/trips/${tripId}`);
     await hydrated(page);
+    expect(await page.getByTestId('trip-summary').textContent()).toMatch(/Thu 21 OctClear64 °F28 °F/);
+    await page.getByRole('button', { name: 'Edit the itinerary' }).click();
     const high = page.locator('#stops-0-weather-0-highC');
     await high.waitFor();
     expect(await page.locator('label[for="stops-0-weather-0-highC"]').textContent()).toBe('High (°F)');

@@ -42,6 +42,16 @@ export async function launch(viewport: ViewportName = 'desktop'): Promise<{ cont
 /** Waits until every island on the page has hydrated. */
 export async function hydrated(page: Page): Promise<void> {
   await page.waitForLoadState('load');
+  // Islands that hydrate when in view (client:visible): scroll through them as a camper would, then back.
+  const lazy = await page.locator('astro-island[ssr][client="visible"]').elementHandles();
+  if (lazy.length > 0) {
+    const y = await page.evaluate(() => window.scrollY);
+    for (const el of lazy) {
+      await el.scrollIntoViewIfNeeded().catch(() => undefined);
+      await page.waitForFunction((island) => !(island as Element).isConnected || !(island as Element).hasAttribute('ssr'), el, { timeout: 15_000 });
+    }
+    await page.evaluate((top) => window.scrollTo(0, top), y);
+  }
   await page.waitForFunction(() => document.querySelectorAll('astro-island[ssr]').length === 0, undefined, { timeout: 15_000 });
 }
 

@@ -1,29 +1,33 @@
 import { useEffect, useMemo, useState, useSyncExternalStore } from 'react';
-import { QueryClientProvider, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { queryClient, isConflict } from '../../lib/query-client';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { isConflict } from '../../lib/query-client';
 import { checkInInputSchema, type CheckInDto, type CheckInOutcome, type PreviousOutcome } from '../../checkin/schema';
 import { restingAdvice } from '../../checkin/ocv';
 import { EmptyState, ErrorState } from '../../components/ui/States';
 import SocChart from '../forecast/SocChart';
 import { forecastQueries } from '../forecast/forecast.queries';
 import { formatRowTime } from '../forecast/time';
+import type { ForecastListItem } from '../trip-forecasts/trip-forecasts.api';
 import { tripForecastQueries } from '../trip-forecasts/trip-forecasts.queries';
 import { discard, enqueue, flushOutbox, listQueued, onOutboxChange, type QueuedCheckIn } from '../offline/outbox';
 import { deleteCheckIn } from './checkins.api';
 import { checkInKeys, checkInQueries } from './checkins.queries';
 import { computeCheckIn, fromHour, localInputToIso, newCheckInId, nowInputValue, type Basis } from './compute';
+import { IslandQueryProvider } from '../../components/ui/QueryProvider';
 
 interface Props {
   tripId: string;
   canEdit: boolean;
+  /** The check-ins and saved forecasts as the page read them on the server. */
+  initial?: { checkIns: CheckInDto[]; forecasts: ForecastListItem[] };
 }
 
 /** At-camp check-ins of a trip: a reading re-forecasts the rest of the trip, with or without signal. */
 export default function CheckIns(props: Props) {
   return (
-    <QueryClientProvider client={queryClient}>
+    <IslandQueryProvider>
       <Inner {...props} />
-    </QueryClientProvider>
+    </IslandQueryProvider>
   );
 }
 
@@ -89,12 +93,12 @@ function useOfflineReady(): boolean {
   return ready;
 }
 
-function Inner({ tripId, canEdit }: Props) {
+function Inner({ tripId, canEdit, initial }: Props) {
   const qc = useQueryClient();
   const online = useOnline();
   const offlineReady = useOfflineReady();
-  const list = useQuery(checkInQueries.list(tripId));
-  const forecasts = useQuery(tripForecastQueries.list(tripId));
+  const list = useQuery({ ...checkInQueries.list(tripId), initialData: initial?.checkIns });
+  const forecasts = useQuery({ ...tripForecastQueries.list(tripId), initialData: initial?.forecasts });
   const latestId = forecasts.data?.[0]?.id ?? null;
   const latest = useQuery({ ...forecastQueries.detail(latestId ?? ''), enabled: latestId !== null });
   const basis: Basis | null = latest.data ? { forecastId: latest.data.id, name: latest.data.name, plan: latest.data.plan, forecast: latest.data.forecast } : null;

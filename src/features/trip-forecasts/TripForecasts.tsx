@@ -1,30 +1,33 @@
 import { useState } from 'react';
-import { QueryClientProvider, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { ApiError, queryClient } from '../../lib/query-client';
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { ApiError } from '../../lib/query-client';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
 import { useDelayed } from '../forecast/useWidth';
 import { formatRowTime } from '../forecast/time';
 import { forecastKeys } from '../forecast/forecast.queries';
 import { deleteSavedForecast, runTripForecast, type ForecastListItem } from './trip-forecasts.api';
 import { tripForecastKeys, tripForecastQueries } from './trip-forecasts.queries';
+import { IslandQueryProvider } from '../../components/ui/QueryProvider';
 
 interface Props {
   tripId: string;
   canEdit: boolean;
+  /** The list as the page read it on the server. */
+  initial?: ForecastListItem[];
 }
 
 /** A trip's saved forecasts: run a new one, open, compare two, delete. */
 export default function TripForecasts(props: Props) {
   return (
-    <QueryClientProvider client={queryClient}>
+    <IslandQueryProvider>
       <Inner {...props} />
-    </QueryClientProvider>
+    </IslandQueryProvider>
   );
 }
 
-function Inner({ tripId, canEdit }: Props) {
+function Inner({ tripId, canEdit, initial }: Props) {
   const qc = useQueryClient();
-  const list = useQuery(tripForecastQueries.list(tripId));
+  const list = useQuery({ ...tripForecastQueries.list(tripId), initialData: initial });
   const [name, setName] = useState('');
   const [picked, setPicked] = useState<string[]>([]);
   const run = useMutation({

@@ -36,10 +36,20 @@ const TIME_ZONES: string[] = (() => {
   }
 })();
 
+/**
+ * The browser's own list of zone names as suggestions for the zone field. Filled in after the page
+ * is up: hundreds of options, and the server's list may differ from the phone's.
+ */
+function TimeZoneList() {
+  const [zones, setZones] = useState<string[]>([]);
+  useEffect(() => setZones(TIME_ZONES), []);
+  return <datalist id="time-zones">{zones.map((z) => <option key={z} value={z} />)}</datalist>;
+}
+
 /** The trip planner: rig, stops in order (place, dates, shade, hookup, weather per day), drive days, reserve. */
-export function TripEditor({ trip, units, initialRigId }: { trip?: TripDto; units: Units; initialRigId?: string }) {
+export function TripEditor({ trip, units, initialRigId, initialRigs, onClose }: { trip?: TripDto; units: Units; initialRigId?: string; initialRigs?: RigDto[]; onClose?: () => void }) {
   const qc = useQueryClient();
-  const rigs = useQuery(rigsQuery());
+  const rigs = useQuery({ ...rigsQuery(), initialData: initialRigs });
   const [formError, setFormError] = useState<{ message: string; issues: ApiIssue[] } | null>(null);
   const [conflict, setConflict] = useState<{ current: TripDto; mine: TripFormOutput } | null>(null);
   const [savedAt, setSavedAt] = useState<Date | null>(null);
@@ -123,8 +133,19 @@ export function TripEditor({ trip, units, initialRigId }: { trip?: TripDto; unit
   const span = tripSpan(stopValues);
   const busy = isSubmitting || save.isPending;
 
+  // Opened from the itinerary: focus moves to the form that replaced the Edit button.
+  const formRef = useRef<HTMLFormElement | null>(null);
+  const openedFromItinerary = useRef(onClose !== undefined);
+  useEffect(() => {
+    if (openedFromItinerary.current) formRef.current?.focus({ preventScroll: true });
+  }, []);
+  const close = () => {
+    if (isDirty && !window.confirm('Close the editor and drop the unsaved changes?')) return;
+    onClose?.();
+  };
+
   return (
-    <form onSubmit={onSubmit} noValidate aria-label={trip ? `Trip ${trip.name}` : 'New trip'} className="space-y-5">
+    <form ref={formRef} tabIndex={-1} onSubmit={onSubmit} noValidate aria-label={trip ? `Trip ${trip.name}` : 'New trip'} className="space-y-5 focus:outline-none">
       <div>
         <p className="text-sm font-bold"><a href="/trips" className="text-slate-text underline-offset-2 hover:underline">← Trips</a></p>
         <h1 className="text-2xl sm:text-3xl">{trip ? name || trip.name : 'New trip'}</h1>
@@ -212,6 +233,7 @@ export function TripEditor({ trip, units, initialRigId }: { trip?: TripDto; unit
           <button type="submit" className="btn btn-primary" disabled={busy}>{busy ? 'Saving…' : trip ? 'Save trip' : 'Create trip'}</button>
           {savedAt && !isDirty ? <span role="status" className="font-semibold text-moss-deep">Saved.</span> : null}
           {trip && isDirty && !busy ? <span className="text-sm text-slate-text">Unsaved changes</span> : null}
+          {onClose ? <button type="button" className="btn btn-quiet ml-auto" onClick={close} disabled={busy}>Close the editor</button> : null}
         </div>
       ) : null}
       {trip && !readOnly ? (
@@ -362,7 +384,7 @@ function StopLocation({ index: i, ctx }: { index: number; ctx: Ctx }) {
           <input id={id('timeZone')} className="field-input" autoComplete="off" list="time-zones" {...describedBy(id('timeZone'), err('timeZone'), Boolean(tzNote || !tz))} {...register(`stops.${i}.timeZone`)} />
         </Field>
       </div>
-      {i === 0 ? <datalist id="time-zones">{TIME_ZONES.map((z) => <option key={z} value={z} />)}</datalist> : null}
+      {i === 0 ? <TimeZoneList /> : null}
     </div>
   );
 }
