@@ -263,6 +263,9 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     expect(text).toMatch(/Fri 22 OctMostly cloudy18 °C1 °C/);
     expect(text).toContain('Sun 24 Oct 2027 from 09:00, 4 hours');
     expect(text).toContain('Keep at least 25 % state of charge');
+    // Mesa camp has weather for two of its four days; Juniper flat has none (the engine's fallback, forecast-engine.md).
+    expect(text).toContain('Days not listed take the weather of the nearest listed day.');
+    expect(text).toContain('No weather entered: the forecast assumes partly cloudy days, a high of 20 °C and a low of 10 °C.');
     expect(text).not.toMatch(/NaN|undefined/);
     expect(await page.locator('#stops-0-name').count()).toBe(0);
 

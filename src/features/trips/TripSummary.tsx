@@ -105,11 +105,17 @@ export function TripSummary({ trip, rigs, units, onEdit, editorLoading = false }
                     ))}
                   </tbody>
                 </table>
-              ) : (
+              ) : null}
+              {s.weather.length > 0 && s.weather.length < s.nights + 1 ? (
+                <p className="mt-1 text-sm text-slate-text">
+                  Days not listed take the weather of the nearest listed day.
+                </p>
+              ) : null}
+              {s.weather.length === 0 ? (
                 <p className="mt-1 text-sm text-slate-text">
                   No weather entered: the forecast assumes {skyLabel(ASSUMED_WEATHER.cloudOktas).toLowerCase()} days, a high of {formatTemp(ASSUMED_WEATHER.highC, units)} and a low of {formatTemp(ASSUMED_WEATHER.lowC, units)}.
                 </p>
-              )}
+              ) : null}
             </li>
           ))}
         </ol>
