@@ -56,6 +56,7 @@ export const auth = betterAuth({
     customRules: {
       '/sign-in/email': { window: 60, max: env.AUTH_RATE_LIMIT },
       '/sign-up/email': { window: 60, max: env.AUTH_RATE_LIMIT },
+      '/change-password': { window: 60, max: env.AUTH_RATE_LIMIT },
       '/request-password-reset': { window: 60, max: Math.max(1, Math.floor(env.AUTH_RATE_LIMIT / 2)) },
     },
   },

@@ -66,4 +66,28 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('accounts in Chromium at
     await page.waitForURL('**/trips');
     expect(await page.getByRole('button', { name: 'Sign out' }).count()).toBe(1);
   });
+
+  it('changes the password on the settings page, naming a wrong current password', async () => {
+    await page.goto(baseUrl() + '/settings');
+    await hydrated(page);
+    const form = page.getByRole('form', { name: 'Change your password' });
+    await form.getByLabel('Current password').fill('not-the-password');
+    await form.getByLabel('New password', { exact: true }).fill('campfire-smoke-9');
+    await form.getByLabel('New password again').fill('campfire-smoke-9');
+    await form.getByRole('button', { name: 'Change password' }).click();
+    await expect(page.locator('#current-password-error').textContent()).resolves.toContain('not your current password');
+    await shot(page, `settings-password-error-${viewport}`);
+    await form.getByLabel('Current password').fill(password);
+    await form.getByRole('button', { name: 'Change password' }).click();
+    await form.getByText(/^Password changed\./).waitFor();
+    // Still signed in here; the new password is the one that works from now on.
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await page.waitForURL(baseUrl() + '/');
+    await page.goto(baseUrl() + '/sign-in');
+    await hydrated(page);
+    await page.getByLabel('E-mail').fill(email);
+    await page.getByLabel('Password').fill('campfire-smoke-9');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL('**/trips');
+  });
 });

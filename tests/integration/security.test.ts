@@ -300,3 +300,25 @@ describe('the database file', () => {
     expect(res.status).toBe(401);
   });
 });
+
+describe('rate limit on password changes (AUTH_RATE_LIMIT=3, a server of its own so the sign-up allowance above stays whole)', () => {
+  let server: RunningServer;
+  beforeAll(async () => {
+    server = await startServer({ AUTH_RATE_LIMIT: '3' });
+  });
+  afterAll(async () => {
+    await server?.stop();
+    if (server) cleanup(server.dir);
+  });
+  const post = (p: string, body: unknown, headers: Record<string, string> = {}) =>
+    fetch(`${server.url}${p}`, { method: 'POST', headers: { 'content-type': 'application/json', origin: server.url, ...headers }, body: JSON.stringify(body) });
+
+  it('password changes: the 4th try in a minute is 429 (no guessing the current password from a stolen session)', async () => {
+    const res = await post('/api/auth/sign-up/email', { name: 'Changer', email: uniqueEmail('changer'), password: 'changer-password-1', kind: 'camper' });
+    expect(res.status).toBe(200);
+    const cookie = res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+    const statuses: number[] = [];
+    for (let i = 0; i < 4; i++) statuses.push((await post('/api/auth/change-password', { currentPassword: `guess-${i}-password`, newPassword: 'changer-password-2' }, { cookie })).status);
+    expect(statuses).toEqual([400, 400, 400, 429]);
+  });
+});

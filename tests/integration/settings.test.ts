@@ -54,3 +54,40 @@ describe('PATCH /api/settings', () => {
     expect((await res.json()).issues[0].path).toBe('(headers).content-type');
   });
 });
+
+describe('POST /api/auth/change-password (better-auth), used by the Password form on /settings', () => {
+  const signInStatus = async (email: string, password: string) =>
+    (await api('/api/auth/sign-in/email', { method: 'POST', json: { email, password } })).status;
+
+  it('answers 401 to an anonymous visitor', async () => {
+    const res = await api('/api/auth/change-password', { method: 'POST', json: { currentPassword: 'correct-horse-1', newPassword: 'another-horse-2' } });
+    expect(res.status).toBe(401);
+  });
+
+  it('refuses a wrong current password and a short new one, and the old password keeps working', async () => {
+    const me = await signUp();
+    const wrong = await api('/api/auth/change-password', { method: 'POST', session: me, json: { currentPassword: 'not-my-password', newPassword: 'another-horse-2' } });
+    expect(wrong.status).toBe(400);
+    expect((await wrong.json()).code).toBe('INVALID_PASSWORD');
+    const short = await api('/api/auth/change-password', { method: 'POST', session: me, json: { currentPassword: 'correct-horse-1', newPassword: 'short' } });
+    expect(short.status).toBe(400);
+    expect((await short.json()).code).toBe('PASSWORD_TOO_SHORT');
+    expect(await signInStatus(me.email, 'correct-horse-1')).toBe(200);
+  });
+
+  it('changes the password; the old one no longer signs in, and other devices are signed out when asked', async () => {
+    const me = await signUp();
+    const otherDevice = await api('/api/auth/sign-in/email', { method: 'POST', json: { email: me.email, password: 'correct-horse-1' } });
+    const otherCookie = otherDevice.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+    expect((await api('/api/settings', { method: 'PATCH', headers: { cookie: otherCookie }, json: { units: 'metric' } })).status).toBe(200);
+
+    const res = await api('/api/auth/change-password', { method: 'POST', session: me, json: { currentPassword: 'correct-horse-1', newPassword: 'another-horse-2', revokeOtherSessions: true } });
+    expect(res.status).toBe(200);
+    expect(await signInStatus(me.email, 'correct-horse-1')).toBe(401);
+    expect(await signInStatus(me.email, 'another-horse-2')).toBe(200);
+    // The other device's session is gone; the one that made the change carries a fresh session cookie.
+    expect((await api('/api/settings', { method: 'PATCH', headers: { cookie: otherCookie }, json: { units: 'metric' } })).status).toBe(401);
+    const fresh = res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+    expect((await api('/api/settings', { method: 'PATCH', headers: { cookie: fresh || me.cookie }, json: { units: 'metric' } })).status).toBe(200);
+  });
+});
