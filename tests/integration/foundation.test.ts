@@ -145,3 +145,20 @@ describe('compression', () => {
     expect(res.headers.get('content-encoding')).toBeNull();
   });
 });
+
+describe('the landing page as the server sends it', () => {
+  it('carries the quick plan’s starting values, so the form is not blank before it hydrates', async () => {
+    const html = await (await api('/')).text();
+    const tag = (id: string) => html.match(new RegExp(`<(?:input|select)[^>]*id="${id}"[^>]*>`))?.[0] ?? '';
+    expect(tag('qp-capacityAh')).toMatch(/value="100"/);
+    expect(tag('qp-panelWatts')).toMatch(/value="200"/);
+    expect(tag('qp-nights')).toMatch(/value="3"/);
+    expect(tag('qp-placeName')).toMatch(/value="Your camp"/);
+    expect(html).toMatch(/<option value="America\/Denver" selected="">/);
+    const choice = (name: string, value: string) => html.match(new RegExp(`<input[^>]*name="${name}"[^>]*value="${value}"[^>]*>`))?.[0] ?? '';
+    expect(choice('chemistry', 'lifepo4')).toContain('checked=""');
+    expect(choice('chemistry', 'agm')).not.toContain('checked');
+    expect(choice('loads', 'fridge')).toContain('checked=""');
+    expect(choice('loads', 'cpap')).not.toContain('checked');
+  });
+});

@@ -62,6 +62,12 @@ function QuickPlanForm({ today }: QuickPlanProps) {
     watch,
     formState: { errors },
   } = useForm<QuickPlanForm>({ resolver: zodResolver(quickPlanFormSchema), defaultValues: defaults });
+  // react-hook-form writes the starting values into the fields when the island mounts; the server's HTML carries
+  // them too, so the form is not blank while it waits to hydrate (it does when scrolled into view).
+  const start = (name: keyof QuickPlanForm) => {
+    const v = defaults[name];
+    return typeof v === 'string' || typeof v === 'number' ? { defaultValue: v } : {};
+  };
   const [result, setResult] = useState<Result | null>(null);
   const [formError, setFormError] = useState<string | null>(null);
   const resultRef = useRef<HTMLDivElement>(null);
@@ -136,7 +142,7 @@ function QuickPlanForm({ today }: QuickPlanProps) {
           <div role="radiogroup" aria-label="Chemistry" className="grid gap-2 sm:grid-cols-3 lg:grid-cols-1">
             {BANK_PRESETS.map((b) => (
               <label key={b.value} className="flex cursor-pointer items-start gap-2 rounded-xl border-2 border-sand-dark bg-white p-2.5 has-[:checked]:border-ember has-[:focus-visible]:outline has-[:focus-visible]:outline-3 has-[:focus-visible]:outline-ember">
-                <input type="radio" value={b.value} className="mt-1.5 shrink-0 accent-ember" {...register('chemistry')} />
+                <input type="radio" value={b.value} className="mt-1.5 shrink-0 accent-ember" defaultChecked={defaults.chemistry === b.value} {...register('chemistry')} />
                 <span>
                   <span className="block font-bold">{b.label}</span>
                   <span className="block text-xs text-slate-text">{b.hint}</span>
@@ -146,7 +152,7 @@ function QuickPlanForm({ today }: QuickPlanProps) {
           </div>
           {err('chemistry') ? <p className="field-error" role="alert">{err('chemistry')}</p> : null}
           <Field id="qp-capacityAh" label="Size (Ah)" errorName="Bank size" error={err('capacityAh')} hint="The bank's total amp-hours at 12 V, e.g. 2 × 100 Ah = 200.">
-            <input id="qp-capacityAh" type="number" inputMode="decimal" step="any" className="field-input" {...describedBy('qp-capacityAh', err('capacityAh'), true)} {...register('capacityAh', num)} />
+            <input id="qp-capacityAh" type="number" inputMode="decimal" step="any" className="field-input" {...describedBy('qp-capacityAh', err('capacityAh'), true)} {...register('capacityAh', num)} {...start('capacityAh')} />
           </Field>
         </fieldset>
 
@@ -154,14 +160,14 @@ function QuickPlanForm({ today }: QuickPlanProps) {
           <legend className="mb-1 text-lg font-extrabold">Solar</legend>
           <div className="grid grid-cols-2 gap-3">
             <Field id="qp-panelWatts" label="Panels (W)" errorName="Panel watts" error={err('panelWatts')}>
-              <input id="qp-panelWatts" type="number" inputMode="decimal" step="any" className="field-input" {...describedBy('qp-panelWatts', err('panelWatts'))} {...register('panelWatts', num)} />
+              <input id="qp-panelWatts" type="number" inputMode="decimal" step="any" className="field-input" {...describedBy('qp-panelWatts', err('panelWatts'))} {...register('panelWatts', num)} {...start('panelWatts')} />
             </Field>
             <Field id="qp-shadePct" label="Shade at camp (%)" errorName="Shade" error={err('shadePct')}>
-              <input id="qp-shadePct" type="number" inputMode="decimal" step="any" className="field-input" {...describedBy('qp-shadePct', err('shadePct'))} {...register('shadePct', num)} />
+              <input id="qp-shadePct" type="number" inputMode="decimal" step="any" className="field-input" {...describedBy('qp-shadePct', err('shadePct'))} {...register('shadePct', num)} {...start('shadePct')} />
             </Field>
           </div>
           <Field id="qp-mounting" label="Mounting" error={err('mounting')} hint="All on an MPPT controller.">
-            <select id="qp-mounting" className="field-input" {...describedBy('qp-mounting', err('mounting'), true)} {...register('mounting')}>
+            <select id="qp-mounting" className="field-input" {...describedBy('qp-mounting', err('mounting'), true)} {...register('mounting')} {...start('mounting')}>
               {MOUNTINGS.map((m) => (
                 <option key={m.value} value={m.value}>{m.label}</option>
               ))}
@@ -176,7 +182,7 @@ function QuickPlanForm({ today }: QuickPlanProps) {
             {LOAD_CATALOGUE.map((l) => (
               <li key={l.id}>
                 <label className="flex cursor-pointer items-start gap-2.5 rounded-lg px-1 py-1 hover:bg-sand/60">
-                  <input type="checkbox" value={l.id} className="mt-1.5 h-4 w-4 shrink-0 accent-ember" {...register('loads')} />
+                  <input type="checkbox" value={l.id} className="mt-1.5 h-4 w-4 shrink-0 accent-ember" defaultChecked={defaults.loads.includes(l.id)} {...register('loads')} />
                   <span>
                     <span className="font-bold">{l.label}</span>
                     <span className="block text-xs text-slate-text">Typical: {l.typical}</span>
@@ -188,16 +194,16 @@ function QuickPlanForm({ today }: QuickPlanProps) {
           {err('loads') ? <p className="field-error" role="alert">Loads: {err('loads')}</p> : null}
         </fieldset>
 
-        <PlaceFields register={register} setValue={setValue} getValues={getValues} errors={errors} />
+        <PlaceFields register={register} setValue={setValue} getValues={getValues} errors={errors} start={start} />
 
         <fieldset className="space-y-3">
           <legend className="mb-1 text-lg font-extrabold">When</legend>
           <div className="grid grid-cols-2 gap-3">
             <Field id="qp-arrive" label="Arrive" errorName="Arrival date" error={err('arrive')} hint="From 15:00.">
-              <input id="qp-arrive" type="date" className="field-input" {...describedBy('qp-arrive', err('arrive'), true)} {...register('arrive')} />
+              <input id="qp-arrive" type="date" className="field-input" {...describedBy('qp-arrive', err('arrive'), true)} {...register('arrive')} {...start('arrive')} />
             </Field>
             <Field id="qp-nights" label="Nights" error={err('nights')}>
-              <input id="qp-nights" type="number" inputMode="numeric" min={1} max={60} step={1} className="field-input" {...describedBy('qp-nights', err('nights'))} {...register('nights', num)} />
+              <input id="qp-nights" type="number" inputMode="numeric" min={1} max={60} step={1} className="field-input" {...describedBy('qp-nights', err('nights'))} {...register('nights', num)} {...start('nights')} />
             </Field>
           </div>
         </fieldset>
@@ -205,7 +211,7 @@ function QuickPlanForm({ today }: QuickPlanProps) {
         <fieldset className="space-y-3">
           <legend className="mb-1 text-lg font-extrabold">Expected weather</legend>
           <Field id="qp-cloudOktas" label="Sky" error={err('cloudOktas')} hint="The same sky every day; one cloudy week changes a lot.">
-            <select id="qp-cloudOktas" className="field-input" {...describedBy('qp-cloudOktas', err('cloudOktas'), true)} {...register('cloudOktas', num)}>
+            <select id="qp-cloudOktas" className="field-input" {...describedBy('qp-cloudOktas', err('cloudOktas'), true)} {...register('cloudOktas', num)} {...start('cloudOktas')}>
               {SKY_CHOICES.map((s) => (
                 <option key={s.oktas} value={s.oktas}>{s.label}</option>
               ))}
@@ -213,10 +219,10 @@ function QuickPlanForm({ today }: QuickPlanProps) {
           </Field>
           <div className="grid grid-cols-[1fr_1fr_auto] items-start gap-3">
             <Field id="qp-high" label={`High (°${tempUnit})`} errorName="High" error={err('high')}>
-              <input id="qp-high" type="number" inputMode="decimal" step="any" className="field-input" {...describedBy('qp-high', err('high'))} {...register('high', num)} />
+              <input id="qp-high" type="number" inputMode="decimal" step="any" className="field-input" {...describedBy('qp-high', err('high'))} {...register('high', num)} {...start('high')} />
             </Field>
             <Field id="qp-low" label={`Low (°${tempUnit})`} errorName="Low" error={err('low')}>
-              <input id="qp-low" type="number" inputMode="decimal" step="any" className="field-input" {...describedBy('qp-low', err('low'))} {...register('low', num)} />
+              <input id="qp-low" type="number" inputMode="decimal" step="any" className="field-input" {...describedBy('qp-low', err('low'))} {...register('low', num)} {...start('low')} />
             </Field>
             <div role="group" aria-label="Temperature unit" className="mt-6 flex overflow-hidden rounded-[10px] border-[1.5px] border-[#b9ab95]">
               {(['C', 'F'] as const).map((u) => (
@@ -286,12 +292,14 @@ function QuickResult({ result, onKeep }: { result: Result; onKeep: () => void })
 // Place: search by name, or coordinates with their time zone
 
 type FormApi = Pick<ReturnType<typeof useForm<QuickPlanForm>>, 'register' | 'setValue' | 'getValues'> & {
+  /** The field's starting value for the server's HTML. */
+  start: (name: keyof QuickPlanForm) => { defaultValue?: string | number };
   errors: ReturnType<typeof useForm<QuickPlanForm>>['formState']['errors'];
 };
 
 type SearchState = 'idle' | 'searching' | 'done' | 'unavailable';
 
-function PlaceFields({ register, setValue, getValues, errors }: FormApi) {
+function PlaceFields({ register, setValue, getValues, errors, start }: FormApi) {
   const id = useId();
   const [query, setQuery] = useState('');
   const [places, setPlaces] = useState<Place[]>([]);
@@ -378,6 +386,7 @@ function PlaceFields({ register, setValue, getValues, errors }: FormApi) {
           autoComplete="off"
           {...describedBy('qp-placeName', err('placeName'), true)}
           {...placeReg}
+          {...start('placeName')}
           onChange={(e) => {
             void placeReg.onChange(e);
             setQuery(e.target.value);
@@ -412,6 +421,7 @@ function PlaceFields({ register, setValue, getValues, errors }: FormApi) {
             className="field-input"
             {...describedBy('qp-lat', err('lat'))}
             {...latReg}
+            {...start('lat')}
             onBlur={(e) => {
               void latReg.onBlur(e);
               void findZone();
@@ -427,6 +437,7 @@ function PlaceFields({ register, setValue, getValues, errors }: FormApi) {
             className="field-input"
             {...describedBy('qp-lon', err('lon'))}
             {...lonReg}
+            {...start('lon')}
             onBlur={(e) => {
               void lonReg.onBlur(e);
               void findZone();
@@ -435,7 +446,7 @@ function PlaceFields({ register, setValue, getValues, errors }: FormApi) {
         </Field>
       </div>
       <Field id="qp-timeZone" label="Time zone" error={err('timeZone')} hint={zoneNote ?? 'Times in the forecast are the camp’s local time.'}>
-        <select id="qp-timeZone" className="field-input" {...describedBy('qp-timeZone', err('timeZone'), true)} {...register('timeZone')}>
+        <select id="qp-timeZone" className="field-input" {...describedBy('qp-timeZone', err('timeZone'), true)} {...register('timeZone')} {...start('timeZone')}>
           {zones.map((z) => (
             <option key={z} value={z}>{z.replace(/_/g, ' ')}</option>
           ))}
