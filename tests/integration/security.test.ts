@@ -195,17 +195,25 @@ describe('passwords', () => {
   });
 });
 
-describe('rate limits (AUTH_RATE_LIMIT=3, PREVIEW_RATE_LIMIT=3)', () => {
+/**
+ * A server of the describe block's own with the given limits (started before its tests, removed after);
+ * returns a JSON POST to it with the Origin a browser would send.
+ */
+function serverWithLimits(env: Record<string, string>) {
   let server: RunningServer;
   beforeAll(async () => {
-    server = await startServer({ AUTH_RATE_LIMIT: '3', PREVIEW_RATE_LIMIT: '3' });
+    server = await startServer(env);
   });
   afterAll(async () => {
     await server?.stop();
     if (server) cleanup(server.dir);
   });
-  const post = (p: string, body: unknown, headers: Record<string, string> = {}) =>
+  return (p: string, body: unknown, headers: Record<string, string> = {}) =>
     fetch(`${server.url}${p}`, { method: 'POST', headers: { 'content-type': 'application/json', origin: server.url, ...headers }, body: JSON.stringify(body) });
+}
+
+describe('rate limits (AUTH_RATE_LIMIT=3, PREVIEW_RATE_LIMIT=3)', () => {
+  const post = serverWithLimits({ AUTH_RATE_LIMIT: '3', PREVIEW_RATE_LIMIT: '3' });
 
   it('sign-in: the 4th attempt in a minute is 429, and a client-sent address buys no fresh allowance', async () => {
     const signIn = (i: number, headers: Record<string, string> = {}) =>
@@ -302,16 +310,7 @@ describe('the database file', () => {
 });
 
 describe('rate limit on password changes (AUTH_RATE_LIMIT=3, a server of its own so the sign-up allowance above stays whole)', () => {
-  let server: RunningServer;
-  beforeAll(async () => {
-    server = await startServer({ AUTH_RATE_LIMIT: '3' });
-  });
-  afterAll(async () => {
-    await server?.stop();
-    if (server) cleanup(server.dir);
-  });
-  const post = (p: string, body: unknown, headers: Record<string, string> = {}) =>
-    fetch(`${server.url}${p}`, { method: 'POST', headers: { 'content-type': 'application/json', origin: server.url, ...headers }, body: JSON.stringify(body) });
+  const post = serverWithLimits({ AUTH_RATE_LIMIT: '3' });
 
   it('password changes: the 4th try in a minute is 429 (no guessing the current password from a stolen session)', async () => {
     const res = await post('/api/auth/sign-up/email', { name: 'Changer', email: uniqueEmail('changer'), password: 'changer-password-1', kind: 'camper' });
