@@ -36,8 +36,6 @@ export async function readJson(request: Request, maxBytes = 256 * 1024, invalidC
       { path: '(headers).content-type', message: `expected application/json, got ${type ? `"${type.slice(0, 60)}"` : 'none'}` },
     ]);
   }
-  const declared = Number(request.headers.get('content-length') ?? '0');
-  if (declared > maxBytes) throw new HttpError('payload_too_large', `The body is larger than ${Math.round(maxBytes / 1024)} KB.`);
   const buf = await readLimited(request, maxBytes);
   const text = new TextDecoder().decode(buf);
   if (!text.trim()) throw new HttpError(invalidCode, 'The body is empty; send a JSON object.', [{ path: '(body)', message: 'empty body' }]);
@@ -48,7 +46,13 @@ export async function readJson(request: Request, maxBytes = 256 * 1024, invalidC
   }
 }
 
-async function readLimited(request: Request, maxBytes: number): Promise<Uint8Array> {
+/**
+ * The raw body, refused past `maxBytes` whatever Content-Length says (a missing or false one cannot
+ * get past the count). `tooLarge` makes the refusal; by default a 413 naming the limit in KB.
+ */
+export async function readLimited(request: Request, maxBytes: number, tooLarge?: () => HttpError): Promise<Uint8Array> {
+  const refuse = tooLarge ?? (() => new HttpError('payload_too_large', `The body is larger than ${Math.round(maxBytes / 1024)} KB.`));
+  if (Number(request.headers.get('content-length') ?? '0') > maxBytes) throw refuse();
   if (!request.body) return new Uint8Array();
   const reader = request.body.getReader();
   const chunks: Uint8Array[] = [];
@@ -59,7 +63,7 @@ async function readLimited(request: Request, maxBytes: number): Promise<Uint8Arr
     total += value.byteLength;
     if (total > maxBytes) {
       await reader.cancel().catch(() => {});
-      throw new HttpError('payload_too_large', `The body is larger than ${Math.round(maxBytes / 1024)} KB.`);
+      throw refuse();
     }
     chunks.push(value);
   }

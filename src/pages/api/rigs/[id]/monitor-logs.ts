@@ -1,7 +1,7 @@
 import { rigAccess } from '../../../../server/access';
 import { db } from '../../../../server/db';
 import { HttpError, type Issue } from '../../../../server/errors';
-import { json, requireUser, route, zodIssues } from '../../../../server/http';
+import { json, readLimited, requireUser, route, zodIssues } from '../../../../server/http';
 import { createLog, listLogs } from '../../../../server/monitor-logs';
 import { isValidTimeZone } from '../../../../engine/tz';
 import { mappingSchema, type ColumnMapping } from '../../../../monitor/mapping';
@@ -18,25 +18,6 @@ const ALLOWED_EXTENSIONS = /\.(csv|txt|tsv|log|dat)$/i;
 
 const tooLarge = () => new HttpError('payload_too_large', 'The file is larger than 10 MB. Export a shorter stretch of the log (a trip at a time).', [{ path: 'file', message: 'at most 10 MB' }]);
 
-/** Reads the body with a hard size limit (a missing or false Content-Length cannot get past it). */
-async function readBody(request: Request): Promise<Uint8Array> {
-  if (Number(request.headers.get('content-length') ?? '0') > MAX_BODY_BYTES) throw tooLarge();
-  const reader = request.body?.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const part = reader ? await reader.read() : { done: true as const, value: undefined };
-    if (part.done) break;
-    total += part.value.byteLength;
-    if (total > MAX_BODY_BYTES) {
-      await reader?.cancel().catch(() => {});
-      throw tooLarge();
-    }
-    chunks.push(part.value);
-  }
-  return Buffer.concat(chunks);
-}
-
 interface Upload {
   fileName: string;
   bytes: Uint8Array;
@@ -51,7 +32,7 @@ async function readUpload(request: Request): Promise<Upload> {
       { path: '(headers).content-type', message: `expected multipart/form-data, got ${type ? `"${type.slice(0, 60)}"` : 'none'}` },
     ]);
   }
-  const body = await readBody(request);
+  const body = await readLimited(request, MAX_BODY_BYTES, tooLarge);
   let form: FormData;
   try {
     form = await new Response(Buffer.from(body), { headers: { 'content-type': type } }).formData();

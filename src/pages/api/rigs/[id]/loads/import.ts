@@ -3,7 +3,7 @@ import { rigAccess } from '../../../../../server/access';
 import { parseLoadsCsv } from '../../../../../server/csv';
 import { db } from '../../../../../server/db';
 import { HttpError } from '../../../../../server/errors';
-import { json, parseWith, readJson, requireUser, route } from '../../../../../server/http';
+import { json, parseWith, readJson, readLimited, requireUser, route } from '../../../../../server/http';
 import { countLoads, importLoads } from '../../../../../server/loads';
 import { LIMITS } from '../../../../../engine/schema';
 
@@ -29,21 +29,7 @@ async function readCsv(request: Request): Promise<string> {
     return csv;
   }
   if (/^(text\/csv|application\/csv|text\/plain)\b/.test(type)) {
-    if (Number(request.headers.get('content-length') ?? '0') > MAX_CSV_BYTES) throw tooLarge();
-    const reader = request.body?.getReader();
-    const chunks: Uint8Array[] = [];
-    let total = 0;
-    for (;;) {
-      const part = reader ? await reader.read() : { done: true as const, value: undefined };
-      if (part.done) break;
-      total += part.value.byteLength;
-      if (total > MAX_CSV_BYTES) {
-        await reader?.cancel().catch(() => {});
-        throw tooLarge();
-      }
-      chunks.push(part.value);
-    }
-    return decodeText(Buffer.concat(chunks));
+    return decodeText(await readLimited(request, MAX_CSV_BYTES, tooLarge));
   }
   throw new HttpError('unsupported_media_type', 'Send the CSV as text/csv, or as JSON { "csv": "…" }.', [
     { path: '(headers).content-type', message: `expected text/csv or application/json, got ${type ? `"${type.slice(0, 60)}"` : 'none'}` },
