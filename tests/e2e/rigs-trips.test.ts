@@ -101,6 +101,28 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     expect(saved.inverter).toMatchObject({ efficiencyPct: 90, idleWatts: 12 });
   });
 
+  it('keeps the camper’s rig edit off another version: shows both, and takes theirs when asked', async () => {
+    await page.getByRole('navigation', { name: 'Rig sections' }).getByRole('link', { name: 'Power system' }).click();
+    await page.getByLabel('Rig name').fill('Van, my name');
+    const current = await (await page.request.get(`${baseUrl()}/api/rigs/${rigId}`)).json();
+    const other = await page.request.patch(`${baseUrl()}/api/rigs/${rigId}`, { headers: origin(), data: { version: current.version, name: 'Van, their name' } });
+    expect(other.status()).toBe(200);
+    await page.getByRole('button', { name: 'Save power system' }).click();
+    const notice = page.locator('[data-conflict]');
+    await notice.waitFor();
+    await expect(notice.textContent()).resolves.toContain('Van, their name');
+    await expect(notice.textContent()).resolves.toContain('Van, my name');
+    await notice.getByRole('button', { name: 'Take theirs' }).click();
+    await expect.poll(() => page.getByLabel('Rig name').inputValue()).toBe('Van, their name');
+    const after = await (await page.request.get(`${baseUrl()}/api/rigs/${rigId}`)).json();
+    expect(after).toMatchObject({ name: 'Van, their name', version: current.version + 1 });
+    // Back to the name the rest of this walk-through expects, saved as the camper would.
+    await page.getByLabel('Rig name').fill('Van');
+    await page.getByRole('button', { name: 'Save power system' }).click();
+    await page.getByText('Saved.', { exact: true }).first().waitFor();
+    await page.getByRole('navigation', { name: 'Rig sections' }).getByRole('link', { name: 'Loads' }).click();
+  });
+
   it('adds loads from the catalogue after the camper confirms the number', async () => {
     await page.getByText('No loads yet').waitFor();
     await page.getByRole('button', { name: '+ From the catalogue' }).click();

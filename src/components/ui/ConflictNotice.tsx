@@ -1,4 +1,4 @@
-import type { ReactNode } from 'react';
+import { useState, type MutableRefObject, type ReactNode } from 'react';
 import { formatDistanceToNowStrict } from 'date-fns';
 
 interface ConflictNoticeProps {
@@ -28,4 +28,20 @@ export function ConflictNotice({ what, theirs, onKeepMine, onTakeTheirs, busy, c
       </div>
     </div>
   );
+}
+
+/**
+ * The conflict state of an editor of a versioned row: `keepMine` sends the camper's edit again on
+ * top of the version someone else saved (which the 409 carried); taking theirs is the editor's own
+ * "saved" step with `conflict.current`.
+ */
+export function useConflict<Row extends { version: number }, Mine>(version: MutableRefObject<number>, resend: (mine: Mine) => void) {
+  const [conflict, setConflict] = useState<{ current: Row; mine: Mine } | null>(null);
+  const keepMine = () => {
+    if (!conflict) return;
+    version.current = conflict.current.version;
+    setConflict(null);
+    resend(conflict.mine);
+  };
+  return { conflict, setConflict, keepMine };
 }

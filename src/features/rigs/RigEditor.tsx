@@ -6,14 +6,15 @@ import { CHEMISTRIES, type Chemistry } from '../../engine/schema';
 import type { RigDto } from '../../schemas/rigs';
 import { Field, describedBy } from '../../components/ui/Field';
 import { NumberField } from '../../components/ui/NumberField';
-import { ConflictNotice } from '../../components/ui/ConflictNotice';
-import { applyServerIssues, asNumber, asNumberOrNull, errorAt, fieldId } from '../../components/ui/form';
-import { ApiError, isConflict, type ApiIssue } from '../../lib/query-client';
+import { ConflictNotice, useConflict } from '../../components/ui/ConflictNotice';
+import { asNumber, asNumberOrNull, errorAt, fieldId } from '../../components/ui/form';
+import { isConflict } from '../../lib/query-client';
 import { CHEMISTRY_LABELS, formatNumber, plural, rigSummary } from '../../lib/format';
 import { createRig, deleteRig, updateRig } from './rigs.api';
 import { rigKeys } from './rigs.queries';
 import { CHARGER_KINDS, emptyRig, newArray, newCharger, rigFormSchema, rigToForm, type RigFormOutput, type RigFormValues } from './rig-form';
 import { COMPASS, CHEMISTRY_PRESETS, MOUNTINGS, applyMounting, maxChargeAmpsFor, mountingOf, nominalForChemistry, presetBank, seriesParallel, type Mounting } from './presets';
+import { FormProblemBox, handleSaveError, type FormProblem } from '../../components/ui/SaveProblems';
 
 interface RigEditorProps {
   rig?: RigDto;
@@ -32,11 +33,11 @@ const numOrNull = { setValueAs: asNumberOrNull };
 /** The power-system form: bank (with chemistry presets and a series/parallel helper), solar arrays, chargers, inverter. */
 export function RigEditor({ rig }: RigEditorProps) {
   const qc = useQueryClient();
-  const [formError, setFormError] = useState<{ message: string; issues: ApiIssue[] } | null>(null);
-  const [conflict, setConflict] = useState<{ current: RigDto; mine: RigFormOutput } | null>(null);
+  const [formError, setFormError] = useState<FormProblem | null>(null);
   const [savedAt, setSavedAt] = useState<Date | null>(null);
   const [presetNote, setPresetNote] = useState<string | null>(null);
   const version = useRef(rig?.version ?? 0);
+  const { conflict, setConflict, keepMine } = useConflict<RigDto, RigFormOutput>(version, (again) => save.mutate(again));
   const readOnly = rig?.canEdit === false;
 
   const form = useForm<RigFormValues, unknown, RigFormOutput>({
@@ -77,19 +78,7 @@ export function RigEditor({ rig }: RigEditorProps) {
       }
       saved(next);
     },
-    onError: (err, values) => {
-      if (isConflict(err)) {
-        const current = err.current<RigDto>();
-        if (current) {
-          setConflict({ current, mine: values });
-          return;
-        }
-      }
-      if (err instanceof ApiError) {
-        const loose = applyServerIssues(err.issues, setError);
-        setFormError({ message: err.message, issues: loose });
-      } else setFormError({ message: 'Could not save the rig. Try again.', issues: [] });
-    },
+    onError: (err, values) => handleSaveError<RigDto, typeof values, typeof values>(err, values, 'rig', { conflict: setConflict, problem: setFormError, setError }),
   });
 
   const remove = useMutation({
@@ -150,28 +139,14 @@ export function RigEditor({ rig }: RigEditorProps) {
 
   return (
     <form onSubmit={onSubmit} noValidate aria-label={rig ? `Power system of ${rig.name}` : 'New rig'} className="space-y-5">
-      {formError ? (
-        <div role="alert" className="caution">
-          <p className="font-bold text-alert">{formError.message}</p>
-          {formError.issues.length ? (
-            <ul className="mt-1 list-disc pl-5">
-              {formError.issues.map((i) => <li key={i.path + i.message}><code>{i.path}</code>: {i.message}</li>)}
-            </ul>
-          ) : null}
-        </div>
-      ) : null}
+      <FormProblemBox problem={formError} />
 
       {conflict ? (
         <ConflictNotice
           what="rig"
           theirs={conflict.current}
           busy={save.isPending}
-          onKeepMine={() => {
-            version.current = conflict.current.version;
-            const mine = conflict.mine;
-            setConflict(null);
-            save.mutate(mine);
-          }}
+          onKeepMine={keepMine}
           onTakeTheirs={() => saved(conflict.current)}
         >
           <dl className="mt-2 grid grid-cols-[5rem_1fr] gap-x-3 text-sm">

@@ -7,9 +7,9 @@ import type { RigDto } from '../../schemas/rigs';
 import { Field, describedBy } from '../../components/ui/Field';
 import { NumberField } from '../../components/ui/NumberField';
 import { TemperatureInput } from '../../components/ui/TemperatureInput';
-import { ConflictNotice } from '../../components/ui/ConflictNotice';
-import { applyServerIssues, asNumber, asNumberOrNull, errorAt, fieldId } from '../../components/ui/form';
-import { ApiError, isConflict, type ApiIssue } from '../../lib/query-client';
+import { ConflictNotice, useConflict } from '../../components/ui/ConflictNotice';
+import { asNumber, asNumberOrNull, errorAt, fieldId } from '../../components/ui/form';
+import { isConflict } from '../../lib/query-client';
 import { formatDate, formatHour, formatNumber, rigSummary } from '../../lib/format';
 import { formatTemp, type Units } from '../../lib/units';
 import { rigsQuery } from '../rigs/rigs.queries';
@@ -17,6 +17,7 @@ import { PlaceSearch } from './PlaceSearch';
 import { createTrip, deleteTrip, updateTrip } from './trips.api';
 import { timeZoneQuery, tripKeys } from './trips.queries';
 import { describeSpan, emptyTrip, newDrive, newStop, stopDays, tripFormSchema, tripSpan, tripToForm, type TripFormOutput, type TripFormValues } from './trip-form';
+import { FormProblemBox, handleSaveError, type FormProblem } from '../../components/ui/SaveProblems';
 
 type Ctx = {
   register: UseFormRegister<TripFormValues>;
@@ -50,11 +51,11 @@ function TimeZoneList() {
 export function TripEditor({ trip, units, initialRigId, initialRigs, onClose }: { trip?: TripDto; units: Units; initialRigId?: string; initialRigs?: RigDto[]; onClose?: () => void }) {
   const qc = useQueryClient();
   const rigs = useQuery({ ...rigsQuery(), initialData: initialRigs });
-  const [formError, setFormError] = useState<{ message: string; issues: ApiIssue[] } | null>(null);
-  const [conflict, setConflict] = useState<{ current: TripDto; mine: TripFormOutput } | null>(null);
+  const [formError, setFormError] = useState<FormProblem | null>(null);
   const [savedAt, setSavedAt] = useState<Date | null>(null);
   const [confirmDelete, setConfirmDelete] = useState(false);
   const version = useRef(trip?.version ?? 0);
+  const { conflict, setConflict, keepMine } = useConflict<TripDto, TripFormOutput>(version, (again) => save.mutate(again));
   const readOnly = trip?.canEdit === false;
 
   const form = useForm<TripFormValues, unknown, TripFormOutput>({
@@ -96,16 +97,7 @@ export function TripEditor({ trip, units, initialRigId, initialRigs, onClose }: 
       }
       saved(next);
     },
-    onError: (err, values) => {
-      if (isConflict(err)) {
-        const current = err.current<TripDto>();
-        if (current) return setConflict({ current, mine: values });
-      }
-      if (err instanceof ApiError) {
-        const loose = applyServerIssues(err.issues, setError);
-        setFormError({ message: err.message, issues: loose });
-      } else setFormError({ message: 'Could not save the trip. Try again.', issues: [] });
-    },
+    onError: (err, values) => handleSaveError<TripDto, typeof values, typeof values>(err, values, 'trip', { conflict: setConflict, problem: setFormError, setError }),
   });
 
   const remove = useMutation({
@@ -153,25 +145,13 @@ export function TripEditor({ trip, units, initialRigId, initialRigs, onClose }: 
       </div>
 
       {readOnly ? <p className="caution">You can view this trip. A crew owner or editor can change it.</p> : null}
-      {formError ? (
-        <div role="alert" className="caution">
-          <p className="font-bold text-alert">{formError.message}</p>
-          {formError.issues.length ? (
-            <ul className="mt-1 list-disc pl-5">{formError.issues.map((i) => <li key={i.path + i.message}><code>{i.path}</code>: {i.message}</li>)}</ul>
-          ) : null}
-        </div>
-      ) : null}
+      <FormProblemBox problem={formError} />
       {conflict ? (
         <ConflictNotice
           what="trip"
           theirs={conflict.current}
           busy={save.isPending}
-          onKeepMine={() => {
-            version.current = conflict.current.version;
-            const mine = conflict.mine;
-            setConflict(null);
-            save.mutate(mine);
-          }}
+          onKeepMine={keepMine}
           onTakeTheirs={() => saved(conflict.current)}
         >
           <dl className="mt-2 grid grid-cols-[5rem_1fr] gap-x-3 text-sm">
