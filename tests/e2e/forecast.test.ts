@@ -90,7 +90,8 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('forecasts in Chromium a
     await page.getByTestId('advice-changes').or(page.getByText('No single change stands out')).first().waitFor({ timeout: 20_000 });
     // The hour-by-hour table is built when opened.
     await page.getByTestId('hourly-details').locator('summary').click();
-    expect(await page.getByTestId('hourly-table').locator('tbody tr').count()).toBeGreaterThan(100);
+    await page.getByTestId('hourly-table').locator('tbody tr').nth(100).waitFor();
+    expect(await page.getByTestId('hourly-table').locator('tbody tr').count()).toBe(await page.getByTestId('hourly-details').locator('summary').textContent().then((t) => Number(/\((\d+) hours\)/.exec(t ?? '')?.[1])));
   });
 
   it('downloads the hourly CSV', async () => {
