@@ -3,6 +3,7 @@
 import os from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { forecast, prepareTrip, runForecast, simulatePrepared, toForecast, validatePlan, type Plan, type ResolvedPlan } from '../src/engine/index';
+import { TEST_PRICES } from '../tests/helpers/prices';
 
 /** A trip of `days` nights over three stops, with 3 arrays, 4 chargers and 40 loads. */
 export function benchPlan(days: number): Plan {
@@ -186,17 +187,7 @@ console.log(`  prepare + ${combos.length} simulations: median ${ms(combo)}   [ta
     dcdcAmps: [20, 40, 60],
     generatorHours: [2],
   });
-  const prices = priceListSchema.parse({
-    currency: 'USD',
-    bankPerAh: { lifepo4: 5, agm: 2, flooded: 1.5, gel: 2.5 },
-    bankInstall: 100,
-    panelPerWatt: 1,
-    arrayInstall: { flat: 200, tilted: 260, portable: 150 },
-    dcdcPerAmp: 8,
-    dcdcInstall: 120,
-    generator: 900,
-    generatorPerHour: 2,
-  });
+  const prices = priceListSchema.parse(TEST_PRICES);
   const runs = countCombinations(candidates) + 1;
   const t = time(() => void runSweep({ plan: plan14, reserveSocPct: 30, candidates, prices }), 10, 2);
   const r = runSweep({ plan: plan14, reserveSocPct: 30, candidates, prices });

@@ -1,10 +1,6 @@
 import autocannon from 'autocannon';
 import Database from 'better-sqlite3';
-import { execFileSync } from 'node:child_process';
-import { randomBytes } from 'node:crypto';
 import os from 'node:os';
-import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { DEMO_ACCOUNTS } from '../db/seed';
 import { demoPlan } from '../src/engine';
 
@@ -22,7 +18,6 @@ import { demoPlan } from '../src/engine';
  * acknowledged version and, when at it, with that write's watts.
  */
 
-const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const SECONDS = Number(process.env.LOADTEST_SECONDS ?? 10);
 const CONNECTIONS = Number(process.env.LOADTEST_CONNECTIONS ?? 10);
 const EDITORS = 5;
@@ -31,19 +26,10 @@ const BASE_LOADS = 10;
 // The same harness as the integration tests: build once, a throw-away migrated database, the
 // built server on a free loopback port (rate limits off), then the demo crew seeded into it.
 process.env.SUNRECKON_DIST ??= '.dist-loadtest';
-const { buildOnce, cleanup, startServer } = await import('../tests/helpers/server');
-if (process.env.SUNRECKON_PREBUILT !== '1') console.log(`Building into ${process.env.SUNRECKON_DIST} …`);
-buildOnce();
-const server = await startServer({ BETTER_AUTH_SECRET: randomBytes(24).toString('hex') });
+const { startDemoServer } = await import('../tests/helpers/server');
+const { server, shutdown } = await startDemoServer();
 const { url, dbPath } = server;
-execFileSync('npx', ['tsx', 'db/seed.ts'], { cwd: ROOT, env: { ...process.env, DATABASE_PATH: dbPath }, stdio: 'pipe' });
 let failed = false;
-
-async function shutdown(code: number): Promise<never> {
-  await server.stop();
-  cleanup(server.dir);
-  process.exit(code);
-}
 process.on('SIGINT', () => void shutdown(130));
 
 try {

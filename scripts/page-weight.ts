@@ -1,12 +1,9 @@
 import Database from 'better-sqlite3';
 import * as chromeLauncher from 'chrome-launcher';
 import lighthouse from 'lighthouse';
-import { execFileSync } from 'node:child_process';
-import { randomBytes } from 'node:crypto';
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import os, { tmpdir } from 'node:os';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { gzipSync } from 'node:zlib';
 import { DEMO_ACCOUNTS } from '../db/seed';
 import { launch } from '../tests/helpers/browser';
@@ -22,25 +19,15 @@ import { launch } from '../tests/helpers/browser';
  * it exits 0 whatever the scores, and 1 only when a page cannot be measured.
  */
 
-const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const CHROMIUM = process.env.CHROME_PATH ?? '/usr/bin/chromium';
 const FLAGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
 
 // The same harness as the integration tests: build once, a throw-away migrated database, the
 // built server on a free loopback port (rate limits off), then the demo crew seeded into it.
 process.env.SUNRECKON_DIST ??= '.dist-pageweight';
-const { buildOnce, cleanup, startServer } = await import('../tests/helpers/server');
-if (process.env.SUNRECKON_PREBUILT !== '1') console.log(`Building into ${process.env.SUNRECKON_DIST} …`);
-buildOnce();
-const server = await startServer({ BETTER_AUTH_SECRET: randomBytes(24).toString('hex') });
+const { startDemoServer } = await import('../tests/helpers/server');
+const { server, shutdown } = await startDemoServer();
 const { url, dbPath } = server;
-execFileSync('npx', ['tsx', 'db/seed.ts'], { cwd: ROOT, env: { ...process.env, DATABASE_PATH: dbPath }, stdio: 'pipe' });
-
-async function shutdown(code: number): Promise<never> {
-  await server.stop();
-  cleanup(server.dir);
-  process.exit(code);
-}
 
 interface PageFigures {
   name: string;

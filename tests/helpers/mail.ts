@@ -1,16 +1,10 @@
 import Database from 'better-sqlite3';
+import type { Selectable } from 'kysely';
 import { inject } from 'vitest';
+import type { CaughtMailTable } from '../../db/schema';
 
-export interface Caught {
-  id: number;
-  message_id: string | null;
-  from_address: string;
-  to_address: string;
-  subject: string;
-  text_body: string;
-  html_body: string;
-  received_at: string;
-}
+/** A stored message, as the catcher's table holds it. */
+export type Caught = Selectable<CaughtMailTable>;
 
 /** Every message the real SMTP catcher stored for an address (in the given database, else the shared test one). */
 export function caughtFor(to: string, dbPath = inject('dbPath')): Caught[] {

@@ -1,6 +1,7 @@
 import type { Session } from './api';
 import { uniqueEmail } from './api';
 import { LOAD_INPUT, TRIP_INPUT } from './crew';
+import { TEST_PRICES } from './prices';
 
 /**
  * Every API route of the app, with the status each kind of caller must get. The authorization
@@ -93,18 +94,6 @@ const DECIDE = (ok: number): Expect => ({ anonymous: 401, owner: ok, editor: 403
 /** An installer account's own price list. */
 const INSTALLER_ACCOUNT = (ok: number): Expect => ({ ...signedIn(403), installer: ok, stranger: ok });
 
-/** A price list for sweeps and proposals in the matrix (invented test prices). */
-export const TEST_PRICES = {
-  currency: 'USD',
-  bankPerAh: { lifepo4: 5, agm: 2.2, flooded: 1.5, gel: 2.5 },
-  bankInstall: 100,
-  panelPerWatt: 1,
-  arrayInstall: { flat: 200, tilted: 260, portable: 150 },
-  dcdcPerAmp: 8,
-  dcdcInstall: 120,
-  generator: 900,
-  generatorPerHour: 2,
-};
 
 /** A two-reading monitor log in our generic layout, as a multipart upload (with the confirmed mapping when saving). */
 export function monitorLogUpload(withMapping: boolean): { contentType: string; body: string } {
@@ -252,3 +241,5 @@ export const LISTS: { url: string; find: (body: unknown, w: World) => boolean; v
   { url: '/api/proposals', find: (b, w) => Array.isArray(b) && (b as { id: string }[]).some((p) => p.id === w.proposal.id), visibleTo: ['owner', 'editor', 'viewer', 'installer'] },
   { url: '/api/installer/rigs', find: (b, w) => Array.isArray(b) && (b as { rigId: string }[]).some((r) => r.rigId === w.rig.id), visibleTo: ['installer'] },
 ];
+
+export { TEST_PRICES };

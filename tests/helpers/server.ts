@@ -1,4 +1,5 @@
 import { spawn, execFileSync, type ChildProcess } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
@@ -94,4 +95,22 @@ export async function startServer(extraEnv: Record<string, string> = {}, reuse?:
 /** Removes a server's throw-away folder. */
 export function cleanup(dir: string): void {
   rmSync(dir, { recursive: true, force: true });
+}
+
+/**
+ * For the measuring scripts (load test, page weight): builds into SUNRECKON_DIST unless prebuilt,
+ * starts the server on a throw-away database with a random secret (rate limits off), seeds the
+ * invented demo crew into it, and gives a shutdown that stops the server, removes its folder and exits.
+ */
+export async function startDemoServer(): Promise<{ server: RunningServer; shutdown: (code: number) => Promise<never> }> {
+  if (process.env.SUNRECKON_PREBUILT !== '1') console.log(`Building into ${DIST} …`);
+  buildOnce();
+  const server = await startServer({ BETTER_AUTH_SECRET: randomBytes(24).toString('hex') });
+  execFileSync('npx', ['tsx', 'db/seed.ts'], { cwd: ROOT, env: { ...process.env, DATABASE_PATH: server.dbPath }, stdio: 'pipe' });
+  const shutdown = async (code: number): Promise<never> => {
+    await server.stop();
+    cleanup(server.dir);
+    process.exit(code);
+  };
+  return { server, shutdown };
 }

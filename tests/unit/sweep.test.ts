@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { demoPlan, prepareTrip, validatePlan, type Plan, type ResolvedPlan } from '../../src/engine';
 import { candidatesSchema, changesSchema, countCombinations, priceListSchema, type Candidates, type PriceList } from '../../src/proposals/schema';
+import { TEST_PRICES } from '../helpers/prices';
 import { applyChanges, bankFrom, chargersFrom, forecastAfter, runSweep } from '../../src/proposals/sweep';
 
 function resolved(p: Plan): ResolvedPlan {
@@ -9,17 +10,7 @@ function resolved(p: Plan): ResolvedPlan {
   return v.plan;
 }
 
-const PRICES: PriceList = priceListSchema.parse({
-  currency: 'USD',
-  bankPerAh: { lifepo4: 5, agm: 2.2, flooded: 1.5, gel: 2.5 },
-  bankInstall: 100,
-  panelPerWatt: 1,
-  arrayInstall: { flat: 200, tilted: 260, portable: 150 },
-  dcdcPerAmp: 8,
-  dcdcInstall: 120,
-  generator: 900,
-  generatorPerHour: 2,
-});
+const PRICES: PriceList = priceListSchema.parse(TEST_PRICES);
 
 // A week of polar night at 78.2° N (Longyearbyen, 10–17 December): the sun stays more than 8.5°
 // below the horizon all day, so no panel harvests anything and the answer is arithmetic. One DC
