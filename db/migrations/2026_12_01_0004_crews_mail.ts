@@ -4,6 +4,22 @@ import { sql, type Kysely } from 'kysely';
 // rig, each user's chosen crew, and the outbox every e-mail passes through. The dev mail catcher's
 // own table is created here too (IF NOT EXISTS) so the /dev/mail page can always query it; the
 // catcher creates it the same way when it starts before the migrations have run.
+/**
+ * The local SMTP catcher's table (development, demo and tests). Exported so the catcher, which may
+ * start before the migrations have run, creates exactly this table.
+ */
+export const CAUGHT_MAIL_TABLE = sql`
+  create table if not exists caught_mail (
+    id integer primary key autoincrement,
+    message_id text,
+    from_address text not null,
+    to_address text not null,
+    subject text not null,
+    text_body text not null,
+    html_body text not null,
+    received_at text not null
+  )`;
+
 export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.alterTable('crew_members').addColumn('version', 'integer', (c) => c.notNull().defaultTo(1)).execute();
 
@@ -63,17 +79,7 @@ export async function up(db: Kysely<any>): Promise<void> {
     .execute();
   await db.schema.createIndex('outbox_due_idx').on('outbox').columns(['status', 'next_attempt_at']).execute();
 
-  await sql`
-    create table if not exists caught_mail (
-      id integer primary key autoincrement,
-      message_id text,
-      from_address text not null,
-      to_address text not null,
-      subject text not null,
-      text_body text not null,
-      html_body text not null,
-      received_at text not null
-    )`.execute(db);
+  await CAUGHT_MAIL_TABLE.execute(db);
 }
 
 export async function down(db: Kysely<any>): Promise<void> {

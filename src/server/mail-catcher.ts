@@ -1,9 +1,9 @@
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { sql } from 'kysely';
 import { simpleParser, type AddressObject } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 import { createDb, DEFAULT_DATABASE_PATH } from '../../db/client';
+import { CAUGHT_MAIL_TABLE } from '../../db/migrations/2026_12_01_0004_crews_mail';
 
 // The local mail catcher for development, the demo and the tests: a real SMTP server on loopback
 // that accepts every message and stores it in the `caught_mail` table of the app's SQLite file,
@@ -25,18 +25,8 @@ function addresses(a: AddressObject | AddressObject[] | undefined): string {
 /** Starts the catcher on 127.0.0.1 (port 0 picks a free one) writing into the SQLite file at `dbPath`. */
 export async function startMailCatcher(opts: { dbPath: string; port?: number; quiet?: boolean }): Promise<MailCatcher> {
   const { db, sqlite } = createDb(opts.dbPath);
-  // Same definition as migration 0004: the catcher may start before the app's migrations run.
-  await sql`
-    create table if not exists caught_mail (
-      id integer primary key autoincrement,
-      message_id text,
-      from_address text not null,
-      to_address text not null,
-      subject text not null,
-      text_body text not null,
-      html_body text not null,
-      received_at text not null
-    )`.execute(db);
+  // The migration's own definition: the catcher may start before the app's migrations run.
+  await CAUGHT_MAIL_TABLE.execute(db);
 
   const server = new SMTPServer({
     // Loopback only, no accounts, no TLS: a sink for development mail.

@@ -368,4 +368,18 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     await page.getByRole('link', { name: /High desert, mine/ }).waitFor();
     await shot(page, `trips-${viewport}`);
   });
+
+  it('deletes the trip only after a second yes', async () => {
+    await page.goto(`${baseUrl()}/trips/${tripId}`);
+    await hydrated(page);
+    await page.getByRole('button', { name: 'Edit the itinerary' }).click();
+    await page.getByRole('button', { name: 'Delete trip…' }).click();
+    await page.getByText('Delete this trip?').waitFor();
+    await page.getByRole('button', { name: 'Cancel' }).click();
+    expect((await page.request.get(`${baseUrl()}/api/trips/${tripId}`)).status()).toBe(200);
+    await page.getByRole('button', { name: 'Delete trip…' }).click();
+    await page.getByRole('button', { name: 'Delete', exact: true }).click();
+    await page.waitForURL('**/trips');
+    expect((await page.request.get(`${baseUrl()}/api/trips/${tripId}`)).status()).toBe(404);
+  });
 });

@@ -1,3 +1,4 @@
+import { useState } from 'react';
 import type { FieldValues, UseFormSetError } from 'react-hook-form';
 import { ApiError, isConflict, type ApiIssue } from '../../lib/query-client';
 import { applyServerIssues } from './form';
@@ -44,4 +45,28 @@ export function handleSaveError<Row, Mine, F extends FieldValues>(
   }
   if (err instanceof ApiError) on.problem({ message: err.message, issues: applyServerIssues(err.issues, on.setError) });
   else on.problem({ message: `Could not save the ${what}. Try again.`, issues: [] });
+}
+
+/** What a refused delete of a versioned row shows: a 409 means someone changed it meanwhile. */
+export function deleteProblem(err: unknown, what: string): FormProblem {
+  if (isConflict(err)) return { message: `Someone changed this ${what} since you opened it. Reload the page to see their changes before deleting it.`, issues: [] };
+  return { message: err instanceof Error ? err.message : `Could not delete the ${what}.`, issues: [] };
+}
+
+/** The foot of an editor: "Delete …" asks once more before it deletes. */
+export function DeleteRow({ label, question, onDelete, busy }: { label: string; question: string; onDelete: () => void; busy: boolean }) {
+  const [asking, setAsking] = useState(false);
+  return (
+    <div className="flex justify-end border-t border-sand-dark pt-4">
+      {asking ? (
+        <span className="flex flex-wrap items-center justify-end gap-2">
+          <span className="text-sm font-semibold">{question}</span>
+          <button type="button" className="btn btn-primary" onClick={onDelete} disabled={busy}>Delete</button>
+          <button type="button" className="btn btn-quiet" onClick={() => setAsking(false)}>Cancel</button>
+        </span>
+      ) : (
+        <button type="button" className="btn btn-quiet" onClick={() => setAsking(true)}>{label}</button>
+      )}
+    </div>
+  );
 }

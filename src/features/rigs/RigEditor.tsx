@@ -8,13 +8,12 @@ import { Field, describedBy } from '../../components/ui/Field';
 import { NumberField } from '../../components/ui/NumberField';
 import { ConflictNotice, useConflict } from '../../components/ui/ConflictNotice';
 import { asNumber, asNumberOrNull, errorAt, fieldId } from '../../components/ui/form';
-import { isConflict } from '../../lib/query-client';
 import { CHEMISTRY_LABELS, formatNumber, plural, rigSummary } from '../../lib/format';
 import { createRig, deleteRig, updateRig } from './rigs.api';
 import { rigKeys } from './rigs.queries';
 import { CHARGER_KINDS, emptyRig, newArray, newCharger, rigFormSchema, rigToForm, type RigFormOutput, type RigFormValues } from './rig-form';
 import { COMPASS, CHEMISTRY_PRESETS, MOUNTINGS, applyMounting, maxChargeAmpsFor, mountingOf, nominalForChemistry, presetBank, seriesParallel, type Mounting } from './presets';
-import { FormProblemBox, handleSaveError, type FormProblem } from '../../components/ui/SaveProblems';
+import { deleteProblem, DeleteRow, FormProblemBox, handleSaveError, type FormProblem } from '../../components/ui/SaveProblems';
 
 interface RigEditorProps {
   rig?: RigDto;
@@ -87,12 +86,8 @@ export function RigEditor({ rig }: RigEditorProps) {
       void qc.invalidateQueries({ queryKey: rigKeys.all });
       window.location.assign('/rigs');
     },
-    onError: (err) => {
-      if (isConflict(err)) setFormError({ message: 'Someone changed this rig since you opened it. Reload the page to see their changes before deleting it.', issues: [] });
-      else setFormError({ message: err instanceof Error ? err.message : 'Could not delete the rig.', issues: [] });
-    },
+    onError: (err) => setFormError(deleteProblem(err, 'rig')),
   });
-  const [confirmDelete, setConfirmDelete] = useState(false);
 
   const onSubmit = handleSubmit(
     (values) => {
@@ -294,19 +289,7 @@ export function RigEditor({ rig }: RigEditorProps) {
           {rig && isDirty && !busy ? <span className="text-sm text-slate-text">Unsaved changes</span> : null}
         </div>
       ) : null}
-      {rig && !readOnly ? (
-        <div className="flex justify-end border-t border-sand-dark pt-4">
-          {confirmDelete ? (
-            <span className="flex flex-wrap items-center justify-end gap-2">
-              <span className="text-sm font-semibold">Delete {rig.name} and its loads?</span>
-              <button type="button" className="btn btn-primary" onClick={() => remove.mutate()} disabled={remove.isPending}>Delete</button>
-              <button type="button" className="btn btn-quiet" onClick={() => setConfirmDelete(false)}>Cancel</button>
-            </span>
-          ) : (
-            <button type="button" className="btn btn-quiet" onClick={() => setConfirmDelete(true)}>Delete rig…</button>
-          )}
-        </div>
-      ) : null}
+      {rig && !readOnly ? <DeleteRow label="Delete rig…" question={`Delete ${rig.name} and its loads?`} onDelete={() => remove.mutate()} busy={remove.isPending} /> : null}
     </form>
   );
 }

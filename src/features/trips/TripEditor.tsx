@@ -9,7 +9,6 @@ import { NumberField } from '../../components/ui/NumberField';
 import { TemperatureInput } from '../../components/ui/TemperatureInput';
 import { ConflictNotice, useConflict } from '../../components/ui/ConflictNotice';
 import { asNumber, asNumberOrNull, errorAt, fieldId } from '../../components/ui/form';
-import { isConflict } from '../../lib/query-client';
 import { formatDate, formatHour, formatNumber, rigSummary } from '../../lib/format';
 import { formatTemp, type Units } from '../../lib/units';
 import { rigsQuery } from '../rigs/rigs.queries';
@@ -17,7 +16,7 @@ import { PlaceSearch } from './PlaceSearch';
 import { createTrip, deleteTrip, updateTrip } from './trips.api';
 import { timeZoneQuery, tripKeys } from './trips.queries';
 import { describeSpan, emptyTrip, newDrive, newStop, stopDays, tripFormSchema, tripSpan, tripToForm, type TripFormOutput, type TripFormValues } from './trip-form';
-import { FormProblemBox, handleSaveError, type FormProblem } from '../../components/ui/SaveProblems';
+import { deleteProblem, DeleteRow, FormProblemBox, handleSaveError, type FormProblem } from '../../components/ui/SaveProblems';
 
 type Ctx = {
   register: UseFormRegister<TripFormValues>;
@@ -53,7 +52,6 @@ export function TripEditor({ trip, units, initialRigId, initialRigs, onClose }: 
   const rigs = useQuery({ ...rigsQuery(), initialData: initialRigs });
   const [formError, setFormError] = useState<FormProblem | null>(null);
   const [savedAt, setSavedAt] = useState<Date | null>(null);
-  const [confirmDelete, setConfirmDelete] = useState(false);
   const version = useRef(trip?.version ?? 0);
   const { conflict, setConflict, keepMine } = useConflict<TripDto, TripFormOutput>(version, (again) => save.mutate(again));
   const readOnly = trip?.canEdit === false;
@@ -106,11 +104,7 @@ export function TripEditor({ trip, units, initialRigId, initialRigs, onClose }: 
       void qc.invalidateQueries({ queryKey: tripKeys.all });
       window.location.assign('/trips');
     },
-    onError: (err) =>
-      setFormError({
-        message: isConflict(err) ? 'Someone changed this trip since you opened it. Reload the page to see their changes before deleting it.' : err instanceof Error ? err.message : 'Could not delete the trip.',
-        issues: [],
-      }),
+    onError: (err) => setFormError(deleteProblem(err, 'trip')),
   });
 
   const onSubmit = handleSubmit(
@@ -216,19 +210,7 @@ export function TripEditor({ trip, units, initialRigId, initialRigs, onClose }: 
           {onClose ? <button type="button" className="btn btn-quiet ml-auto" onClick={close} disabled={busy}>Close the editor</button> : null}
         </div>
       ) : null}
-      {trip && !readOnly ? (
-        <div className="flex justify-end border-t border-sand-dark pt-4">
-          {confirmDelete ? (
-            <span className="flex flex-wrap items-center justify-end gap-2">
-              <span className="text-sm font-semibold">Delete this trip?</span>
-              <button type="button" className="btn btn-primary" onClick={() => remove.mutate()} disabled={remove.isPending}>Delete</button>
-              <button type="button" className="btn btn-quiet" onClick={() => setConfirmDelete(false)}>Cancel</button>
-            </span>
-          ) : (
-            <button type="button" className="btn btn-quiet" onClick={() => setConfirmDelete(true)}>Delete trip…</button>
-          )}
-        </div>
-      ) : null}
+      {trip && !readOnly ? <DeleteRow label="Delete trip…" question="Delete this trip?" onDelete={() => remove.mutate()} busy={remove.isPending} /> : null}
     </form>
   );
 }

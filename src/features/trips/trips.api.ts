@@ -1,6 +1,7 @@
 // Plain fetchers for trips, place search and time zones; hooks live in trips.queries.ts and the islands.
 import { apiFetch } from '../../lib/query-client';
 import type { TripDto, TripInput, TripPatch } from '../../schemas/trips';
+import type { Place } from '../../server/places';
 
 /** The trips on the user's crews' rigs (one rig's with `rigId`). */
 export const fetchTrips = (rigId?: string) => apiFetch<TripDto[]>(`/api/trips${rigId ? `?rigId=${encodeURIComponent(rigId)}` : ''}`);
@@ -17,15 +18,8 @@ export const updateTrip = (id: string, patch: TripPatch) => apiFetch<TripDto>(`/
 /** Deletes a trip as of the version read. */
 export const deleteTrip = (id: string, version: number) => apiFetch<void>(`/api/trips/${encodeURIComponent(id)}?version=${version}`, { method: 'DELETE' });
 
-export interface Place {
-  name: string;
-  country: string;
-  adminCode: string;
-  lat: number;
-  lon: number;
-  population: number;
-  timeZone: string;
-}
+// A place is the server module's type (type-only import: nothing of the server reaches the bundle).
+export type { Place };
 
 /** Places whose name starts with `q`, most populous first. */
 export const fetchPlaces = (q: string, signal?: AbortSignal) => apiFetch<Place[]>(`/api/places?q=${encodeURIComponent(q)}`, { signal });
