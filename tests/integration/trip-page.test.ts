@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { api, signUp, type Session } from '../helpers/api';
-import { activeCrew, makeRig, member, TRIP_INPUT } from '../helpers/crew';
+import { activeCrew, makeRig, member, RIG_INPUT, TRIP_INPUT } from '../helpers/crew';
 
 // The trip page is drawn on the server with the trip, the saved forecasts and the check-ins in it.
 // Each island render gets its own query cache there: one visitor's page must never show another's
@@ -9,6 +9,7 @@ import { activeCrew, makeRig, member, TRIP_INPUT } from '../helpers/crew';
 let owner: Session;
 let viewer: Session;
 let tripId: string;
+let rigId: string;
 
 async function page(s: Session): Promise<string> {
   const res = await api(`/trips/${tripId}`, { session: s });
@@ -21,6 +22,7 @@ beforeAll(async () => {
   const crew = await activeCrew(owner);
   viewer = await member(owner, crew.id, 'viewer', 'Page viewer');
   const rig = await makeRig(owner);
+  rigId = rig.id;
   const res = await api('/api/trips', { method: 'POST', session: owner, json: TRIP_INPUT(rig.id) });
   expect(res.status).toBe(201);
   tripId = (await res.json()).id;
@@ -48,6 +50,16 @@ describe('the trip page as the server sends it', () => {
     expect(seen).toContain('You can view this trip');
     expect(seen).not.toContain('Check in at camp');
     expect(await page(owner)).toContain('Edit the itinerary');
+  });
+
+  it('names the trip’s rig to an installer it was granted to, who is in none of its crews, and offers no editor', async () => {
+    const installer = await signUp({ kind: 'installer', name: 'Page installer' });
+    const g = await api(`/api/rigs/${rigId}/grants`, { method: 'POST', session: owner, json: { email: installer.email } });
+    expect(g.status).toBe(201);
+    const html = await page(installer);
+    expect(html).toContain('Mesa camp');
+    expect(html).toContain(RIG_INPUT.name);
+    expect(html).not.toContain('Edit the itinerary');
   });
 
   it('tells a stranger nothing about the trip', async () => {

@@ -51,7 +51,7 @@ export function TripSummary({ trip, rigs, units, onEdit, editorLoading = false }
                 <span className="block text-sm text-slate-text">{rigSummary(rig)}</span>
               </>
             ) : (
-              'A rig of your crew'
+              'This trip’s rig'
             )}
           </dd>
           <dt className="font-bold">Reserve</dt>
