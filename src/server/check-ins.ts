@@ -1,9 +1,8 @@
 import type { Kysely } from 'kysely';
 import type { CheckInRow, DB, RigRow, TripRow } from '../../db/schema';
 import { validatePlan, type ResolvedPlan } from '../engine';
-import { socFromRestingVolts } from '../checkin/ocv';
-import { outcomeOf, reforecastFrom } from '../checkin/reforecast';
-import type { CheckInDto, CheckInOutcome, CheckInValues, PreviousOutcome } from '../checkin/schema';
+import { previousOf, reforecastReading } from '../domain/checkins/checkins';
+import type { CheckInDto, CheckInOutcome, CheckInValues, PreviousOutcome } from '../domain/checkins/checkins.schema';
 import { tripAccess, type Actor, type Need, type RigGrant } from './access';
 import { HttpError } from './errors';
 import { assemblePlan, getForecast } from './forecasts';
@@ -90,8 +89,7 @@ async function basis(db: Kysely<DB>, trip: TripRow, rig: RigRow, forecastId: str
   if (id) {
     const f = await getForecast(db, id);
     if (f) {
-      const s = f.forecast.summary;
-      return { plan: f.plan, previous: { forecastId: f.id, name: f.name, firstCutoffAt: s.firstCutoffAt, minSocPct: s.minSocPct, minSocAt: s.minSocAt, endSocPct: s.endSocPct } };
+      return { plan: f.plan, previous: previousOf({ forecastId: f.id, name: f.name, forecast: f.forecast }) };
     }
   }
   const checked = validatePlan(assemblePlan(toRigDto(rig, true), await listLoads(db, rig.id), toTripDto(trip, true)));
@@ -117,17 +115,13 @@ export async function createCheckIn(db: Kysely<DB>, ctx: { trip: TripRow; rig: R
   if (earlier) return earlier;
 
   const { plan, previous } = await basis(db, ctx.trip, ctx.rig, input.forecastId);
-  let socPct: number;
-  let note: string | null = null;
-  if (input.restingVolts !== undefined) {
-    const r = socFromRestingVolts(plan.bank.chemistry, plan.bank.nominalVolts, input.restingVolts);
-    if (!r.ok) throw new HttpError('invalid_request', r.message, [{ path: 'restingVolts', message: r.message }]);
-    socPct = r.socPct;
-    note = r.note;
-  } else socPct = input.socPct!;
   const atMs = Date.parse(input.at);
-  const re = reforecastFrom(plan, atMs, socPct);
-  if (!re.ok) throw new HttpError('invalid_request', `The check-in time ${re.message}`, [{ path: re.path, message: re.message }]);
+  const re = reforecastReading(plan, atMs, input.restingVolts !== undefined ? { restingVolts: input.restingVolts } : { socPct: input.socPct! });
+  if (!re.ok) {
+    const message = re.path === 'at' ? `The check-in time ${re.message}` : re.message;
+    throw new HttpError('invalid_request', message, [{ path: re.path, message: re.message }]);
+  }
+  const { socPct, note } = re;
 
   const res = await db
     .insertInto('check_ins')
@@ -141,7 +135,7 @@ export async function createCheckIn(db: Kysely<DB>, ctx: { trip: TripRow; rig: R
       soc_pct: socPct,
       resting_volts: input.restingVolts ?? null,
       forecast_id: previous?.forecastId ?? null,
-      result: JSON.stringify({ outcome: outcomeOf(re.forecast), previous, note } satisfies Stored),
+      result: JSON.stringify({ outcome: re.outcome, previous, note } satisfies Stored),
       created_by: ctx.userId,
       created_at: nowIso(),
     })

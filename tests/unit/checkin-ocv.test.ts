@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { socFromRestingVolts } from '../../src/checkin/ocv';
+import { socFromRestingVolts } from '../../src/domain/checkins/ocv';
 
 // Resting voltage → SOC against the open-circuit tables of forecast-engine.md ("Precise rules"),
 // which are common practice (the same figures as trade-notes.md: flooded 12.7 / 12.4 / 12.2 /

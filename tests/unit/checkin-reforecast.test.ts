@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { outcomeOf, reforecastFrom } from '../../src/checkin/reforecast';
-import { checkInInputSchema } from '../../src/checkin/schema';
+import { outcomeOf, reforecastFrom } from '../../src/domain/checkins/reforecast';
+import { checkInInputSchema } from '../../src/domain/checkins/checkins.schema';
 import { demoPlan, forecast, validatePlan, type ResolvedPlan } from '../../src/engine';
 
 // The rest of a trip from a check-in, run by the engine: the demo trip (Juniper Mesa, 3 nights,

@@ -1,9 +1,10 @@
-// The check-in computed on the phone, with the same engine and rules the server uses, so the
-// camper sees the new cutoff at once — with or without signal. Pure.
+// A check-in's rule: reading → state of charge → the rest of the trip re-forecast. The server
+// (storing a check-in) and the phone (showing the new cutoff at once, with or without signal)
+// both call `reforecastReading`, so they compute the same thing with the same engine. Pure.
 import type { Forecast, ResolvedPlan } from '../../engine';
-import { socFromRestingVolts } from '../../checkin/ocv';
-import { outcomeOf, reforecastFrom } from '../../checkin/reforecast';
-import type { CheckInOutcome, PreviousOutcome } from '../../checkin/schema';
+import { socFromRestingVolts } from './ocv';
+import { outcomeOf, reforecastFrom } from './reforecast';
+import type { CheckInOutcome, PreviousOutcome } from './checkins.schema';
 
 export interface Basis {
   forecastId: string;
@@ -17,24 +18,41 @@ export type LocalCheckIn =
   | { ok: false; path: 'at' | 'restingVolts'; message: string };
 
 /** The previous outcome of a saved forecast, as the server records it beside a check-in. */
-export function previousOf(b: Basis): PreviousOutcome {
+export function previousOf(b: Pick<Basis, 'forecastId' | 'name' | 'forecast'>): PreviousOutcome {
   const s = b.forecast.summary;
   return { forecastId: b.forecastId, name: b.name, firstCutoffAt: s.firstCutoffAt, minSocPct: s.minSocPct, minSocAt: s.minSocAt, endSocPct: s.endSocPct };
 }
 
-/** Re-forecasts the rest of the trip from a reading, on the phone. */
-export function computeCheckIn(basis: Basis, at: string, reading: { socPct: number } | { restingVolts: number }): LocalCheckIn {
+export type Reading = { socPct: number } | { restingVolts: number };
+
+export type ReadingResult =
+  | { ok: true; socPct: number; note: string | null; forecast: Forecast; outcome: CheckInOutcome }
+  | { ok: false; path: 'at' | 'restingVolts'; message: string };
+
+/**
+ * Reading → state of charge (a resting voltage is read on the chemistry's curve) → the rest of
+ * the trip from the reading's hour. A refused time comes back with `path: 'at'` and a message that
+ * completes "The time …"; a refused voltage with `path: 'restingVolts'` and a whole sentence.
+ */
+export function reforecastReading(plan: ResolvedPlan, atMs: number, reading: Reading): ReadingResult {
   let socPct: number;
   let note: string | null = null;
   if ('restingVolts' in reading) {
-    const r = socFromRestingVolts(basis.plan.bank.chemistry, basis.plan.bank.nominalVolts, reading.restingVolts);
+    const r = socFromRestingVolts(plan.bank.chemistry, plan.bank.nominalVolts, reading.restingVolts);
     if (!r.ok) return { ok: false, path: 'restingVolts', message: r.message };
     socPct = r.socPct;
     note = r.note;
   } else socPct = reading.socPct;
-  const re = reforecastFrom(basis.plan, Date.parse(at), socPct);
-  if (!re.ok) return { ok: false, path: 'at', message: `The time ${re.message}` };
-  return { ok: true, socPct, outcome: outcomeOf(re.forecast), previous: previousOf(basis), note, forecast: re.forecast };
+  const re = reforecastFrom(plan, atMs, socPct);
+  if (!re.ok) return { ok: false, path: re.path, message: re.message };
+  return { ok: true, socPct, note, forecast: re.forecast, outcome: outcomeOf(re.forecast) };
+}
+
+/** Re-forecasts the rest of the trip from a reading, on the phone. */
+export function computeCheckIn(basis: Basis, at: string, reading: Reading): LocalCheckIn {
+  const r = reforecastReading(basis.plan, Date.parse(at), reading);
+  if (!r.ok) return { ok: false, path: r.path, message: r.path === 'at' ? `The time ${r.message}` : r.message };
+  return { ok: true, socPct: r.socPct, outcome: r.outcome, previous: previousOf(basis), note: r.note, forecast: r.forecast };
 }
 
 /** The saved forecast from the re-forecast's first hour on, so both lines start together on a chart. */

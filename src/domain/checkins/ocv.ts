@@ -1,5 +1,5 @@
-import { ocvVolts } from '../engine/battery';
-import type { Chemistry } from '../engine';
+import { ocvVolts } from '../../engine/battery';
+import type { Chemistry } from '../../engine';
 
 // A resting voltage turned into a state of charge through the chemistry's open-circuit table —
 // the engine's own table (forecast-engine.md, "Precise rules"), read backwards, so a check-in and

@@ -1,8 +1,8 @@
 import { useEffect, useMemo, useState, useSyncExternalStore } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { isConflict } from '../../lib/query-client';
-import { checkInInputSchema, type CheckInDto, type CheckInOutcome, type PreviousOutcome } from '../../checkin/schema';
-import { restingAdvice } from '../../checkin/ocv';
+import { checkInInputSchema, type CheckInDto, type CheckInOutcome, type PreviousOutcome } from '../../domain/checkins/checkins.schema';
+import { restingAdvice } from '../../domain/checkins/ocv';
 import { EmptyState, ErrorState } from '../../components/ui/States';
 import SocChart from '../forecast/SocChart';
 import { forecastQueries } from '../forecast/forecast.queries';
@@ -12,7 +12,7 @@ import { tripForecastQueries } from '../trip-forecasts/trip-forecasts.queries';
 import { discard, enqueue, flushOutbox, listQueued, onOutboxChange, type QueuedCheckIn } from '../offline/outbox';
 import { deleteCheckIn } from './checkins.api';
 import { checkInKeys, checkInQueries } from './checkins.queries';
-import { computeCheckIn, fromHour, localInputToIso, newCheckInId, nowInputValue, type Basis } from './compute';
+import { computeCheckIn, fromHour, localInputToIso, newCheckInId, nowInputValue, type Basis } from '../../domain/checkins/checkins';
 import { IslandQueryProvider } from '../../components/ui/QueryProvider';
 
 interface Props {

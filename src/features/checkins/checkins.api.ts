@@ -1,5 +1,5 @@
 // Plain fetchers for a trip's check-ins (sending one goes through the outbox, src/features/offline/outbox.ts).
-import type { CheckInDto } from '../../checkin/schema';
+import type { CheckInDto } from '../../domain/checkins/checkins.schema';
 import { apiFetch } from '../../lib/query-client';
 
 export const fetchCheckIns = (tripId: string, signal?: AbortSignal) => apiFetch<CheckInDto[]>(`/api/trips/${encodeURIComponent(tripId)}/check-ins`, { signal });

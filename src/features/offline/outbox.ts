@@ -3,7 +3,7 @@
 // a lost answer, from two tabs, or after a reload — never makes a second one. An item leaves the
 // outbox only when the server has answered that it is stored (201, or 200 for one it already had);
 // an item the server refuses stays, marked with the reason, until the camper discards it.
-import type { CheckInDto, CheckInInput, CheckInOutcome, PreviousOutcome } from '../../checkin/schema';
+import type { CheckInDto, CheckInInput, CheckInOutcome, PreviousOutcome } from '../../domain/checkins/checkins.schema';
 
 export interface QueuedCheckIn {
   id: string;

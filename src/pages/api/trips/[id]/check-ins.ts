@@ -1,4 +1,4 @@
-import { checkInInputSchema } from '../../../../checkin/schema';
+import { checkInInputSchema } from '../../../../domain/checkins/checkins.schema';
 import { tripAccess } from '../../../../server/access';
 import { createCheckIn, listCheckIns } from '../../../../server/check-ins';
 import { db } from '../../../../server/db';
