@@ -10,8 +10,11 @@ export { prepareTrip, SUBSTEPS } from './prepare';
 export type { PreparedTrip, PreparedArray, RowWarning } from './prepare';
 export { simulatePrepared, variantSchema } from './simulate';
 export type { SimResult, SimSummary, Variant } from './simulate';
-export { planSchema, bankSchema, arraySchema, chargerSchema, inverterSchema, loadSchema, stopSchema, driveSchema, weatherSchema, resolveBank, LIMITS, CHEMISTRIES, CHEMISTRY_DEFAULTS } from './schema';
-export type { Plan, ResolvedPlan, ResolvedBank, ResolvedArray, ResolvedCharger, ResolvedInverter, ResolvedLoad, ResolvedStop, ResolvedDrive, Chemistry } from './schema';
+export { planSchema, bankSchema, arraySchema, chargerSchema, inverterSchema, loadSchema, stopSchema, driveSchema, weatherSchema, resolveBank, LIMITS } from './schema';
+export type { Plan, ResolvedPlan, ResolvedBank, ResolvedArray, ResolvedCharger, ResolvedInverter, ResolvedLoad, ResolvedStop, ResolvedDrive } from './schema';
 export { PlanValidationError, zodIssuesToEnvelope, issuePath } from './errors';
 export type { InvalidPlanEnvelope, PlanIssue } from './errors';
 export { demoPlan } from './demo-plan';
+// The zod-free helpers (chemistries, time zones, timeline, load windows, resting voltage), also
+// importable alone through './light' by islands that must not load zod.
+export * from './light';

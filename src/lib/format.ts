@@ -1,6 +1,6 @@
 // Display formatting shared by the islands: numbers with units, hours, dates, bank summaries.
 import { format } from 'date-fns';
-import { CHEMISTRY_DEFAULTS, type Chemistry } from '../engine/chemistry';
+import { CHEMISTRY_DEFAULTS, type Chemistry } from '../engine/light';
 
 const LOCALE = 'en-US';
 

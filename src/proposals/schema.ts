@@ -1,7 +1,7 @@
 // Request shapes of price lists, sweeps and proposals: declared once, shared by API routes and
 // forms. Every number has bounds and a message that reads after the field's name.
 import { z } from 'zod';
-import { CHEMISTRIES } from '../engine/schema';
+import { CHEMISTRIES } from '../engine';
 import { AMPACITY_TABLES, AWG_SIZES } from './cable';
 
 function num(min: number, max: number) {

@@ -18,7 +18,7 @@ import {
   type SimSummary,
   type Variant,
 } from '../engine';
-import { bankSchema, CHEMISTRY_DEFAULTS } from '../engine/schema';
+import { bankSchema, CHEMISTRY_DEFAULTS } from '../engine';
 import type { BankCandidate, Candidates, Changes, Mounting, PanelCandidate, PriceList } from './schema';
 
 /** One priced line of an option. */

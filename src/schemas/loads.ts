@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { loadSchema } from '../engine/schema';
+import { loadSchema } from '../engine';
 import { patchOf, versionField } from './patch';
 
 /**

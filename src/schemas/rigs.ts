@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { arraySchema, bankSchema, chargerSchema, inverterSchema, LIMITS } from '../engine/schema';
+import { arraySchema, bankSchema, chargerSchema, inverterSchema, LIMITS } from '../engine';
 import { patchOf, versionField } from './patch';
 
 /**

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { driveSchema, LIMITS, stopSchema } from '../engine/schema';
+import { driveSchema, LIMITS, stopSchema } from '../engine';
 import { patchOf, versionField } from './patch';
 
 /** A trip: stops (with their weather days) and drives, as the engine contract shapes them. */

@@ -1,6 +1,6 @@
 import Papa from 'papaparse';
 import type { z } from 'zod';
-import { LIMITS } from '../engine/schema';
+import { LIMITS } from '../engine';
 import { LOAD_CSV_COLUMNS, loadInputSchema } from '../schemas/loads';
 
 // The loads list as CSV, both ways. Pure functions (no HTTP, no database), so the import, its

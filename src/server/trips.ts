@@ -1,7 +1,7 @@
 import type { Kysely } from 'kysely';
 import type { z } from 'zod';
 import type { DB, TripRow } from '../../db/schema';
-import { planSchema, type driveSchema, type stopSchema } from '../engine/schema';
+import { planSchema, type driveSchema, type stopSchema } from '../engine';
 import type { TripChanges, TripDto, TripValues } from '../schemas/trips';
 import { listVisibleRigs } from './access';
 import { HttpError, type Issue } from './errors';

@@ -3,9 +3,8 @@
 // capacity at or above 25 °C, charger watts = amps × nominal volts, sources serve the hour's loads
 // first, LiFePO4 charge efficiency 99 %, the generator's default fuel 0.6 L/h.
 import { describe, expect, it } from 'vitest';
-import { forecast, validatePlan, type Plan, type ResolvedPlan } from '../../src/engine';
+import { forecast, validatePlan, type Plan, type ResolvedPlan, prepareTrip } from '../../src/engine';
 import { advise, ASSUMED_CONVERTER_AMPS, CAUTIONS, effectOf, loadUse } from '../../src/features/forecast/advice';
-import { prepareTrip } from '../../src/engine';
 
 function resolve(plan: Plan): ResolvedPlan {
   const v = validatePlan(plan);

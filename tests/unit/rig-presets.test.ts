@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { CHEMISTRIES, CHEMISTRY_DEFAULTS, bankSchema } from '../../src/engine/schema';
+import { CHEMISTRIES, CHEMISTRY_DEFAULTS, bankSchema } from '../../src/engine';
 import { applyMounting, CHEMISTRY_PRESETS, maxChargeAmpsFor, mountingOf, nominalForChemistry, presetBank, seriesParallel } from '../../src/features/rigs/presets';
 import { emptyRig, newArray, newCharger, rigFormSchema } from '../../src/features/rigs/rig-form';
 

@@ -1,4 +1,4 @@
-import { ocvVolts } from '../../engine/battery';
+import { ocvVolts } from '../../engine/light';
 import type { Chemistry } from '../../engine';
 
 // A resting voltage turned into a state of charge through the chemistry's open-circuit table —

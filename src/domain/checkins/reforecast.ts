@@ -1,6 +1,5 @@
 import { forecast as runEngine, validatePlan, type DayRow, type Forecast, type HourlyRow, type ResolvedDrive, type ResolvedPlan, type ResolvedStop } from '../../engine';
-import { planTimeline } from '../../engine/timeline';
-import { dayNumber, HOUR_MS, isoDate, localToInstant, offsetMinutes } from '../../engine/tz';
+import { planTimeline, dayNumber, HOUR_MS, isoDate, localToInstant, offsetMinutes } from '../../engine/light';
 import type { CheckInOutcome } from './checkins.schema';
 
 // The rest of a trip from a check-in: the same plan, starting at the hour of the reading with the

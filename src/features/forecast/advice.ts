@@ -11,7 +11,7 @@ import {
   type ResolvedCharger,
   type ResolvedPlan,
 } from '../../engine';
-import { inverterDcWatts, loadWattsAt, windowMask } from '../../engine/loads';
+import { inverterDcWatts, loadWattsAt, windowMask } from '../../engine/light';
 import { formatClock, formatDay, formatRowTime, localParts } from './time';
 import { CAUTIONS } from './cautions';
 import { pct, reserveOf, wh, whPerDay } from './verdict';

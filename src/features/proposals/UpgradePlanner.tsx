@@ -3,7 +3,7 @@ import { useMutation, useQuery } from '@tanstack/react-query';
 import { withQueryClient } from '../../components/ui/QueryProvider';
 import { ErrorState, LoadingState } from '../../components/ui/States';
 import { asNumber } from '../../components/ui/form';
-import { CHEMISTRIES, type Chemistry, type ResolvedPlan } from '../../engine/schema';
+import { CHEMISTRIES, type Chemistry, type ResolvedPlan } from '../../engine';
 import { CHEMISTRY_LABELS, formatNumber } from '../../lib/format';
 import { ApiError, type ApiIssue } from '../../lib/query-client';
 import { formatMoney } from '../../proposals/proposal';

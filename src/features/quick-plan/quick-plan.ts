@@ -1,7 +1,7 @@
 // The quick plan: a short form on the landing page, turned into an engine plan (pure, no React).
 import { z } from 'zod';
 import type { Plan } from '../../engine';
-import { isValidTimeZone } from '../../engine/tz';
+import { isValidTimeZone } from '../../engine/light';
 import type { LoadInput } from '../../schemas/loads';
 import type { RigInput } from '../../schemas/rigs';
 import type { TripInput } from '../../schemas/trips';

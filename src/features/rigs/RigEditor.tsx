@@ -2,7 +2,7 @@ import { useRef, useState } from 'react';
 import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type UseFormRegister, type UseFormSetValue } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { CHEMISTRIES, type Chemistry } from '../../engine/schema';
+import { CHEMISTRIES, type Chemistry } from '../../engine/light';
 import type { RigDto } from '../../schemas/rigs';
 import { Field, describedBy } from '../../components/ui/Field';
 import { NumberField } from '../../components/ui/NumberField';

@@ -1,7 +1,7 @@
 // Chemistry presets and the small pieces of arithmetic the rig editor offers. Pure and
 // unit-tested. Values are common practice (forecast-engine.md defaults table and the trade notes):
 // typical figures to start from, each one the user's to check against the battery's label.
-import { CHEMISTRY_DEFAULTS, type Chemistry } from '../../engine/schema';
+import { CHEMISTRY_DEFAULTS, type Chemistry } from '../../engine/light';
 
 export interface ChemistryPreset {
   nominalVolts: number;

@@ -2,7 +2,7 @@
 // server does, and conversions between a saved rig and the form's values.
 import { z } from 'zod';
 import { rigInputSchema, type RigDto } from '../../schemas/rigs';
-import type { Chemistry } from '../../engine/schema';
+import type { Chemistry } from '../../engine/light';
 import { presetBank } from './presets';
 
 /** The shared rig schema with the generator rules of the engine checked in the form too. */

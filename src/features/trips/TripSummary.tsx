@@ -1,4 +1,4 @@
-import { ASSUMED_WEATHER } from '../../engine/weather';
+import { ASSUMED_WEATHER } from '../../engine/light';
 import { addDaysIso, formatDate, formatHour, formatNumber, rigSummary } from '../../lib/format';
 import { formatTemp, type Units } from '../../lib/units';
 import type { RigDto } from '../../schemas/rigs';
