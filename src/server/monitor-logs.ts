@@ -1,14 +1,16 @@
 import type { Kysely } from 'kysely';
 import type { DB, MonitorLogRow } from '../../db/schema';
-import type { ResolvedPlan } from '../engine';
-import { planTimeline } from '../engine/timeline';
-import { dailyAh, nightBaseline, nightTemperature } from '../monitor/baseline';
-import type { ForecastOverlap, MonitorLogDetail, MonitorLogDto } from '../monitor/dto';
-import type { ColumnMapping } from '../monitor/mapping';
-import type { Sample } from '../monitor/parse';
-import { downsample } from '../monitor/series';
+import { isValidTimeZone, planTimeline, type ResolvedPlan } from '../engine';
+import { dailyAh, nightBaseline, nightTemperature } from '../domain/monitor/baseline';
+import type { ForecastOverlap, MonitorLogDetail, MonitorLogDto, ColumnMapping } from '../domain/monitor/monitor.schema';
+import type { Sample } from '../domain/monitor/parse';
+import { downsample } from '../domain/monitor/series';
+import { bankLimits, previewLog, refusalMessage, type LogPreview } from '../domain/monitor/monitor';
+import { mappingSchema } from '../domain/monitor/monitor.schema';
 import { rigAccess, type Actor, type Need, type RigGrant } from './access';
 import { HttpError } from './errors';
+import { zodIssues } from './http';
+import { decodeCsvBytes, lineIssues, readMultipart, type FileUpload } from './upload';
 import { conflict, nowIso } from './versions';
 
 // Monitor logs: a battery monitor's CSV (kept as uploaded) and its readings, saved together in one
@@ -116,6 +118,72 @@ export async function createLog(
   });
   const row = await rows(db).where('monitor_logs.id', '=', id).executeTakeFirstOrThrow();
   return toDto(row);
+}
+
+/** The largest monitor log accepted (the CSV itself). */
+const MAX_FILE_BYTES = 10 * 1024 * 1024;
+const ALLOWED_EXTENSIONS = /\.(csv|txt|tsv|log|dat)$/i;
+
+/** The multipart upload of a monitor log: a `file` (the CSV) and text fields (`mapping`, `timeZone`, `name`). */
+export function readLogUpload(request: Request): Promise<FileUpload> {
+  return readMultipart(request, {
+    maxFileBytes: MAX_FILE_BYTES,
+    // The multipart body may carry the mapping and a little framing on top of the file.
+    maxBodyBytes: MAX_FILE_BYTES + 256 * 1024,
+    tooLarge: () => new HttpError('payload_too_large', 'The file is larger than 10 MB. Export a shorter stretch of the log (a trip at a time).', [{ path: 'file', message: 'at most 10 MB' }]),
+    sendAs: 'Send the log as a file upload (multipart/form-data) with the CSV in the field "file".',
+    defaultName: 'monitor-log.csv',
+  });
+}
+
+function mappingFrom(raw: string | undefined): ColumnMapping | null {
+  if (raw === undefined || raw.trim() === '') return null;
+  let data: unknown;
+  try {
+    data = JSON.parse(raw);
+  } catch {
+    throw new HttpError('invalid_request', 'The column mapping is not valid JSON.', [{ path: 'mapping', message: 'not valid JSON' }]);
+  }
+  const r = mappingSchema.safeParse(data);
+  if (!r.success) throw new HttpError('invalid_request', `The column mapping needs fixing: ${r.error.issues[0]?.message}`, zodIssues(r.error, 'mapping'));
+  return r.data;
+}
+
+/** The uploaded log read as the save would read it: with the sent mapping, else the detected one. */
+function readLog(rig: RigGrant['rig'], upload: FileUpload) {
+  if (!ALLOWED_EXTENSIONS.test(upload.fileName) && /\.[a-z0-9]{1,5}$/i.test(upload.fileName)) {
+    throw new HttpError('unsupported_media_type', `"${upload.fileName.slice(0, 80)}" is not a CSV. Export the monitor's log as CSV (.csv or .txt) and upload that.`, [{ path: 'file', message: 'expected a .csv, .tsv or .txt file' }]);
+  }
+  const decoded = decodeCsvBytes(upload.bytes);
+  if (!decoded.ok) {
+    const empty = upload.bytes.byteLength === 0 || /empty/.test(decoded.message);
+    throw new HttpError(empty ? 'invalid_request' : 'unsupported_media_type', decoded.message, [{ path: 'file', message: empty ? 'the file is empty' : 'not a text CSV' }]);
+  }
+  const mapping = mappingFrom(upload.fields.get('mapping'));
+  const timeZone = upload.fields.get('timeZone')?.trim() || mapping?.timeZone || 'UTC';
+  if (!isValidTimeZone(timeZone)) throw new HttpError('invalid_request', 'The time zone is not one we know.', [{ path: 'timeZone', message: 'must be an IANA time zone such as America/Denver' }]);
+  const limits = bankLimits(JSON.parse(rig.bank) as { chemistry: string; capacityAh: number; nominalVolts?: number });
+  return { mapping, ...previewLog(decoded.text, { timeZone, mapping, limits }) };
+}
+
+/** Step 1 of an upload: the detected (or sent) mapping, the first readings and every problem by line and column. */
+export function previewUpload(rig: RigGrant['rig'], upload: FileUpload): LogPreview & { fileName: string; bytes: number } {
+  return { ...readLog(rig, upload).preview, fileName: upload.fileName, bytes: upload.bytes.byteLength };
+}
+
+/**
+ * Step 2: saves the log read with the confirmed mapping. Any problem refuses the whole file (400,
+ * issues `line 12.Voltage (V)`); else the file and its readings are saved in one transaction.
+ */
+export async function saveUpload(db: Kysely<DB>, ctx: { rig: RigGrant['rig']; userId: string }, upload: FileUpload): Promise<MonitorLogDto & { warnings: string[] }> {
+  const { mapping, preview, parsed } = readLog(ctx.rig, upload);
+  if (!mapping) throw new HttpError('invalid_request', 'Confirm the column mapping before saving: send it in the field "mapping".', [{ path: 'mapping', message: 'send the confirmed column mapping' }]);
+  if (preview.errorCount > 0 || !parsed) {
+    throw new HttpError('invalid_request', refusalMessage(preview), lineIssues(preview.errors), { errors: preview.errors, errorCount: preview.errorCount });
+  }
+  const name = (upload.fields.get('name')?.trim() || upload.fileName).slice(0, 120);
+  const log = await createLog(db, { rigId: ctx.rig.id, crewId: ctx.rig.crew_id, userId: ctx.userId, name, original: upload.bytes, mapping, samples: parsed.samples });
+  return { ...log, warnings: preview.warnings };
 }
 
 /** Every reading of a log, in time order. */

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { dailyAh, nightBaseline, nightTemperature, plannedNightDraw, suggestedParasiticWatts } from '../../src/monitor/baseline';
-import { detectSign } from '../../src/monitor/detect';
-import type { Sample } from '../../src/monitor/parse';
-import { overlaySoc } from '../../src/monitor/overlay';
+import { dailyAh, nightBaseline, nightTemperature, plannedNightDraw, suggestedParasiticWatts } from '../../src/domain/monitor/baseline';
+import { detectSign } from '../../src/domain/monitor/detect';
+import type { Sample } from '../../src/domain/monitor/parse';
+import { overlaySoc } from '../../src/domain/monitor/overlay';
 import { demoPlan, forecast, validatePlan } from '../../src/engine';
 import { truth, type TruthRow } from '../fixtures/monitor/synthetic';
 

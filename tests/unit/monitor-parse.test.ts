@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { detectLog } from '../../src/monitor/detect';
-import { mappingSchema, type ColumnMapping } from '../../src/monitor/mapping';
-import { parseLog } from '../../src/monitor/parse';
-import { previewLog } from '../../src/monitor/preview';
-import { decodeCsvBytes } from '../../src/monitor/text';
+import { detectLog } from '../../src/domain/monitor/detect';
+import { mappingSchema, type ColumnMapping } from '../../src/domain/monitor/monitor.schema';
+import { parseLog } from '../../src/domain/monitor/parse';
+import { previewLog } from '../../src/domain/monitor/monitor';
+import { decodeCsvBytes } from '../../src/server/upload';
 import { toCsv, truth, type CsvOptions } from '../fixtures/monitor/synthetic';
 
 // Monitor logs written by our own fixture generator in many layouts: the detection must find the

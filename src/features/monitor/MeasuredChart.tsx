@@ -4,7 +4,7 @@ import type { Forecast } from '../../engine';
 import { COLORS, dayTicks, nightBands } from '../forecast/chart-data';
 import { formatRowTime } from '../forecast/time';
 import { useWidth } from '../forecast/useWidth';
-import type { Overlay } from '../../monitor/overlay';
+import type { Overlay } from '../../domain/monitor/overlay';
 
 const MEASURED = '#3E6646';
 

@@ -1,8 +1,7 @@
 // Plain fetchers for monitor logs; hooks live in monitor.queries.ts and the islands.
-import type { DetectedMapping } from '../../monitor/detect';
-import type { ColumnMapping } from '../../monitor/mapping';
-import type { LogPreview } from '../../monitor/preview';
-import type { MonitorLogDetail, MonitorLogDto } from '../../monitor/dto';
+import type { DetectedMapping } from '../../domain/monitor/detect';
+import type { ColumnMapping, MonitorLogDetail, MonitorLogDto } from '../../domain/monitor/monitor.schema';
+import type { LogPreview } from '../../domain/monitor/monitor';
 import { apiFetch } from '../../lib/query-client';
 
 export type { MonitorLogDetail, MonitorLogDto };

@@ -1,5 +1,5 @@
 import Papa from 'papaparse';
-import type { ColumnMapping } from './mapping';
+import type { ColumnMapping } from './monitor.schema';
 import { localResolver, parseTimeCell } from './time';
 
 // Reading a monitor log with a confirmed column mapping: papaparse splits the lines, each cell is

@@ -1,5 +1,5 @@
 import { detectLog, type DetectedMapping } from './detect';
-import type { ColumnMapping } from './mapping';
+import type { ColumnMapping } from './monitor.schema';
 import { splitLine } from './text';
 import { parseLog, type BankLimits, type LogLineError, type ParseResult } from './parse';
 
@@ -22,6 +22,18 @@ export interface LogPreview {
   count: number;
   from: number | null;
   to: number | null;
+}
+
+/** The bank's size, for the plausible ranges of readings (volts and amps of this bank). */
+export function bankLimits(bank: { chemistry: string; capacityAh: number; nominalVolts?: number }): BankLimits {
+  return { nominalVolts: bank.nominalVolts ?? (bank.chemistry === 'lifepo4' ? 12.8 : 12), capacityAh: bank.capacityAh };
+}
+
+/** Why nothing was saved: "line 12 needs fixing" or "7 problems on 3 lines need fixing" ("3+" when not all are listed). */
+export function refusalMessage(preview: Pick<LogPreview, 'errors' | 'errorCount'>): string {
+  const lines = [...new Set(preview.errors.map((e) => e.line))];
+  const what = preview.errorCount === 1 ? `line ${lines[0]} needs` : `${preview.errorCount} problems on ${lines.length}${preview.errors.length < preview.errorCount ? '+' : ''} lines need`;
+  return `Nothing was saved: ${what} fixing.`;
 }
 
 /** Detects (when no mapping is given) and reads the whole file, as the save will. */

@@ -1,4 +1,4 @@
-import type { Forecast } from '../engine';
+import type { Forecast } from '../../engine';
 
 // Measured state of charge against a saved forecast, hour by hour: the reading nearest each
 // forecast row's end (where the forecast's SOC is), within a tolerance. Pure.

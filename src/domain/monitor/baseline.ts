@@ -1,7 +1,7 @@
-import { forecast as runEngine, validatePlan, type Plan } from '../engine';
+import { forecast as runEngine, validatePlan, type Plan } from '../../engine';
 import type { Sample } from './parse';
 import { localClock } from './time';
-import { isoDate } from '../engine/tz';
+import { isoDate } from '../../engine/light';
 
 // What a monitor log tells about the rig: the draw while nothing can charge (the night-time
 // baseline), and each day's amp-hours taken out and put back. Pure.

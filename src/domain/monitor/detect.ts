@@ -1,4 +1,4 @@
-import { DELIMITERS, TIME_FORMATS, type ColumnMapping, type Delimiter, type SignConvention, type TimeFormat } from './mapping';
+import { DELIMITERS, TIME_FORMATS, type ColumnMapping, type Delimiter, type SignConvention, type TimeFormat } from './monitor.schema';
 import { columnNames, parseLog, readNumber, type Sample } from './parse';
 import { splitLine } from './text';
 import { localClock, localResolver, looksLike, parseTimeCell, timeExample } from './time';

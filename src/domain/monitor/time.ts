@@ -1,5 +1,5 @@
-import { daysFromCivil, localToInstant, offsetMinutes } from '../engine/tz';
-import type { TimeFormat } from './mapping';
+import { daysFromCivil, localToInstant, offsetMinutes } from '../../engine/light';
+import type { TimeFormat } from './monitor.schema';
 
 // Reading the time of a reading. Times with an offset (ISO with Z or ±hh:mm) and epoch numbers
 // are instants; any other time is the wall clock of the log's time zone.

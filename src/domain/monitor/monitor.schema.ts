@@ -1,5 +1,7 @@
 import { z } from 'zod';
-import { isValidTimeZone } from '../engine/tz';
+import { isValidTimeZone } from '../../engine/light';
+import type { BaselineResult, DayAh } from './baseline';
+import type { SeriesPoint } from './series';
 
 // How a monitor log's columns are read: the shape the upload's preview proposes and the camper
 // confirms or changes. Pure (zod only), so the server and the upload form share it.
@@ -77,3 +79,41 @@ export const mappingSchema = z
 
 export type ColumnMapping = z.output<typeof mappingSchema>;
 export type ColumnMappingInput = z.input<typeof mappingSchema>;
+
+// Monitor logs as the API returns them (shared by the server and the Logs section).
+
+export interface MonitorLogDto {
+  id: string;
+  rigId: string;
+  name: string;
+  bytes: number;
+  timeZone: string;
+  sampleCount: number;
+  startedAt: string;
+  endedAt: string;
+  mapping: ColumnMapping;
+  /** Which readings the log has. */
+  has: { volts: boolean; amps: boolean; soc: boolean; temperature: boolean };
+  createdBy: { id: string; name: string } | null;
+  createdAt: string;
+  version: number;
+}
+
+export interface ForecastOverlap {
+  id: string;
+  name: string;
+  tripId: string;
+  tripName: string;
+  createdAt: string;
+  /** Hours the forecast and the log share. */
+  overlapHours: number;
+}
+
+export interface MonitorLogDetail extends MonitorLogDto {
+  series: SeriesPoint[];
+  baseline: BaselineResult;
+  nightTempC: number | null;
+  days: DayAh[];
+  /** Saved forecasts of this rig whose dates the log covers, most overlap first. */
+  forecasts: ForecastOverlap[];
+}
