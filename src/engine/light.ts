@@ -5,7 +5,7 @@
 // only where the browser bundle should stay small (see src/engine/README.md).
 export { CHEMISTRIES, CHEMISTRY_DEFAULTS } from './chemistry';
 export type { Chemistry } from './chemistry';
-export { HOUR_MS, DAY_MS, daysFromCivil, civilFromDays, parseIsoDate, dayNumber, isoDate, formatLocal, formatOffset, isValidTimeZone, offsetMinutes, localToInstant } from './tz';
+export { HOUR_MS, DAY_MS, daysFromCivil, civilFromDays, parseIsoDate, dayNumber, isoDate, isValidTimeZone, offsetMinutes, localToInstant } from './tz';
 export { planTimeline } from './timeline';
 export type { TripTimeline } from './timeline';
 export { ASSUMED_WEATHER } from './weather';

@@ -1,7 +1,7 @@
 // What a proposal adds to the chosen option: default cable runs for the parts it adds, their
 // checks, the parts list and its total, and the cautions. Pure; the server and the islands share it.
 import type { ResolvedPlan } from '../engine';
-import { CAUTIONS } from '../features/forecast/advice';
+import { CAUTIONS } from '../domain/advice/cautions';
 import { CABLE_CAUTIONS, checkCable, defaultLowestVolts, type CableResult } from './cable';
 import type { CableRow, Changes, Part } from './schema';
 

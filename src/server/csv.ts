@@ -1,6 +1,7 @@
 import Papa from 'papaparse';
 import type { z } from 'zod';
 import { LIMITS } from '../engine';
+import { needsFormulaEscape, unescapeCell } from '../domain/csv-cells';
 import { LOAD_CSV_COLUMNS, loadInputSchema } from '../schemas/loads';
 
 // The loads list as CSV, both ways. Pure functions (no HTTP, no database), so the import, its
@@ -36,21 +37,8 @@ function headerKey(s: string): string {
   return s.trim().toLowerCase().replace(/[\s_-]+/g, '');
 }
 
-// A spreadsheet runs a cell that starts with one of these as a formula (CSV injection). Export puts
-// an apostrophe in front; import takes one off again. Leading apostrophes count, so a name that
-// really starts with "'=" survives the round trip. Plain numbers such as -5 are left alone.
-const FORMULA_START = /^'*[=+\-@\t\r]/;
-const PLAIN_NUMBER = /^-?\d+(\.\d+)?([eE][+-]?\d+)?$/;
-
-/** Whether an exported cell needs the apostrophe that stops a spreadsheet running it as a formula. */
-export function needsFormulaEscape(cell: string): boolean {
-  return FORMULA_START.test(cell) && !PLAIN_NUMBER.test(cell);
-}
-
-/** Takes off the apostrophe that export put in front of a formula-like cell. */
-export function unescapeCell(cell: string): string {
-  return cell.startsWith("'") && FORMULA_START.test(cell.slice(1)) ? cell.slice(1) : cell;
-}
+// The formula rule is shared with the hourly forecast export; re-exported for the loads tests.
+export { needsFormulaEscape, unescapeCell };
 
 /** Schedule windows as a cell: `18-23;6-8`; no window at all is `none`. */
 export function formatWindows(windows: readonly (readonly [number, number])[]): string {

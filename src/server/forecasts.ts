@@ -5,7 +5,6 @@ import type { LoadDto } from '../schemas/loads';
 import type { RigDto } from '../schemas/rigs';
 import type { TripDto } from '../schemas/trips';
 import { HttpError } from './errors';
-import { needsFormulaEscape } from './csv';
 
 /** Builds the engine plan of a trip from its rig and the rig's loads (as they are now). */
 export function assemblePlan(rig: RigDto, loads: LoadDto[], trip: TripDto): Plan {
@@ -174,21 +173,4 @@ export async function forecastTripId(db: Kysely<DB>, id: string): Promise<string
 /** Removes a saved forecast. */
 export async function deleteForecast(db: Kysely<DB>, id: string): Promise<void> {
   await db.deleteFrom('forecasts').where('id', '=', id).execute();
-}
-
-const CSV_COLUMNS: (keyof HourlyRow)[] = ['time', 'socPct', 'volts', 'solarWatts', 'chargeWatts', 'loadWatts', 'unmetWatts', 'curtailedWatts', 'ambientC', 'batteryC', 'sunAltitudeDeg', 'poaWm2', 'driving', 'generatorOn', 'disconnected'];
-
-/** The hourly series as CSV, with the stop's name per row. */
-export function hourlyCsv(f: Forecast): string {
-  const esc = (v: unknown) => {
-    const s = String(v);
-    // The loads export's rule: a leading = + - @ TAB CR gets an apostrophe unless the whole cell is a plain number ("-2+3" is a formula).
-    const safe = needsFormulaEscape(s) ? `'${s}` : s;
-    return /[",\n\r]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
-  };
-  const lines = [['stop', ...CSV_COLUMNS].join(',')];
-  for (const row of f.hourly) {
-    lines.push([esc(f.stops[row.stop]?.name ?? ''), ...CSV_COLUMNS.map((c) => esc(row[c]))].join(','));
-  }
-  return lines.join('\r\n') + '\r\n';
 }

@@ -4,7 +4,7 @@ import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { demoPlan, forecast, validatePlan } from '../../src/engine';
-import { verdict } from '../../src/features/forecast/verdict';
+import { verdict } from '../../src/domain/forecasts/verdict';
 import { buildQuickPlan, QUICK_PLAN_STORAGE_KEY, type QuickPlanForm } from '../../src/features/quick-plan/quick-plan';
 import { uniqueEmail, baseUrl } from '../helpers/api';
 import { hydrated, launch, shot, VIEWPORTS, type ViewportName } from '../helpers/browser';

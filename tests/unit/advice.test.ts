@@ -4,7 +4,8 @@
 // first, LiFePO4 charge efficiency 99 %, the generator's default fuel 0.6 L/h.
 import { describe, expect, it } from 'vitest';
 import { forecast, validatePlan, type Plan, type ResolvedPlan, prepareTrip } from '../../src/engine';
-import { advise, ASSUMED_CONVERTER_AMPS, CAUTIONS, effectOf, loadUse } from '../../src/features/forecast/advice';
+import { advise, ASSUMED_CONVERTER_AMPS, effectOf, loadUse } from '../../src/domain/advice/advice';
+import { CAUTIONS } from '../../src/domain/advice/cautions';
 
 function resolve(plan: Plan): ResolvedPlan {
   const v = validatePlan(plan);

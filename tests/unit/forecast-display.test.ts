@@ -3,8 +3,8 @@ import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { demoPlan, forecast, validatePlan } from '../../src/engine';
 import { cutoffX, dayTicks, daysSummaryText, nightBands, socSeries, socSummaryText, stopSegments } from '../../src/features/forecast/chart-data';
-import { CSV_COLUMNS, forecastCsv } from '../../src/features/forecast/csv';
-import { formatDay, formatOffset, formatRowTime, formatRowTimeWithZone, instantOf, localParts } from '../../src/features/forecast/time';
+import { CSV_COLUMNS, forecastCsv } from '../../src/domain/forecasts/hourly-csv';
+import { formatDay, formatOffset, formatRowTime, formatRowTimeWithZone, instantOf, localParts } from '../../src/lib/format';
 
 const checked = validatePlan(demoPlan());
 if (!checked.ok) throw new Error('demo plan');

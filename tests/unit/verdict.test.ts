@@ -4,7 +4,7 @@
 // hour it lasts, reconnection only 5 points above the floor. No sun: no arrays at all.
 import { describe, expect, it } from 'vitest';
 import { forecast, validatePlan, type Plan, type ResolvedPlan } from '../../src/engine';
-import { verdict } from '../../src/features/forecast/verdict';
+import { verdict } from '../../src/domain/forecasts/verdict';
 
 /** 100 Ah LiFePO4 at 12.8 V, full at 15:00 on Thu 21 Oct 2027, one DC load, 30 °C day and night, no panels. */
 function noSunPlan(loadWatts: number, opts: { floorSocPct?: number; nights?: number; timeZone?: string; lat?: number; lon?: number } = {}): ResolvedPlan {

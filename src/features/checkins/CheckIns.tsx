@@ -6,7 +6,7 @@ import { restingAdvice } from '../../domain/checkins/ocv';
 import { EmptyState, ErrorState } from '../../components/ui/States';
 import SocChart from '../forecast/SocChart';
 import { forecastQueries } from '../forecast/forecast.queries';
-import { formatRowTime } from '../forecast/time';
+import { formatRowTime } from '../../lib/format';
 import type { ForecastListItem } from '../trip-forecasts/trip-forecasts.api';
 import { tripForecastQueries } from '../trip-forecasts/trip-forecasts.queries';
 import { discard, enqueue, flushOutbox, listQueued, onOutboxChange, type QueuedCheckIn } from '../offline/outbox';

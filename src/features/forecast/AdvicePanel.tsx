@@ -1,9 +1,9 @@
 import { useEffect, useState } from 'react';
 import { useSeen } from '../../components/ui/useSeen';
 import type { Forecast, ResolvedPlan } from '../../engine';
-import type { Advice } from './advice';
-import { CAUTIONS } from './cautions';
-import { whPerDay } from './verdict';
+import type { Advice } from '../../domain/advice/advice';
+import { CAUTIONS } from '../../domain/advice/cautions';
+import { whPerDay } from '../../lib/format';
 import { useDelayed } from './useWidth';
 
 type State = { status: 'working' } | { status: 'done'; advice: Advice } | { status: 'error' };
@@ -19,7 +19,7 @@ export default function AdvicePanel({ forecast, plan, reserveSocPct, now = false
     if (!seen) return;
     let gone = false;
     setState({ status: 'working' });
-    import('./advice')
+    import('../../domain/advice/advice')
       .then(({ advise }) => {
         if (!gone) setState({ status: 'done', advice: advise(plan, forecast, reserveSocPct) });
       })

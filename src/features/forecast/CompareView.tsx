@@ -1,8 +1,8 @@
 import type { Forecast, ResolvedPlan } from '../../engine';
 import { PRINT_CHARTS } from './ForecastView';
 import SocChart from './SocChart';
-import { formatRowTime } from './time';
-import { pct, verdict, wh } from './verdict';
+import { formatRowTime, formatWh, pct } from '../../lib/format';
+import { verdict } from '../../domain/forecasts/verdict';
 
 /** One side of a comparison. */
 export interface CompareSide {
@@ -21,9 +21,9 @@ const rows = (reserve: number | null): { label: string; value: (s: CompareSide) 
   { label: 'Verdict', value: (s) => verdict(s.forecast, s.plan, reserve).headline },
   { label: 'Lowest state of charge', value: (s) => `${pct(s.forecast.summary.minSocPct)} · ${formatRowTime(s.forecast.summary.minSocAt)}` },
   { label: 'First cutoff', value: (s) => (s.forecast.summary.firstCutoffAt ? formatRowTime(s.forecast.summary.firstCutoffAt) : 'Never') },
-  { label: 'Unmet energy', value: (s) => wh(s.forecast.summary.unmetWh) },
-  { label: 'Solar harvested', value: (s) => wh(s.forecast.summary.solarWh) },
-  { label: 'Solar curtailed', value: (s) => wh(s.forecast.summary.curtailedWh) },
+  { label: 'Unmet energy', value: (s) => formatWh(s.forecast.summary.unmetWh) },
+  { label: 'Solar harvested', value: (s) => formatWh(s.forecast.summary.solarWh) },
+  { label: 'Solar curtailed', value: (s) => formatWh(s.forecast.summary.curtailedWh) },
   { label: 'Generator', value: (s) => `${s.forecast.summary.generatorHours} h · ${s.forecast.summary.generatorLitres} L` },
   { label: 'At the end', value: (s) => pct(s.forecast.summary.endSocPct) },
 ];

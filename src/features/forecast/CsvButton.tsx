@@ -11,7 +11,7 @@ export default function CsvButton({ forecast, forecastId, name }: { forecast: Fo
   }
   const download = async () => {
     // The CSV writer (papaparse) loads on the first download.
-    const { csvFileName, forecastCsv } = await import('./csv');
+    const { csvFileName, forecastCsv } = await import('../../domain/forecasts/hourly-csv');
     const blob = new Blob([forecastCsv(forecast)], { type: 'text/csv;charset=utf-8' });
     const url = URL.createObjectURL(blob);
     const a = document.createElement('a');

@@ -2,7 +2,7 @@ import { useMemo } from 'react';
 import { Bar, BarChart, CartesianGrid, Tooltip, XAxis, YAxis } from 'recharts';
 import type { Forecast } from '../../engine';
 import { COLORS, daysSummaryText } from './chart-data';
-import { formatDay } from './time';
+import { formatDay } from '../../lib/format';
 import { useWidth } from './useWidth';
 
 const SERIES = [

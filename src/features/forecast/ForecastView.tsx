@@ -25,7 +25,7 @@ function ChartSpace({ height }: { height: number }) {
  */
 async function printAll(wake: () => void): Promise<void> {
   wake();
-  await Promise.all([loadDaily(), loadHourly(), import('./advice')]).catch(() => undefined);
+  await Promise.all([loadDaily(), loadHourly(), import('../../domain/advice/advice')]).catch(() => undefined);
   const started = Date.now();
   while (document.querySelector('[data-pending]') && Date.now() - started < 3000) await new Promise((r) => setTimeout(r, 50));
   window.print();

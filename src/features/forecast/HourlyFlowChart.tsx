@@ -2,7 +2,7 @@ import { useId, useMemo, useState } from 'react';
 import { Area, CartesianGrid, ComposedChart, Line, Tooltip, XAxis, YAxis } from 'recharts';
 import type { Forecast } from '../../engine';
 import { COLORS, defaultDay, rowsOfDay } from './chart-data';
-import { formatClock, formatDay } from './time';
+import { formatClock, formatDay } from '../../lib/format';
 import { useWidth } from './useWidth';
 
 /** Watts hour by hour on one chosen day — loads, solar and other charging — with the state of charge. */

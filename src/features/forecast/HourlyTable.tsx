@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import type { Forecast, ResolvedPlan } from '../../engine';
-import { formatRowTimeWithZone } from './time';
+import { formatRowTimeWithZone } from '../../lib/format';
 
 /** Every hour as a table: the accessible view of the charts, folded under "Details". */
 export default function HourlyTable({ forecast, plan, open = false }: { forecast: Forecast; plan: ResolvedPlan; open?: boolean }) {

@@ -2,8 +2,8 @@ import { useMemo } from 'react';
 import { CartesianGrid, ComposedChart, Line, ReferenceArea, ReferenceDot, ReferenceLine, Tooltip, XAxis, YAxis } from 'recharts';
 import type { Forecast, ResolvedPlan } from '../../engine';
 import { COLORS, cutoffX, dayTicks, nightBands, socSeries, socSummaryText, stopSegments } from './chart-data';
-import { formatClock, formatRowTimeWithZone } from './time';
-import { reserveOf } from './verdict';
+import { formatClock, formatRowTimeWithZone } from '../../lib/format';
+import { reserveOf } from '../../domain/forecasts/verdict';
 import { SOC_PLOT, SocKey, SocSketchPlot } from './SocSketch';
 import { useWidth } from './useWidth';
 

@@ -1,7 +1,7 @@
 import type { Forecast, ResolvedPlan } from '../../engine';
 import { COLORS, cutoffX, dayTicks, nightBands, socSeries, socSummaryText, stopSegments } from './chart-data';
-import { formatClock } from './time';
-import { reserveOf } from './verdict';
+import { formatClock } from '../../lib/format';
+import { reserveOf } from '../../domain/forecasts/verdict';
 
 export interface SocSketchProps {
   forecast: Forecast;

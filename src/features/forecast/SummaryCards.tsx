@@ -1,6 +1,6 @@
 import type { Forecast } from '../../engine';
-import { formatRowTime } from './time';
-import { pct, wh } from './verdict';
+import { formatRowTime, formatWh, pct } from '../../lib/format';
+
 
 function hoursShort(f: Forecast): number {
   return f.hourly.reduce((n, r) => n + (r.unmetWatts > 0 ? 1 : 0), 0);
@@ -15,14 +15,14 @@ export default function SummaryCards({ forecast }: { forecast: Forecast }) {
     s.firstCutoffAt
       ? { label: 'First cutoff', value: formatRowTime(s.firstCutoffAt), sub: `The bank disconnects at its ${pct(s.floorSocPct)} floor or cutoff volts`, tone: 'alert' }
       : { label: 'First cutoff', value: 'Never', sub: `Stays above the ${pct(s.floorSocPct)} floor`, tone: 'good' },
-    { label: 'Unmet energy', value: wh(s.unmetWh), sub: short > 0 ? `Over ${short} ${short === 1 ? 'hour' : 'hours'} without power` : 'Every load is served', tone: s.unmetWh > 0 ? 'alert' : undefined },
-    { label: 'Solar harvested', value: wh(s.solarWh), sub: s.curtailedWh > 0 ? `${wh(s.curtailedWh)} curtailed (bank full or too cold)` : 'None curtailed' },
+    { label: 'Unmet energy', value: formatWh(s.unmetWh), sub: short > 0 ? `Over ${short} ${short === 1 ? 'hour' : 'hours'} without power` : 'Every load is served', tone: s.unmetWh > 0 ? 'alert' : undefined },
+    { label: 'Solar harvested', value: formatWh(s.solarWh), sub: s.curtailedWh > 0 ? `${formatWh(s.curtailedWh)} curtailed (bank full or too cold)` : 'None curtailed' },
     {
       label: 'Generator',
       value: `${s.generatorHours} h`,
       sub: s.generatorHours > 0 ? `About ${s.generatorLitres.toLocaleString('en-US', { maximumFractionDigits: 1 })} L of fuel` : 'Not run',
     },
-    { label: 'At the end', value: pct(s.endSocPct), sub: s.chargeWh > 0 ? `After ${wh(s.chargeWh)} from other charging` : 'State of charge when the trip ends' },
+    { label: 'At the end', value: pct(s.endSocPct), sub: s.chargeWh > 0 ? `After ${formatWh(s.chargeWh)} from other charging` : 'State of charge when the trip ends' },
   ];
   return (
     <dl className="grid grid-cols-2 gap-3 lg:grid-cols-3" data-testid="summary-cards">

@@ -1,5 +1,5 @@
 import type { Forecast, ResolvedPlan } from '../../engine';
-import { verdict, type VerdictStatus } from './verdict';
+import { verdict, type VerdictStatus } from '../../domain/forecasts/verdict';
 
 const LOOK: Record<VerdictStatus, { box: string; badge: string; mark: string; label: string }> = {
   'makes-it': { box: 'border-moss bg-[#eef5ef]', badge: 'bg-moss-deep text-white', mark: '✓', label: 'Makes it' },

@@ -2,8 +2,8 @@
 // The x axis is hours since the forecast's start (rows are exactly one hour apart, whatever the
 // zones), so a move between zones or a DST change never bends the line.
 import type { Forecast, HourlyRow, ResolvedPlan } from '../../engine';
-import { formatDay, formatRowTime, localParts } from './time';
-import { pct, reserveOf, stopNameAt, wh } from './verdict';
+import { formatDay, formatRowTime, formatWh, localParts, pct } from '../../lib/format';
+import { reserveOf, stopNameAt } from '../../domain/forecasts/verdict';
 
 /** Colours of ux.md ("Charts"). */
 export const COLORS = {
@@ -121,8 +121,8 @@ export function daysSummaryText(f: Forecast): string {
   const whole = f.days.filter((d) => (hours.get(d.date) ?? 0) >= 23);
   const pool = whole.length > 0 ? whole : f.days;
   const worst = pool.reduce((a, b) => (b.netWh < a.netWh ? b : a));
-  const net = worst.netWh < 0 ? `${wh(-worst.netWh)} more used than charged` : `${wh(worst.netWh)} more charged than used`;
-  return `Over ${f.days.length} days the loads use ${wh(f.summary.loadWh)}; solar delivers ${wh(f.summary.solarWh)} and other charging ${wh(f.summary.chargeWh)}. The hardest ${whole.length > 0 ? 'whole ' : ''}day is ${formatDay(worst.date)}: ${net}.`;
+  const net = worst.netWh < 0 ? `${formatWh(-worst.netWh)} more used than charged` : `${formatWh(worst.netWh)} more charged than used`;
+  return `Over ${f.days.length} days the loads use ${formatWh(f.summary.loadWh)}; solar delivers ${formatWh(f.summary.solarWh)} and other charging ${formatWh(f.summary.chargeWh)}. The hardest ${whole.length > 0 ? 'whole ' : ''}day is ${formatDay(worst.date)}: ${net}.`;
 }
 
 /** Rows of one local day (by the row's own local date). */

@@ -10,12 +10,12 @@ import { overlaySoc } from '../../domain/monitor/overlay';
 import type { LoadDto } from '../../schemas/loads';
 import type { RigDto } from '../../schemas/rigs';
 import { forecastQueries } from '../forecast/forecast.queries';
-import { formatRowTime } from '../forecast/time';
+import { formatRowTime } from '../../lib/format';
 import { createLoad, updateLoad } from '../loads/loads.api';
 import { loadKeys, loadsQuery } from '../loads/loads.queries';
 import { deleteLog, originalUrl } from './monitor.api';
 import { monitorKeys, monitorQueries } from './monitor.queries';
-import { formatBytes, formatDate, formatReadingTime } from './format';
+import { formatBytes, formatDay, formatReadingTime } from '../../lib/format';
 import MeasuredChart from './MeasuredChart';
 
 /** One saved log: what it tells about the rig, and how it compares with a saved forecast. */
@@ -85,7 +85,7 @@ function Baseline({ baseline, log, rig }: { baseline: NightBaseline; log: Monito
         <ul className="flex flex-wrap gap-2 text-sm" aria-label="Each night">
           {baseline.nights.map((n) => (
             <li key={n.date} className="rounded-full bg-sand px-3 py-1 tabular-nums">
-              {formatDate(n.date)}: {n.drawA.toFixed(2)} A
+              {formatDay(n.date)}: {n.drawA.toFixed(2)} A
             </li>
           ))}
         </ul>
@@ -208,7 +208,7 @@ function Days({ log }: { log: MonitorLogDetail }) {
             <tbody>
               {log.days.map((d) => (
                 <tr key={d.date} className="border-b border-sand">
-                  <th scope="row" className="py-1 pr-3 text-left font-semibold">{formatDate(d.date)}</th>
+                  <th scope="row" className="py-1 pr-3 text-left font-semibold">{formatDay(d.date)}</th>
                   <td className="py-1 pr-3 text-right">{d.consumedAh.toFixed(1)}</td>
                   <td className="py-1 pr-3 text-right">{d.chargedAh.toFixed(1)}</td>
                   <td className={`py-1 pr-3 text-right font-bold ${d.netAh < 0 ? 'text-alert' : 'text-moss-deep'}`}>{d.netAh > 0 ? '+' : ''}{d.netAh.toFixed(1)}</td>

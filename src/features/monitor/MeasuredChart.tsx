@@ -2,7 +2,7 @@ import { useMemo } from 'react';
 import { CartesianGrid, ComposedChart, Line, ReferenceArea, Tooltip, XAxis, YAxis } from 'recharts';
 import type { Forecast } from '../../engine';
 import { COLORS, dayTicks, nightBands } from '../forecast/chart-data';
-import { formatRowTime } from '../forecast/time';
+import { formatRowTime } from '../../lib/format';
 import { useWidth } from '../forecast/useWidth';
 import type { Overlay } from '../../domain/monitor/overlay';
 

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
 import { rigQuery } from '../rigs/rigs.queries';
-import { formatReadingTime } from './format';
+import { formatReadingTime } from '../../lib/format';
 import LogView from './LogView';
 import { monitorQueries } from './monitor.queries';
 import UploadLog from './UploadLog';

@@ -7,7 +7,16 @@ import { mappingSchema, TIME_FORMATS, type Delimiter, type TimeFormat } from '..
 import { timeExample } from '../../domain/monitor/time';
 import { previewLog, saveLog, type PreviewAnswer } from './monitor.api';
 import { monitorKeys } from './monitor.queries';
-import { browserTimeZone, formatBytes, formatReadingTime } from './format';
+import { formatBytes, formatReadingTime } from '../../lib/format';
+
+/** The browser's own IANA zone (the camper's, usually), for a new upload. */
+function browserTimeZone(): string {
+  try {
+    return Intl.DateTimeFormat().resolvedOptions().timeZone || 'UTC';
+  } catch {
+    return 'UTC';
+  }
+}
 
 const MAX_BYTES = 10 * 1024 * 1024;
 const DELIMITER_NAMES: Record<Delimiter, string> = { ',': 'Comma ,', ';': 'Semicolon ;', '\t': 'Tab', '|': 'Bar |' };

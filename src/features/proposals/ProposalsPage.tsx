@@ -4,7 +4,7 @@ import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States
 import { formatDate } from '../../lib/format';
 import type { ProposalListItem } from '../../proposals/dto';
 import { formatMoney } from '../../proposals/proposal';
-import { formatRowTime } from '../forecast/time';
+import { formatRowTime } from '../../lib/format';
 import PriceListForm from './PriceListForm';
 import { STATUS_LOOK } from './status';
 import { proposalQueries } from './proposals.queries';

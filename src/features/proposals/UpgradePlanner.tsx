@@ -10,7 +10,7 @@ import { formatMoney } from '../../proposals/proposal';
 import { candidatesSchema, countCombinations, MAX_COMBINATIONS, MOUNTINGS, type CandidatesInput, type Mounting } from '../../proposals/schema';
 import type { SweepOption } from '../../proposals/sweep';
 import { forecastQueries } from '../forecast/forecast.queries';
-import { formatRowTime } from '../forecast/time';
+import { formatRowTime } from '../../lib/format';
 import { useDelayed } from '../forecast/useWidth';
 import VerdictBanner from '../forecast/VerdictBanner';
 import PriceListForm from './PriceListForm';

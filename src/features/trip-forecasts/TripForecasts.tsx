@@ -3,7 +3,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { ApiError } from '../../lib/query-client';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
 import { useDelayed } from '../forecast/useWidth';
-import { formatRowTime } from '../forecast/time';
+import { formatRowTime } from '../../lib/format';
 import { forecastKeys } from '../forecast/forecast.queries';
 import { deleteSavedForecast, runTripForecast, type ForecastListItem } from './trip-forecasts.api';
 import { tripForecastKeys, tripForecastQueries } from './trip-forecasts.queries';

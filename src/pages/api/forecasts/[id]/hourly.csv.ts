@@ -1,7 +1,8 @@
 import { tripAccess } from '../../../../server/access';
 import { db } from '../../../../server/db';
 import { HttpError } from '../../../../server/errors';
-import { forecastTripId, getForecast, hourlyCsv } from '../../../../server/forecasts';
+import { forecastCsv } from '../../../../domain/forecasts/hourly-csv';
+import { forecastTripId, getForecast } from '../../../../server/forecasts';
 import { requireUser, route } from '../../../../server/http';
 
 export const prerender = false;
@@ -18,7 +19,7 @@ export const GET = route(async (ctx) => {
   const f = await getForecast(db, ctx.params.id!);
   if (!f) throw notFound;
   const slug = f.name.replace(/[^a-z0-9]+/gi, '-').replace(/^-|-$/g, '').toLowerCase() || 'forecast';
-  return new Response(hourlyCsv(f.forecast), {
+  return new Response(forecastCsv(f.forecast), {
     headers: {
       'content-type': 'text/csv; charset=utf-8',
       'content-disposition': `attachment; filename="${slug}-hourly.csv"`,

@@ -2,22 +2,22 @@
 // engine again on a changed plan (the engine is pure and fast, so advice is never guessed).
 import {
   forecast as runEngine,
+  inverterDcWatts,
+  loadWattsAt,
   prepareTrip,
   simulatePrepared,
   toForecast,
   validatePlan,
+  windowMask,
   type Forecast,
   type PreparedTrip,
   type ResolvedCharger,
   type ResolvedPlan,
 } from '../../engine';
-import { inverterDcWatts, loadWattsAt, windowMask } from '../../engine/light';
-import { formatClock, formatDay, formatRowTime, localParts } from './time';
+import { formatClock, formatDay, formatRowTime, formatWh, localParts, pct, whPerDay } from '../../lib/format';
 import { CAUTIONS } from './cautions';
-import { pct, reserveOf, wh, whPerDay } from './verdict';
+import { reserveOf } from '../forecasts/verdict';
 
-// Re-exported for the modules that read them here (proposals).
-export { CAUTIONS, whPerDay };
 
 /** Converter/charger amps assumed for generator advice when the plan names none (common practice: 30 A is a usual RV converter). */
 export const ASSUMED_CONVERTER_AMPS = 30;

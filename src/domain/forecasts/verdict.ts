@@ -1,6 +1,6 @@
 // The verdict: the forecast's answer in one sentence, before any chart (ux.md, "The forecast page").
 import type { Forecast, ResolvedPlan } from '../../engine';
-import { formatDay, formatClock, formatRowTime, localParts } from './time';
+import { formatClock, formatDay, formatRowTime, formatWh, localParts, pct } from '../../lib/format';
 
 export type VerdictStatus = 'makes-it' | 'below-reserve' | 'runs-out';
 
@@ -21,18 +21,6 @@ export interface Verdict {
   lowestAt: string;
   /** The reserve the chart shades: the trip's reserve, or the bank's floor. */
   reservePct: number;
-}
-
-/** A percentage for sentences: whole numbers, "41 %". */
-export function pct(x: number): string {
-  return `${Math.round(x)} %`;
-}
-
-const WHOLE = new Intl.NumberFormat('en-US', { maximumFractionDigits: 0 });
-
-/** "Wh" with thousands separators. */
-export function wh(x: number): string {
-  return `${WHOLE.format(Math.round(x))} Wh`;
 }
 
 function hours(n: number): string {
@@ -67,7 +55,7 @@ export function verdict(forecast: Forecast, plan: ResolvedPlan, reserveSocPct?: 
     const short = hoursShort > 0 ? ` — ${hours(hoursShort)} short` : '';
     const detail =
       hoursShort > 0
-        ? `The bank reaches its ${pct(s.floorSocPct)} floor and disconnects: loads go without about ${wh(s.unmetWh)} over ${hours(hoursShort)} (an estimate).`
+        ? `The bank reaches its ${pct(s.floorSocPct)} floor and disconnects: loads go without about ${formatWh(s.unmetWh)} over ${hours(hoursShort)} (an estimate).`
         : `The bank touches its ${pct(s.floorSocPct)} floor and disconnects briefly (an estimate).`;
     return { status: 'runs-out', headline: `Runs out ${when} at ${stop}${short}`, detail, cutoffAt: s.firstCutoffAt, cutoffStop: stop, hoursShort, lowestPct: s.minSocPct, lowestAt: s.minSocAt, reservePct };
   }
@@ -97,9 +85,4 @@ export function verdict(forecast: Forecast, plan: ResolvedPlan, reserveSocPct?: 
     lowestAt: s.minSocAt,
     reservePct,
   };
-}
-
-/** Energy per day, e.g. "1.2 kWh/day". */
-export function whPerDay(x: number): string {
-  return `${wh(x)}/day`;
 }

@@ -1,0 +1,27 @@
+// The hourly forecast as CSV: one writer for the saved forecast's /api/forecasts/:id/hourly.csv
+// and for the button that builds it in the browser (a quick plan has no saved forecast to link to).
+import type { Forecast, HourlyRow } from '../../engine';
+import { needsFormulaEscape } from '../csv-cells';
+
+export const CSV_COLUMNS: (keyof HourlyRow)[] = ['time', 'socPct', 'volts', 'solarWatts', 'chargeWatts', 'loadWatts', 'unmetWatts', 'curtailedWatts', 'ambientC', 'batteryC', 'sunAltitudeDeg', 'poaWm2', 'driving', 'generatorOn', 'disconnected'];
+
+function cell(v: unknown): string {
+  const s = String(v);
+  // The loads export's rule: a leading = + - @ TAB CR gets an apostrophe unless the whole cell is a plain number ("-2+3" is a formula).
+  const safe = needsFormulaEscape(s) ? `'${s}` : s;
+  return /[",\n\r]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
+}
+
+/** The forecast's hourly rows as CSV text (CRLF lines), with the stop's name on each row; formula-like cells are escaped. */
+export function forecastCsv(f: Forecast): string {
+  const lines = [['stop', ...CSV_COLUMNS].join(',')];
+  for (const row of f.hourly) lines.push([cell(f.stops?.[row.stop]?.name ?? ''), ...CSV_COLUMNS.map((c) => cell(row[c]))].join(','));
+  return lines.join('\r\n') + '\r\n';
+}
+
+/** A file name for the CSV: "sunreckon-forecast-2027-10-21.csv". */
+export function csvFileName(f: Forecast, name?: string): string {
+  const date = f.hourly[0]?.time.slice(0, 10) ?? 'trip';
+  const slug = (name ?? 'forecast').toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'forecast';
+  return `sunreckon-${slug}-${date}.csv`;
+}
