@@ -315,6 +315,18 @@ export interface ProposalTable {
   updated_at: string;
 }
 
+/** One answer of the weather service: place in tenths of a degree, UTC date range and kind. */
+export interface WeatherCacheTable {
+  kind: 'forecast' | 'archive';
+  lat_tenths: number;
+  lon_tenths: number;
+  start_date: string;
+  end_date: string;
+  /** JSON: the decoded hourly series (`HourlySeries` of src/domain/weather). */
+  series: string;
+  fetched_at: string;
+}
+
 export interface DB {
   user: UserTable;
   session: SessionTable;
@@ -337,6 +349,7 @@ export interface DB {
   monitor_logs: MonitorLogTable;
   monitor_samples: MonitorSampleTable;
   check_ins: CheckInTable;
+  weather_cache: WeatherCacheTable;
 }
 
 export type User = Selectable<UserTable>;

@@ -5,6 +5,7 @@ import * as forecasts from './2026_12_01_0003_forecasts';
 import * as crewsMail from './2026_12_01_0004_crews_mail';
 import * as proposals from './2026_12_01_0005_proposals';
 import * as logsCheckIns from './2026_12_01_0006_logs_checkins';
+import * as weatherCache from './2026_12_04_0007_weather_cache';
 
 /**
  * Every migration, in order. Listed statically (not read from the folder) so the same list runs
@@ -17,4 +18,5 @@ export const migrations: Record<string, Migration> = {
   '2026_12_01_0004_crews_mail': crewsMail,
   '2026_12_01_0005_proposals': proposals,
   '2026_12_01_0006_logs_checkins': logsCheckIns,
+  '2026_12_04_0007_weather_cache': weatherCache,
 };

@@ -19,6 +19,11 @@ const schema = z.object({
   /** Set to 1 behind one reverse proxy that appends the client to X-Forwarded-For; otherwise that header is never believed. */
   SUNRECKON_TRUST_PROXY: z.enum(['0', '1']).default('0'),
   SUNRECKON_ENV: z.enum(['production', 'development', 'test', 'demo']).optional(),
+  /** The weather service's forecast and historical endpoints (the demo and the tests point them at the local fake). */
+  WEATHER_FORECAST_URL: z.string().url().default('https://api.open-meteo.com/v1/forecast'),
+  WEATHER_ARCHIVE_URL: z.string().url().default('https://archive-api.open-meteo.com/v1/archive'),
+  /** How long one fill of a trip's weather waits for the service before using what it has, ms (at most 5 s). */
+  WEATHER_TIMEOUT_MS: z.coerce.number().int().min(100).max(5000).default(5000),
 });
 
 const parsed = schema.safeParse(process.env);

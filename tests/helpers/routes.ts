@@ -198,6 +198,7 @@ export const ROUTES: RouteCase[] = [
   { method: 'DELETE', route: '/api/monitor-logs/[id]', url: (w) => `/api/monitor-logs/${w.monitorLog.id}?version=${w.monitorLog.version}`, expect: RIG_WRITE(204), fresh: true },
   { method: 'GET', route: '/api/trips/[id]/check-ins', url: (w) => `/api/trips/${w.trip.id}/check-ins`, expect: RIG_READ },
   { method: 'POST', route: '/api/trips/[id]/check-ins', url: (w) => `/api/trips/${w.trip.id}/check-ins`, body: () => CHECK_IN_INPUT(), expect: RIG_WRITE(201) },
+  { method: 'GET', route: '/api/trips/[id]/weather', url: (w) => `/api/trips/${w.trip.id}/weather`, expect: RIG_READ },
   { method: 'DELETE', route: '/api/check-ins/[id]', url: (w) => `/api/check-ins/${w.checkIn.id}?version=${w.checkIn.version}`, expect: RIG_WRITE(204), fresh: true },
 
   // Installer proposals: sweeps, price lists, proposals and the crew's answer
