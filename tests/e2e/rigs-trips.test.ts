@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { baseUrl, uniqueEmail } from '../helpers/api';
 import { hydrated, launch, shot, VIEWPORTS, type ViewportName } from '../helpers/browser';
+import { at } from '../../src/lib/invariant';
 
 // A new camper, tried as a new user would: describes a rig from a preset, lists its loads from
 // the catalogue and a CSV file, and plans a two-stop trip with a drive day — at phone and desktop
@@ -89,7 +90,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     await page.getByLabel('This rig has an inverter').check();
     await page.getByRole('button', { name: 'Create rig' }).click();
     await page.waitForURL(/\/rigs\/(?!new\b)[^/?#]+(\?created=1)?#loads$/);
-    rigId = new URL(page.url()).pathname.split('/')[2];
+    rigId = at(new URL(page.url()).pathname.split('/'), 2, 'rig id in the URL');
     await hydrated(page);
     await page.getByRole('heading', { level: 1, name: 'Van' }).waitFor();
     await page.getByText('300 Ah LiFePO4 · 400 W solar').waitFor();
@@ -272,7 +273,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
 
     await page.getByRole('button', { name: 'Create trip' }).click();
     await page.waitForURL(/\/trips\/(?!new\b)[^/?#]+(\?created=1)?$/);
-    tripId = new URL(page.url()).pathname.split('/')[2];
+    tripId = at(new URL(page.url()).pathname.split('/'), 2, 'trip id in the URL');
     await hydrated(page);
     await page.getByText('Thu 21 Oct – Tue 26 Oct 2027 · 5 nights').waitFor();
     // The saved trip opens as an itinerary to read; the editor is a button away.

@@ -95,7 +95,7 @@ describe('saved forecasts', () => {
     expect(res.headers.get('content-type')).toMatch(/text\/csv/);
     expect(res.headers.get('content-disposition')).toMatch(/attachment; filename=".+-hourly\.csv"/);
     const lines = (await res.text()).trim().split('\r\n');
-    expect(lines[0].split(',').slice(0, 3)).toEqual(['stop', 'time', 'socPct']);
+    expect(lines[0]?.split(',').slice(0, 3)).toEqual(['stop', 'time', 'socPct']);
     expect(lines.length - 1).toBe(first.summary.hoursSimulated);
   });
 

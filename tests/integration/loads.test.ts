@@ -1,6 +1,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { api, signUp, type Session } from '../helpers/api';
 import { createLoad, createRig, dbAll, dbGet } from '../helpers/fixtures';
+import { at } from '../../src/lib/invariant';
 
 let owner: Session;
 let stranger: Session;
@@ -65,7 +66,7 @@ describe('POST and GET /api/rigs/:id/loads', () => {
     const log = activity(rig.id);
     expect(log).toHaveLength(1);
     expect(log[0]).toMatchObject({ load_id: load.id, user_id: owner.userId, action: 'added', load_name: 'Compressor fridge' });
-    expect(JSON.parse(log[0].changes).watts).toEqual([null, 45]);
+    expect(JSON.parse(at(log, 0, 'activity row').changes).watts).toEqual([null, 45]);
   });
 
   it('lists by position, then by when they were added', async () => {
@@ -109,7 +110,7 @@ describe('PATCH /api/loads/:id', () => {
     expect(after).toMatchObject({ watts: 60, windows: [[18, 23], [6, 8]], note: 'Door seal is old', dutyPct: 40, response: 'cooling', version: 2 });
     const log = activity(rig.id);
     expect(log.map((l) => l.action)).toEqual(['added', 'changed']);
-    expect(JSON.parse(log[1].changes)).toEqual({ watts: [45, 60], windows: [[[0, 24]], [[18, 23], [6, 8]]] });
+    expect(JSON.parse(at(log, 1, 'activity row').changes)).toEqual({ watts: [45, 60], windows: [[[0, 24]], [[18, 23], [6, 8]]] });
   });
 
   it('needs the version read (400 naming version)', async () => {
@@ -155,7 +156,7 @@ describe('DELETE /api/loads/:id', () => {
       ['added', load.id, 'Compressor fridge'],
       ['removed', load.id, 'Compressor fridge'],
     ]);
-    expect(JSON.parse(log[1].changes).watts).toEqual([45, null]);
+    expect(JSON.parse(at(log, 1, 'activity row').changes).watts).toEqual([45, null]);
   });
 
   it('answers 409 with the current load on a stale version, and removes nothing', async () => {

@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { api, baseUrl, signUp, type Session } from '../helpers/api';
 import { createRig, dbAll, dbGet } from '../helpers/fixtures';
 import { toCsv, truth } from '../fixtures/monitor/synthetic';
+import { at } from '../../src/lib/invariant';
 
 // Monitor-log uploads against the built server and a real SQLite file: preview, save, what the log
 // tells, the size limit, wrong types, empty and broken files, and a fault inside the transaction.
@@ -38,6 +39,7 @@ const logCount = () => dbGet<{ n: number }>('select count(*) as n from monitor_l
 const sampleCount = () => dbGet<{ n: number }>('select count(*) as n from monitor_samples s join monitor_logs l on l.id = s.log_id where l.rig_id = ?', rig.id)!.n;
 
 const rows = truth({ days: 3, nightDrawA: 1.5 });
+const firstRow = at(rows, 0, 'synthetic reading');
 const semicolonLog = toCsv(rows, { delimiter: ';', decimal: ',', time: 'dmy', preamble: ['Battery monitor export', 'Serial;0042'] });
 
 describe('preview, then save with the confirmed mapping', () => {
@@ -52,7 +54,7 @@ describe('preview, then save with the confirmed mapping', () => {
     expect(p.mapping).toMatchObject({ delimiter: ';', decimal: ',', headerLine: 3, time: { format: 'dmy', column: 0 }, current: { sign: 'charge-positive' }, timeZone: TZ });
     expect(p.errorCount).toBe(0);
     expect(p.count).toBe(rows.length);
-    expect(p.sample[0]).toMatchObject({ line: 4, t: rows[0].t, amps: rows[0].amps });
+    expect(p.sample[0]).toMatchObject({ line: 4, t: firstRow.t, amps: firstRow.amps });
     expect(p.headers[0]).toBe('Timestamp');
     expect(logCount()).toBe(before);
     mapping = p.mapping;
@@ -64,13 +66,13 @@ describe('preview, then save with the confirmed mapping', () => {
     const log = await res.json();
     logId = log.id;
     expect(log).toMatchObject({ rigId: rig.id, name: 'trip-log.csv', sampleCount: rows.length, timeZone: TZ, version: 1, has: { volts: true, amps: true, soc: true, temperature: true } });
-    expect(log.startedAt).toBe(new Date(rows[0].t).toISOString());
+    expect(log.startedAt).toBe(new Date(firstRow.t).toISOString());
     const stored = dbGet<{ original: Buffer; original_bytes: number }>('select original, original_bytes from monitor_logs where id = ?', logId)!;
     expect(Buffer.from(stored.original).toString('utf8')).toBe(semicolonLog);
     const n = dbGet<{ n: number }>('select count(*) as n from monitor_samples where log_id = ?', logId)!.n;
     expect(n).toBe(rows.length);
     const first = dbGet<{ t: number; amps: number; volts: number }>('select t, amps, volts from monitor_samples where log_id = ? order by t limit 1', logId)!;
-    expect(first).toEqual({ t: rows[0].t, amps: rows[0].amps, volts: rows[0].volts });
+    expect(first).toEqual({ t: firstRow.t, amps: firstRow.amps, volts: firstRow.volts });
   });
 
   it('lists it, tells the night-time baseline and daily Ah, and gives back the file', async () => {
@@ -175,8 +177,8 @@ describe('refused uploads save nothing', () => {
     const before = [logCount(), sampleCount()];
     const good = toCsv(truth({ days: 1 }), { temperature: false });
     const lines = good.trimEnd().split('\n');
-    lines[5] = lines[5].replace(/,13\.\d+,/, ',900,');
-    lines[9] = lines[9].replace(/,[\d.]+$/, ',250');
+    lines[5] = at(lines, 5, 'log line').replace(/,13\.\d+,/, ',900,');
+    lines[9] = at(lines, 9, 'log line').replace(/,[\d.]+$/, ',250');
     lines[12] = '2027-10-21 01:00:00,13.1';
     const res = await upload({ text: lines.join('\n') + '\n', mapping: MAPPING });
     expect(res.status).toBe(400);
@@ -204,7 +206,7 @@ describe('one transaction', () => {
   // A fault injected into the real database: inserting one particular reading fails. The log row
   // and the readings inserted before it must all be rolled back.
   const six = truth({ days: 6 });
-  const failAt = six[1500].t;
+  const failAt = at(six, 1500, 'synthetic reading').t;
   let rw: Database.Database;
   beforeAll(() => {
     rw = new Database(inject('dbPath'), { fileMustExist: true });
@@ -217,7 +219,7 @@ describe('one transaction', () => {
 
   it('a failure on the 1501st reading leaves neither the log nor any reading behind', async () => {
     const text = toCsv(six);
-    const before = [logCount(), sampleCount()];
+    const before = [logCount(), sampleCount()] as const;
     const res = await upload({ text, mapping: { ...MAPPING, temperature: { column: 4, unit: 'C' } } });
     expect(res.status).toBe(500);
     expect((await res.json()).error.message).toMatch(/Your data was not changed/);

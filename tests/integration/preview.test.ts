@@ -27,7 +27,7 @@ describe('POST /api/forecasts/preview', () => {
   });
 
   it('names the refused field', async () => {
-    const plan = demoPlan() as { bank: { capacityAh: unknown }; stops: { lat: unknown }[] };
+    const plan = demoPlan() as { bank: { capacityAh: unknown }; stops: [{ lat: unknown }, ...unknown[]] };
     plan.bank.capacityAh = -5;
     plan.stops[0].lat = 123;
     const res = await post(JSON.stringify(plan));

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { buildQuickPlan, type QuickPlanForm } from '../../src/features/quick-plan/quick-plan';
 import { api, openTestDb, signUp } from '../helpers/api';
+import { at } from '../../src/lib/invariant';
 
 const ENTRY: QuickPlanForm = {
   chemistry: 'agm',
@@ -39,7 +40,7 @@ describe('POST /api/quick-plan/keep', () => {
     expect(count('select count(*) as n from loads where rig_id = ?', rigId)).toBe(plan.loads!.length);
     const trip = await (await api(`/api/trips/${tripId}`, { session: s })).json();
     expect(trip.rigId).toBe(rigId);
-    expect(trip.stops[0].name).toBe(plan.stops[0].name);
+    expect(trip.stops[0]?.name).toBe(at(plan.stops, 0, 'stop').name);
     // The kept plan forecasts exactly as the preview did.
     const saved = await (await api(`/api/trips/${tripId}/forecasts`, { method: 'POST', session: s })).json();
     const preview = await (await api('/api/forecasts/preview', { method: 'POST', json: plan })).json();

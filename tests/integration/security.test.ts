@@ -139,7 +139,7 @@ describe('security headers', () => {
     expect(res.headers.get('x-content-type-options')).toBe('nosniff');
     expect(res.headers.get('referrer-policy')).toBe('strict-origin-when-cross-origin');
     expect(res.headers.get('x-frame-options')).toBe('DENY');
-    const directives = Object.fromEntries(csp.split(';').map((d) => d.trim().split(/\s+/)).map(([k, ...v]) => [k, v]));
+    const directives = Object.fromEntries(csp.split(';').map((d) => d.trim().split(/\s+/)).map(([k = '', ...v]) => [k, v] as const));
     expect(directives['frame-ancestors']).toEqual(["'none'"]);
     expect(directives['default-src']).toEqual(["'self'"]);
     expect(directives['base-uri']).toEqual(["'self'"]);

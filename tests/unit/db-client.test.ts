@@ -23,7 +23,7 @@ describe('database transactions', () => {
     let otherWriter: unknown = null;
     await db.transaction().execute(async (trx) => {
       const before = await sql<{ n: number }>`select count(*) as n from notes`.execute(trx);
-      expect(before.rows[0].n).toBe(0);
+      expect(before.rows[0]?.n).toBe(0);
       try {
         other.prepare("insert into notes (body) values ('from another process')").run();
       } catch (err) {
