@@ -164,12 +164,12 @@ console.log(`\n${combos.length} combos of a 14-day trip (bank × array × altern
 console.log(`  prepare + ${combos.length} simulations: median ${ms(combo)}   [target < 1000 ms]`);
 
 // ---------------------------------------------------------------------------------------------
-// Installer upgrade sweep (issue 7, src/proposals/sweep.ts): the whole POST /api/forecasts/:id/sweep
+// Installer upgrade sweep (issue 7, src/domain/proposals/sweep.ts): the whole POST /api/forecasts/:id/sweep
 // computation on a 14-day trip — prepare the plan once plus once per new panel geometry, simulate
 // every combination, price and rank. Target: 200 runs in under a second.
 {
-  const { runSweep } = await import('../src/proposals/sweep');
-  const { candidatesSchema, priceListSchema, countCombinations } = await import('../src/proposals/schema');
+  const { runSweep } = await import('../src/domain/proposals/sweep');
+  const { candidatesSchema, priceListSchema, countCombinations } = await import('../src/domain/proposals/proposals.schema');
   const plan14 = resolved(benchPlan(14));
   const candidates = candidatesSchema.parse({
     banks: [

@@ -32,6 +32,15 @@ export function pct(x: number): string {
   return `${Math.round(x)} %`;
 }
 
+/** "US$1,234.50" in the installer's currency (any well-formed ISO 4217 code). */
+export function formatMoney(amount: number, currency: string): string {
+  try {
+    return new Intl.NumberFormat('en-US', { style: 'currency', currency, currencyDisplay: 'symbol' }).format(amount);
+  } catch {
+    return `${amount.toFixed(2)} ${currency}`;
+  }
+}
+
 /** Amp-hours: one decimal below 100, whole above: "8.3 Ah", "142 Ah". */
 export function formatAh(ah: number): string {
   return `${formatNumber(ah, Math.abs(ah) < 100 ? 1 : 0)} Ah`;

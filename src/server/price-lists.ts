@@ -1,6 +1,6 @@
 import type { Kysely } from 'kysely';
 import type { DB } from '../../db/schema';
-import { priceListSchema, type PriceList } from '../proposals/schema';
+import { priceListSchema, type PriceList } from '../domain/proposals/proposals.schema';
 import { HttpError } from './errors';
 import { conflict, nowIso } from './versions';
 

@@ -1,10 +1,10 @@
 import type { Kysely } from 'kysely';
 import type { DB, ProposalRow } from '../../db/schema';
 import type { Forecast, ForecastSummary, ResolvedPlan } from '../engine';
-import type { ProposalDto, ProposalListItem } from '../proposals/dto';
-import { checkCables, defaultCables, formatMoney, lineAmount, partsTotal, proposalCautions, type CheckedCable } from '../proposals/proposal';
-import type { CableRow, Changes, Part, PriceList, ProposalPatchInput } from '../proposals/schema';
-import { forecastAfter, labelOf, oneOffItems, type CostItem } from '../proposals/sweep';
+import type { ProposalDto, ProposalListItem, CableRow, Changes, Part, PriceList, ProposalPatchInput } from '../domain/proposals/proposals.schema';
+import { checkCables, defaultCables, lineAmount, partsTotal, proposalCautions, type CheckedCable } from '../domain/proposals/proposals';
+import { formatMoney } from '../lib/format';
+import { forecastAfter, labelOf, oneOffItems, type CostItem } from '../domain/proposals/sweep';
 import { installerOnly, tripAccess, type Actor, type RigGrant } from './access';
 import { HttpError, type Issue } from './errors';
 import { forecastTripId, getForecast, packHourly, unpackHourly, type ForecastDto } from './forecasts';

@@ -13,7 +13,7 @@ import {
   systemVolts,
   voltageDrop,
   type CableInput,
-} from '../../src/proposals/cable';
+} from '../../src/domain/proposals/cable';
 
 const FT = 0.3048;
 

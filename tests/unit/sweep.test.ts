@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { demoPlan, prepareTrip, validatePlan, type Plan, type ResolvedPlan } from '../../src/engine';
-import { candidatesSchema, changesSchema, countCombinations, priceListSchema, type Candidates, type PriceList } from '../../src/proposals/schema';
+import { candidatesSchema, changesSchema, countCombinations, priceListSchema, type Candidates, type PriceList } from '../../src/domain/proposals/proposals.schema';
 import { TEST_PRICES } from '../helpers/prices';
-import { applyChanges, bankFrom, chargersFrom, forecastAfter, runSweep } from '../../src/proposals/sweep';
+import { applyChanges, bankFrom, chargersFrom, forecastAfter, runSweep } from '../../src/domain/proposals/sweep';
 
 function resolved(p: Plan): ResolvedPlan {
   const v = validatePlan(p);

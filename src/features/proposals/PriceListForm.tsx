@@ -7,7 +7,7 @@ import { NumberField } from '../../components/ui/NumberField';
 import { applyServerIssues, asNumber, errorAt, fieldId } from '../../components/ui/form';
 import { ErrorState, LoadingState } from '../../components/ui/States';
 import { ApiError, isConflict } from '../../lib/query-client';
-import { priceListSchema, type PriceList, type PriceListInput } from '../../proposals/schema';
+import { priceListSchema, type PriceList, type PriceListInput } from '../../domain/proposals/proposals.schema';
 import { savePriceList, type PriceListDto } from './proposals.api';
 import { proposalKeys, proposalQueries } from './proposals.queries';
 

@@ -1,10 +1,9 @@
 // The read-only parts of a proposal, shared by the screen and the printout: parts and cost, cable
 // and fuse checks, cautions.
-import { AMPACITY_TABLE_NAMES, cmilToMm2, gauge, type CableResult } from '../../proposals/cable';
-import type { ProposalDto } from '../../proposals/dto';
-import { formatMoney } from '../../proposals/proposal';
+import { AMPACITY_TABLE_NAMES, cmilToMm2, gauge, type CableResult } from '../../domain/proposals/cable';
+import type { ProposalDto } from '../../domain/proposals/proposals.schema';
 import { formatLength, type Units } from '../../lib/units';
-import { formatNumber } from '../../lib/format';
+import { formatMoney, formatNumber } from '../../lib/format';
 
 const qty = (p: { quantity: number; unit: string }) => `${formatNumber(p.quantity, 2)}${p.unit ? ` ${p.unit}` : ''}`;
 

@@ -1,9 +1,8 @@
 import { useQuery } from '@tanstack/react-query';
 import { withQueryClient } from '../../components/ui/QueryProvider';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
-import { formatDate } from '../../lib/format';
-import type { ProposalListItem } from '../../proposals/dto';
-import { formatMoney } from '../../proposals/proposal';
+import { formatDate, formatMoney } from '../../lib/format';
+import type { ProposalListItem } from '../../domain/proposals/proposals.schema';
 import { formatRowTime } from '../../lib/format';
 import PriceListForm from './PriceListForm';
 import { STATUS_LOOK } from './status';

@@ -1,8 +1,7 @@
 // Plain fetchers of the proposals area (no React).
 import { apiFetch } from '../../lib/query-client';
-import type { ProposalDto, ProposalListItem } from '../../proposals/dto';
-import type { CandidatesInput, ChangesInput, DecisionInput, PriceList, ProposalPatchInput } from '../../proposals/schema';
-import type { SweepResult } from '../../proposals/sweep';
+import type { ProposalDto, ProposalListItem, CandidatesInput, ChangesInput, DecisionInput, PriceList, ProposalPatchInput } from '../../domain/proposals/proposals.schema';
+import type { SweepResult } from '../../domain/proposals/sweep';
 
 const enc = encodeURIComponent;
 

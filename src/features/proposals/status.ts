@@ -1,4 +1,4 @@
-import type { ProposalStatus } from '../../proposals/schema';
+import type { ProposalStatus } from '../../domain/proposals/proposals.schema';
 
 /** How each status reads and looks, the same on the list and the proposal. */
 export const STATUS_LOOK: Record<ProposalStatus, { label: string; cls: string }> = {

@@ -2,7 +2,7 @@ import { db } from '../../server/db';
 import { HttpError } from '../../server/errors';
 import { json, parseWith, readJson, requireUser, route } from '../../server/http';
 import { getPriceList, putPriceList } from '../../server/price-lists';
-import { priceListPutSchema } from '../../proposals/schema';
+import { priceListPutSchema } from '../../domain/proposals/proposals.schema';
 
 export const prerender = false;
 

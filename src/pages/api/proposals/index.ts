@@ -2,7 +2,7 @@ import { db } from '../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../server/http';
 import { savedPricesOrThrow } from '../../../server/price-lists';
 import { createProposal, forecastForInstaller, listProposals } from '../../../server/proposals';
-import { proposalCreateSchema } from '../../../proposals/schema';
+import { proposalCreateSchema } from '../../../domain/proposals/proposals.schema';
 
 export const prerender = false;
 

@@ -2,8 +2,8 @@ import { db } from '../../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../../server/http';
 import { savedPricesOrThrow } from '../../../../server/price-lists';
 import { forecastForInstaller } from '../../../../server/proposals';
-import { sweepRequestSchema } from '../../../../proposals/schema';
-import { runSweep } from '../../../../proposals/sweep';
+import { sweepRequestSchema } from '../../../../domain/proposals/proposals.schema';
+import { runSweep } from '../../../../domain/proposals/sweep';
 
 export const prerender = false;
 

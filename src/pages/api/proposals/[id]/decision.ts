@@ -3,7 +3,7 @@ import { appOrigin } from '../../../../server/app-url';
 import { db } from '../../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../../server/http';
 import { decideProposal } from '../../../../server/proposals';
-import { decisionSchema } from '../../../../proposals/schema';
+import { decisionSchema } from '../../../../domain/proposals/proposals.schema';
 
 export const prerender = false;
 

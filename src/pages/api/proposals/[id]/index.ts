@@ -3,7 +3,7 @@ import { db } from '../../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../../server/http';
 import { deleteProposal, patchProposal, toDto } from '../../../../server/proposals';
 import { versionFrom } from '../../../../server/versions';
-import { proposalPatchSchema } from '../../../../proposals/schema';
+import { proposalPatchSchema } from '../../../../domain/proposals/proposals.schema';
 
 export const prerender = false;
 

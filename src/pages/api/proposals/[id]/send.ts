@@ -3,7 +3,7 @@ import { appOrigin } from '../../../../server/app-url';
 import { db } from '../../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../../server/http';
 import { sendProposal } from '../../../../server/proposals';
-import { proposalSendSchema } from '../../../../proposals/schema';
+import { proposalSendSchema } from '../../../../domain/proposals/proposals.schema';
 
 export const prerender = false;
 

@@ -1,9 +1,9 @@
 // What a proposal adds to the chosen option: default cable runs for the parts it adds, their
 // checks, the parts list and its total, and the cautions. Pure; the server and the islands share it.
-import type { ResolvedPlan } from '../engine';
-import { CAUTIONS } from '../domain/advice/cautions';
+import type { ResolvedPlan } from '../../engine';
+import { CAUTIONS } from '../advice/cautions';
 import { CABLE_CAUTIONS, checkCable, defaultLowestVolts, type CableResult } from './cable';
-import type { CableRow, Changes, Part } from './schema';
+import type { CableRow, Changes, Part } from './proposals.schema';
 
 /** A cable run as a proposal keeps it: what the installer entered and what the check gave. */
 export interface CheckedCable {
@@ -24,15 +24,6 @@ export function lineAmount(p: Pick<Part, 'quantity' | 'unitPrice'>): number {
 /** The parts list's total. */
 export function partsTotal(parts: Pick<Part, 'quantity' | 'unitPrice'>[]): number {
   return cents(parts.reduce((t, p) => t + lineAmount(p), 0));
-}
-
-/** "US$1,234.50" in the installer's currency (any well-formed ISO 4217 code). */
-export function formatMoney(amount: number, currency: string): string {
-  try {
-    return new Intl.NumberFormat('en-US', { style: 'currency', currency, currencyDisplay: 'symbol' }).format(amount);
-  } catch {
-    return `${amount.toFixed(2)} ${currency}`;
-  }
 }
 
 /**

@@ -17,9 +17,9 @@ import {
   type ResolvedPlan,
   type SimSummary,
   type Variant,
-} from '../engine';
-import { bankSchema, CHEMISTRY_DEFAULTS } from '../engine';
-import type { BankCandidate, Candidates, Changes, Mounting, PanelCandidate, PriceList } from './schema';
+} from '../../engine';
+import { bankSchema, CHEMISTRY_DEFAULTS } from '../../engine';
+import type { BankCandidate, Candidates, Changes, Mounting, PanelCandidate, PriceList } from './proposals.schema';
 
 /** One priced line of an option. */
 export interface CostItem {

@@ -1,8 +1,11 @@
 // Request shapes of price lists, sweeps and proposals: declared once, shared by API routes and
 // forms. Every number has bounds and a message that reads after the field's name.
 import { z } from 'zod';
-import { CHEMISTRIES } from '../engine';
+import { CHEMISTRIES } from '../../engine';
 import { AMPACITY_TABLES, AWG_SIZES } from './cable';
+import type { Forecast, ForecastSummary, ResolvedPlan } from '../../engine';
+import type { CheckedCable } from './proposals';
+import type { CostItem } from './sweep';
 
 function num(min: number, max: number) {
   return z.number({ error: 'must be a number' }).min(min, { error: `must be at least ${min}` }).max(max, { error: `must be at most ${max}` });
@@ -190,3 +193,54 @@ export type DecisionInput = z.input<typeof decisionSchema>;
 
 export const PROPOSAL_STATUSES = ['draft', 'sent', 'accepted', 'declined'] as const;
 export type ProposalStatus = (typeof PROPOSAL_STATUSES)[number];
+
+// What the proposal API returns: types only, shared by the server and the islands.
+/** A proposal in a list: enough to see where it stands. */
+export interface ProposalListItem {
+  id: string;
+  title: string;
+  status: ProposalStatus;
+  version: number;
+  rigId: string;
+  rigName: string;
+  crewName: string;
+  tripId: string | null;
+  tripName: string | null;
+  installerName: string;
+  currency: string;
+  total: number;
+  label: string;
+  before: Pick<ForecastSummary, 'minSocPct' | 'firstCutoffAt' | 'unmetWh'>;
+  after: Pick<ForecastSummary, 'minSocPct' | 'firstCutoffAt' | 'unmetWh'>;
+  createdAt: string;
+  updatedAt: string;
+  sentAt: string | null;
+  decidedAt: string | null;
+}
+
+/** One side of a proposal: the plan and its forecast. */
+export interface ProposalSide {
+  plan: ResolvedPlan;
+  forecast: Forecast;
+}
+
+/** A whole proposal, with what the caller may do with it. */
+export interface ProposalDto extends ProposalListItem {
+  forecastId: string | null;
+  notes: string;
+  changes: Changes;
+  parts: (Part & { amount: number })[];
+  running: CostItem[];
+  cables: CheckedCable[];
+  cautions: string[];
+  reserveSocPct: number | null;
+  before: ProposalSide & ProposalListItem['before'];
+  after: ProposalSide & ProposalListItem['after'];
+  decision: { comment: string; by: string | null; at: string } | null;
+  /** The caller is its installer and it is still a draft. */
+  canEdit: boolean;
+  /** The caller is an owner of the rig's crew and it waits for an answer. */
+  canDecide: boolean;
+  /** The caller wrote it (an installer) rather than received it (the crew). */
+  mine: boolean;
+}
