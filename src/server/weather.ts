@@ -82,7 +82,8 @@ function variableValues(hourly: NonNullable<ReturnType<WeatherApiResponse['hourl
     if (variable === Variable.temperature && v.altitude() !== 2) continue;
     const values = v.valuesArray();
     if (!values || values.length !== n) throw new GarbageError('a variable has the wrong number of hours');
-    const out = Array.from(values, (x) => (Number.isFinite(x) ? x : NaN));
+    // To 0.1, the precision the service states its values in (and the cache keeps), so a fresh and a cached answer read alike.
+    const out = Array.from(values, (x) => (Number.isFinite(x) ? Math.round(x * 10) / 10 : NaN));
     if (out.some((x) => !Number.isNaN(x) && (x < min || x > max))) throw new GarbageError('values out of range');
     return out;
   }
