@@ -71,8 +71,16 @@ function dayOfYear(day: number): number {
 export function fakeCosZenith(tSec: number, lat: number, lon: number): number {
   const day = Math.floor(tSec / DAY_S);
   const g = (2 * Math.PI * (dayOfYear(day) - 1)) / 365;
-  const decl = 0.006918 - 0.399912 * Math.cos(g) + 0.070257 * Math.sin(g) - 0.006758 * Math.cos(2 * g) + 0.000907 * Math.sin(2 * g) - 0.002697 * Math.cos(3 * g) + 0.00148 * Math.sin(3 * g);
-  const eotMin = 229.18 * (0.000075 + 0.001868 * Math.cos(g) - 0.032077 * Math.sin(g) - 0.014615 * Math.cos(2 * g) - 0.040849 * Math.sin(2 * g));
+  const decl =
+    0.006918 -
+    0.399912 * Math.cos(g) +
+    0.070257 * Math.sin(g) -
+    0.006758 * Math.cos(2 * g) +
+    0.000907 * Math.sin(2 * g) -
+    0.002697 * Math.cos(3 * g) +
+    0.00148 * Math.sin(3 * g);
+  const eotMin =
+    229.18 * (0.000075 + 0.001868 * Math.cos(g) - 0.032077 * Math.sin(g) - 0.014615 * Math.cos(2 * g) - 0.040849 * Math.sin(2 * g));
   const utcHours = (tSec - day * DAY_S) / 3600;
   const solarHours = utcHours + lon / 15 + eotMin / 60;
   const omega = (solarHours - 12) * 15 * RAD;
@@ -154,7 +162,8 @@ const DATE_RE = /^(\d{4})-(\d{2})-(\d{2})$/;
 function dayOf(s: string, field: string): number {
   const m = DATE_RE.exec(s);
   const ms = m ? Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3])) : NaN;
-  if (!m || !Number.isFinite(ms) || new Date(ms).toISOString().slice(0, 10) !== s) throw new BadRequest(`Parameter '${field}' is invalid: ${s}`);
+  if (!m || !Number.isFinite(ms) || new Date(ms).toISOString().slice(0, 10) !== s)
+    throw new BadRequest(`Parameter '${field}' is invalid: ${s}`);
   return ms / 1000 / DAY_S;
 }
 
@@ -187,7 +196,7 @@ interface Answer {
 
 /** Reads a forecast or archive request the way the service does; refuses what it would refuse. */
 function readRequest(kind: 'forecast' | 'archive', q: URLSearchParams, todaySec: number): Answer[] {
-  if (q.get('format') !== 'flatbuffers') throw new BadRequest("This fake only answers format=flatbuffers");
+  if (q.get('format') !== 'flatbuffers') throw new BadRequest('This fake only answers format=flatbuffers');
   const lats = numbers(q, 'latitude');
   const lons = numbers(q, 'longitude');
   if (lats.length !== lons.length) throw new BadRequest('Parameter latitude and longitude must have the same number of elements');
@@ -218,8 +227,10 @@ function readRequest(kind: 'forecast' | 'archive', q: URLSearchParams, todaySec:
     throw new BadRequest("Parameter 'start_date' is required");
   }
   // The forecast reaches back 92 days and 16 days ahead; the archive ends five days ago.
-  if (kind === 'forecast' && (first < today - 92 || last > today + 15)) throw new BadRequest("Parameter 'start_date' is out of allowed range");
-  if (kind === 'archive' && (first < dayOf('1940-01-01', 'start_date') || last > today - 5)) throw new BadRequest("Parameter 'end_date' is out of allowed range");
+  if (kind === 'forecast' && (first < today - 92 || last > today + 15))
+    throw new BadRequest("Parameter 'start_date' is out of allowed range");
+  if (kind === 'archive' && (first < dayOf('1940-01-01', 'start_date') || last > today - 5))
+    throw new BadRequest("Parameter 'end_date' is out of allowed range");
   if (last - first > 400) throw new BadRequest('The requested time range is too long');
   const clear = q.get('fake_sky') === 'clear';
   return lats.map((lat, i) => {
@@ -335,7 +346,8 @@ export async function startFakeWeather(opts: { port?: number; quiet?: boolean } 
         } catch {
           return sendJson(res, 400, { error: 'body must be JSON' });
         }
-        if (!['normal', 'fail', 'hang', 'garbage'].includes(String(body.mode))) return sendJson(res, 400, { error: 'mode must be normal, fail, hang or garbage' });
+        if (!['normal', 'fail', 'hang', 'garbage'].includes(String(body.mode)))
+          return sendJson(res, 400, { error: 'mode must be normal, fail, hang or garbage' });
         mode = body.mode as FakeMode;
         failStatus = typeof body.status === 'number' && body.status >= 500 && body.status < 600 ? body.status : 500;
         return sendJson(res, 200, { mode, status: failStatus });

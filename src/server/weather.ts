@@ -75,7 +75,13 @@ class GarbageError extends Error {}
 
 // ---------- the SDK's answer → a series ----------
 
-function variableValues(hourly: NonNullable<ReturnType<WeatherApiResponse['hourly']>>, variable: Variable, n: number, min: number, max: number): number[] {
+function variableValues(
+  hourly: NonNullable<ReturnType<WeatherApiResponse['hourly']>>,
+  variable: Variable,
+  n: number,
+  min: number,
+  max: number,
+): number[] {
   for (let i = 0; i < hourly.variablesLength(); i++) {
     const v = hourly.variables(i);
     if (!v || v.variable() !== variable) continue;
@@ -152,7 +158,14 @@ function cacheRow(db: Kysely<DB>, r: WeatherRequest) {
 
 async function fromService(s: Session, r: WeatherRequest): Promise<HourlySeries> {
   const url = r.kind === 'forecast' ? s.config.forecastUrl : s.config.archiveUrl;
-  const params = { latitude: [r.latTenths / 10], longitude: [r.lonTenths / 10], hourly: HOURLY, start_date: r.startDate, end_date: r.endDate, timezone: 'GMT' };
+  const params = {
+    latitude: [r.latTenths / 10],
+    longitude: [r.lonTenths / 10],
+    hourly: HOURLY,
+    start_date: r.startDate,
+    end_date: r.endDate,
+    timezone: 'GMT',
+  };
   let last: unknown;
   for (let attempt = 1; attempt <= ATTEMPTS; attempt++) {
     if (s.signal.aborted) break;
@@ -181,15 +194,32 @@ async function seriesFor(db: Kysely<DB>, s: Session, r: WeatherRequest): Promise
   if (!s.failed) {
     try {
       const series = await fromService(s, r);
-      const values = { kind: r.kind, lat_tenths: r.latTenths, lon_tenths: r.lonTenths, start_date: r.startDate, end_date: r.endDate, series: JSON.stringify(toStored(series)), fetched_at: new Date(now).toISOString() };
+      const values = {
+        kind: r.kind,
+        lat_tenths: r.latTenths,
+        lon_tenths: r.lonTenths,
+        start_date: r.startDate,
+        end_date: r.endDate,
+        series: JSON.stringify(toStored(series)),
+        fetched_at: new Date(now).toISOString(),
+      };
       await db
         .insertInto('weather_cache')
         .values(values)
-        .onConflict((oc) => oc.columns(['kind', 'lat_tenths', 'lon_tenths', 'start_date', 'end_date']).doUpdateSet({ series: values.series, fetched_at: values.fetched_at }))
+        .onConflict((oc) =>
+          oc
+            .columns(['kind', 'lat_tenths', 'lon_tenths', 'start_date', 'end_date'])
+            .doUpdateSet({ series: values.series, fetched_at: values.fetched_at }),
+        )
         .execute();
       return series;
     } catch (err) {
-      s.failed = s.signal.aborted || (err as { failure?: Failure }).failure === 'timeout' ? 'timeout' : err instanceof GarbageError ? 'garbage' : 'error';
+      s.failed =
+        s.signal.aborted || (err as { failure?: Failure }).failure === 'timeout'
+          ? 'timeout'
+          : err instanceof GarbageError
+            ? 'garbage'
+            : 'error';
     }
   }
   // The service failed: an old forecast is better than none at camp.
@@ -249,7 +279,11 @@ export async function fillTripWeather(db: Kysely<DB>, stops: StopLike[], config:
   const forecastDays: WeatherEntry[][] = stops.map(() => []);
   if (near) {
     const requests = stops.map((_, i) => forecastRequest(stops, i, today));
-    const got = await fetchAll(db, s, requests.filter((r): r is WeatherRequest => r !== null));
+    const got = await fetchAll(
+      db,
+      s,
+      requests.filter((r): r is WeatherRequest => r !== null),
+    );
     stops.forEach((st, i) => {
       const r = requests[i];
       const series = r ? got.get(keyOf(r)) : null;
@@ -263,13 +297,19 @@ export async function fillTripWeather(db: Kysely<DB>, stops: StopLike[], config:
   }
 
   // 2. Past years for every untyped day the forecast does not cover.
-  const remaining = stops.map((_, i) => stopDates(stops, i).filter((d) => !typed[i]!.has(d) && !forecastDays[i]!.some((f) => f.date === d)));
+  const remaining = stops.map((_, i) =>
+    stopDates(stops, i).filter((d) => !typed[i]!.has(d) && !forecastDays[i]!.some((f) => f.date === d)),
+  );
   const allRemaining = remaining.flat().sort();
   const shifts = pastYearShifts(allRemaining, today);
   const years: PastYear[] = [];
   if (allRemaining.length > 0 && shifts.length > 0) {
     const requests = shifts.flatMap((k) => stops.map((st, i) => (remaining[i]!.length > 0 ? archiveRequest(st, remaining[i]!, k) : null)));
-    const got = await fetchAll(db, s, requests.filter((r): r is WeatherRequest => r !== null));
+    const got = await fetchAll(
+      db,
+      s,
+      requests.filter((r): r is WeatherRequest => r !== null),
+    );
     for (const k of shifts) {
       let complete = true;
       const perStop = stops.map((st, i) => {

@@ -17,7 +17,18 @@ interface Fill {
   status: 'ok' | 'unreachable';
   message: string | null;
   medianYear: number | null;
-  stops: { name: string; weather: { date: string; source: string; cloudOktas: number; highC: number; lowC: number; hourly: { hour: number; ghiWm2: number; tempC: number; cloudPct: number }[] }[]; days: { date: string; source: string }[] }[];
+  stops: {
+    name: string;
+    weather: {
+      date: string;
+      source: string;
+      cloudOktas: number;
+      highC: number;
+      lowC: number;
+      hourly: { hour: number; ghiWm2: number; tempC: number; cloudPct: number }[];
+    }[];
+    days: { date: string; source: string }[];
+  }[];
   pastYears: { year: number; yearsBack: number; ghiWhM2: number; stops: { date: string; hourly: unknown[] }[][] }[];
   requests: { total: number; fromCache: number };
 }

@@ -25,7 +25,11 @@ describe('fake weather service, decoded by the openmeteo SDK', () => {
   it('answers a forecast request with every asked variable, in order, hour by hour', async () => {
     const start = isoDay(1);
     const end = isoDay(3);
-    const [r, ...more] = await fetchWeatherApi(fake.forecastUrl, { latitude: [46.5], longitude: [7.9], hourly: HOURLY, start_date: start, end_date: end, timezone: 'GMT' }, 1);
+    const [r, ...more] = await fetchWeatherApi(
+      fake.forecastUrl,
+      { latitude: [46.5], longitude: [7.9], hourly: HOURLY, start_date: start, end_date: end, timezone: 'GMT' },
+      1,
+    );
     expect(more).toHaveLength(0);
     expect(r!.latitude()).toBeCloseTo(46.5, 4);
     expect(r!.longitude()).toBeCloseTo(7.9, 4);
@@ -51,7 +55,8 @@ describe('fake weather service, decoded by the openmeteo SDK', () => {
   });
 
   it('is deterministic and differs between places and years', async () => {
-    const q = (lat: number, start: string, end: string) => fetchWeatherApi(fake.archiveUrl, { latitude: [lat], longitude: [-105.9], hourly: HOURLY, start_date: start, end_date: end }, 1);
+    const q = (lat: number, start: string, end: string) =>
+      fetchWeatherApi(fake.archiveUrl, { latitude: [lat], longitude: [-105.9], hourly: HOURLY, start_date: start, end_date: end }, 1);
     const a = Array.from((await q(35.6, '2020-07-01', '2020-07-02'))[0]!.hourly()!.variables(0)!.valuesArray()!);
     const b = Array.from((await q(35.6, '2020-07-01', '2020-07-02'))[0]!.hourly()!.variables(0)!.valuesArray()!);
     const c = Array.from((await q(35.6, '2019-07-01', '2019-07-02'))[0]!.hourly()!.variables(0)!.valuesArray()!);
@@ -62,7 +67,11 @@ describe('fake weather service, decoded by the openmeteo SDK', () => {
   });
 
   it('answers several places in one request as several size-prefixed roots', async () => {
-    const rs = await fetchWeatherApi(fake.archiveUrl, { latitude: [46.5, -33.9], longitude: [7.9, 18.4], hourly: 'temperature_2m', start_date: '2016-07-05', end_date: '2016-07-05' }, 1);
+    const rs = await fetchWeatherApi(
+      fake.archiveUrl,
+      { latitude: [46.5, -33.9], longitude: [7.9, 18.4], hourly: 'temperature_2m', start_date: '2016-07-05', end_date: '2016-07-05' },
+      1,
+    );
     expect(rs).toHaveLength(2);
     expect(rs[1]!.latitude()).toBeCloseTo(-33.9, 4);
     const north = Array.from(rs[0]!.hourly()!.variables(0)!.valuesArray()!);
@@ -72,16 +81,45 @@ describe('fake weather service, decoded by the openmeteo SDK', () => {
   });
 
   it('starts at local midnight when asked for a time zone, as the service does', async () => {
-    const [r] = await fetchWeatherApi(fake.archiveUrl, { latitude: [39.7], longitude: [-105], hourly: 'temperature_2m', start_date: '2025-11-02', end_date: '2025-11-02', timezone: 'America/Denver' }, 1);
+    const [r] = await fetchWeatherApi(
+      fake.archiveUrl,
+      {
+        latitude: [39.7],
+        longitude: [-105],
+        hourly: 'temperature_2m',
+        start_date: '2025-11-02',
+        end_date: '2025-11-02',
+        timezone: 'America/Denver',
+      },
+      1,
+    );
     // 2025-11-02 00:00 in Denver is still daylight time (UTC−6): 06:00 UTC.
     expect(Number(r!.hourly()!.time())).toBe(Date.parse('2025-11-02T06:00:00Z') / 1000);
     expect(r!.utcOffsetSeconds()).toBe(-6 * 3600);
   });
 
   it('refuses what the service refuses, with its JSON reason', async () => {
-    await expect(fetchWeatherApi(fake.forecastUrl, { latitude: [46.5], longitude: [7.9], hourly: HOURLY, start_date: isoDay(30), end_date: isoDay(31) }, 1)).rejects.toThrow(/out of allowed range/);
-    await expect(fetchWeatherApi(fake.archiveUrl, { latitude: [46.5], longitude: [7.9], hourly: 'snow_depth_9m', start_date: '2020-01-01', end_date: '2020-01-01' }, 1)).rejects.toThrow(/snow_depth_9m/);
-    await expect(fetchWeatherApi(fake.archiveUrl, { latitude: [95], longitude: [7.9], hourly: HOURLY, start_date: '2020-01-01', end_date: '2020-01-01' }, 1)).rejects.toThrow(/Latitude/);
+    await expect(
+      fetchWeatherApi(
+        fake.forecastUrl,
+        { latitude: [46.5], longitude: [7.9], hourly: HOURLY, start_date: isoDay(30), end_date: isoDay(31) },
+        1,
+      ),
+    ).rejects.toThrow(/out of allowed range/);
+    await expect(
+      fetchWeatherApi(
+        fake.archiveUrl,
+        { latitude: [46.5], longitude: [7.9], hourly: 'snow_depth_9m', start_date: '2020-01-01', end_date: '2020-01-01' },
+        1,
+      ),
+    ).rejects.toThrow(/snow_depth_9m/);
+    await expect(
+      fetchWeatherApi(
+        fake.archiveUrl,
+        { latitude: [95], longitude: [7.9], hourly: HOURLY, start_date: '2020-01-01', end_date: '2020-01-01' },
+        1,
+      ),
+    ).rejects.toThrow(/Latitude/);
   });
 
   it('fails, hangs and answers garbage when told to, and counts the requests', async () => {
@@ -93,7 +131,14 @@ describe('fake weather service, decoded by the openmeteo SDK', () => {
     await control('garbage');
     // Garbage either throws while decoding or decodes into a root with no hourly data.
     const garbage = await fetchWeatherApi(fake.archiveUrl, params, 1).then(
-      (rs) => rs.every((r) => { try { return r.hourly() === null || r.hourly()!.variablesLength() === 0; } catch { return true; } }),
+      (rs) =>
+        rs.every((r) => {
+          try {
+            return r.hourly() === null || r.hourly()!.variablesLength() === 0;
+          } catch {
+            return true;
+          }
+        }),
       () => true,
     );
     expect(garbage).toBe(true);

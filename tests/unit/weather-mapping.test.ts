@@ -26,7 +26,11 @@ const H = 3_600_000;
 const utc = (s: string) => Date.parse(s);
 
 /** A series stamped every hour from `from` for `hours` hours; each variable's value is a function of the stamp's index. */
-function series(from: string, hours: number, f: { ghi?: (i: number) => number; temp?: (i: number) => number; cloud?: (i: number) => number } = {}): HourlySeries {
+function series(
+  from: string,
+  hours: number,
+  f: { ghi?: (i: number) => number; temp?: (i: number) => number; cloud?: (i: number) => number } = {},
+): HourlySeries {
   const t0 = utc(from);
   const idx = Array.from({ length: hours }, (_, i) => i);
   return {
@@ -118,12 +122,22 @@ describe('a stop-day from an hourly series', () => {
   it('local stamps (the service asked for a time zone) give the same day as UTC stamps', () => {
     const utcSeries = series('2026-10-31T00:00:00Z', 96);
     // The same instants written in Denver local time, 01:00 appearing twice on 1 November.
-    const fmt = new Intl.DateTimeFormat('sv-SE', { timeZone: 'America/Denver', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', hourCycle: 'h23' });
+    const fmt = new Intl.DateTimeFormat('sv-SE', {
+      timeZone: 'America/Denver',
+      year: 'numeric',
+      month: '2-digit',
+      day: '2-digit',
+      hour: '2-digit',
+      minute: '2-digit',
+      hourCycle: 'h23',
+    });
     const stamps = utcSeries.times.map((t) => fmt.format(new Date(t)).replace(' ', 'T'));
     expect(stamps.filter((s) => s === '2026-11-01T01:00')).toHaveLength(2);
     const local = { ...utcSeries, times: instantsOfLocalStamps('America/Denver', stamps) };
     expect(local.times).toEqual(utcSeries.times);
-    expect(dayFromSeries(local, 'America/Denver', '2026-11-01', 'forecast')).toEqual(dayFromSeries(utcSeries, 'America/Denver', '2026-11-01', 'forecast'));
+    expect(dayFromSeries(local, 'America/Denver', '2026-11-01', 'forecast')).toEqual(
+      dayFromSeries(utcSeries, 'America/Denver', '2026-11-01', 'forecast'),
+    );
   });
 
   it('a series that misses an hour of the day gives no day', () => {
@@ -134,7 +148,7 @@ describe('a stop-day from an hourly series', () => {
     expect(dayFromSeries(holes, 'Asia/Kolkata', '2027-01-10', 'forecast')).toBeNull();
   });
 
-  it('summarises the day: oktas from the daylight hours\' cloud, high and low from the hours', () => {
+  it("summarises the day: oktas from the daylight hours' cloud, high and low from the hours", () => {
     // UTC zone: hour h takes the stamp h+1 for sun. Sun 07:00–17:00 (stamps 8..17), 75 % cloud by day, 0 % at night.
     const s = series('2027-06-01T00:00:00Z', 48, {
       ghi: (i) => (i >= 8 && i <= 17 ? 400 : 0),
@@ -150,7 +164,14 @@ describe('a stop-day from an hourly series', () => {
   });
 });
 
-const stop = (over: Partial<StopLike> = {}): StopLike => ({ lat: 46.53, lon: 7.96, timeZone: 'Europe/Zurich', arrive: '2027-03-10', nights: 2, ...over });
+const stop = (over: Partial<StopLike> = {}): StopLike => ({
+  lat: 46.53,
+  lon: 7.96,
+  timeZone: 'Europe/Zurich',
+  arrive: '2027-03-10',
+  nights: 2,
+  ...over,
+});
 
 describe('which days come from where', () => {
   it('a stop owns its arrival day to its departure morning, unless the next stop arrives there at midnight', () => {
@@ -166,7 +187,13 @@ describe('which days come from where', () => {
 
   it('the forecast request covers the untyped days in reach, one UTC day either side, on the 0.1° grid', () => {
     const s = stop({ arrive: '2026-12-10', nights: 3, weather: [{ date: '2026-12-13', cloudOktas: 2, highC: 5, lowC: -4 }] });
-    expect(forecastRequest([s], 0, '2026-12-04')).toEqual({ kind: 'forecast', latTenths: 465, lonTenths: 80, startDate: '2026-12-09', endDate: '2026-12-13' });
+    expect(forecastRequest([s], 0, '2026-12-04')).toEqual({
+      kind: 'forecast',
+      latTenths: 465,
+      lonTenths: 80,
+      startDate: '2026-12-09',
+      endDate: '2026-12-13',
+    });
     // A stop reaching past today + 15 (2026-12-19) is asked up to the horizon only.
     expect(forecastRequest([stop({ arrive: '2026-12-17', nights: 5 })], 0, '2026-12-04')!.endDate).toBe('2026-12-19');
     expect(forecastRequest([stop({ arrive: '2027-01-17' })], 0, '2026-12-04')).toBeNull();
@@ -179,7 +206,13 @@ describe('which days come from where', () => {
     expect(pastYearShifts(['2026-11-30'], '2026-12-04')[0]).toBe(1);
     expect(yearsBefore('2028-02-29', 1)).toBe('2027-02-28');
     expect(yearsBefore('2028-02-29', 4)).toBe('2024-02-29');
-    expect(archiveRequest(stop(), ['2027-03-10', '2027-03-12'], 3)).toEqual({ kind: 'archive', latTenths: 465, lonTenths: 80, startDate: '2024-03-09', endDate: '2024-03-13' });
+    expect(archiveRequest(stop(), ['2027-03-10', '2027-03-12'], 3)).toEqual({
+      kind: 'archive',
+      latTenths: 465,
+      lonTenths: 80,
+      startDate: '2024-03-09',
+      endDate: '2024-03-13',
+    });
   });
 });
 
@@ -197,8 +230,20 @@ describe('the median year and the merge', () => {
 
   it('typed days always win over fetched ones; uncovered days are assumed', () => {
     const s = stop({ arrive: '2027-03-10', nights: 3, weather: [{ date: '2027-03-11', cloudOktas: 7, highC: 3, lowC: -2 }] });
-    const fetched = (date: string, source: 'forecast' | 'past-year'): WeatherEntry => ({ date, cloudOktas: 1, highC: 12, lowC: 1, hourly: [{ hour: 12, ghiWm2: 500, tempC: 12, cloudPct: 10 }], source });
-    const fill = mergeStop([s], 0, [fetched('2027-03-10', 'forecast'), fetched('2027-03-11', 'forecast')], [fetched('2027-03-10', 'past-year'), fetched('2027-03-12', 'past-year')]);
+    const fetched = (date: string, source: 'forecast' | 'past-year'): WeatherEntry => ({
+      date,
+      cloudOktas: 1,
+      highC: 12,
+      lowC: 1,
+      hourly: [{ hour: 12, ghiWm2: 500, tempC: 12, cloudPct: 10 }],
+      source,
+    });
+    const fill = mergeStop(
+      [s],
+      0,
+      [fetched('2027-03-10', 'forecast'), fetched('2027-03-11', 'forecast')],
+      [fetched('2027-03-10', 'past-year'), fetched('2027-03-12', 'past-year')],
+    );
     expect(fill.name).toBe('Stop 1');
     expect(fill.weather.map((w) => [w.date, w.source])).toEqual([
       ['2027-03-10', 'forecast'],

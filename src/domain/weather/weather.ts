@@ -218,7 +218,13 @@ const round1 = (v: number) => Math.round(v * 10) / 10;
  * summary: cloud in oktas from the mean cloud cover of the daylight hours (all hours if none has
  * sun), high and low from the hours.
  */
-export function dayFromSeries(series: HourlySeries, timeZone: string, date: string, source: WeatherSource, seriesDate = date): WeatherEntry | null {
+export function dayFromSeries(
+  series: HourlySeries,
+  timeZone: string,
+  date: string,
+  source: WeatherSource,
+  seriesDate = date,
+): WeatherEntry | null {
   const rows = localHourRows(timeZone, seriesDate);
   const hourly: SourceHour[] = [];
   const seen = new Set<number>();
@@ -229,7 +235,12 @@ export function dayFromSeries(series: HourlySeries, timeZone: string, date: stri
     const temp = valueAt(series.times, series.tempC, row.start + HOUR_MS / 2);
     const cloud = valueAt(series.times, series.cloudPct, row.start + HOUR_MS / 2);
     if (!Number.isFinite(ghi) || !Number.isFinite(temp) || !Number.isFinite(cloud)) return null;
-    hourly.push({ hour: row.hour, ghiWm2: Math.max(0, Math.round(ghi)), tempC: round1(temp), cloudPct: Math.round(Math.min(100, Math.max(0, cloud))) });
+    hourly.push({
+      hour: row.hour,
+      ghiWm2: Math.max(0, Math.round(ghi)),
+      tempC: round1(temp),
+      cloudPct: Math.round(Math.min(100, Math.max(0, cloud))),
+    });
   }
   hourly.sort((a, b) => a.hour - b.hour);
   const daylight = hourly.filter((h) => h.ghiWm2 > 0);
@@ -324,7 +335,14 @@ export function archiveRequest(stop: StopLike, dates: string[], k: number): Weat
 
 /** The typed days of a stop as engine entries (the camper's own sky; no hours). */
 export function typedEntries(stop: StopLike): WeatherEntry[] {
-  return (stop.weather ?? []).map((w) => ({ date: w.date, cloudOktas: w.cloudOktas, highC: w.highC, lowC: w.lowC, hourly: [], source: 'typed' as const }));
+  return (stop.weather ?? []).map((w) => ({
+    date: w.date,
+    cloudOktas: w.cloudOktas,
+    highC: w.highC,
+    lowC: w.lowC,
+    hourly: [],
+    source: 'typed' as const,
+  }));
 }
 
 /** One past year of a trip: the days it fills per stop and its total irradiance. */

@@ -16,6 +16,10 @@ export const GET = route(async (ctx) => {
   const user = requireUser(ctx);
   const { trip } = await tripAccess(db, user, ctx.params.id!, 'read');
   const stops = JSON.parse(trip.stops) as StopLike[];
-  const fill = await fillTripWeather(db, stops, { forecastUrl: env.WEATHER_FORECAST_URL, archiveUrl: env.WEATHER_ARCHIVE_URL, timeoutMs: env.WEATHER_TIMEOUT_MS });
+  const fill = await fillTripWeather(db, stops, {
+    forecastUrl: env.WEATHER_FORECAST_URL,
+    archiveUrl: env.WEATHER_ARCHIVE_URL,
+    timeoutMs: env.WEATHER_TIMEOUT_MS,
+  });
   return json({ tripId: trip.id, ...fill });
 });
