@@ -1,9 +1,9 @@
 import type { Kysely } from 'kysely';
 import type { DB } from './schema';
 import { demoPlan } from '../src/engine/demo-plan';
-import { rigInputSchema } from '../src/schemas/rigs';
-import { loadInputSchema } from '../src/schemas/loads';
-import { tripInputSchema } from '../src/schemas/trips';
+import { rigInputSchema } from '../src/domain/rigs/rigs.schema';
+import { loadInputSchema } from '../src/domain/loads/loads.schema';
+import { tripInputSchema } from '../src/domain/trips/trips.schema';
 import { createRig } from '../src/server/rigs';
 import { createLoad, listLoads } from '../src/server/loads';
 import { createTrip } from '../src/server/trips';

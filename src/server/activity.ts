@@ -1,6 +1,6 @@
 import type { Kysely } from 'kysely';
 import type { DB } from '../../db/schema';
-import type { ActivityDto } from '../schemas/crews';
+import type { ActivityDto } from '../domain/crews/crews.schema';
 
 /** A page of a rig's load activity, newest first; `before` is the cursor (`at|id`) of the last entry already shown. */
 export async function listActivity(db: Kysely<DB>, rigId: string, opts: { limit: number; before?: string }): Promise<{ items: ActivityDto[]; nextBefore: string | null }> {

@@ -1,6 +1,6 @@
 import type { Kysely } from 'kysely';
 import type { DB, CrewRole } from '../../db/schema';
-import type { CrewDetailDto, CrewSummaryDto, MemberDto } from '../schemas/crews';
+import type { CrewDetailDto, CrewSummaryDto, MemberDto } from '../domain/crews/crews.schema';
 import { HttpError } from './errors';
 import { listInvitations } from './invitations';
 import { conflict, nowIso } from './versions';

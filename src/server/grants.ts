@@ -1,6 +1,6 @@
 import type { Kysely } from 'kysely';
 import type { DB } from '../../db/schema';
-import type { GrantDto, InstallerRigDto } from '../schemas/crews';
+import type { GrantDto, InstallerRigDto } from '../domain/crews/crews.schema';
 import { HttpError } from './errors';
 import { grantMail } from './mail';
 import { enqueueMail, kickOutbox } from './outbox';

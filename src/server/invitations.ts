@@ -1,7 +1,7 @@
 import { createHash, randomBytes } from 'node:crypto';
 import type { Kysely } from 'kysely';
 import type { CrewRole, DB, InvitationRow } from '../../db/schema';
-import type { InvitationDto, InvitationStatus } from '../schemas/crews';
+import type { InvitationDto, InvitationStatus } from '../domain/crews/crews.schema';
 import { addMember } from './crews';
 import { HttpError } from './errors';
 import { invitationMail } from './mail';

@@ -2,7 +2,7 @@ import type { Kysely } from 'kysely';
 import type { z } from 'zod';
 import type { DB, LoadAction, LoadRow } from '../../db/schema';
 import { LIMITS } from '../engine';
-import type { LoadDto, loadInputSchema, loadPatchSchema } from '../schemas/loads';
+import type { LoadDto, loadInputSchema, loadPatchSchema } from '../domain/loads/loads.schema';
 import { HttpError } from './errors';
 import { conflict, nowIso } from './versions';
 

@@ -1,6 +1,6 @@
 import type { Kysely } from 'kysely';
 import type { DB, RigRow } from '../../db/schema';
-import type { RigChanges, RigDto, RigValues } from '../schemas/rigs';
+import type { RigChanges, RigDto, RigValues } from '../domain/rigs/rigs.schema';
 import { listVisibleRigs } from './access';
 import { HttpError } from './errors';
 import { conflict, nowIso } from './versions';

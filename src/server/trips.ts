@@ -2,7 +2,7 @@ import type { Kysely } from 'kysely';
 import type { z } from 'zod';
 import type { DB, TripRow } from '../../db/schema';
 import { planSchema, type driveSchema, type stopSchema } from '../engine';
-import type { TripChanges, TripDto, TripValues } from '../schemas/trips';
+import type { TripChanges, TripDto, TripValues } from '../domain/trips/trips.schema';
 import { listVisibleRigs } from './access';
 import { HttpError, type Issue } from './errors';
 import { zodIssues } from './http';

@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { formatLoadsCsv, formatWindows, needsFormulaEscape, parseLoadsCsv, parseWindows, unescapeCell, type CsvLoad } from '../../src/server/csv';
+import { formatLoadsCsv, formatWindows, needsFormulaEscape, parseLoadsCsv, parseWindows, unescapeCell, type CsvLoad } from '../../src/domain/loads/loads-csv';
 
 const HEADER = 'name,watts,quantity,supply,windows,dutyPct,days,response,setpointC,standby,note';
 

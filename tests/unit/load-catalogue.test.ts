@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { loadInputSchema } from '../../src/schemas/loads';
-import { CATALOGUE, catalogueToLoad } from '../../src/features/loads/catalogue';
-import { loadFormSchema, loadToForm, blankLoad } from '../../src/features/loads/load-form';
-import { loadWhPerDay, whToAh } from '../../src/features/loads/energy';
+import { loadInputSchema } from '../../src/domain/loads/loads.schema';
+import { CATALOGUE, catalogueToLoad } from '../../src/domain/loads/catalogue';
+import { loadFormSchema, loadToForm, blankLoad } from '../../src/domain/loads/load-form';
+import { loadWhPerDay, whToAh } from '../../src/domain/loads/energy';
 
 describe('appliance catalogue', () => {
   it('has unique ids and a typical value inside each range', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { dailyTotals, inverterIdleWhPerDay, loadWhPerDay, whToAh, type EnergyRig } from '../../src/features/loads/energy';
-import { coveredHours, describeWindows, hoursInWindows, isAllDay, parseWindows, windowsToText } from '../../src/features/loads/windows';
+import { dailyTotals, inverterIdleWhPerDay, loadWhPerDay, whToAh, type EnergyRig } from '../../src/domain/loads/energy';
+import { coveredHours, describeWindows, hoursInWindows, isAllDay, parseWindows, windowsToText } from '../../src/domain/loads/windows';
 
 const dcRig: EnergyRig = { nominalVolts: 12, inverter: null };
 const acRig: EnergyRig = { nominalVolts: 12.8, inverter: { efficiencyPct: 90, idleWatts: 10, alwaysOn: false } };

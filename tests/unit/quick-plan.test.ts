@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { runForecast, validatePlan } from '../../src/engine';
-import { rigInputSchema } from '../../src/schemas/rigs';
-import { loadInputSchema } from '../../src/schemas/loads';
-import { tripInputSchema } from '../../src/schemas/trips';
+import { rigInputSchema } from '../../src/domain/rigs/rigs.schema';
+import { loadInputSchema } from '../../src/domain/loads/loads.schema';
+import { tripInputSchema } from '../../src/domain/trips/trips.schema';
 import {
   buildQuickPlan,
   defaultQuickPlan,

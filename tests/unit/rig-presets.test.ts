@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { CHEMISTRIES, CHEMISTRY_DEFAULTS, bankSchema } from '../../src/engine';
-import { applyMounting, CHEMISTRY_PRESETS, maxChargeAmpsFor, mountingOf, nominalForChemistry, presetBank, seriesParallel } from '../../src/features/rigs/presets';
-import { emptyRig, newArray, newCharger, rigFormSchema } from '../../src/features/rigs/rig-form';
+import { applyMounting, CHEMISTRY_PRESETS, maxChargeAmpsFor, mountingOf, nominalForChemistry, presetBank, seriesParallel } from '../../src/domain/rigs/presets';
+import { emptyRig, newArray, newCharger, rigFormSchema } from '../../src/domain/rigs/rig-form';
 
 describe('series/parallel helper', () => {
   // product.md demo rig: "two 6 V flooded golf-cart batteries (225 Ah at 12 V)".

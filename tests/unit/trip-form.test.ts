@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { describeSpan, emptyTrip, newDrive, newStop, stopDays, tripFormSchema, tripSpan } from '../../src/features/trips/trip-form';
+import { describeSpan, emptyTrip, newDrive, newStop, stopDays, tripFormSchema, tripSpan } from '../../src/domain/trips/trip-form';
 
 const stop = (over: Record<string, unknown> = {}) => ({
   ...newStop(),

@@ -4,7 +4,7 @@ import { format, isSameDay } from 'date-fns';
 import { withQueryClient } from '../../components/ui/QueryProvider';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
 import { ApiError } from '../../lib/query-client';
-import type { ActivityDto } from '../../schemas/crews';
+import type { ActivityDto } from '../../domain/crews/crews.schema';
 import { loadKeys } from '../loads/loads.queries';
 import { activityKeys, activityQuery } from './activity.queries';
 

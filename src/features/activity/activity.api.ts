@@ -1,6 +1,6 @@
 // Plain fetcher for a rig's load activity.
 import { apiFetch } from '../../lib/query-client';
-import type { ActivityDto } from '../../schemas/crews';
+import type { ActivityDto } from '../../domain/crews/crews.schema';
 
 export interface ActivityPage {
   items: ActivityDto[];

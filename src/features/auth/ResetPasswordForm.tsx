@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { newPasswordSchema, resetRequestSchema, type NewPasswordInput, type ResetRequestInput } from '../../schemas/crews';
+import { newPasswordSchema, resetRequestSchema, type NewPasswordInput, type ResetRequestInput } from '../../domain/accounts/accounts.schema';
 import { authClient } from '../../lib/auth-client';
 import { Field, describedBy } from '../../components/ui/Field';
 

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { signUpSchema, type SignUpInput } from '../../schemas/auth';
+import { signUpSchema, type SignUpInput } from '../../domain/accounts/accounts.schema';
 import { authClient, safeNext } from '../../lib/auth-client';
 import { Field, describedBy } from '../../components/ui/Field';
 

@@ -18,7 +18,7 @@ import {
   type InvitationCreateInput,
   type InvitationDto,
   type MemberDto,
-} from '../../schemas/crews';
+} from '../../domain/crews/crews.schema';
 import * as api from './crew.api';
 import { crewKeys, crewQuery, crewsQuery } from './crew.queries';
 

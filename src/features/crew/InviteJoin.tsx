@@ -4,8 +4,8 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { authClient } from '../../lib/auth-client';
 import { Field, describedBy } from '../../components/ui/Field';
-import { passwordField } from '../../schemas/auth';
-import type { CrewRoleName } from '../../schemas/crews';
+import { passwordField } from '../../domain/accounts/accounts.schema';
+import type { CrewRoleName } from '../../domain/crews/crews.schema';
 import { acceptInvitation } from './crew.api';
 
 interface Props {

@@ -1,6 +1,6 @@
 // Plain fetchers for crews, members and invitations; hooks live in crew.queries.ts and the islands.
 import { apiFetch } from '../../lib/query-client';
-import type { CrewDetailDto, CrewRenameInput, CrewRoleName, CrewSummaryDto, InvitationCreateInput, InvitationDto, MemberDto } from '../../schemas/crews';
+import type { CrewDetailDto, CrewRenameInput, CrewRoleName, CrewSummaryDto, InvitationCreateInput, InvitationDto, MemberDto } from '../../domain/crews/crews.schema';
 
 const enc = encodeURIComponent;
 

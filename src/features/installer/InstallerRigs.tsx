@@ -2,7 +2,7 @@ import { useQuery } from '@tanstack/react-query';
 import { format } from 'date-fns';
 import { withQueryClient } from '../../components/ui/QueryProvider';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
-import type { InstallerRigDto } from '../../schemas/crews';
+import type { InstallerRigDto } from '../../domain/crews/crews.schema';
 import { installerRigsQuery } from './installer.queries';
 
 const CHEMISTRY: Record<string, string> = { lifepo4: 'LiFePO4', agm: 'AGM', flooded: 'flooded lead-acid', gel: 'gel' };

@@ -7,7 +7,7 @@ import { withQueryClient } from '../../components/ui/QueryProvider';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
 import { Field, describedBy } from '../../components/ui/Field';
 import { ApiError } from '../../lib/query-client';
-import { grantCreateSchema, type GrantCreateInput, type GrantDto } from '../../schemas/crews';
+import { grantCreateSchema, type GrantCreateInput, type GrantDto } from '../../domain/crews/crews.schema';
 import { grantRig, revokeGrant } from './installer.api';
 import { grantKeys, rigGrantsQuery } from './installer.queries';
 

@@ -1,6 +1,6 @@
 // Plain fetchers for installer grants; hooks live in installer.queries.ts and the islands.
 import { apiFetch } from '../../lib/query-client';
-import type { GrantCreateInput, GrantDto, InstallerRigDto } from '../../schemas/crews';
+import type { GrantCreateInput, GrantDto, InstallerRigDto } from '../../domain/crews/crews.schema';
 
 const enc = encodeURIComponent;
 

@@ -1,11 +1,11 @@
 import { useState } from 'react';
 import { formatNumber } from '../../lib/format';
 import type { Units } from '../../lib/units';
-import { CATALOGUE, catalogueToLoad, type CatalogueItem } from './catalogue';
-import type { EnergyRig } from './energy';
+import { CATALOGUE, catalogueToLoad, type CatalogueItem } from '../../domain/loads/catalogue';
+import type { EnergyRig } from '../../domain/loads/energy';
 import { LoadEditor } from './LoadEditor';
-import { loadToForm, type LoadFormOutput } from './load-form';
-import { describeWindows } from './windows';
+import { loadToForm, type LoadFormOutput } from '../../domain/loads/load-form';
+import { describeWindows } from '../../domain/loads/windows';
 
 const range = (i: CatalogueItem) => `${formatNumber(i.minWatts, 1)}–${formatNumber(i.maxWatts, 1)} W${i.supply === 'ac' ? ' AC' : ''}`;
 

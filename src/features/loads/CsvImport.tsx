@@ -1,10 +1,10 @@
 import { useState } from 'react';
 import { useMutation } from '@tanstack/react-query';
-import { LOAD_CSV_COLUMNS } from '../../schemas/loads';
+import { LOAD_CSV_COLUMNS } from '../../domain/loads/loads.schema';
 import { ApiError } from '../../lib/query-client';
 import { formatNumber } from '../../lib/format';
 import { importCsv, previewCsv, type CsvLineError, type CsvPreview } from './loads.api';
-import { describeWindows } from './windows';
+import { describeWindows } from '../../domain/loads/windows';
 
 const EXAMPLE = `${LOAD_CSV_COLUMNS.join(',')}
 Reading lights,1.5,4,dc,18-23,100,all,none,18,false,

@@ -1,7 +1,7 @@
 import { useState, type ReactNode } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import type { LoadDto } from '../../schemas/loads';
+import type { LoadDto } from '../../domain/loads/loads.schema';
 import { Field, describedBy } from '../../components/ui/Field';
 import { NumberField } from '../../components/ui/NumberField';
 import { TemperatureInput } from '../../components/ui/TemperatureInput';
@@ -10,9 +10,9 @@ import { applyServerIssues, asNumber, errorAt } from '../../components/ui/form';
 import { ApiError, isConflict, isNotFound } from '../../lib/query-client';
 import { formatAh, formatNumber, formatWh } from '../../lib/format';
 import { formatTemp, formatTempDelta, type Units } from '../../lib/units';
-import { loadWhPerDay, whToAh, type EnergyRig } from './energy';
-import { LOAD_FIELDS, loadFormSchema, loadToForm, type LoadFormOutput, type LoadFormValues } from './load-form';
-import { describeWindows, parseWindows } from './windows';
+import { loadWhPerDay, whToAh, type EnergyRig } from '../../domain/loads/energy';
+import { LOAD_FIELDS, loadFormSchema, loadToForm, type LoadFormOutput, type LoadFormValues } from '../../domain/loads/load-form';
+import { describeWindows, parseWindows } from '../../domain/loads/windows';
 
 interface LoadEditorProps {
   /** Unique per editor on the page; prefixes the field ids. */

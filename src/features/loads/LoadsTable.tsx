@@ -1,6 +1,6 @@
 import { useMemo, useState } from 'react';
 import { useQuery, useQueryClient } from '@tanstack/react-query';
-import type { LoadDto } from '../../schemas/loads';
+import type { LoadDto } from '../../domain/loads/loads.schema';
 import { loadingFallback, withQueryClient } from '../../components/ui/QueryProvider';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
 import { isConflict, isNotFound } from '../../lib/query-client';
@@ -9,12 +9,12 @@ import { formatTemp, toUnits, type Units } from '../../lib/units';
 import { rigQuery } from '../rigs/rigs.queries';
 import { CataloguePicker } from './CataloguePicker';
 import { CsvImport } from './CsvImport';
-import { dailyTotals, loadWhPerDay, whToAh, type EnergyRig } from './energy';
+import { dailyTotals, loadWhPerDay, whToAh, type EnergyRig } from '../../domain/loads/energy';
 import { LoadEditor } from './LoadEditor';
-import { blankLoad, loadToForm, type LoadFormOutput } from './load-form';
+import { blankLoad, loadToForm, type LoadFormOutput } from '../../domain/loads/load-form';
 import { createLoad, deleteLoad, loadsCsvUrl, updateLoad } from './loads.api';
 import { loadKeys, loadsQuery } from './loads.queries';
-import { describeWindows } from './windows';
+import { describeWindows } from '../../domain/loads/windows';
 
 type SortKey = 'added' | 'name' | 'watts' | 'supply' | 'duty' | 'wh';
 const SORTS: { key: SortKey; label: string }[] = [

@@ -1,6 +1,6 @@
 // Plain fetchers for a rig's load list; hooks live in loads.queries.ts and the islands.
 import { apiFetch } from '../../lib/query-client';
-import type { LoadDto, LoadInput, LoadPatch } from '../../schemas/loads';
+import type { LoadDto, LoadInput, LoadPatch } from '../../domain/loads/loads.schema';
 
 const rigPath = (rigId: string) => `/api/rigs/${encodeURIComponent(rigId)}`;
 

@@ -2,10 +2,10 @@
 import { z } from 'zod';
 import type { Plan } from '../../engine';
 import { isValidTimeZone } from '../../engine/light';
-import type { LoadInput } from '../../schemas/loads';
-import type { RigInput } from '../../schemas/rigs';
-import type { TripInput } from '../../schemas/trips';
-import { SKY_CHOICES } from '../../schemas/trips';
+import type { LoadInput } from '../../domain/loads/loads.schema';
+import type { RigInput } from '../../domain/rigs/rigs.schema';
+import type { TripInput } from '../../domain/trips/trips.schema';
+import { SKY_CHOICES } from '../../domain/trips/trips.schema';
 
 // ---------------------------------------------------------------------------------------------
 // Choices

@@ -3,7 +3,7 @@ import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type 
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { CHEMISTRIES, type Chemistry } from '../../engine/light';
-import type { RigDto } from '../../schemas/rigs';
+import type { RigDto } from '../../domain/rigs/rigs.schema';
 import { Field, describedBy } from '../../components/ui/Field';
 import { NumberField } from '../../components/ui/NumberField';
 import { ConflictNotice, useConflict } from '../../components/ui/ConflictNotice';
@@ -11,8 +11,8 @@ import { asNumber, asNumberOrNull, errorAt, fieldId } from '../../components/ui/
 import { CHEMISTRY_LABELS, formatNumber, plural, rigSummary } from '../../lib/format';
 import { createRig, deleteRig, updateRig } from './rigs.api';
 import { rigKeys } from './rigs.queries';
-import { CHARGER_KINDS, emptyRig, newArray, newCharger, rigFormSchema, rigToForm, type RigFormOutput, type RigFormValues } from './rig-form';
-import { COMPASS, CHEMISTRY_PRESETS, MOUNTINGS, applyMounting, maxChargeAmpsFor, mountingOf, nominalForChemistry, presetBank, seriesParallel, type Mounting } from './presets';
+import { CHARGER_KINDS, emptyRig, newArray, newCharger, rigFormSchema, rigToForm, type RigFormOutput, type RigFormValues } from '../../domain/rigs/rig-form';
+import { COMPASS, CHEMISTRY_PRESETS, MOUNTINGS, applyMounting, maxChargeAmpsFor, mountingOf, nominalForChemistry, presetBank, seriesParallel, type Mounting } from '../../domain/rigs/presets';
 import { deleteProblem, DeleteRow, FormProblemBox, handleSaveError, type FormProblem } from '../../components/ui/SaveProblems';
 
 interface RigEditorProps {

@@ -1,6 +1,6 @@
 // Plain fetchers for the rig routes; hooks live in rigs.queries.ts and the islands.
 import { apiFetch } from '../../lib/query-client';
-import type { RigDto, RigInput, RigPatch } from '../../schemas/rigs';
+import type { RigDto, RigInput, RigPatch } from '../../domain/rigs/rigs.schema';
 
 /** The rigs of the signed-in user's crews. */
 export const fetchRigs = () => apiFetch<RigDto[]>('/api/rigs');

@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { Field, describedBy } from '../../components/ui/Field';
 import { authClient } from '../../lib/auth-client';
-import { newPasswordSchema } from '../../schemas/crews';
+import { newPasswordSchema } from '../../domain/accounts/accounts.schema';
 
 const schema = z
   .object({

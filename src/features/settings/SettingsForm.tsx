@@ -9,7 +9,7 @@ import { applyServerIssues } from '../../components/ui/form';
 import { ApiError } from '../../lib/query-client';
 import { formatLength, formatTemp, tempUnit, toUnits, type Units } from '../../lib/units';
 import { saveSettings } from './settings.api';
-import { settingsSchema } from './settings.schema';
+import { settingsSchema } from '../../domain/accounts/accounts.schema';
 
 // The form always sends both fields, so both are required here (the API accepts either).
 const formSchema = z.object({ name: settingsSchema.shape.name.unwrap(), units: settingsSchema.shape.units.unwrap() });

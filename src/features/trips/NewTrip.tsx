@@ -1,6 +1,6 @@
 import { withQueryClient } from '../../components/ui/QueryProvider';
 import { toUnits, type Units } from '../../lib/units';
-import type { RigDto } from '../../schemas/rigs';
+import type { RigDto } from '../../domain/rigs/rigs.schema';
 import { TripEditor } from './TripEditor';
 
 /** The new-trip page: the editor straight away, with the crew's rigs read by the page. */

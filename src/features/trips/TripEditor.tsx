@@ -2,8 +2,8 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type UseFormRegister, type UseFormSetValue } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { SKY_CHOICES, type TripDto } from '../../schemas/trips';
-import type { RigDto } from '../../schemas/rigs';
+import { SKY_CHOICES, type TripDto } from '../../domain/trips/trips.schema';
+import type { RigDto } from '../../domain/rigs/rigs.schema';
 import { Field, describedBy } from '../../components/ui/Field';
 import { NumberField } from '../../components/ui/NumberField';
 import { TemperatureInput } from '../../components/ui/TemperatureInput';
@@ -15,7 +15,7 @@ import { rigsQuery } from '../rigs/rigs.queries';
 import { PlaceSearch } from './PlaceSearch';
 import { createTrip, deleteTrip, updateTrip } from './trips.api';
 import { timeZoneQuery, tripKeys } from './trips.queries';
-import { describeSpan, emptyTrip, newDrive, newStop, stopDays, tripFormSchema, tripSpan, tripToForm, type TripFormOutput, type TripFormValues } from './trip-form';
+import { describeSpan, emptyTrip, newDrive, newStop, stopDays, tripFormSchema, tripSpan, tripToForm, type TripFormOutput, type TripFormValues } from '../../domain/trips/trip-form';
 import { deleteProblem, DeleteRow, FormProblemBox, handleSaveError, type FormProblem } from '../../components/ui/SaveProblems';
 
 type Ctx = {

@@ -3,7 +3,7 @@ import { loadingFallback, withQueryClient } from '../../components/ui/QueryProvi
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
 import { rigsQuery } from '../rigs/rigs.queries';
 import { tripsQuery } from './trips.queries';
-import { describeSpan } from './trip-form';
+import { describeSpan } from '../../domain/trips/trip-form';
 
 /** The crew's trips as cards: dates, stops in order, the rig. */
 function TripList() {

@@ -1,9 +1,9 @@
 import { ASSUMED_WEATHER } from '../../engine/light';
 import { addDaysIso, formatDate, formatHour, formatNumber, rigSummary } from '../../lib/format';
 import { formatTemp, type Units } from '../../lib/units';
-import type { RigDto } from '../../schemas/rigs';
-import { SKY_CHOICES } from '../../schemas/sky';
-import type { TripDto } from '../../schemas/trips';
+import type { RigDto } from '../../domain/rigs/rigs.schema';
+import { SKY_CHOICES } from '../../domain/trips/sky';
+import type { TripDto } from '../../domain/trips/trips.schema';
 
 /** "Thu 21 Oct – Tue 26 Oct 2027 · 5 nights" for stops in travel order. */
 export function spanText(stops: readonly { arrive: string; nights: number }[]): string {

@@ -1,6 +1,6 @@
 // Plain fetchers for trips, place search and time zones; hooks live in trips.queries.ts and the islands.
 import { apiFetch } from '../../lib/query-client';
-import type { TripDto, TripInput, TripPatch } from '../../schemas/trips';
+import type { TripDto, TripInput, TripPatch } from '../../domain/trips/trips.schema';
 import type { Place } from '../../server/places';
 
 /** The trips on the user's crews' rigs (one rig's with `rigId`). */

@@ -1,6 +1,6 @@
 import { db } from '../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../server/http';
-import { settingsSchema, type SettingsDto } from '../../features/settings/settings.schema';
+import { settingsSchema, type SettingsDto } from '../../domain/accounts/accounts.schema';
 
 /** Changes the signed-in user's name and/or units (metric or imperial). */
 export const PATCH = route(async (ctx) => {

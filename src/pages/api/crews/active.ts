@@ -1,7 +1,7 @@
 import { db } from '../../../server/db';
 import { listCrews, switchActiveCrew } from '../../../server/crews';
 import { json, parseWith, readJson, requireUser, route } from '../../../server/http';
-import { activeCrewSchema } from '../../../schemas/crews';
+import { activeCrewSchema } from '../../../domain/crews/crews.schema';
 
 /** Switches the crew the Crew page manages and new rigs go into; answers the crew list. */
 export const PUT = route(async (ctx) => {

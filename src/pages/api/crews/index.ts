@@ -3,7 +3,7 @@ import { crewAccess } from '../../../server/access';
 import { createCrew, crewDetail, listCrews } from '../../../server/crews';
 import { HttpError } from '../../../server/errors';
 import { json, parseWith, readJson, requireUser, route } from '../../../server/http';
-import { crewCreateSchema } from '../../../schemas/crews';
+import { crewCreateSchema } from '../../../domain/crews/crews.schema';
 
 /** The crews the user is in, with their role and which one is active (installers are in none). */
 export const GET = route(async (ctx) => {

@@ -1,7 +1,7 @@
 import { db } from '../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../server/http';
 import { acceptInvitation } from '../../../server/invitations';
-import { invitationAcceptSchema } from '../../../schemas/crews';
+import { invitationAcceptSchema } from '../../../domain/crews/crews.schema';
 
 /** Accepts the invitation of a link for the signed-in user (the invited address only); single use. */
 export const POST = route(async (ctx) => {

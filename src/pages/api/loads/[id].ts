@@ -3,7 +3,7 @@ import { db } from '../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../server/http';
 import { deleteLoad, updateLoad } from '../../../server/loads';
 import { versionFrom } from '../../../server/versions';
-import { loadPatchSchema } from '../../../schemas/loads';
+import { loadPatchSchema } from '../../../domain/loads/loads.schema';
 
 /** Changes the fields sent; `version` is the one read (409 with the current load when stale). */
 export const PATCH = route(async (ctx) => {

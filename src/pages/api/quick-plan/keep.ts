@@ -1,8 +1,8 @@
 import { validatePlan, type Plan } from '../../../engine';
 import { quickPlanToRigAndTrip } from '../../../features/quick-plan/quick-plan';
-import { loadInputSchema } from '../../../schemas/loads';
-import { rigInputSchema } from '../../../schemas/rigs';
-import { tripInputSchema } from '../../../schemas/trips';
+import { loadInputSchema } from '../../../domain/loads/loads.schema';
+import { rigInputSchema } from '../../../domain/rigs/rigs.schema';
+import { tripInputSchema } from '../../../domain/trips/trips.schema';
 import { crewForNewRig } from '../../../server/access';
 import { db } from '../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../server/http';

@@ -2,7 +2,7 @@ import { crewForNewRig } from '../../../server/access';
 import { db } from '../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../server/http';
 import { createRig, listRigs } from '../../../server/rigs';
-import { rigInputSchema } from '../../../schemas/rigs';
+import { rigInputSchema } from '../../../domain/rigs/rigs.schema';
 
 /** The rigs of every crew the user is in. */
 export const GET = route(async (ctx) => {

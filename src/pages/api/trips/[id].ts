@@ -3,7 +3,7 @@ import { db } from '../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../server/http';
 import { deleteTrip, toTripDto, updateTrip } from '../../../server/trips';
 import { versionFrom } from '../../../server/versions';
-import { tripPatchSchema } from '../../../schemas/trips';
+import { tripPatchSchema } from '../../../domain/trips/trips.schema';
 
 /** One trip. */
 export const GET = route(async (ctx) => {

@@ -3,7 +3,7 @@ import { rigAccessByField } from '../../../server/access';
 import { db } from '../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../server/http';
 import { checkItinerary, createTrip, listTrips } from '../../../server/trips';
-import { tripInputSchema } from '../../../schemas/trips';
+import { tripInputSchema } from '../../../domain/trips/trips.schema';
 
 const listQuery = z.object({ rigId: z.string().trim().min(1, { error: 'Leave rigId out, or give a rig id.' }).optional() });
 

@@ -2,7 +2,7 @@ import { db } from '../../../../server/db';
 import { crewAccess } from '../../../../server/access';
 import { crewDetail, renameCrew } from '../../../../server/crews';
 import { json, parseWith, readJson, requireUser, route } from '../../../../server/http';
-import { crewRenameSchema } from '../../../../schemas/crews';
+import { crewRenameSchema } from '../../../../domain/crews/crews.schema';
 
 /** A crew with its members (and, for owners, its invitations). */
 export const GET = route(async (ctx) => {

@@ -3,7 +3,7 @@ import { db } from '../../../../server/db';
 import { crewAccess } from '../../../../server/access';
 import { json, parseWith, readJson, requireUser, route } from '../../../../server/http';
 import { createInvitation, listInvitations } from '../../../../server/invitations';
-import { invitationCreateSchema } from '../../../../schemas/crews';
+import { invitationCreateSchema } from '../../../../domain/crews/crews.schema';
 
 /** The crew's open and expired invitations (owners). */
 export const GET = route(async (ctx) => {

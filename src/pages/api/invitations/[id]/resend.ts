@@ -3,7 +3,7 @@ import { db } from '../../../../server/db';
 import { crewAccess } from '../../../../server/access';
 import { json, parseWith, readJson, requireUser, route } from '../../../../server/http';
 import { invitationById, resendInvitation } from '../../../../server/invitations';
-import { invitationResendSchema } from '../../../../schemas/crews';
+import { invitationResendSchema } from '../../../../domain/crews/crews.schema';
 
 /** E-mails a fresh link (owners of its crew); the old link stops working and the 7 days start again. */
 export const POST = route(async (ctx) => {

@@ -3,7 +3,7 @@ import { appOrigin } from '../../../../server/app-url';
 import { db } from '../../../../server/db';
 import { createGrant, listGrants } from '../../../../server/grants';
 import { json, parseWith, readJson, requireUser, route } from '../../../../server/http';
-import { grantCreateSchema } from '../../../../schemas/crews';
+import { grantCreateSchema } from '../../../../domain/crews/crews.schema';
 
 /** The installers this rig is shared with (crew members), and whether the caller may change that (owners). */
 export const GET = route(async (ctx) => {

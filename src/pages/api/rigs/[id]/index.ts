@@ -3,7 +3,7 @@ import { db } from '../../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../../server/http';
 import { deleteRig, toRigDto, updateRig } from '../../../../server/rigs';
 import { versionFrom } from '../../../../server/versions';
-import { rigPatchSchema } from '../../../../schemas/rigs';
+import { rigPatchSchema } from '../../../../domain/rigs/rigs.schema';
 
 /** One rig. */
 export const GET = route(async (ctx) => {

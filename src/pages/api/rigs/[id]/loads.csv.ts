@@ -1,5 +1,5 @@
 import { rigAccess } from '../../../../server/access';
-import { formatLoadsCsv } from '../../../../server/csv';
+import { formatLoadsCsv } from '../../../../domain/loads/loads-csv';
 import { db } from '../../../../server/db';
 import { requireUser, route } from '../../../../server/http';
 import { listLoads } from '../../../../server/loads';

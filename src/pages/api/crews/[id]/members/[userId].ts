@@ -3,7 +3,7 @@ import { crewAccess } from '../../../../../server/access';
 import { changeRole, removeMember } from '../../../../../server/crews';
 import { json, parseWith, readJson, requireUser, route } from '../../../../../server/http';
 import { versionFrom } from '../../../../../server/versions';
-import { memberRoleSchema } from '../../../../../schemas/crews';
+import { memberRoleSchema } from '../../../../../domain/crews/crews.schema';
 
 /** Changes a member's role (owners); the last owner cannot be demoted. */
 export const PATCH = route(async (ctx) => {

@@ -1,5 +1,5 @@
 import { rigAccess } from '../../../../../server/access';
-import { parseLoadsCsv } from '../../../../../server/csv';
+import { parseLoadsCsv } from '../../../../../domain/loads/loads-csv';
 import { db } from '../../../../../server/db';
 import { HttpError } from '../../../../../server/errors';
 import { json, requireUser, route } from '../../../../../server/http';

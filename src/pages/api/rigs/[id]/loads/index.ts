@@ -2,7 +2,7 @@ import { rigAccess } from '../../../../../server/access';
 import { db } from '../../../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../../../server/http';
 import { createLoad, listLoads } from '../../../../../server/loads';
-import { loadInputSchema } from '../../../../../schemas/loads';
+import { loadInputSchema } from '../../../../../domain/loads/loads.schema';
 
 /** The rig's loads, by position then when they were added. */
 export const GET = route(async (ctx) => {

@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { loadSchema } from '../engine';
-import { patchOf, versionField } from './patch';
+import { loadSchema } from '../../engine';
+import { patchOf, versionField } from '../shared/patch';
 
 /**
  * A load on a rig: the engine contract's load fields plus who added it, a note, and whether it

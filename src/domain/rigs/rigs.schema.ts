@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { arraySchema, bankSchema, chargerSchema, inverterSchema, LIMITS } from '../engine';
-import { patchOf, versionField } from './patch';
+import { arraySchema, bankSchema, chargerSchema, inverterSchema, LIMITS } from '../../engine';
+import { patchOf, versionField } from '../shared/patch';
 
 /**
  * A rig: one vehicle's power system. Bank, arrays, chargers and inverter use the engine

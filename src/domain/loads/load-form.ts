@@ -1,7 +1,7 @@
 // The load editor's form model: the shared load schema with the schedule typed as text
 // ("18-23; 6-8") and read into hour pairs, so a bad schedule gets its message by the field.
 import { z } from 'zod';
-import { loadInputSchema, type LoadDto, type LoadInput } from '../../schemas/loads';
+import { loadInputSchema, type LoadDto, type LoadInput } from './loads.schema';
 import { ALL_DAY, parseWindows, windowsToText } from './windows';
 
 const windowsText = z.string().transform((text, ctx) => {

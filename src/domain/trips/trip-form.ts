@@ -2,7 +2,7 @@
 // check before the server does (stops in order, drives inside the trip, high above low), and
 // the small date helpers the planner needs. Pure and unit-tested.
 import { z } from 'zod';
-import { tripInputSchema, type TripDto } from '../../schemas/trips';
+import { tripInputSchema, type TripDto } from './trips.schema';
 import { addDaysIso, formatDate } from '../../lib/format';
 
 const ISO = /^\d{4}-\d{2}-\d{2}$/;

@@ -53,11 +53,6 @@ export function maxChargeAmpsFor(chemistry: Chemistry, capacityAh: number): numb
   return Math.max(1, Math.round(CHEMISTRY_PRESETS[chemistry].maxChargeC * capacityAh));
 }
 
-/** The nominal volts a chemistry's batteries usually come in, per battery, for the series/parallel helper. */
-export function typicalBatteryVolts(chemistry: Chemistry): number[] {
-  return chemistry === 'lifepo4' ? [12.8, 25.6] : [6, 12];
-}
-
 export interface SeriesParallelInput {
   batteryVolts: number;
   batteryAh: number;

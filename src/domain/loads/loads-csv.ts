@@ -1,8 +1,8 @@
 import Papa from 'papaparse';
 import type { z } from 'zod';
-import { LIMITS } from '../engine';
-import { needsFormulaEscape, unescapeCell } from '../domain/csv-cells';
-import { LOAD_CSV_COLUMNS, loadInputSchema } from '../schemas/loads';
+import { LIMITS } from '../../engine';
+import { needsFormulaEscape, unescapeCell } from '../csv-cells';
+import { LOAD_CSV_COLUMNS, loadInputSchema } from './loads.schema';
 
 // The loads list as CSV, both ways. Pure functions (no HTTP, no database), so the import, its
 // preview and the export share one reading of every column and are unit-tested on their own.

@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { driveSchema, LIMITS, stopSchema } from '../engine';
-import { patchOf, versionField } from './patch';
+import { driveSchema, LIMITS, stopSchema } from '../../engine';
+import { patchOf, versionField } from '../shared/patch';
 
 /** A trip: stops (with their weather days) and drives, as the engine contract shapes them. */
 export const tripInputSchema = z.object({

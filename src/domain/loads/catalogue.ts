@@ -2,7 +2,7 @@
 // (/work/shared/reference/trade-notes.md: manufacturer category figures and practitioners'
 // measurements, converted from amps at 12 V). Every figure is TYPICAL: the camper checks the
 // appliance's label and confirms the number before the load is added.
-import type { LoadInput } from '../../schemas/loads';
+import type { LoadInput } from './loads.schema';
 
 export interface CatalogueItem {
   id: string;

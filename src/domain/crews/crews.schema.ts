@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { emailField } from './auth';
-import { versionField } from './patch';
+import { emailField } from '../accounts/accounts.schema';
+import { versionField } from '../shared/patch';
 
 /** Crews, members, invitations and installer grants: request shapes shared by routes and forms. */
 
@@ -28,17 +28,6 @@ export const invitationAcceptSchema = z.object({ token: z.string({ error: 'Open 
 
 export const grantCreateSchema = z.object({ email: emailField });
 export type GrantCreateInput = z.input<typeof grantCreateSchema>;
-
-export const resetRequestSchema = z.object({ email: emailField });
-export type ResetRequestInput = z.input<typeof resetRequestSchema>;
-
-export const newPasswordSchema = z
-  .object({
-    password: z.string().min(8, 'Use at least 8 characters.').max(128, 'Use at most 128 characters.'),
-    confirm: z.string().min(1, 'Type the new password again.'),
-  })
-  .refine((v) => v.password === v.confirm, { path: ['confirm'], message: 'The two passwords differ: type the same password twice.' });
-export type NewPasswordInput = z.input<typeof newPasswordSchema>;
 
 export interface CrewSummaryDto {
   id: string;
