@@ -1,10 +1,14 @@
 import type { Kysely } from 'kysely';
-import type { DB } from '../../db/schema';
+import type { DB, RigRow, TripRow } from '../../db/schema';
 import { forecast as runEngine, validatePlan, type Forecast, type HourlyRow, type Plan, type ResolvedPlan } from '../engine';
-import type { LoadDto } from '../domain/loads/loads.schema';
-import type { RigDto } from '../domain/rigs/rigs.schema';
-import type { TripDto } from '../domain/trips/trips.schema';
+import type { LoadDto } from '../schemas/loads';
+import type { RigDto } from '../schemas/rigs';
+import type { TripDto } from '../schemas/trips';
+import { tripAccess, type Actor, type Need } from './access';
 import { HttpError } from './errors';
+import { listLoads } from './loads';
+import { toRigDto } from './rigs';
+import { toTripDto } from './trips';
 
 /** Builds the engine plan of a trip from its rig and the rig's loads (as they are now). */
 export function assemblePlan(rig: RigDto, loads: LoadDto[], trip: TripDto): Plan {
@@ -104,6 +108,12 @@ export async function createForecast(
   return created;
 }
 
+/** Forecasts a trip with its rig and the rig's loads as they are now, and saves the result. */
+export async function forecastTrip(db: Kysely<DB>, input: { trip: TripRow; rig: RigRow; canWrite: boolean; userId: string; name?: string }): Promise<ForecastDto> {
+  const loads = await listLoads(db, input.rig.id);
+  return createForecast(db, { rig: toRigDto(input.rig, input.canWrite), loads, trip: toTripDto(input.trip, input.canWrite), userId: input.userId, name: input.name });
+}
+
 function formatStamp(iso: string): string {
   return iso.slice(0, 16).replace('T', ' ') + ' UTC';
 }
@@ -173,4 +183,22 @@ export async function forecastTripId(db: Kysely<DB>, id: string): Promise<string
 /** Removes a saved forecast. */
 export async function deleteForecast(db: Kysely<DB>, id: string): Promise<void> {
   await db.deleteFrom('forecasts').where('id', '=', id).execute();
+}
+
+const notFound = () => new HttpError('not_found', "There is no saved forecast with this id among your crews' trips.");
+
+/** Checks the user may do `need` with the saved forecast's trip; 404 for a forecast outside their crews. */
+export async function forecastAccess(db: Kysely<DB>, user: Actor, id: string, need: Need): Promise<void> {
+  const tripId = await forecastTripId(db, id);
+  if (!tripId) throw notFound();
+  await tripAccess(db, user, tripId, need).catch((e: unknown) => {
+    throw e instanceof HttpError && e.code === 'not_found' ? notFound() : e;
+  });
+}
+
+/** A saved forecast, or a 404. */
+export async function savedForecast(db: Kysely<DB>, id: string): Promise<ForecastDto & { crewId: string }> {
+  const f = await getForecast(db, id);
+  if (!f) throw notFound();
+  return f;
 }

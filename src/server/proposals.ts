@@ -4,11 +4,13 @@ import type { Forecast, ForecastSummary, ResolvedPlan } from '../engine';
 import type { ProposalDto, ProposalListItem, CableRow, Changes, Part, PriceList, ProposalPatchInput } from '../domain/proposals/proposals.schema';
 import { checkCables, defaultCables, lineAmount, partsTotal, proposalCautions, type CheckedCable } from '../domain/proposals/proposals';
 import { formatMoney } from '../lib/format';
-import { forecastAfter, labelOf, oneOffItems, type CostItem } from '../domain/proposals/sweep';
+import type { SweepRequestValues } from '../domain/proposals/proposals.schema';
+import { forecastAfter, labelOf, oneOffItems, runSweep, type CostItem, type SweepResult } from '../domain/proposals/sweep';
 import { installerOnly, tripAccess, type Actor, type RigGrant } from './access';
 import { HttpError, type Issue } from './errors';
 import { forecastTripId, getForecast, packHourly, unpackHourly, type ForecastDto } from './forecasts';
 import { renderMail, type MailContent } from './mail';
+import { savedPricesOrThrow } from './price-lists';
 import { enqueueMail, kickOutbox } from './outbox';
 import { conflict, nowIso } from './versions';
 
@@ -355,4 +357,15 @@ export async function deleteProposal(db: Kysely<DB>, row: ProposalRow, access: R
   }
   const res = await db.deleteFrom('proposals').where('id', '=', row.id).where('version', '=', version).where('status', '=', 'draft').executeTakeFirst();
   if (res.numDeletedRows !== 1n) await staleOr(db, row.id, access, userId);
+}
+
+/**
+ * Upgrade sweep on a saved forecast: every combination of the candidates rerun with the engine,
+ * priced from the sent prices or the installer's saved list; `ms` is how long the runs took.
+ */
+export async function sweepForecast(db: Kysely<DB>, installerId: string, forecast: ForecastDto, body: SweepRequestValues): Promise<SweepResult & { forecastId: string; ms: number }> {
+  const prices = body.prices ?? (await savedPricesOrThrow(db, installerId));
+  const started = performance.now();
+  const result = runSweep({ plan: forecast.plan, reserveSocPct: forecast.reserveSocPct, candidates: body.candidates, prices });
+  return { ...result, forecastId: forecast.id, ms: Math.round((performance.now() - started) * 10) / 10 };
 }

@@ -109,6 +109,7 @@ export const sweepRequestSchema = z.object({
   prices: priceListSchema.optional(),
 });
 export type SweepRequest = z.input<typeof sweepRequestSchema>;
+export type SweepRequestValues = z.output<typeof sweepRequestSchema>;
 
 /** One option: what changes against the saved forecast's plan. */
 export const changesSchema = z

@@ -1,9 +1,7 @@
+import { sweepRequestSchema } from '../../../../domain/proposals/proposals.schema';
 import { db } from '../../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../../server/http';
-import { savedPricesOrThrow } from '../../../../server/price-lists';
-import { forecastForInstaller } from '../../../../server/proposals';
-import { sweepRequestSchema } from '../../../../domain/proposals/proposals.schema';
-import { runSweep } from '../../../../domain/proposals/sweep';
+import { forecastForInstaller, sweepForecast } from '../../../../server/proposals';
 
 export const prerender = false;
 
@@ -16,8 +14,5 @@ export const POST = route(async (ctx) => {
   const user = requireUser(ctx);
   const { forecast } = await forecastForInstaller(db, user, ctx.params.id!);
   const body = parseWith(sweepRequestSchema, await readJson(ctx.request, 64 * 1024));
-  const prices = body.prices ?? (await savedPricesOrThrow(db, user.id));
-  const started = performance.now();
-  const result = runSweep({ plan: forecast.plan, reserveSocPct: forecast.reserveSocPct, candidates: body.candidates, prices });
-  return json({ ...result, forecastId: forecast.id, ms: Math.round((performance.now() - started) * 10) / 10 });
+  return json(await sweepForecast(db, user.id, forecast, body));
 });
