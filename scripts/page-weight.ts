@@ -6,7 +6,7 @@ import os, { tmpdir } from 'node:os';
 import path from 'node:path';
 import { gzipSync } from 'node:zlib';
 import { DEMO_ACCOUNTS } from '../db/seed';
-import { launch } from '../tests/helpers/browser';
+import { CHROMIUM_FLAGS, launch } from '../tests/helpers/browser';
 
 /**
  * `npm run pageweight`: for the landing page, the demo trip and its saved forecast (signed in as the
@@ -20,7 +20,6 @@ import { launch } from '../tests/helpers/browser';
  */
 
 const CHROMIUM = process.env.CHROME_PATH ?? '/usr/bin/chromium';
-const FLAGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
 
 // The same harness as the integration tests: build once, a throw-away migrated database, the
 // built server on a free loopback port (rate limits off), then the demo crew seeded into it.
@@ -102,7 +101,7 @@ async function weigh(pagePath: string, cookie: string | null): Promise<Pick<Page
 /** One Lighthouse run (mobile profile, simulated throttling) in a fresh Chromium profile. */
 async function audit(pagePath: string, cookie: string | null, run = 1): Promise<Pick<PageFigures, 'performance' | 'accessibility' | 'metrics' | 'failedAudits'>> {
   const profile = mkdtempSync(path.join(tmpdir(), 'sunreckon-lighthouse-'));
-  const chrome = await chromeLauncher.launch({ chromePath: CHROMIUM, chromeFlags: [...FLAGS, `--user-data-dir=${profile}`], userDataDir: profile, logLevel: 'silent' });
+  const chrome = await chromeLauncher.launch({ chromePath: CHROMIUM, chromeFlags: [...CHROMIUM_FLAGS, `--user-data-dir=${profile}`], userDataDir: profile, logLevel: 'silent' });
   try {
     const result = await lighthouse(`${url}${pagePath}`, {
       port: chrome.port,

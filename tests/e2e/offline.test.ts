@@ -1,12 +1,10 @@
-import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import path from 'node:path';
 import AxeBuilder from '@axe-core/playwright';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import type { BrowserContext, Page } from 'playwright-core';
 import { api, baseUrl, openTestDb, signUp, type Session } from '../helpers/api';
-import { CHROMIUM, hydrated, shot, VIEWPORTS, type ViewportName } from '../helpers/browser';
+import { hydrated, launch, shot, VIEWPORTS, type ViewportName } from '../helpers/browser';
 import { createLoad, createRig } from '../helpers/fixtures';
+import { at } from '../../src/lib/invariant';
 
 // The trip kept on the phone: in Chromium, with the real service worker and playwright's offline
 // mode, the camper opens a trip that was saved while there was signal, checks in twice without
@@ -42,24 +40,8 @@ beforeAll(async () => {
 });
 
 /** Chromium as a phone at camp: its clock in the camp's zone, a fresh profile (so a fresh service worker). */
-async function phone(viewport: ViewportName): Promise<{ context: BrowserContext; page: Page; close(): Promise<void> }> {
-  const profile = mkdtempSync(path.join(tmpdir(), 'sunreckon-offline-'));
-  const context = await chromium.launchPersistentContext(profile, {
-    executablePath: CHROMIUM,
-    headless: true,
-    viewport: VIEWPORTS[viewport],
-    timezoneId: TZ,
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-  });
-  const page = context.pages()[0] ?? (await context.newPage());
-  return {
-    context,
-    page,
-    close: async () => {
-      await context.close();
-      rmSync(profile, { recursive: true, force: true });
-    },
-  };
+function phone(viewport: ViewportName): ReturnType<typeof launch> {
+  return launch(viewport, { timezoneId: TZ });
 }
 
 async function signIn(page: Page): Promise<void> {
@@ -152,7 +134,8 @@ describe('a trip kept on the phone, offline', () => {
     const q = await outbox(page);
     expect(q.every((x) => x.state === 'waiting' && x.local !== null)).toBe(true);
     expect(q.map((x) => x.local!.socPct).sort()).toEqual([50, 62]);
-    [first, second] = q.map((x) => x.id);
+    first = at(q, 0, 'queued check-in').id;
+    second = at(q, 1, 'queued check-in').id;
     await expect.poll(() => page.locator('[data-testid="check-in-row"][data-status="waiting"]').count()).toBe(2);
     await expect.poll(() => banner.textContent()).toMatch(/2 check-ins waiting to send/);
     // Nothing reached the server.

@@ -5,6 +5,8 @@ import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { ROOT } from './server';
 
 export const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
+/** Debian's Chromium, headless and quiet (no first-run, sync, updates or background traffic): the one list every browser run uses. */
+export const CHROMIUM_FLAGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
 export const SCREENSHOTS = path.join(ROOT, 'test-results', 'screenshots');
 
 export const VIEWPORTS = {
@@ -13,8 +15,13 @@ export const VIEWPORTS = {
 } as const;
 export type ViewportName = keyof typeof VIEWPORTS;
 
-/** Launches Debian's Chromium with a fresh profile; fails loudly (never skips) when it is missing. */
-export async function launch(viewport: ViewportName = 'desktop'): Promise<{ context: BrowserContext; page: Page; close(): Promise<void> }> {
+export interface LaunchOptions {
+  /** The browser's clock zone (IANA), e.g. a phone at camp; the machine's zone when absent. */
+  timezoneId?: string;
+}
+
+/** Launches Debian's Chromium with a fresh profile (so a fresh service worker); fails loudly (never skips) when it is missing. */
+export async function launch(viewport: ViewportName = 'desktop', options: LaunchOptions = {}): Promise<{ context: BrowserContext; page: Page; close(): Promise<void> }> {
   if (!existsSync(CHROMIUM)) {
     throw new Error(
       `Chromium was not found at ${CHROMIUM}. The end-to-end tests drive Debian's Chromium: install it with ` +
@@ -26,7 +33,8 @@ export async function launch(viewport: ViewportName = 'desktop'): Promise<{ cont
     executablePath: CHROMIUM,
     headless: true,
     viewport: VIEWPORTS[viewport],
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    ...(options.timezoneId ? { timezoneId: options.timezoneId } : {}),
+    args: CHROMIUM_FLAGS,
   });
   const page = context.pages()[0] ?? (await context.newPage());
   return {
