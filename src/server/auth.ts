@@ -2,6 +2,7 @@ import { betterAuth } from 'better-auth';
 import { APIError } from 'better-auth/api';
 import { db } from './db';
 import { env } from './env';
+import { personName } from './auth-input';
 import { createPersonalCrew } from './crews';
 import { passwordResetMail } from './mail';
 import { enqueueMail, kickOutbox } from './outbox';
@@ -68,12 +69,24 @@ export const auth = betterAuth({
           if (!ACCOUNT_KINDS.includes(kind as AccountKind)) {
             throw new APIError('BAD_REQUEST', { message: 'kind: choose "camper" or "installer".' });
           }
-          const name = typeof user.name === 'string' ? user.name.trim() : '';
-          if (!name) throw new APIError('BAD_REQUEST', { message: 'name: enter your name.' });
-          return { data: { ...user, name, kind } };
+          const name = personName.safeParse(user.name);
+          if (!name.success) throw new APIError('BAD_REQUEST', { message: `name: ${name.error.issues[0]!.message}` });
+          return { data: { ...user, name: name.data, kind } };
         },
         after: async (user) => {
           if ((user as { kind?: string }).kind !== 'installer') await createPersonalCrew(db, user.id, user.name);
+        },
+      },
+      // Every later write of a user row: the kind stays what sign-up made it, a name follows the one rule.
+      update: {
+        before: async (user) => {
+          const { kind: _kind, ...rest } = user as typeof user & { kind?: unknown };
+          if (rest.name !== undefined) {
+            const name = personName.safeParse(rest.name);
+            if (!name.success) throw new APIError('BAD_REQUEST', { message: `name: ${name.error.issues[0]!.message}` });
+            rest.name = name.data;
+          }
+          return { data: rest };
         },
       },
     },
