@@ -18,7 +18,20 @@ const port = Number(process.env.PORT ?? options.port ?? 4321);
 // Text over 1 KB is compressed (the library's default test of the content type); fonts and images are already packed.
 const compress = compression({ threshold: 1024 });
 
+// Behind a proxy without SUNRECKON_TRUST_PROXY=1 every client shares one rate-limit bucket; say so once.
+const trustProxy = process.env.SUNRECKON_TRUST_PROXY === '1';
+let warnedProxy = false;
+
 const server = http.createServer((req, res) => {
+  if (!trustProxy && !warnedProxy && req.headers['x-forwarded-for'] !== undefined) {
+    warnedProxy = true;
+    console.warn(
+      '[sunreckon] requests arrive with X-Forwarded-For but SUNRECKON_TRUST_PROXY is off: every client behind the proxy shares one rate-limit bucket. ' +
+        'Set SUNRECKON_TRUST_PROXY=1 when exactly one reverse proxy in front appends the client address (README, Deployment notes).',
+    );
+  }
+  // Static files (/_astro/*, sw.js) are served before the middleware that sets this on pages and API answers.
+  res.setHeader('X-Content-Type-Options', 'nosniff');
   compress(req, res, () => handler(req, res));
 });
 server.listen(port, host, () => console.log(`Sunreckon is serving on http://${host}:${port}`));
