@@ -12,6 +12,13 @@ const schema = z.object({
   BETTER_AUTH_URL: z.string().url().optional(),
   PREVIEW_RATE_LIMIT: z.coerce.number().int().min(0).default(30),
   AUTH_RATE_LIMIT: z.coerce.number().int().min(0).default(10),
+  /** Crew invitations (new or resent) per crew per hour, and per invited address per hour; 0 turns a limit off. */
+  INVITE_CREW_HOURLY: z.coerce.number().int().min(0).default(30),
+  INVITE_ADDRESS_HOURLY: z.coerce.number().int().min(0).default(5),
+  /** Rig shares with installers per owner per hour; 0 turns the limit off. */
+  GRANT_HOURLY: z.coerce.number().int().min(0).default(30),
+  /** Upgrade sweeps per user per minute; 0 turns the limit off. */
+  SWEEP_RATE_LIMIT: z.coerce.number().int().min(0).default(6),
   SMTP_URL: z.string().optional(),
   MAIL_FROM: z.string().default('Sunreckon <no-reply@sunreckon.test>'),
   /** First retry delay of an unsent e-mail; doubles per attempt up to 15 minutes. */

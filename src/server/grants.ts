@@ -47,14 +47,10 @@ export async function createGrant(db: Kysely<DB>, p: { rigId: string; ownerId: s
   const id = crypto.randomUUID();
   await db.transaction().execute(async (trx) => {
     const installer = await trx.selectFrom('user').select(['id', 'name', 'kind']).where((eb) => eb(eb.fn('lower', ['email']), '=', email)).executeTakeFirst();
-    if (!installer) {
-      throw new HttpError('invalid_request', `There is no installer account with the e-mail ${email}. Ask your installer to create an installer account with it, then share the rig again.`, [
+    // A camper account and no account answer alike, so the form cannot tell who has an account here.
+    if (!installer || installer.kind !== 'installer') {
+      throw new HttpError('invalid_request', `There is no installer account with the e-mail ${email}. Ask your installer to create an installer account with it, then share the rig again. To share with a household member, invite them to the crew instead.`, [
         { path: 'email', message: 'no installer account with this e-mail' },
-      ]);
-    }
-    if (installer.kind !== 'installer') {
-      throw new HttpError('invalid_request', `${email} is a camper account, not an installer. To share with a household member, invite them to the crew instead.`, [
-        { path: 'email', message: 'a camper account: invite them to the crew instead' },
       ]);
     }
     const existing = await trx.selectFrom('rig_grants').select('id').where('rig_id', '=', p.rigId).where('installer_id', '=', installer.id).executeTakeFirst();

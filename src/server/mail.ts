@@ -88,11 +88,14 @@ export function invitationMail(p: { crewName: string; inviterName: string; role:
     editor: 'edit the crew’s rigs, loads and trips and save forecasts',
     viewer: 'see the crew’s rigs, loads, trips and forecasts',
   };
+  // Names are the users' own words: never in the subject (a name could pose as a notice from us),
+  // only in the body, quoted, where renderMail escapes them.
   return renderMail({
-    subject: `${p.inviterName} invited you to the crew “${p.crewName}” on Sunreckon`,
+    subject: 'You are invited to a crew on Sunreckon',
     greeting: 'Hello,',
     intro: [
-      `${p.inviterName} invited you to join the crew “${p.crewName}” as ${p.role === 'viewer' ? 'a viewer' : `an ${p.role}`}: you will be able to ${what[p.role] ?? 'use the crew'}.`,
+      `A Sunreckon user who signs as “${p.inviterName}” invited you to join their crew as ${p.role === 'viewer' ? 'a viewer' : `an ${p.role}`}: you will be able to ${what[p.role] ?? 'use the crew'}.`,
+      `The crew’s name, in its members’ own words: “${p.crewName}”.`,
       'Open the link and sign in or create an account with this e-mail address.',
     ],
     action: { label: 'Join the crew', url: p.url },
@@ -120,10 +123,11 @@ export function passwordResetMail(p: { name: string; url: string; expiresInMinut
 /** Tells an installer that a crew shared a rig with them. */
 export function grantMail(p: { installerName: string; crewName: string; rigName: string; ownerName: string; url: string }): MailContent {
   return renderMail({
-    subject: `${p.crewName} shared the rig “${p.rigName}” with you`,
+    subject: 'A crew shared a rig with you on Sunreckon',
     greeting: `Hello ${p.installerName},`,
     intro: [
-      `${p.ownerName} of the crew “${p.crewName}” gave you access to the rig “${p.rigName}”: you can read its power system, loads, trips and saved forecasts, and prepare a proposal.`,
+      `A crew owner who signs as “${p.ownerName}” gave you access to their rig “${p.rigName}”: you can read its power system, loads, trips and saved forecasts, and prepare a proposal.`,
+      `The crew’s name, in its members’ own words: “${p.crewName}”.`,
     ],
     action: { label: 'Open rigs shared with me', url: p.url },
     outro: ['The crew can withdraw this access at any time.'],

@@ -45,3 +45,27 @@ export async function limit(ctx: APIContext, name: string, perMinute: number): P
     throw new HttpError('rate_limited', `Too many requests. Try again in ${retry} s.`, [], {}, { 'Retry-After': String(retry) });
   }
 }
+
+const keyedLimiters = new Map<string, RateLimiterMemory>();
+
+/**
+ * Counts one action against `points` per `seconds` for `key` (a crew, an address, a user) under
+ * `name`; past it, throws a 429 with Retry-After and `message`. `points` 0 turns the limit off.
+ */
+export async function limitKey(name: string, key: string, points: number, seconds: number, message: string, field?: string): Promise<void> {
+  if (points <= 0) return;
+  const id = `${name}:${points}:${seconds}`;
+  let limiter = keyedLimiters.get(id);
+  if (!limiter) {
+    limiter = new RateLimiterMemory({ points, duration: seconds, keyPrefix: id });
+    keyedLimiters.set(id, limiter);
+  }
+  try {
+    await limiter.consume(key);
+  } catch (res) {
+    if (!(res instanceof RateLimiterRes)) throw res;
+    const retry = Math.max(1, Math.ceil(res.msBeforeNext / 1000));
+    const minutes = Math.ceil(retry / 60);
+    throw new HttpError('rate_limited', `${message} Try again in ${retry < 120 ? `${retry} s` : `${minutes} minutes`}.`, field ? [{ path: field, message: 'too many for now' }] : [], {}, { 'Retry-After': String(retry) });
+  }
+}

@@ -86,7 +86,8 @@ describe('invitations by e-mail', () => {
     expect(JSON.stringify(inv)).not.toMatch(/token/i);
 
     const [mail] = await waitForMail(email);
-    expect(mail!.subject).toBe('Inés invited you to the crew “Canyon crew” on Sunreckon');
+    expect(mail!.subject).toBe('You are invited to a crew on Sunreckon');
+    expect(mail!.text_body).toContain('in its members’ own words: “Canyon crew”');
     expect(mail!.html_body).toContain('Join the crew');
     const token = await inviteTokenFromMail(mail!.text_body);
 

@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import Papa from 'papaparse';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { request } from 'node:http';
-import { api, baseUrl, openTestDb, type Session } from '../helpers/api';
+import { api, baseUrl, openTestDb, signUp, type Session } from '../helpers/api';
 import { ACTORS, monitorLogUpload, ROUTES, type Actor, type Cast, type RouteCase, type World } from '../helpers/routes';
 import { makeCast, makeWorld, sessionOf } from '../helpers/world';
 
@@ -304,4 +304,45 @@ describe('formulas are never exported runnable', () => {
       { numRuns: 15 },
     );
   }, 120_000);
+});
+
+describe('sign-in redirect and names (issue 15)', () => {
+  // Characters that turn a path into another site or a broken header once a browser has read it.
+  const tricky = fc.constantFrom('/', '\\', '%09', '%0A', '%0D', '%00', '%2F', '%5C', '\t', '@', ':', '.', 'evil.example', '//', '%2F%2F', '?', '#', 'é', '%E2%80%AE', ' ');
+  const nextArb = fc.oneof(fc.array(tricky, { maxLength: 8 }).map((a) => a.join('')), printable);
+
+  it('next= never leaves our origin and never answers 5xx', async () => {
+    const s = cast.owner;
+    const origin = new URL(baseUrl());
+    await fc.assert(
+      fc.asyncProperty(nextArb, fc.constantFrom('/sign-in', '/sign-up'), async (next, page) => {
+        const res = await api(`${page}?next=${next}`, { session: s });
+        expect(res.status).toBe(302);
+        const location = res.headers.get('location') ?? '';
+        // As a browser reads it: tabs and line breaks dropped, then resolved against our origin.
+        const seen = new URL(location.replace(/[\t\n\r]/g, ''), origin);
+        expect(seen.origin, location).toBe(origin.origin);
+      }),
+      { numRuns: 150 },
+    );
+  });
+
+  it('any name to sign-up and update-user is stored trimmed within 1–80 characters or refused with a 4xx', async () => {
+    const s = await signUp({ name: 'Name Fuzz' });
+    const nameArb = fc.oneof(fc.string({ maxLength: 120 }), fc.string({ unit: 'binary', maxLength: 120 }), fc.jsonValue({ maxDepth: 1 }));
+    await fc.assert(
+      fc.asyncProperty(nameArb, async (name) => {
+        const res = await api('/api/auth/update-user', { method: 'POST', session: s, json: { name } });
+        expect(res.status).toBeLessThan(500);
+        const db = openTestDb();
+        const stored = (db.prepare('select name from user where id = ?').get(s.userId) as { name: string }).name;
+        db.close();
+        expect(stored.length).toBeGreaterThanOrEqual(1);
+        expect(stored.length).toBeLessThanOrEqual(80);
+        expect(stored).toBe(stored.trim());
+        if (res.status === 200) expect(stored).toBe((name as string).trim());
+      }),
+      { numRuns: 120 },
+    );
+  });
 });

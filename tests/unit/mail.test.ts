@@ -9,7 +9,10 @@ describe('e-mail rendering', () => {
     expect(m.html).toContain('href="http://127.0.0.1:4321/invite/abc?x=1&amp;y=2"');
     expect(m.text).toContain('“<img src=x onerror=alert(1)> & co”');
     expect(m.text).toContain('http://127.0.0.1:4321/invite/abc?x=1&y=2');
-    expect(m.subject).toBe('Inés "Ness" invited you to the crew “<img src=x onerror=alert(1)> & co” on Sunreckon');
+    // User-written names stay out of the subject; the body quotes them as the users' own words.
+    expect(m.subject).toBe('You are invited to a crew on Sunreckon');
+    expect(m.text).toContain('who signs as “Inés "Ness"”');
+    expect(m.html).toContain('signs as “Inés &quot;Ness&quot;”');
   });
 
   it('says what the role allows and when the link expires', () => {

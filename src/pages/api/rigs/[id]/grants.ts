@@ -3,6 +3,7 @@ import { appOrigin } from '../../../../server/app-url';
 import { db } from '../../../../server/db';
 import { createGrant, listGrants } from '../../../../server/grants';
 import { json, parseWith, readJson, requireUser, route } from '../../../../server/http';
+import { limitGrants } from '../../../../server/invite-limits';
 import { grantCreateSchema } from '../../../../domain/crews/crews.schema';
 
 /** The installers this rig is shared with (crew members), and whether the caller may change that (owners). */
@@ -17,5 +18,6 @@ export const POST = route(async (ctx) => {
   const user = requireUser(ctx);
   const { rig } = await rigAccess(db, user, ctx.params.id!, 'manage');
   const { email } = parseWith(grantCreateSchema, await readJson(ctx.request));
+  await limitGrants(user.id);
   return json(await createGrant(db, { rigId: rig.id, ownerId: user.id, email, origin: appOrigin(ctx.url) }), 201);
 });

@@ -1,0 +1,267 @@
+import { readdirSync } from 'node:fs';
+import { request } from 'node:http';
+import path from 'node:path';
+import Database from 'better-sqlite3';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { api, baseUrl, openTestDb, signUp, uniqueEmail } from '../helpers/api';
+import { makeRig, makeTrip } from '../helpers/crew';
+import { cleanup, DIST, ROOT, startServer, type RunningServer } from '../helpers/server';
+
+// Hardening II (issue 15): auth and abuse findings of the attack on a production-mode server,
+// one regression test each. Every request here is small (≤ ~1 MB) and quick.
+
+const json = (body: unknown, headers: Record<string, string> = {}) => ({
+  method: 'POST',
+  headers: { 'content-type': 'application/json', origin: baseUrl(), ...headers },
+  body: typeof body === 'string' ? body : JSON.stringify(body),
+});
+
+describe('/api/auth/* reads the body with the bounded reader', () => {
+  it('refuses a body over 64 KB with 413 in the error envelope (Content-Length sent)', async () => {
+    const res = await fetch(`${baseUrl()}/api/auth/sign-in/email`, json({ email: 'a@example.test', password: 'x'.repeat(70 * 1024) }, { connection: 'close' }));
+    expect(res.status).toBe(413);
+    expect(await res.json()).toMatchObject({ error: { code: 'payload_too_large', message: expect.stringContaining('64 KB') } });
+  });
+
+  it('refuses a streamed body without Content-Length once it passes 64 KB', async () => {
+    // Chunked, 1 MB at most, on a connection of its own (the server closes it after refusing).
+    const status = await new Promise<number>((resolve, reject) => {
+      const url = new URL('/api/auth/sign-up/email', baseUrl());
+      const req = request(url, { method: 'POST', agent: false, headers: { 'content-type': 'application/json', origin: baseUrl(), 'transfer-encoding': 'chunked' } }, (res) => {
+        res.resume();
+        resolve(res.statusCode ?? 0);
+      });
+      req.on('error', reject);
+      const chunk = 'x'.repeat(16 * 1024);
+      let sent = 0;
+      const pump = () => {
+        while (sent < 64) {
+          sent += 1;
+          if (!req.write(chunk)) return void req.once('drain', pump);
+        }
+        req.end();
+      };
+      pump();
+    });
+    expect(status).toBe(413);
+  });
+
+  it('still signs in with an ordinary body', async () => {
+    const email = uniqueEmail('bounded');
+    await signUp({ email, password: 'bounded-password-1' });
+    const res = await fetch(`${baseUrl()}/api/auth/sign-in/email`, json({ email, password: 'bounded-password-1' }));
+    expect(res.status).toBe(200);
+  });
+});
+
+describe('redirect after sign-in (next)', () => {
+  const evil = ['/%09/evil.example', '/%0A/evil.example', '/%0D/evil.example', '/%0D%0A/evil.example', '//evil.example', '/\\evil.example', '/%5Cevil.example', '/%09%09/evil.example', 'https://evil.example/', '%2F%2Fevil.example', '/%00/evil.example'];
+
+  it.each(evil)('next=%s stays on our origin and never answers 500', async (next) => {
+    const s = await signUp();
+    for (const page of ['/sign-in', '/sign-up']) {
+      const res = await api(`${page}?next=${next}`, { session: s });
+      expect(res.status, page).toBe(302);
+      const location = res.headers.get('location')!;
+      expect(new URL(location, baseUrl()).origin, location).toBe(baseUrl());
+      // What a browser does with the header: tabs and line breaks dropped, then resolved.
+      expect(new URL(location.replace(/[\t\n\r]/g, ''), baseUrl()).host).toBe(new URL(baseUrl()).host);
+    }
+  });
+
+  it('keeps a same-site path with its query', async () => {
+    const s = await signUp();
+    const res = await api(`/sign-in?next=${encodeURIComponent('/rigs?tab=loads#logs')}`, { session: s });
+    expect(res.headers.get('location')).toBe('/rigs?tab=loads#logs');
+  });
+});
+
+describe('one name rule and a fixed kind on better-auth endpoints', () => {
+  const signUpWith = (body: Record<string, unknown>) =>
+    fetch(`${baseUrl()}/api/auth/sign-up/email`, json({ email: uniqueEmail('rule'), password: 'rule-password-1', ...body }));
+  const userRow = (id: string) => {
+    const db = openTestDb();
+    try {
+      return db.prepare('select name, kind from user where id = ?').get(id) as { name: string; kind: string };
+    } finally {
+      db.close();
+    }
+  };
+
+  it.each([
+    ['an empty name', { name: '', kind: 'camper' }, 'name'],
+    ['a blank name', { name: '   ', kind: 'camper' }, 'name'],
+    ['an 81-character name', { name: 'n'.repeat(81), kind: 'camper' }, 'name'],
+    ['a name that is not text', { name: 42, kind: 'camper' }, 'name'],
+    ['kind "superadmin"', { name: 'Ada', kind: 'superadmin' }, 'kind'],
+    ['kind that is not text', { name: 'Ada', kind: ['installer'] }, 'kind'],
+  ])('sign-up with %s is a 400 naming the field', async (_label, body, field) => {
+    const res = await signUpWith(body);
+    expect(res.status).toBe(400);
+    const out = (await res.json()) as { error: { code: string }; issues: { path: string }[] };
+    expect(out.error.code).toBe('invalid_request');
+    expect(out.issues.map((i) => i.path)).toContain(field);
+  });
+
+  it('sign-up trims the name and keeps 80 characters', async () => {
+    const res = await signUpWith({ name: `  ${'a'.repeat(80)}  `, kind: 'camper' });
+    expect(res.status).toBe(200);
+    const { user } = (await res.json()) as { user: { id: string } };
+    expect(userRow(user.id).name).toBe('a'.repeat(80));
+  });
+
+  it('update-user follows the same rule and trims', async () => {
+    const s = await signUp({ name: 'Before' });
+    for (const name of ['', '  ', 'x'.repeat(81)]) {
+      const res = await api('/api/auth/update-user', { method: 'POST', session: s, json: { name } });
+      expect(res.status, JSON.stringify(name)).toBe(400);
+      expect(await res.json()).toMatchObject({ error: { code: 'invalid_request' }, issues: [{ path: 'name' }] });
+    }
+    // A 5 MB name is refused before anything is read past 64 KB.
+    const huge = await api('/api/auth/update-user', { method: 'POST', session: s, json: { name: 'x'.repeat(5 * 1024 * 1024) } });
+    expect(huge.status).toBe(413);
+    expect(userRow(s.userId).name).toBe('Before');
+    const ok = await api('/api/auth/update-user', { method: 'POST', session: s, json: { name: '  After  ' } });
+    expect(ok.status).toBe(200);
+    expect(userRow(s.userId).name).toBe('After');
+  });
+
+  it('kind cannot be changed after sign-up', async () => {
+    const s = await signUp({ kind: 'installer' });
+    for (const kind of ['camper', 'installer', 'superadmin']) {
+      const res = await api('/api/auth/update-user', { method: 'POST', session: s, json: { kind } });
+      expect(res.status, kind).toBe(400);
+      expect(await res.json()).toMatchObject({ error: { code: 'invalid_request' }, issues: [{ path: '(body)', message: expect.stringContaining('kind') }] });
+    }
+    expect(userRow(s.userId).kind).toBe('installer');
+  });
+});
+
+describe('smaller findings', () => {
+  it('static files and the service worker carry X-Content-Type-Options: nosniff', async () => {
+    const asset = readdirSync(path.join(ROOT, DIST, 'client', '_astro')).find((f) => f.endsWith('.js'))!;
+    for (const p of [`/_astro/${asset}`, '/sw.js', '/favicon.svg']) {
+      const res = await fetch(`${baseUrl()}${p}`);
+      expect(res.status, p).toBe(200);
+      expect(res.headers.get('x-content-type-options'), p).toBe('nosniff');
+    }
+  });
+
+  it('list-sessions and get-session never hand the raw session token to the browser', async () => {
+    const s = await signUp();
+    const db = openTestDb();
+    const token = (db.prepare('select token from session where userId = ?').get(s.userId) as { token: string }).token;
+    db.close();
+    for (const p of ['/api/auth/list-sessions', '/api/auth/get-session']) {
+      const res = await api(p, { session: s });
+      expect(res.status, p).toBe(200);
+      const text = await res.text();
+      expect(text, p).not.toContain(token);
+      expect(text, p).not.toMatch(/"token"/);
+      expect(text, p).toContain(s.userId);
+    }
+  });
+
+  it('a foreign or missing rig or trip is a 404 page', async () => {
+    const owner = await signUp();
+    const stranger = await signUp();
+    const rig = await makeRig(owner);
+    const trip = await makeTrip(owner, rig.id);
+    for (const [p, status] of [
+      [`/rigs/${rig.id}`, 200],
+      [`/trips/${trip.id}`, 200],
+    ] as const) {
+      expect((await api(p, { session: owner })).status, p).toBe(status);
+    }
+    for (const p of [`/rigs/${rig.id}`, `/trips/${trip.id}`, '/rigs/no-such-rig', '/trips/no-such-trip']) {
+      const res = await api(p, { session: stranger });
+      expect(res.status, p).toBe(404);
+      const html = await res.text();
+      expect(html, p).toMatch(/No such (rig|trip)/);
+      expect(html, p).not.toContain('Test van');
+    }
+  });
+});
+
+describe('mail, share and proxy limits (INVITE_CREW_HOURLY=3, INVITE_ADDRESS_HOURLY=2, GRANT_HOURLY=2)', () => {
+  let server: RunningServer;
+  beforeAll(async () => {
+    // No SMTP_URL: every accepted message waits in the outbox, where it is counted.
+    server = await startServer({ INVITE_CREW_HOURLY: '3', INVITE_ADDRESS_HOURLY: '2', GRANT_HOURLY: '2', SMTP_URL: '' });
+  });
+  afterAll(async () => {
+    await server?.stop();
+    if (server) cleanup(server.dir);
+  });
+  const call = (p: string, init: { method?: string; cookie?: string; body?: unknown; headers?: Record<string, string> } = {}) =>
+    fetch(`${server.url}${p}`, {
+      method: init.method ?? 'GET',
+      headers: { origin: server.url, ...(init.cookie ? { cookie: init.cookie } : {}), ...(init.body !== undefined ? { 'content-type': 'application/json' } : {}), ...init.headers },
+      body: init.body === undefined ? undefined : JSON.stringify(init.body),
+    });
+  async function account(kind: 'camper' | 'installer', name = 'Limit Owner') {
+    const email = uniqueEmail(kind);
+    const res = await call('/api/auth/sign-up/email', { method: 'POST', body: { name, email, password: 'limit-password-1', kind } });
+    expect(res.status).toBe(200);
+    return { email, cookie: res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ') };
+  }
+  const outbox = (to: string) => {
+    const db = new Database(server.dbPath, { readonly: true });
+    try {
+      return (db.prepare('select count(*) as n from outbox where to_address = ?').get(to) as { n: number }).n;
+    } finally {
+      db.close();
+    }
+  };
+
+  it('warns once at start when X-Forwarded-For arrives and SUNRECKON_TRUST_PROXY is off', async () => {
+    expect(server.logs()).not.toContain('X-Forwarded-For');
+    for (let i = 0; i < 3; i++) await fetch(`${server.url}/api/health`, { headers: { 'x-forwarded-for': `198.51.100.${i}` } });
+    await new Promise((r) => setTimeout(r, 100));
+    expect(server.logs().match(/SUNRECKON_TRUST_PROXY is off/g)).toHaveLength(1);
+  });
+
+  it('resends to one address: the third e-mail in an hour is 429 with Retry-After, and is not sent', async () => {
+    const owner = await account('camper');
+    const crewId = ((await (await call('/api/crews', { cookie: owner.cookie })).json()) as { id: string }[])[0]!.id;
+    const to = uniqueEmail('target');
+    const first = await call(`/api/crews/${crewId}/invitations`, { method: 'POST', cookie: owner.cookie, body: { email: to, role: 'viewer' } });
+    expect(first.status).toBe(201);
+    let inv = (await first.json()) as { id: string; version: number };
+    const statuses: number[] = [];
+    let last: Response | undefined;
+    for (let i = 0; i < 3; i++) {
+      last = await call(`/api/invitations/${inv.id}/resend`, { method: 'POST', cookie: owner.cookie, body: { version: inv.version } });
+      statuses.push(last.status);
+      if (last.status === 200) inv = (await last.json()) as typeof inv;
+    }
+    expect(statuses).toEqual([200, 429, 429]);
+    expect(Number(last!.headers.get('retry-after'))).toBeGreaterThan(60);
+    expect(await last!.json()).toMatchObject({ error: { code: 'rate_limited' } });
+    expect(outbox(to)).toBe(2);
+  });
+
+  it('one crew: the fourth invitation in an hour is 429, whatever the address', async () => {
+    const owner = await account('camper');
+    const crewId = ((await (await call('/api/crews', { cookie: owner.cookie })).json()) as { id: string }[])[0]!.id;
+    const statuses: number[] = [];
+    for (let i = 0; i < 4; i++) statuses.push((await call(`/api/crews/${crewId}/invitations`, { method: 'POST', cookie: owner.cookie, body: { email: uniqueEmail(`crew${i}`), role: 'viewer' } })).status);
+    expect(statuses).toEqual([201, 201, 201, 429]);
+  });
+
+  it('shares: the third in an hour by one owner is 429; a camper and no account answer alike', async () => {
+    const owner = await account('camper');
+    const camper = await account('camper', 'Other Camper');
+    const installer = await account('installer', 'Wren');
+    const rig = (await (await call('/api/rigs', { method: 'POST', cookie: owner.cookie, body: { name: 'Share van', bank: { chemistry: 'lifepo4', capacityAh: 100, nominalVolts: 12.8 } } })).json()) as { id: string };
+    const share = (email: string) => call(`/api/rigs/${rig.id}/grants`, { method: 'POST', cookie: owner.cookie, body: { email } });
+    const asCamper = await share(camper.email);
+    const ghost = uniqueEmail('ghost');
+    const asNobody = await share(ghost);
+    expect([asCamper.status, asNobody.status]).toEqual([400, 400]);
+    expect((await asCamper.text()).replaceAll(camper.email, '<e>')).toBe((await asNobody.text()).replaceAll(ghost, '<e>'));
+    const third = await share(installer.email);
+    expect(third.status).toBe(429);
+    expect(outbox(installer.email)).toBe(0);
+  });
+});
