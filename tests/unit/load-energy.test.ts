@@ -30,9 +30,11 @@ describe('schedule windows', () => {
     expect(parseWindows('18:00-23:00, 6 to 8')).toEqual({ ok: true, windows: [[18, 23], [6, 8]] });
     expect(parseWindows('all day')).toEqual({ ok: true, windows: [[0, 24]] });
     expect(parseWindows('  ')).toEqual({ ok: true, windows: [[0, 24]] });
+    expect(parseWindows('None')).toEqual({ ok: true, windows: [] });
+    expect(parseWindows('7-7')).toEqual({ ok: true, windows: [[7, 7]] }); // an empty window, as the engine reads it
   });
 
-  it.each(['18-', 'evening', '18-25', '7-7', '6.5-8', '18-23;;x'])('refuses “%s” with a message saying how to write it', (text) => {
+  it.each(['18-', 'evening', '18-25', '30-40', '6.5-8', '18-23;;x'])('refuses “%s” with a message saying how to write it', (text) => {
     const r = parseWindows(text);
     expect(r.ok).toBe(false);
     if (!r.ok) expect(r.message.length).toBeGreaterThan(10);
@@ -42,6 +44,7 @@ describe('schedule windows', () => {
     expect(windowsToText([[18, 23], [6, 8]])).toBe('18-23; 6-8');
     expect(windowsToText([[0, 24]])).toBe('all day');
     expect(windowsToText([[0, 12], [12, 24]])).toBe('all day');
+    expect(windowsToText([])).toBe('none');
     expect(describeWindows([[22, 6]])).toBe('22:00–06:00');
     expect(isAllDay([[6, 6]])).toBe(false);
   });

@@ -3,6 +3,7 @@ import type { z } from 'zod';
 import { LIMITS } from '../../engine';
 import { needsFormulaEscape, unescapeCell } from '../csv-cells';
 import { LOAD_CSV_COLUMNS, loadInputSchema } from './loads.schema';
+import { parseWindows, windowsToCell } from './windows';
 
 // The loads list as CSV, both ways. Pure functions (no HTTP, no database), so the import, its
 // preview and the export share one reading of every column and are unit-tested on their own.
@@ -40,25 +41,6 @@ function headerKey(s: string): string {
 // The formula rule is shared with the hourly forecast export; re-exported for the loads tests.
 export { needsFormulaEscape, unescapeCell };
 
-/** Schedule windows as a cell: `18-23;6-8`; no window at all is `none`. */
-export function formatWindows(windows: readonly (readonly [number, number])[]): string {
-  return windows.length === 0 ? 'none' : windows.map(([a, b]) => `${a}-${b}`).join(';');
-}
-
-/** Reads `18-23;6-8` (hours may be written `18:00`); an empty cell is all day, `none` no window. */
-export function parseWindows(cell: string): { ok: true; value: [number, number][] } | { ok: false; message: string } {
-  const s = cell.trim();
-  if (s === '') return { ok: true, value: [[0, 24]] };
-  if (/^none$/i.test(s)) return { ok: true, value: [] };
-  const value: [number, number][] = [];
-  for (const part of s.split(';').map((p) => p.trim()).filter(Boolean)) {
-    const m = /^(\d{1,2})(?::00)?\s*-\s*(\d{1,2})(?::00)?$/.exec(part);
-    if (!m) return { ok: false, message: `"${part.slice(0, 20)}" is not a window: write whole hours from-to, e.g. 18-23;6-8 (0-24 is all day)` };
-    value.push([Number(m[1]), Number(m[2])]);
-  }
-  return { ok: true, value };
-}
-
 type Cell = { ok: true; value: unknown } | { ok: false; message: string };
 
 function parseNumber(cell: string, opts: { percent?: boolean } = {}): Cell {
@@ -87,7 +69,10 @@ const READ: Record<LoadCsvColumn, (cell: string) => Cell> = {
   watts: (c) => parseNumber(c),
   quantity: (c) => parseNumber(c),
   supply: (c) => parseChoice(c, ['dc', 'ac']),
-  windows: (c) => parseWindows(c),
+  windows: (c) => {
+    const r = parseWindows(c);
+    return r.ok ? { ok: true, value: r.windows } : r;
+  },
   dutyPct: (c) => parseNumber(c, { percent: true }),
   days: (c) => parseChoice(c, ['all', 'camp', 'drive']),
   response: (c) => parseChoice(c, ['none', 'cooling', 'heating']),
@@ -196,7 +181,7 @@ export function formatLoadsCsv(loads: readonly CsvLoad[]): string {
     watts: l.watts,
     quantity: l.quantity,
     supply: l.supply,
-    windows: formatWindows(l.windows),
+    windows: windowsToCell(l.windows),
     dutyPct: l.dutyPct,
     days: l.days,
     response: l.response,

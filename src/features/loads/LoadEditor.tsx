@@ -157,7 +157,7 @@ export function LoadEditor({ idPrefix, initial, units, rig, title, intro, submit
           label="When it runs"
           errorName="Schedule"
           error={err('windows')}
-          hint="Hours like 18-23; 6-8. 22-6 runs past midnight. “all day” for every hour."
+          hint="Hours like 18-23; 6-8. 22-6 runs past midnight. “all day” for every hour, “none” for no window."
           className="sm:col-span-2"
         >
           <input id={id('windows')} className="field-input" autoComplete="off" disabled={standby} {...describedBy(id('windows'), err('windows'), true)} {...register('windows')} />
