@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPlan } from '../../src/engine';
 import { api } from '../helpers/api';
 import { cleanup, startServer, type RunningServer } from '../helpers/server';
+import { at } from '../../src/lib/invariant';
 
 /** Every number anywhere in a JSON value. */
 function numbers(value: unknown, out: number[] = []): number[] {
@@ -27,9 +28,9 @@ describe('POST /api/forecasts/preview', () => {
   });
 
   it('names the refused field', async () => {
-    const plan = demoPlan() as { bank: { capacityAh: unknown }; stops: [{ lat: unknown }, ...unknown[]] };
+    const plan = demoPlan() as { bank: { capacityAh: unknown }; stops: { lat: unknown }[] };
     plan.bank.capacityAh = -5;
-    plan.stops[0].lat = 123;
+    at(plan.stops, 0, 'demo stop').lat = 123;
     const res = await post(JSON.stringify(plan));
     expect(res.status).toBe(400);
     const body = await res.json();

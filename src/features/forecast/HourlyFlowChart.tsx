@@ -30,10 +30,12 @@ export default function HourlyFlowChart({ forecast, height = 240 }: { forecast: 
   const peak = data.reduce((a, b) => (b.load > a.load ? b : a), data[0] ?? { load: 0, clock: '' });
   const solarWh = data.reduce((s, d) => s + d.solar, 0);
   const loadWh = data.reduce((s, d) => s + d.load, 0);
+  const first = data[0];
+  const last = data.at(-1);
   const summary =
-    data.length === 0
+    !first || !last
       ? 'No hours on this day.'
-      : `${formatDay(day)}, ${data[0].clock} to ${data[data.length - 1].clock}: loads ${loadWh.toLocaleString('en-US')} Wh (peak ${peak.load} W at ${peak.clock}), solar ${solarWh.toLocaleString('en-US')} Wh; state of charge from ${data[0].soc} % to ${data[data.length - 1].soc} %.${unmetWh > 0 ? ` Unmet: ${unmetWh.toLocaleString('en-US')} Wh while the bank is disconnected.` : ''}`;
+      : `${formatDay(day)}, ${first.clock} to ${last.clock}: loads ${loadWh.toLocaleString('en-US')} Wh (peak ${peak.load} W at ${peak.clock}), solar ${solarWh.toLocaleString('en-US')} Wh; state of charge from ${first.soc} % to ${last.soc} %.${unmetWh > 0 ? ` Unmet: ${unmetWh.toLocaleString('en-US')} Wh while the bank is disconnected.` : ''}`;
 
   return (
     <figure className="m-0" data-testid="hourly-flow-chart">

@@ -52,13 +52,15 @@ export default function SocChart({ forecast, plan, reserveSocPct, name, compare,
     const out: Point[] = [];
     for (let x = 0; x <= n; x++) {
       const p: Point = { x };
-      if (a[x]) {
-        p.soc = a[x].soc;
-        p.row = a[x].row;
+      const pa = a[x];
+      const pb = b[x];
+      if (pa) {
+        p.soc = pa.soc;
+        p.row = pa.row;
       }
-      if (b[x]) {
-        p.soc2 = b[x].soc;
-        p.row2 = b[x].row;
+      if (pb) {
+        p.soc2 = pb.soc;
+        p.row2 = pb.row;
       }
       out.push(p);
     }

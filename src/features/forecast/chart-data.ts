@@ -58,18 +58,6 @@ export function stopSegments(f: Forecast, plan: ResolvedPlan): { name: string; x
   return segs.map(({ name, x1, x2 }) => ({ name, x1, x2 }));
 }
 
-/** Drive hours merged into bands. */
-export function driveBands(f: Forecast): { x1: number; x2: number }[] {
-  const bands: { x1: number; x2: number }[] = [];
-  f.hourly.forEach((r, i) => {
-    if (!r.driving) return;
-    const last = bands[bands.length - 1];
-    if (last && last.x2 === i) last.x2 = i + 1;
-    else bands.push({ x1: i, x2: i + 1 });
-  });
-  return bands;
-}
-
 /** Ticks at local midnights ("Fri 22"), thinned to at most `maxTicks`. */
 export function dayTicks(f: Forecast, maxTicks = 8): { x: number; label: string }[] {
   const all: { x: number; label: string }[] = [];
@@ -77,8 +65,9 @@ export function dayTicks(f: Forecast, maxTicks = 8): { x: number; label: string 
     const p = localParts(r.time);
     if (p && p.hour === 0) all.push({ x: i, label: `${formatDay(p.date).split(' ').slice(0, 2).join(' ')}` });
   });
-  if (all.length === 0 && f.hourly.length > 0) {
-    const p = localParts(f.hourly[0].time);
+  const firstHour = f.hourly[0];
+  if (all.length === 0 && firstHour) {
+    const p = localParts(firstHour.time);
     if (p) all.push({ x: 0, label: formatDay(p.date).split(' ').slice(0, 2).join(' ') });
   }
   const step = Math.max(1, Math.ceil(all.length / Math.max(1, maxTicks)));

@@ -30,6 +30,8 @@ function Inner({ tripId, canEdit, initial }: Props) {
   const list = useQuery({ ...tripForecastQueries.list(tripId), initialData: initial });
   const [name, setName] = useState('');
   const [picked, setPicked] = useState<string[]>([]);
+  const [pickA, pickB] = picked;
+  const pickedPair = picked.length === 2 && pickA !== undefined && pickB !== undefined ? ([pickA, pickB] as const) : null;
   const run = useMutation({
     mutationFn: () => runTripForecast(tripId, name.trim() || undefined),
     onSuccess: (saved) => {
@@ -95,9 +97,9 @@ function Inner({ tripId, canEdit, initial }: Props) {
           {list.data.length > 1 ? (
             <div className="flex flex-wrap items-center gap-3">
               <a
-                className={`btn ${picked.length === 2 ? 'btn-primary' : 'btn-quiet pointer-events-none opacity-60'}`}
-                aria-disabled={picked.length !== 2}
-                href={picked.length === 2 ? `/trips/${encodeURIComponent(tripId)}/compare?a=${encodeURIComponent(picked[0])}&b=${encodeURIComponent(picked[1])}` : undefined}
+                className={`btn ${pickedPair ? 'btn-primary' : 'btn-quiet pointer-events-none opacity-60'}`}
+                aria-disabled={!pickedPair}
+                href={pickedPair ? `/trips/${encodeURIComponent(tripId)}/compare?a=${encodeURIComponent(pickedPair[0])}&b=${encodeURIComponent(pickedPair[1])}` : undefined}
               >
                 Compare the two picked
               </a>
