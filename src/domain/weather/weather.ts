@@ -3,7 +3,6 @@
 // this module asks for and hands them back; this module turns the service's hourly series into
 // stop-days in each stop's local clock hours, decides which days come from the forecast and which
 // from past years, and picks the median past year.
-import { tzOffset } from '@date-fns/tz';
 
 /** Where one day's weather came from: the engine's `source`. */
 export type WeatherSource = 'forecast' | 'past-year' | 'typed';
@@ -97,9 +96,23 @@ export function yearsBefore(iso: string, years: number): string {
 
 // ---------- local clock hours ----------
 
-/** UTC offset of a zone at an instant, minutes. */
+// One formatter per zone (making one costs far more than using it) and the midnights already
+// found: both hold pure results, so the module stays deterministic.
+const formatters = new Map<string, Intl.DateTimeFormat>();
+const midnights = new Map<string, number>();
+const OFFSET_RE = /GMT(?:([+-])(\d{1,2})(?::?(\d{2}))?)?/;
+
+/** UTC offset of a zone at an instant, minutes (local − UTC), from Intl's `longOffset` name. */
 function offsetMin(timeZone: string, ms: number): number {
-  return tzOffset(timeZone, new Date(ms));
+  let f = formatters.get(timeZone);
+  if (!f) {
+    f = new Intl.DateTimeFormat('en-US', { timeZone, timeZoneName: 'longOffset' });
+    formatters.set(timeZone, f);
+  }
+  const m = OFFSET_RE.exec(f.format(new Date(ms)));
+  if (!m || !m[1]) return 0;
+  const v = Number(m[2]) * 60 + Number(m[3] ?? 0);
+  return m[1] === '-' ? -v : v;
 }
 
 /**
@@ -107,6 +120,10 @@ function offsetMin(timeZone: string, ms: number): number {
  * that swallows midnight (as the engine reads a time inside a gap).
  */
 export function localMidnight(timeZone: string, iso: string): number {
+  const key = `${timeZone}|${iso}`;
+  const known = midnights.get(key);
+  if (known !== undefined) return known;
+  if (midnights.size > 20_000) midnights.clear();
   const wall = dayNumber(iso) * DAY_MS;
   const before = offsetMin(timeZone, wall - 36 * HOUR_MS);
   const after = offsetMin(timeZone, wall + 36 * HOUR_MS);
@@ -116,12 +133,14 @@ export function localMidnight(timeZone: string, iso: string): number {
     if (offsetMin(timeZone, t) === o) found.push(t);
   }
   // Overlap: the earlier instant. Gap: the transition, where the old offset would have read midnight.
-  return found.length > 0 ? Math.min(...found) : wall - before * 60_000;
+  const t = found.length > 0 ? Math.min(...found) : wall - before * 60_000;
+  midnights.set(key, t);
+  return t;
 }
 
-/** Local clock hour (0–23) an instant falls in. */
-function clockHour(timeZone: string, ms: number): number {
-  const local = ms + offsetMin(timeZone, ms) * 60_000;
+/** Local clock hour (0–23) of an instant at a known offset. */
+function clockHour(ms: number, offset: number): number {
+  const local = ms + offset * 60_000;
   return Math.floor((((local % DAY_MS) + DAY_MS) % DAY_MS) / HOUR_MS);
 }
 
@@ -134,7 +153,10 @@ export function localHourRows(timeZone: string, iso: string): { start: number; h
   const from = localMidnight(timeZone, iso);
   const to = localMidnight(timeZone, isoDate(dayNumber(iso) + 1));
   const rows: { start: number; hour: number }[] = [];
-  for (let t = from; t < to; t += HOUR_MS) rows.push({ start: t, hour: clockHour(timeZone, t) });
+  // Most days keep one offset from start to end: then it needs reading only once.
+  const first = offsetMin(timeZone, from);
+  const steady = first === offsetMin(timeZone, to - 1);
+  for (let t = from; t < to; t += HOUR_MS) rows.push({ start: t, hour: clockHour(t, steady ? first : offsetMin(timeZone, t)) });
   return rows;
 }
 
