@@ -1,48 +1,35 @@
-// Fetchers of the quick plan: the place search and the zone lookup, both tolerant of a server
-// that does not offer them yet (the form then falls back to coordinates and a zone list).
+// Fetchers of the quick plan: the place search and the zone lookup, typed by what the server's
+// own routes answer (GET /api/places, GET /api/timezone).
 import { apiFetch } from '../../lib/query-client';
+import type { Place as FoundPlace } from '../../server/places';
 
-/** A place found by the search. */
+/** A place found by the search, as the quick plan shows it. */
 export interface Place {
   name: string;
   /** Region and country, for telling same-named places apart. */
   where: string;
   lat: number;
   lon: number;
-  timeZone: string | null;
+  timeZone: string;
 }
 
-function num(x: unknown): number | null {
-  const n = typeof x === 'string' ? Number(x) : x;
-  return typeof n === 'number' && Number.isFinite(n) ? n : null;
-}
-
-/** Reads one place from the search's JSON, whatever its exact field names; null when unusable. Numeric region codes ("06") mean nothing to a camper and are left out. */
-export function toPlace(raw: unknown): Place | null {
-  if (!raw || typeof raw !== 'object') return null;
-  const r = raw as Record<string, unknown>;
-  const name = typeof r.name === 'string' ? r.name : null;
-  const lat = num(r.lat ?? r.latitude);
-  const lon = num(r.lon ?? r.lng ?? r.longitude);
-  if (!name || lat === null || lon === null) return null;
-  const where = [r.region ?? r.adminName ?? r.admin1 ?? r.state ?? r.adminCode, r.country ?? r.countryName ?? r.countryCode].filter((x) => typeof x === 'string' && x && !/^\d+$/.test(x)).join(', ');
-  const tz = r.timeZone ?? r.timezone ?? r.tz;
-  return { name, where: typeof r.label === 'string' && !where ? r.label : where, lat, lon, timeZone: typeof tz === 'string' ? tz : null };
+/** A found place for the quick plan. Numeric region codes ("06") mean nothing to a camper and are left out. */
+export function toPlace(p: FoundPlace): Place {
+  const where = [p.adminCode, p.country].filter((x) => x && !/^\d+$/.test(x)).join(', ');
+  return { name: p.name, where, lat: p.lat, lon: p.lon, timeZone: p.timeZone };
 }
 
 /** Searches places by name (`GET /api/places?q=`). */
 export async function searchPlaces(q: string, signal?: AbortSignal): Promise<Place[]> {
-  const data = await apiFetch<unknown>(`/api/places?q=${encodeURIComponent(q)}`, { signal });
-  const list = Array.isArray(data) ? data : ((data as Record<string, unknown>)?.places ?? (data as Record<string, unknown>)?.results ?? []);
-  return (Array.isArray(list) ? list : []).map(toPlace).filter((p): p is Place => p !== null).slice(0, 8);
+  const list = await apiFetch<FoundPlace[]>(`/api/places?q=${encodeURIComponent(q)}`, { signal });
+  return list.map(toPlace).slice(0, 8);
 }
 
-/** The IANA zone at a point: the server's lookup, else the same open data looked up in the browser. */
+/** The IANA zone at a point: the server's lookup, else (the server out of reach) the same open data looked up in the browser. */
 export async function lookupTimeZone(lat: number, lon: number): Promise<string | null> {
   try {
-    const data = await apiFetch<Record<string, unknown>>(`/api/timezone?lat=${lat}&lon=${lon}`);
-    const tz = data?.timeZone ?? data?.timezone ?? data?.zone;
-    if (typeof tz === 'string') return tz;
+    const { timeZone } = await apiFetch<{ timeZone: string }>(`/api/timezone?lat=${lat}&lon=${lon}`);
+    return timeZone;
   } catch {
     // Fall through to the browser-side lookup.
   }
