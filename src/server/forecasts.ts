@@ -1,9 +1,9 @@
 import type { Kysely } from 'kysely';
 import type { DB, RigRow, TripRow } from '../../db/schema';
 import { forecast as runEngine, validatePlan, type Forecast, type HourlyRow, type Plan, type ResolvedPlan } from '../engine';
-import type { LoadDto } from '../schemas/loads';
-import type { RigDto } from '../schemas/rigs';
-import type { TripDto } from '../schemas/trips';
+import type { LoadDto } from '../domain/loads/loads.schema';
+import type { RigDto } from '../domain/rigs/rigs.schema';
+import type { TripDto } from '../domain/trips/trips.schema';
 import { tripAccess, type Actor, type Need } from './access';
 import { HttpError } from './errors';
 import { listLoads } from './loads';
