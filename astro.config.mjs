@@ -3,11 +3,46 @@ import { defineConfig } from 'astro/config';
 import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
+import { build as esbuild } from 'esbuild';
+import { fileURLToPath } from 'node:url';
+
+/**
+ * The worker pool's tasks (src/server/workers/tasks.ts) bundled into one file of the build,
+ * <build>/server/workers/tasks.mjs, which the pool's threads load (the server's own chunks have
+ * hashed names and mangled exports). better-sqlite3 stays a package, as for the server.
+ */
+function workerTasks() {
+  /** @type {URL | undefined} */
+  let serverDir;
+  /** @type {import('astro').AstroIntegration} */
+  const integration = {
+    name: 'sunreckon-worker-tasks',
+    hooks: {
+      'astro:config:done': ({ config }) => {
+        serverDir = config.build.server;
+      },
+      'astro:build:done': async () => {
+        if (!serverDir) return;
+        await esbuild({
+          entryPoints: [fileURLToPath(new URL('./src/server/workers/tasks.ts', import.meta.url))],
+          outfile: fileURLToPath(new URL('./workers/tasks.mjs', serverDir)),
+          bundle: true,
+          format: 'esm',
+          platform: 'node',
+          target: 'node20',
+          external: ['better-sqlite3'],
+          logLevel: 'warning',
+        });
+      },
+    },
+  };
+  return integration;
+}
 
 export default defineConfig({
   output: 'server',
   adapter: node({ mode: 'standalone' }),
-  integrations: [react()],
+  integrations: [react(), workerTasks()],
   // Cross-site form posts are refused; API routes also check Origin through better-auth.
   // Hosts whose Host header Astro trusts to build request URLs (the origin check compares against them).
   // Loopback always; a deployment adds its public host names at build time in SUNRECKON_ALLOWED_HOSTS.

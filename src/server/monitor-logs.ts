@@ -1,16 +1,17 @@
 import type { Kysely } from 'kysely';
 import type { DB, MonitorLogRow } from '../../db/schema';
 import { isValidTimeZone, planTimeline, type ResolvedPlan } from '../engine';
-import { dailyAh, nightBaseline, nightTemperature } from '../domain/monitor/baseline';
 import type { ForecastOverlap, MonitorLogDetail, MonitorLogDto, ColumnMapping } from '../domain/monitor/monitor.schema';
 import type { Sample } from '../domain/monitor/parse';
-import { downsample } from '../domain/monitor/series';
-import { bankLimits, previewLog, refusalMessage, type LogPreview } from '../domain/monitor/monitor';
+import { bankLimits, refusalMessage, type LogPreview } from '../domain/monitor/monitor';
 import { mappingSchema } from '../domain/monitor/monitor.schema';
 import { rigAccess, type Actor, type Need, type RigGrant } from './access';
 import { HttpError } from './errors';
 import { zodIssues } from './http';
-import { decodeCsvBytes, lineIssues, readMultipart, type FileUpload } from './upload';
+import { lineIssues, readMultipart, type FileUpload } from './upload';
+import { unpack } from './workers/monitor-task';
+import { logSeriesInPool, monitorLogInPool } from './workers/pool';
+import { env } from './env';
 import { conflict, nowIso } from './versions';
 
 // Monitor logs: a battery monitor's CSV (kept as uploaded) and its readings, saved together in one
@@ -149,26 +150,23 @@ function mappingFrom(raw: string | undefined): ColumnMapping | null {
   return r.data;
 }
 
-/** The uploaded log read as the save would read it: with the sent mapping, else the detected one. */
-function readLog(rig: RigGrant['rig'], upload: FileUpload) {
+/** The uploaded log read as the save would read it (in the worker pool): with the sent mapping, else the detected one. */
+async function readLog(rig: RigGrant['rig'], upload: FileUpload, withSamples: boolean) {
   if (!ALLOWED_EXTENSIONS.test(upload.fileName) && /\.[a-z0-9]{1,5}$/i.test(upload.fileName)) {
     throw new HttpError('unsupported_media_type', `"${upload.fileName.slice(0, 80)}" is not a CSV. Export the monitor's log as CSV (.csv or .txt) and upload that.`, [{ path: 'file', message: 'expected a .csv, .tsv or .txt file' }]);
-  }
-  const decoded = decodeCsvBytes(upload.bytes);
-  if (!decoded.ok) {
-    const empty = upload.bytes.byteLength === 0 || /empty/.test(decoded.message);
-    throw new HttpError(empty ? 'invalid_request' : 'unsupported_media_type', decoded.message, [{ path: 'file', message: empty ? 'the file is empty' : 'not a text CSV' }]);
   }
   const mapping = mappingFrom(upload.fields.get('mapping'));
   const timeZone = upload.fields.get('timeZone')?.trim() || mapping?.timeZone || 'UTC';
   if (!isValidTimeZone(timeZone)) throw new HttpError('invalid_request', 'The time zone is not one we know.', [{ path: 'timeZone', message: 'must be an IANA time zone such as America/Denver' }]);
   const limits = bankLimits(JSON.parse(rig.bank) as { chemistry: string; capacityAh: number; nominalVolts?: number });
-  return { mapping, ...previewLog(decoded.text, { timeZone, mapping, limits }) };
+  const out = await monitorLogInPool({ bytes: upload.bytes, mapping, timeZone, limits, withSamples });
+  if (!out.ok) throw new HttpError(out.code, out.message, out.issues);
+  return { mapping, preview: out.preview, samples: out.samples ? unpack(out.samples) : null };
 }
 
 /** Step 1 of an upload: the detected (or sent) mapping, the first readings and every problem by line and column. */
-export function previewUpload(rig: RigGrant['rig'], upload: FileUpload): LogPreview & { fileName: string; bytes: number } {
-  return { ...readLog(rig, upload).preview, fileName: upload.fileName, bytes: upload.bytes.byteLength };
+export async function previewUpload(rig: RigGrant['rig'], upload: FileUpload): Promise<LogPreview & { fileName: string; bytes: number }> {
+  return { ...(await readLog(rig, upload, false)).preview, fileName: upload.fileName, bytes: upload.bytes.byteLength };
 }
 
 /**
@@ -176,13 +174,13 @@ export function previewUpload(rig: RigGrant['rig'], upload: FileUpload): LogPrev
  * issues `line 12.Voltage (V)`); else the file and its readings are saved in one transaction.
  */
 export async function saveUpload(db: Kysely<DB>, ctx: { rig: RigGrant['rig']; userId: string }, upload: FileUpload): Promise<MonitorLogDto & { warnings: string[] }> {
-  const { mapping, preview, parsed } = readLog(ctx.rig, upload);
+  const { mapping, preview, samples } = await readLog(ctx.rig, upload, true);
   if (!mapping) throw new HttpError('invalid_request', 'Confirm the column mapping before saving: send it in the field "mapping".', [{ path: 'mapping', message: 'send the confirmed column mapping' }]);
-  if (preview.errorCount > 0 || !parsed) {
+  if (preview.errorCount > 0 || !samples) {
     throw new HttpError('invalid_request', refusalMessage(preview), lineIssues(preview.errors), { errors: preview.errors, errorCount: preview.errorCount });
   }
   const name = (upload.fields.get('name')?.trim() || upload.fileName).slice(0, 120);
-  const log = await createLog(db, { rigId: ctx.rig.id, crewId: ctx.rig.crew_id, userId: ctx.userId, name, original: upload.bytes, mapping, samples: parsed.samples });
+  const log = await createLog(db, { rigId: ctx.rig.id, crewId: ctx.rig.crew_id, userId: ctx.userId, name, original: upload.bytes, mapping, samples });
   return { ...log, warnings: preview.warnings };
 }
 
@@ -221,16 +219,12 @@ async function overlappingForecasts(db: Kysely<DB>, rigId: string, fromMs: numbe
 
 /** A log with its thinned series and what it tells. */
 export async function logDetail(db: Kysely<DB>, log: MonitorLogDto): Promise<MonitorLogDetail> {
-  const samples = await logSamples(db, log.id);
-  const tz = log.timeZone;
-  return {
-    ...log,
-    series: downsample(samples),
-    baseline: nightBaseline(samples, tz),
-    nightTempC: nightTemperature(samples, tz),
-    days: dailyAh(samples, tz),
-    forecasts: await overlappingForecasts(db, log.rigId, Date.parse(log.startedAt), Date.parse(log.endedAt)),
-  };
+  // The readings are read and thinned in the worker pool, on a read-only connection of its own.
+  const [told, forecasts] = await Promise.all([
+    logSeriesInPool({ dbPath: env.DATABASE_PATH, logId: log.id, timeZone: log.timeZone }),
+    overlappingForecasts(db, log.rigId, Date.parse(log.startedAt), Date.parse(log.endedAt)),
+  ]);
+  return { ...log, ...told, forecasts };
 }
 
 /** The file exactly as it was uploaded. */

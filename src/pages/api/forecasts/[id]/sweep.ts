@@ -2,6 +2,7 @@ import { sweepRequestSchema } from '../../../../domain/proposals/proposals.schem
 import { db } from '../../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../../server/http';
 import { forecastForInstaller, sweepForecast } from '../../../../server/proposals';
+import { limitSweeps } from '../../../../server/workers/per-user';
 
 export const prerender = false;
 
@@ -14,5 +15,6 @@ export const POST = route(async (ctx) => {
   const user = requireUser(ctx);
   const { forecast } = await forecastForInstaller(db, user, ctx.params.id!);
   const body = parseWith(sweepRequestSchema, await readJson(ctx.request, 64 * 1024));
+  await limitSweeps(user.id);
   return json(await sweepForecast(db, user.id, forecast, body));
 });

@@ -24,6 +24,6 @@ export const POST = route(async (ctx) => {
   const user = requireUser(ctx);
   const { rig } = await rigAccess(db, user, ctx.params.id!, 'write', 'rig');
   const upload = await readLogUpload(ctx.request);
-  if (wantsPreview(ctx.url)) return json(previewUpload(rig, upload));
+  if (wantsPreview(ctx.url)) return json(await previewUpload(rig, upload));
   return json(await saveUpload(db, { rig, userId: user.id }, upload), 201);
 });

@@ -1,0 +1,61 @@
+import { existsSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
+import path from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { Piscina } from 'piscina';
+import { HttpError } from '../errors';
+import type { MonitorLogOutcome, MonitorLogTask } from './monitor-task';
+import type { LogDetailTask, LogSeries, SweepTask, sweep } from './tasks';
+
+// The worker pool for CPU-heavy work (upgrade sweeps, reading monitor logs): the request thread only
+// hands the task over and waits, so /api/health and every other request keep answering.
+// The production build carries the tasks as one file of their own (<build>/server/workers/tasks.mjs,
+// bundled by astro.config.mjs); under `astro dev` and vitest the TypeScript source runs through tsx.
+
+/** Tasks waiting for a thread beyond this many are refused (503) instead of piling up in memory. */
+const MAX_QUEUE = 32;
+
+function workerFile(): { filename: string; execArgv: string[] } {
+  const here = path.dirname(fileURLToPath(import.meta.url));
+  // The server chunk that holds this module lives in <build>/server or one of its subfolders.
+  for (let dir = here, i = 0; i < 4; i++, dir = path.dirname(dir)) {
+    const built = path.join(dir, 'workers', 'tasks.mjs');
+    if (existsSync(built)) return { filename: pathToFileURL(built).href, execArgv: [] };
+  }
+  const source = path.join(here, 'tasks.ts');
+  if (existsSync(source)) return { filename: pathToFileURL(source).href, execArgv: ['--import', 'tsx'] };
+  throw new Error(`The worker tasks were not found near ${here}: build with "astro build" (it writes server/workers/tasks.mjs).`);
+}
+
+let pool: Piscina | null = null;
+
+/** The one pool: one thread fewer than the machine has cores (at least one), so the request thread keeps a core. */
+export function workerPool(): Piscina {
+  if (!pool) {
+    const { filename, execArgv } = workerFile();
+    const threads = Math.max(1, availableParallelism() - 1);
+    pool = new Piscina({ filename, execArgv, minThreads: 1, maxThreads: threads, maxQueue: MAX_QUEUE, idleTimeout: 60_000 });
+  }
+  return pool;
+}
+
+async function run<T>(name: string, task: unknown): Promise<T> {
+  const p = workerPool();
+  if (p.queueSize >= MAX_QUEUE) throw new HttpError('rate_limited', 'The server is busy with other long calculations. Try again in a minute.', [], {}, { 'Retry-After': '30' });
+  return (await p.run(task, { name })) as T;
+}
+
+/** An upgrade sweep, off the request thread. */
+export function sweepInPool(task: SweepTask): Promise<ReturnType<typeof sweep>> {
+  return run('sweep', task);
+}
+
+/** Reads an uploaded monitor log off the request thread (the bytes are copied: a save still stores them). */
+export function monitorLogInPool(task: MonitorLogTask): Promise<MonitorLogOutcome> {
+  return run('monitorLog', task);
+}
+
+/** A saved log's thinned series and what it tells, read and computed off the request thread. */
+export function logSeriesInPool(task: LogDetailTask): Promise<LogSeries> {
+  return run('logSeries', task);
+}

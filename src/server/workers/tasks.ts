@@ -1,0 +1,63 @@
+// The worker pool's tasks: CPU-heavy work that must never run on the request thread (an upgrade
+// sweep, reading a monitor log). Pure: no database, no environment, no clock. The build bundles this
+// file on its own into <build>/server/workers/tasks.mjs (astro.config.mjs), which the pool runs.
+import { runSweep, type SweepResult } from '../../domain/proposals/sweep';
+import type { ResolvedPlan } from '../../engine';
+import type { Candidates, PriceList } from '../../domain/proposals/proposals.schema';
+import Database from 'better-sqlite3';
+import { dailyAh, nightBaseline, nightTemperature, type BaselineResult, type DayAh } from '../../domain/monitor/baseline';
+import type { Sample } from '../../domain/monitor/parse';
+import { downsample, type SeriesPoint } from '../../domain/monitor/series';
+import { readMonitorLog, type MonitorLogTask, type MonitorLogOutcome } from './monitor-task';
+
+export interface SweepTask {
+  plan: ResolvedPlan;
+  reserveSocPct: number | null;
+  candidates: Candidates;
+  prices: PriceList;
+}
+
+/** Every combination of the candidates rerun with the engine; `ms` is how long the runs took. */
+export function sweep(task: SweepTask): SweepResult & { ms: number } {
+  const started = performance.now();
+  const result = runSweep(task);
+  return { ...result, ms: Math.round((performance.now() - started) * 10) / 10 };
+}
+
+/** Decodes, detects and parses an uploaded monitor log within the caps. */
+export function monitorLog(task: MonitorLogTask): MonitorLogOutcome {
+  return readMonitorLog(task);
+}
+
+export interface LogDetailTask {
+  dbPath: string;
+  logId: string;
+  timeZone: string;
+}
+
+export interface LogSeries {
+  series: SeriesPoint[];
+  baseline: BaselineResult;
+  nightTempC: number | null;
+  days: DayAh[];
+}
+
+const readers = new Map<string, Database.Database>();
+
+/** A read-only connection of this thread's own (WAL: it never holds up the server's writes). */
+function reader(dbPath: string): Database.Database {
+  let d = readers.get(dbPath);
+  if (!d) {
+    d = new Database(dbPath, { readonly: true, fileMustExist: true });
+    d.pragma('busy_timeout = 5000');
+    readers.set(dbPath, d);
+  }
+  return d;
+}
+
+/** A saved log's readings thinned for a chart, its night-time baseline and daily amp-hours, read and computed here. */
+export function logSeries(task: LogDetailTask): LogSeries {
+  const rows = reader(task.dbPath).prepare('select t, volts, amps, soc_pct, temp_c from monitor_samples where log_id = ? order by t').raw().all(task.logId) as [number, number | null, number | null, number | null, number | null][];
+  const samples: Sample[] = rows.map(([t, volts, amps, socPct, tempC]) => ({ t, volts, amps, socPct, tempC }));
+  return { series: downsample(samples), baseline: nightBaseline(samples, task.timeZone), nightTempC: nightTemperature(samples, task.timeZone), days: dailyAh(samples, task.timeZone) };
+}
