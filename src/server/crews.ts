@@ -3,6 +3,7 @@ import type { DB, CrewRole } from '../../db/schema';
 import type { CrewDetailDto, CrewSummaryDto, MemberDto } from '../domain/crews/crews.schema';
 import { HttpError } from './errors';
 import { listInvitations } from './invitations';
+import { crewRole, setActive } from './membership';
 import { conflict, nowIso } from './versions';
 
 /** Gives a new camper their own crew, as its owner. */
@@ -41,12 +42,6 @@ export async function listMemberships(db: Kysely<DB>, userId: string): Promise<M
   return rows;
 }
 
-/** The user's role in a crew, or null when they are not in it. */
-export async function crewRole(db: Kysely<DB>, userId: string, crewId: string): Promise<CrewRole | null> {
-  const row = await db.selectFrom('crew_members').select('role').where('crew_id', '=', crewId).where('user_id', '=', userId).executeTakeFirst();
-  return row?.role ?? null;
-}
-
 /**
  * The crew the user chose last, while they are still in it; else their oldest crew; null for an
  * account in no crew (an installer).
@@ -61,15 +56,6 @@ export async function activeCrewId(db: Kysely<DB>, userId: string): Promise<stri
   if (chosen) return chosen.crew_id;
   const first = await listMemberships(db, userId);
   return first[0]?.crewId ?? null;
-}
-
-async function setActive(db: Kysely<DB>, userId: string, crewId: string): Promise<void> {
-  const now = nowIso();
-  await db
-    .insertInto('active_crews')
-    .values({ user_id: userId, crew_id: crewId, updated_at: now })
-    .onConflict((oc) => oc.column('user_id').doUpdateSet({ crew_id: crewId, updated_at: now }))
-    .execute();
 }
 
 /** Switches the user's active crew; 404 when they are not in it. */
@@ -193,13 +179,3 @@ export async function removeMember(db: Kysely<DB>, crewId: string, memberId: str
     await trx.deleteFrom('active_crews').where('user_id', '=', memberId).where('crew_id', '=', crewId).execute();
   });
 }
-
-/** Adds a member (an accepted invitation); an existing member keeps their membership. */
-export async function addMember(trx: Kysely<DB>, crewId: string, userId: string, role: CrewRole): Promise<boolean> {
-  const existing = await crewRole(trx, userId, crewId);
-  if (existing) return false;
-  await trx.insertInto('crew_members').values({ crew_id: crewId, user_id: userId, role, created_at: nowIso() }).execute();
-  await setActive(trx, userId, crewId);
-  return true;
-}
-

@@ -2,9 +2,9 @@ import { createHash, randomBytes } from 'node:crypto';
 import type { Kysely } from 'kysely';
 import type { CrewRole, DB, InvitationRow } from '../../db/schema';
 import type { InvitationDto, InvitationStatus } from '../domain/crews/crews.schema';
-import { addMember } from './crews';
 import { HttpError } from './errors';
 import { invitationMail } from './mail';
+import { addMember } from './membership';
 import { enqueueMail, kickOutbox } from './outbox';
 import { conflict, nowIso } from './versions';
 
@@ -165,6 +165,8 @@ export interface InvitationView {
   email?: string;
   role?: CrewRole;
   expiresAt?: string;
+  /** Whether an account with the invited address exists (the page offers sign-in rather than sign-up). */
+  hasAccount?: boolean;
 }
 
 /** What the /invite/<token> page shows; never throws for a bad token. */
@@ -179,7 +181,8 @@ export async function viewInvitation(db: Kysely<DB>, token: string): Promise<Inv
     .where('invitations.token_hash', '=', hashToken(token))
     .executeTakeFirst();
   if (!row) return { status: 'unknown' };
-  return { status: statusOf(row), crewName: row.crewName, inviterName: row.inviterName, email: row.email, role: row.role, expiresAt: row.expires_at };
+  const account = await db.selectFrom('user').select('id').where((eb) => eb(eb.fn('lower', ['email']), '=', row.email)).executeTakeFirst();
+  return { status: statusOf(row), crewName: row.crewName, inviterName: row.inviterName, email: row.email, role: row.role, expiresAt: row.expires_at, hasAccount: !!account };
 }
 
 const UNUSABLE: Record<Exclude<InvitationStatus, 'pending'>, string> = {
