@@ -5,7 +5,7 @@ import type { ProposalDto, ProposalListItem, CableRow, Changes, Part, PriceList,
 import { checkCables, defaultCables, lineAmount, partsTotal, proposalCautions, type CheckedCable } from '../domain/proposals/proposals';
 import { formatMoney } from '../lib/format';
 import type { SweepRequestValues } from '../domain/proposals/proposals.schema';
-import { forecastAfter, labelOf, oneOffItems, type CostItem, type SweepResult } from '../domain/proposals/sweep';
+import { forecastAfter, labelOf, oneOffItems, runSweep, type CostItem, type SweepResult } from '../domain/proposals/sweep';
 import { installerOnly, tripAccess, type Actor, type RigGrant } from './access';
 import { HttpError, type Issue } from './errors';
 import { forecastTripId, getForecast, packHourly, unpackHourly, type ForecastDto } from './forecasts';
@@ -13,15 +13,13 @@ import { renderMail, type MailContent } from './mail';
 import { savedPricesOrThrow } from './price-lists';
 import { enqueueMail, kickOutbox } from './outbox';
 import { conflict, nowIso } from './versions';
-import { oneAtATime } from './workers/per-user';
-import { sweepInPool } from './workers/pool';
 
 // Proposals: an installer turns a saved forecast and one sweep option into a priced upgrade with
 // its before/after forecasts, parts, cable and fuse checks and cautions; sends it to the crew's
 // owners by e-mail; an owner accepts or declines it. Access is decided in access.ts.
 
 /** A saved forecast an installer with a grant may sweep or propose on: 404 when not theirs to see, 403 for the crew. */
-export async function forecastForInstaller(db: Kysely<DB>, user: Actor, forecastId: string, field?: string): Promise<{ forecast: ForecastDto & { crewId: string }; access: RigGrant }> {
+export async function forecastForInstaller(db: Kysely<DB>, user: Actor, forecastId: string, field?: string): Promise<{ forecast: ForecastDto & { crewId: string }; access: Awaited<ReturnType<typeof tripAccess>> }> {
   const issues: Issue[] = field ? [{ path: field, message: 'not a saved forecast of a rig shared with you' }] : [];
   const missing = () => new HttpError('not_found', "There is no saved forecast with this id among the rigs shared with you.", issues);
   const tripId = await forecastTripId(db, forecastId);
@@ -367,7 +365,7 @@ export async function deleteProposal(db: Kysely<DB>, row: ProposalRow, access: R
  */
 export async function sweepForecast(db: Kysely<DB>, installerId: string, forecast: ForecastDto, body: SweepRequestValues): Promise<SweepResult & { forecastId: string; ms: number }> {
   const prices = body.prices ?? (await savedPricesOrThrow(db, installerId));
-  // In the worker pool, at most SWEEPS_PER_USER at once per installer: the request thread stays free.
-  const result = await oneAtATime(installerId, () => sweepInPool({ plan: forecast.plan, reserveSocPct: forecast.reserveSocPct, candidates: body.candidates, prices }));
-  return { ...result, forecastId: forecast.id };
+  const started = performance.now();
+  const result = runSweep({ plan: forecast.plan, reserveSocPct: forecast.reserveSocPct, candidates: body.candidates, prices });
+  return { ...result, forecastId: forecast.id, ms: Math.round((performance.now() - started) * 10) / 10 };
 }
