@@ -18,7 +18,7 @@ const env = {
 const run = (cmd: string, args: string[]) => execFileSync(cmd, args, { cwd: root, env, stdio: 'inherit' });
 
 if (!existsSync(path.join(root, 'dist/server/entry.mjs')) || process.env.DEMO_REBUILD !== '0') run('npx', ['astro', 'build']);
-run('npx', ['tsx', 'db/seed.ts']);
+run('npx', ['tsx', 'scripts/seed.ts']);
 
 // Mail goes to the local catcher (a real SMTP server on loopback) unless SMTP_URL points elsewhere.
 let catcher: MailCatcher | null = null;

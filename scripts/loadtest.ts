@@ -1,7 +1,7 @@
 import autocannon from 'autocannon';
 import Database from 'better-sqlite3';
 import os from 'node:os';
-import { DEMO_ACCOUNTS } from '../db/seed';
+import { DEMO_ACCOUNTS } from './seed';
 import { demoPlan } from '../src/engine';
 
 /**

@@ -5,7 +5,7 @@ import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import os, { tmpdir } from 'node:os';
 import path from 'node:path';
 import { gzipSync } from 'node:zlib';
-import { DEMO_ACCOUNTS } from '../db/seed';
+import { DEMO_ACCOUNTS } from './seed';
 import { CHROMIUM_FLAGS, launch } from '../tests/helpers/browser';
 
 /**

@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import AxeBuilder from '@axe-core/playwright';
 import type { Page } from 'playwright-core';
-import { DEMO_ACCOUNTS } from '../../db/seed';
+import { DEMO_ACCOUNTS } from '../../scripts/seed';
 import { baseUrl } from '../helpers/api';
 import { hydrated, launch, shot, VIEWPORTS, type ViewportName } from '../helpers/browser';
 import { ROOT } from '../helpers/server';
@@ -27,7 +27,7 @@ async function signIn(page: Page): Promise<void> {
 
 beforeAll(() => {
   // The invented demo crew, seeded into the test server's database (the seed is idempotent).
-  execFileSync('npx', ['tsx', 'db/seed.ts'], { cwd: ROOT, env: { ...process.env, DATABASE_PATH: inject('dbPath') }, stdio: 'pipe' });
+  execFileSync('npx', ['tsx', 'scripts/seed.ts'], { cwd: ROOT, env: { ...process.env, DATABASE_PATH: inject('dbPath') }, stdio: 'pipe' });
 });
 
 describe.each(Object.keys(VIEWPORTS) as ViewportName[])('forecasts in Chromium at %s width', (viewport) => {

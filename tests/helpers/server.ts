@@ -54,11 +54,6 @@ export async function startServer(extraEnv: Record<string, string> = {}, reuse?:
     BETTER_AUTH_SECRET: 'test-secret-test-secret-test-secret-0001',
     PREVIEW_RATE_LIMIT: '0',
     AUTH_RATE_LIMIT: '0',
-    // Mail, share and sweep limits are tested on servers of their own (hardening.test.ts).
-    INVITE_CREW_HOURLY: '0',
-    INVITE_ADDRESS_HOURLY: '0',
-    GRANT_HOURLY: '0',
-    SWEEP_RATE_LIMIT: '0',
     SUNRECKON_ENV: 'test',
     NODE_ENV: 'production',
     ...extraEnv,
@@ -111,7 +106,7 @@ export async function startDemoServer(): Promise<{ server: RunningServer; shutdo
   if (process.env.SUNRECKON_PREBUILT !== '1') console.log(`Building into ${DIST} …`);
   buildOnce();
   const server = await startServer({ BETTER_AUTH_SECRET: randomBytes(24).toString('hex') });
-  execFileSync('npx', ['tsx', 'db/seed.ts'], { cwd: ROOT, env: { ...process.env, DATABASE_PATH: server.dbPath }, stdio: 'pipe' });
+  execFileSync('npx', ['tsx', 'scripts/seed.ts'], { cwd: ROOT, env: { ...process.env, DATABASE_PATH: server.dbPath }, stdio: 'pipe' });
   const shutdown = async (code: number): Promise<never> => {
     await server.stop();
     cleanup(server.dir);

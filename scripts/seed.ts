@@ -1,7 +1,7 @@
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Kysely } from 'kysely';
-import type { DB } from './schema';
+import type { DB } from '../db/schema';
 
 /**
  * The invented demo crew of product.md: the Reyes-Okafor household's camper account, a second
@@ -16,7 +16,7 @@ export const DEMO_ACCOUNTS = {
 export async function seed(): Promise<void> {
   const { db } = await import('../src/server/db');
   const { auth } = await import('../src/server/auth');
-  const { migrateToLatest } = await import('./migrate');
+  const { migrateToLatest } = await import('../db/migrate');
   await migrateToLatest(db);
 
   const accountId = async (a: (typeof DEMO_ACCOUNTS)[keyof typeof DEMO_ACCOUNTS]): Promise<string> => {

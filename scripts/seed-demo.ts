@@ -1,5 +1,5 @@
 import type { Kysely } from 'kysely';
-import type { DB } from './schema';
+import type { DB } from '../db/schema';
 import { demoPlan } from '../src/engine/demo-plan';
 import { rigInputSchema } from '../src/domain/rigs/rigs.schema';
 import { loadInputSchema } from '../src/domain/loads/loads.schema';
