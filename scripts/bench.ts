@@ -4,6 +4,7 @@ import os from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { forecast, prepareTrip, runForecast, simulatePrepared, toForecast, validatePlan, type Plan, type ResolvedPlan } from '../src/engine/index';
 import { TEST_PRICES } from '../tests/helpers/prices';
+import { at } from '../src/lib/invariant';
 
 /** A trip of `days` nights over three stops, with 3 arrays, 4 chargers and 40 loads. */
 export function benchPlan(days: number): Plan {
@@ -57,8 +58,8 @@ export function benchPlan(days: number): Plan {
     loads,
     stops,
     drives: [
-      { date: stops[1].arrive, startHour: 9, hours: 5 },
-      { date: stops[2].arrive, startHour: 8, hours: 6 },
+      { date: at(stops, 1, 'stop').arrive, startHour: 9, hours: 5 },
+      { date: at(stops, 2, 'stop').arrive, startHour: 8, hours: 6 },
     ],
   };
 }
@@ -66,7 +67,7 @@ export function benchPlan(days: number): Plan {
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);
   const m = Math.floor(s.length / 2);
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+  return s.length % 2 ? at(s, m) : (at(s, m - 1) + at(s, m)) / 2;
 }
 
 interface Timing {
@@ -99,7 +100,7 @@ function resolved(plan: Plan): ResolvedPlan {
 }
 
 const cpu = os.cpus()[0]?.model ?? 'unknown CPU';
-console.log(`Machine: ${cpu}, ${os.cpus().length} cores, Node ${process.version}, ${os.platform()} ${os.arch()}, load average ${os.loadavg()[0].toFixed(2)}`);
+console.log(`Machine: ${cpu}, ${os.cpus().length} cores, Node ${process.version}, ${os.platform()} ${os.arch()}, load average ${os.loadavg()[0]?.toFixed(2) ?? 'unknown'}`);
 
 // 1. One 30-day forecast, 3 arrays, 4 chargers, 40 loads, JSON in and out.
 const plan30 = benchPlan(30);

@@ -135,14 +135,15 @@ const ISO = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})(?::\d{2}(?:\.\d+)?)?(Z|[+-
 export function localParts(iso: string): LocalParts | null {
   const m = ISO.exec(iso);
   if (!m) return null;
-  const off = m[6] === 'Z' ? 'Z' : m[6].length === 5 ? `${m[6].slice(0, 3)}:${m[6].slice(3)}` : m[6];
+  const [, y, mo, d, h, mi, zone = 'Z'] = m;
+  const off = zone === 'Z' ? 'Z' : zone.length === 5 ? `${zone.slice(0, 3)}:${zone.slice(3)}` : zone;
   return {
-    date: `${m[1]}-${m[2]}-${m[3]}`,
-    year: Number(m[1]),
-    month: Number(m[2]),
-    day: Number(m[3]),
-    hour: Number(m[4]),
-    minute: Number(m[5]),
+    date: `${y}-${mo}-${d}`,
+    year: Number(y),
+    month: Number(mo),
+    day: Number(d),
+    hour: Number(h),
+    minute: Number(mi),
     offset: off,
   };
 }

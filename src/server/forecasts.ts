@@ -62,7 +62,7 @@ export function packHourly(rows: HourlyRow[]): Columns {
 /** The inverse of packHourly. */
 export function unpackHourly(cols: Columns): HourlyRow[] {
   const keys = Object.keys(cols) as (keyof HourlyRow)[];
-  const n = keys.length ? (cols[keys[0]] as unknown[]).length : 0;
+  const n = keys[0] ? (cols[keys[0]] as unknown[]).length : 0;
   const rows: HourlyRow[] = [];
   for (let i = 0; i < n; i++) {
     const row = {} as Record<string, unknown>;

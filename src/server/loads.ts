@@ -5,6 +5,7 @@ import { LIMITS } from '../engine';
 import type { LoadDto, loadInputSchema, loadPatchSchema } from '../domain/loads/loads.schema';
 import { HttpError } from './errors';
 import { conflict, nowIso } from './versions';
+import { defined } from '../lib/invariant';
 
 export type LoadValues = z.output<typeof loadInputSchema>;
 export type LoadChanges = z.output<typeof loadPatchSchema>;
@@ -154,7 +155,7 @@ async function insertLoads(db: Kysely<DB>, rigId: string, userId: string, values
 /** Adds one load at the end of a rig's list (or at `position`), with an 'added' activity row. */
 export async function createLoad(db: Kysely<DB>, rigId: string, userId: string, input: LoadValues): Promise<LoadDto> {
   const [load] = await insertLoads(db, rigId, userId, [input], 'added');
-  return load;
+  return defined(load, 'the inserted load');
 }
 
 /** Adds every load of an import in one transaction, each with an 'imported' activity row. */

@@ -4,6 +4,7 @@ import { LIMITS } from '../../engine';
 import { needsFormulaEscape, unescapeCell } from '../csv-cells';
 import { LOAD_CSV_COLUMNS, loadInputSchema } from './loads.schema';
 import { parseWindows, windowsToCell } from './windows';
+import { at } from '../../lib/invariant';
 
 // The loads list as CSV, both ways. Pure functions (no HTTP, no database), so the import, its
 // preview and the export share one reading of every column and are unit-tested on their own.
@@ -166,7 +167,7 @@ export function parseLoadsCsv(input: string, room: number = LIMITS.maxLoads): Cs
 
   if (all.length > room) {
     errors.push({
-      line: all[Math.max(0, room)].line,
+      line: at(all, Math.max(0, room), 'load line').line,
       column: null,
       message: `A rig holds at most ${LIMITS.maxLoads} loads and this one has room for ${Math.max(0, room)} more; this is load ${room + 1} of the file.`,
     });

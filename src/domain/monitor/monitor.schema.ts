@@ -73,7 +73,7 @@ export const mappingSchema = z
       if (col === null || col === undefined) continue;
       const other = used.get(col);
       if (other) ctx.addIssue({ code: 'custom', path: role.split('.'), message: `column ${col + 1} is already read as ${other}` });
-      else used.set(col, role.split('.')[0]);
+      else used.set(col, role.replace(/\..*$/, ''));
     }
   });
 

@@ -17,6 +17,7 @@ import { deleteLog, originalUrl } from './monitor.api';
 import { monitorKeys, monitorQueries } from './monitor.queries';
 import { formatBytes, formatDay, formatReadingTime } from '../../lib/format';
 import MeasuredChart from './MeasuredChart';
+import { at } from '../../lib/invariant';
 
 /** One saved log: what it tells about the rig, and how it compares with a saved forecast. */
 export default function LogView({ id, rig, onDeleted }: { id: string; rig: RigDto; onDeleted: () => void }) {
@@ -235,12 +236,13 @@ function AgainstForecast({ log }: { log: MonitorLogDetail }) {
   else if (f.isError) body = <ErrorState error={f.error} title="Couldn't load that forecast." />;
   else if (overlay && f.data) {
     const fc = f.data.forecast;
+    const rowTime = (row: number) => formatRowTime(at(fc.hourly, row, 'forecast hour').time);
     const summary =
       overlay.matched === 0
         ? 'The log has no state-of-charge readings within half an hour of this forecast’s hours.'
         : `Over ${overlay.matched} hours the measured state of charge ran ${Math.abs(overlay.meanDiffPct ?? 0).toFixed(1)} points ${(overlay.meanDiffPct ?? 0) < 0 ? 'below' : 'above'} the forecast on average` +
-          (overlay.worst && overlay.worst.diffPct > 0 ? `; the biggest shortfall was ${overlay.worst.diffPct.toFixed(1)} points at ${formatRowTime(fc.hourly[overlay.worst.row].time)}` : '') +
-          (overlay.measuredMin ? `. Lowest measured: ${overlay.measuredMin.socPct.toFixed(0)} % at ${formatRowTime(fc.hourly[overlay.measuredMin.row].time)}.` : '.');
+          (overlay.worst && overlay.worst.diffPct > 0 ? `; the biggest shortfall was ${overlay.worst.diffPct.toFixed(1)} points at ${rowTime(overlay.worst.row)}` : '') +
+          (overlay.measuredMin ? `. Lowest measured: ${overlay.measuredMin.socPct.toFixed(0)} % at ${rowTime(overlay.measuredMin.row)}.` : '.');
     body = <MeasuredChart forecast={fc} overlay={overlay} name={f.data.name} summary={summary} />;
   }
   return (

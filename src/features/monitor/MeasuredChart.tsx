@@ -16,7 +16,7 @@ export default function MeasuredChart({ forecast, overlay, name, summary }: { fo
     () =>
       Array.from({ length: n + 1 }, (_, x) => ({
         x,
-        forecast: x === 0 ? forecast.summary.startSocPct : forecast.hourly[x - 1].socPct,
+        forecast: x === 0 ? forecast.summary.startSocPct : (forecast.hourly[x - 1]?.socPct ?? null),
         measured: overlay.measured[x] ?? null,
       })),
     [forecast, overlay, n],

@@ -267,7 +267,7 @@ export function fieldForIssue(path: string): QuickPlanField | null {
       arriveHour: 'arrive',
       shadePct: 'shadePct',
     };
-    return map[f] ?? null;
+    return f === undefined ? null : (map[f] ?? null);
   }
   return null;
 }
