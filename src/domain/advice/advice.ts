@@ -1,5 +1,7 @@
 // Advice: the two or three changes that matter most, each with its effect measured by running the
-// engine again on a changed plan (the engine is pure and fast, so advice is never guessed).
+// engine again on a changed plan (the engine is pure and fast, so advice is never guessed). The
+// measuring is here; the sentences shared by several rules (effects, warnings) are built from
+// the measured figures in advice-text.ts.
 import {
   forecast as runEngine,
   inverterDcWatts,
@@ -14,9 +16,10 @@ import {
   type ResolvedCharger,
   type ResolvedPlan,
 } from '../../engine';
-import { formatClock, formatDay, formatRowTime, formatWh, localParts, pct, whPerDay } from '../../lib/format';
-import { CAUTIONS } from './cautions';
+import { formatClock, formatDay, formatRowTime, localParts, pct } from '../../lib/format';
 import { reserveOf } from '../forecasts/verdict';
+import { effectText, joinAnd, litres, notEnough, warningsOf, type Effect } from './advice-text';
+import { CAUTIONS } from './cautions';
 
 
 /** Converter/charger amps assumed for generator advice when the plan names none (common practice: 30 A is a usual RV converter). */
@@ -133,46 +136,30 @@ function isFine(f: Forecast, reservePct: number): boolean {
   return f.summary.firstCutoffAt === null && (reservePct <= f.summary.floorSocPct || f.summary.minSocPct >= reservePct);
 }
 
-function hours(n: number): string {
-  return n === 1 ? '1 hour' : `${n} hours`;
+/** What a change does to the forecast, as figures (the words are made in advice-text.ts). */
+export function measureEffect(base: Forecast, alt: Forecast, reservePct: number): Effect {
+  const fixes = isFine(alt, reservePct);
+  const lowest = { lowestPct: alt.summary.minSocPct, lowestAt: alt.summary.minSocAt };
+  if (base.summary.firstCutoffAt) {
+    if (!alt.summary.firstCutoffAt) return { kind: 'cutoff-gone', fixes, score: 1_000_000 + alt.summary.minSocPct, ...lowest, reservePct };
+    const shortBefore = hoursShort(base);
+    const shortAfter = hoursShort(alt);
+    const laterBy = rowOf(alt, alt.summary.firstCutoffAt) - rowOf(base, base.summary.firstCutoffAt);
+    return { kind: 'cutoff-changed', fixes, score: (shortBefore - shortAfter) * 10 + Math.max(laterBy, 0), shortBefore, shortAfter, laterBy, firstCutoffAt: alt.summary.firstCutoffAt };
+  }
+  const diff = alt.summary.minSocPct - base.summary.minSocPct;
+  if (Math.abs(diff) < 0.5) return { kind: 'little-change', fixes, score: 0, ...lowest };
+  return { kind: 'lowest-changed', fixes, score: diff, fromPct: base.summary.minSocPct, toPct: alt.summary.minSocPct };
 }
 
 /** The effect of a change, in hours or %, comparing two forecasts of the same trip. */
 export function effectOf(base: Forecast, alt: Forecast, reservePct: number): { text: string; score: number; fixes: boolean } {
-  const fixes = isFine(alt, reservePct);
-  const lowest = `lowest ${pct(alt.summary.minSocPct)} on ${formatRowTime(alt.summary.minSocAt)}`;
-  if (base.summary.firstCutoffAt) {
-    if (!alt.summary.firstCutoffAt) {
-      const under = !fixes ? `, below the ${pct(reservePct)} reserve` : '';
-      return { text: `No cutoff — ${lowest}${under}.`, score: 1_000_000 + alt.summary.minSocPct, fixes };
-    }
-    const b = hoursShort(base);
-    const a = hoursShort(alt);
-    const shift = rowOf(alt, alt.summary.firstCutoffAt) - rowOf(base, base.summary.firstCutoffAt);
-    const parts: string[] = [];
-    if (a < b) parts.push(`${hours(b - a)} less without power (${b} → ${a} hours short)`);
-    else if (a > b) parts.push(`${hours(a - b)} more without power (${b} → ${a} hours short)`);
-    if (shift > 0) parts.push(`the first cutoff comes ${hours(shift)} later, ${formatRowTime(alt.summary.firstCutoffAt)}`);
-    if (parts.length === 0) parts.push('little change: the bank still runs out at the same time');
-    const text = parts.join('; ');
-    return { text: text[0].toUpperCase() + text.slice(1) + '.', score: (b - a) * 10 + Math.max(shift, 0), fixes };
-  }
-  const diff = alt.summary.minSocPct - base.summary.minSocPct;
-  if (Math.abs(diff) < 0.5) return { text: `Little change: ${lowest}.`, score: 0, fixes };
-  const sign = diff > 0 ? '+' : '−';
-  return {
-    text: `Lowest state of charge ${pct(base.summary.minSocPct)} → ${pct(alt.summary.minSocPct)} (${sign}${Math.round(Math.abs(diff))} points).`,
-    score: diff,
-    fixes,
-  };
+  const e = measureEffect(base, alt, reservePct);
+  return { text: effectText(e), score: e.score, fixes: e.fixes };
 }
 
 // ---------------------------------------------------------------------------------------------
 // Generator
-
-function litres(x: number): string {
-  return `${(Math.round(x * 10) / 10).toLocaleString('en-US')} L`;
-}
 
 /** The converter/charger a generator would feed: the plan's generator, else its shore charger, else an assumed one. */
 function generatorCharger(plan: ResolvedPlan): { amps: number; fuel: number; source: string } {
@@ -364,23 +351,6 @@ function nextWindowStart(prepared: PreparedTrip, row: number): number {
   return -1;
 }
 
-function joinAnd(items: string[]): string {
-  if (items.length <= 1) return items.join('');
-  return `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
-}
-
-function notEnough(e: { text: string; score: number }, detail: string, lead = 'Even running in every allowed hour'): AdviceChange {
-  return {
-    kind: 'generator',
-    title: 'A generator alone is not enough',
-    effect: `${lead}: ${e.text[0].toLowerCase()}${e.text.slice(1)}`,
-    detail: `${detail} The bank runs low where no generator may run (at night, or while driving): it needs more capacity, more charging or fewer loads.`,
-    caution: CAUTIONS.generator,
-    fixes: false,
-    score: e.score,
-  };
-}
-
 function ownGeneratorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: number, own: ResolvedCharger): AdviceChange | null {
   const plan = prepared.plan;
   const withStart = (start: number) => {
@@ -487,43 +457,6 @@ function driveAdvice(plan: ResolvedPlan, base: Forecast, prepared: PreparedTrip,
     };
   }
   return null;
-}
-
-// ---------------------------------------------------------------------------------------------
-// Warnings
-
-function warningsOf(forecast: Forecast): AdviceWarning[] {
-  const out: AdviceWarning[] = [];
-  const byCode = new Map<string, Forecast['warnings']>();
-  for (const w of forecast.warnings) {
-    const list = byCode.get(w.code) ?? [];
-    list.push(w);
-    byCode.set(w.code, list);
-  }
-  const cold = byCode.get('cold-charge-blocked');
-  if (cold && cold.length > 0) {
-    out.push({
-      code: 'cold-charge-blocked',
-      title: 'The bank refuses charge in the cold',
-      message: `In ${hours(forecast.summary.coldBlockedHours || cold.length)} the LiFePO4 bank is below 0 °C and takes no charge, first on ${formatRowTime(cold[0].at)}; the panels and chargers still run the loads.`,
-      caution: CAUTIONS.cold,
-    });
-  }
-  const assumed = byCode.get('weather-assumed');
-  if (assumed && assumed.length > 0) {
-    const dates = [...new Set(assumed.map((w) => localParts(w.at)?.date ?? w.at))].map(formatDay);
-    out.push({
-      code: 'weather-assumed',
-      title: 'Weather assumed',
-      message: `No weather was given for ${dates.join(', ')}: the forecast assumes 4 oktas of cloud, a high of 20 °C and a low of 10 °C. Add the expected weather for a truer answer.`,
-    });
-  }
-  for (const w of byCode.get('weather-ignored') ?? []) out.push({ code: w.code, title: 'Weather not used', message: w.message });
-  const volt = byCode.get('voltage-cutoff');
-  if (volt && volt.length > 0) {
-    out.push({ code: 'voltage-cutoff', title: 'Low-voltage cutoff', message: `${volt[0].message} (${formatRowTime(volt[0].at)})` });
-  }
-  return out;
 }
 
 // ---------------------------------------------------------------------------------------------
