@@ -2,6 +2,7 @@ import { forecast as runEngine, validatePlan, type Plan } from '../../engine';
 import type { Sample } from './parse';
 import { localClock } from './time';
 import { isoDate } from '../../engine/light';
+import { at } from '../../lib/invariant';
 
 // What a monitor log tells about the rig: the draw while nothing can charge (the night-time
 // baseline), and each day's amp-hours taken out and put back. Pure.
@@ -11,7 +12,7 @@ const MIN = 60_000;
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);
   const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+  return s.length % 2 ? at(s, m) : (at(s, m - 1) + at(s, m)) / 2;
 }
 
 export interface NightBaseline {
@@ -101,7 +102,10 @@ export function dailyAh(samples: Sample[], timeZone: string, maxGapMs?: number):
   const s = samples.filter((x) => x.amps !== null);
   if (s.length < 2) return [];
   const steps: number[] = [];
-  for (let i = 1; i < s.length && steps.length < 2000; i++) if (s[i].t > s[i - 1].t) steps.push(s[i].t - s[i - 1].t);
+  for (let i = 1; i < s.length && steps.length < 2000; i++) {
+    const step = at(s, i).t - at(s, i - 1).t;
+    if (step > 0) steps.push(step);
+  }
   const gap = maxGapMs ?? Math.max(15 * MIN, 3 * (steps.length ? median(steps) : 0));
   const clock = localClock(timeZone);
   const days = new Map<number, { out: number; in: number; ms: number }>();
@@ -114,10 +118,11 @@ export function dailyAh(samples: Sample[], timeZone: string, maxGapMs?: number):
     days.set(day, d);
   };
   for (let i = 0; i + 1 < s.length; i++) {
-    let a = s[i].t;
-    const b = s[i + 1].t;
+    const here = at(s, i);
+    let a = here.t;
+    const b = at(s, i + 1).t;
     if (b <= a || b - a > gap) continue;
-    const amps = s[i].amps as number;
+    const amps = here.amps as number;
     // Split the interval at local midnights.
     while (a < b) {
       const c = clock(a);

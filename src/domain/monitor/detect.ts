@@ -2,6 +2,7 @@ import { DELIMITERS, TIME_FORMATS, type ColumnMapping, type Delimiter, type Sign
 import { columnNames, parseLog, readNumber, type Sample } from './parse';
 import { splitLine } from './text';
 import { localClock, localResolver, looksLike, parseTimeCell, timeExample } from './time';
+import { at } from '../../lib/invariant';
 
 // Guessing how a monitor log is laid out, so the camper only has to confirm: the delimiter, the
 // header row (some exports put a few lines about the device first), the time column and format,
@@ -89,7 +90,7 @@ function median(xs: number[]): number {
   if (xs.length === 0) return NaN;
   const s = [...xs].sort((a, b) => a - b);
   const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+  return s.length % 2 ? at(s, m) : (at(s, m - 1) + at(s, m)) / 2;
 }
 
 function numbersOf(rows: string[][], col: number, decimal: '.' | ','): number[] {
@@ -124,7 +125,7 @@ export function detectTimeFormat(values: string[], timeZone: string): { format: 
     if (bm < bd) return { format: 'mdy', note: 'Every day in the first lines is 12 or less, so the date could be day first or month first; month first keeps the readings in time order. Check the dates in the sample.' };
     return { format: 'dmy', note: bd === bm ? 'Every day in the first lines is 12 or less, so the date could be day first or month first; we read it day first. Check the dates in the sample.' : undefined };
   }
-  return { format: fits[0] };
+  return { format: at(fits, 0, 'fitting time format') };
 }
 
 /** Which sign the current uses, judged from the readings (amps as written in the file). */
@@ -133,8 +134,8 @@ export function detectSign(samples: Sample[], timeZone: string): { sign: SignCon
   let agree = 0;
   let total = 0;
   for (let i = 1; i < samples.length; i++) {
-    const a = samples[i - 1];
-    const b = samples[i];
+    const a = at(samples, i - 1);
+    const b = at(samples, i);
     if (a.socPct === null || b.socPct === null || b.amps === null || b.t - a.t > 3_600_000) continue;
     const d = b.socPct - a.socPct;
     if (d === 0 || Math.abs(b.amps) < 0.2) continue;
@@ -178,7 +179,10 @@ export function detectSign(samples: Sample[], timeZone: string): { sign: SignCon
 export function detectLog(text: string, timeZone: string): Detection {
   const all = text.split('\n');
   const sample: Line[] = [];
-  for (let i = 0; i < all.length && sample.length < SAMPLE_LINES; i++) if (all[i].trim() !== '') sample.push({ line: i + 1, text: all[i] });
+  for (const [i, text] of all.entries()) {
+    if (sample.length >= SAMPLE_LINES) break;
+    if (text.trim() !== '') sample.push({ line: i + 1, text });
+  }
   const notes: string[] = [];
   const delimiter = detectDelimiter(sample.map((l) => l.text));
   const split = sample.map((l) => ({ line: l.line, cells: splitLine(l.text, delimiter) }));
@@ -188,13 +192,12 @@ export function detectLog(text: string, timeZone: string): Detection {
   for (const s of split) freq.set(s.cells.length, (freq.get(s.cells.length) ?? 0) + 1);
   const width = [...freq.entries()].sort((a, b) => b[1] - a[1] || b[0] - a[0])[0]?.[0] ?? 1;
   const firstWide = split.findIndex((s) => s.cells.length === width);
-  let headerIdx = -1;
-  if (firstWide >= 0 && !dataLike(split[firstWide].cells)) headerIdx = firstWide;
-  const headerLine = headerIdx >= 0 ? split[headerIdx].line : firstWide > 0 ? split[firstWide - 1].line : 0;
-  const skipped = headerLine - (headerIdx >= 0 ? 1 : 0);
+  const header = firstWide >= 0 && !dataLike(at(split, firstWide).cells) ? at(split, firstWide) : null;
+  const headerLine = header ? header.line : firstWide > 0 ? at(split, firstWide - 1).line : 0;
+  const skipped = headerLine - (header ? 1 : 0);
   if (skipped > 0) notes.push(skipped === 1 ? 'The first line describes the device, not readings; it is skipped.' : `The first ${skipped} lines describe the device, not readings; they are skipped.`);
-  if (headerIdx < 0) notes.push('The file has no header row: choose what each column holds.');
-  const headerCells = headerIdx >= 0 ? split[headerIdx].cells.map((c) => c.trim().replace(/^"|"$/g, '')) : null;
+  if (!header) notes.push('The file has no header row: choose what each column holds.');
+  const headerCells = header ? header.cells.map((c) => c.trim().replace(/^"|"$/g, '')) : null;
   const headers = columnNames(headerCells, width);
   const rows = split.filter((s) => s.line > headerLine && s.cells.length === width).map((s) => s.cells);
 
@@ -238,7 +241,7 @@ export function detectLog(text: string, timeZone: string): Detection {
   };
   if (dateCol >= 0 && todCol >= 0 && dateCol !== todCol) tryColumn(todCol, dateCol);
   if (!time) {
-    const byName = headers.map((h, i) => i).filter((i) => headerCells !== null && headerMatch(headers[i], 'time'));
+    const byName = headers.map((h, i) => i).filter((i) => headerCells !== null && headerMatch(at(headers, i, 'column name'), 'time'));
     for (const c of [...byName, ...headers.map((_, i) => i)]) if (!used.has(c) && tryColumn(c, null)) break;
   }
   if (!time) notes.push('No column looks like a time. Choose the time column and its format, or export the log with timestamps.');
@@ -254,7 +257,7 @@ export function detectLog(text: string, timeZone: string): Detection {
   });
   if (voltage === null && volts >= 0) used.add(volts);
 
-  const unitOf = (col: number | null, pattern: RegExp) => (col !== null && headerCells !== null ? pattern.test(norm(headers[col])) : false);
+  const unitOf = (col: number | null, pattern: RegExp) => (col !== null && headerCells !== null ? pattern.test(norm(at(headers, col, 'column name'))) : false);
   const vCol = volts >= 0 ? volts : null;
   const vMedian = vCol === null ? NaN : median(numbersOf(rows, vCol, decimal));
   const socMax = soc === null ? NaN : Math.max(...numbersOf(rows, soc, decimal));

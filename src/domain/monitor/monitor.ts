@@ -2,6 +2,7 @@ import { detectLog, type DetectedMapping } from './detect';
 import type { ColumnMapping } from './monitor.schema';
 import { splitLine } from './text';
 import { parseLog, type BankLimits, type LogLineError, type ParseResult } from './parse';
+import { at } from '../../lib/invariant';
 
 // Step 1 of an upload: what the file looks like read with the proposed (or the camper's) mapping —
 // the first readings, every problem by line and column, and the span. Pure.
@@ -52,6 +53,7 @@ export function previewLog(text: string, opts: { timeZone: string; mapping: Colu
     errorCount = 1;
   }
   const samples = parsed?.samples ?? [];
+  const sampleLines = parsed?.lines ?? [];
   const rows = detection?.rows ?? firstRows(text, mapping);
   return {
     parsed,
@@ -61,13 +63,13 @@ export function previewLog(text: string, opts: { timeZone: string; mapping: Colu
       headers: parsed?.headers.length ? parsed.headers : (detection?.headers ?? []),
       rows,
       notes: detection?.notes ?? [],
-      sample: samples.slice(0, 10).map((s, i) => ({ line: parsed!.lines[i], ...s })),
+      sample: samples.slice(0, 10).map((s, i) => ({ line: at(sampleLines, i, 'line of reading'), ...s })),
       errors,
       errorCount,
       warnings: parsed?.warnings ?? [],
       count: samples.length,
-      from: samples.length ? samples[0].t : null,
-      to: samples.length ? samples[samples.length - 1].t : null,
+      from: samples[0]?.t ?? null,
+      to: samples.at(-1)?.t ?? null,
     },
   };
 }
@@ -76,6 +78,9 @@ export function previewLog(text: string, opts: { timeZone: string; mapping: Colu
 function firstRows(text: string, mapping: DetectedMapping, n = 8): string[][] {
   const out: string[][] = [];
   const lines = text.split('\n');
-  for (let i = mapping.headerLine; i < lines.length && out.length < n; i++) if (lines[i].trim() !== '') out.push(splitLine(lines[i], mapping.delimiter));
+  for (const line of lines.slice(mapping.headerLine)) {
+    if (out.length >= n) break;
+    if (line.trim() !== '') out.push(splitLine(line, mapping.delimiter));
+  }
   return out;
 }

@@ -22,7 +22,8 @@ export interface Overlay {
 
 /** Start instant of a forecast's first row (its `time` carries the stop's offset). */
 export function forecastStartMs(f: Forecast): number {
-  return f.hourly.length ? Date.parse(f.hourly[0].time) : NaN;
+  const first = f.hourly[0];
+  return first ? Date.parse(first.time) : NaN;
 }
 
 /** Aligns measured SOC with a forecast's rows; `readings` sorted by time. */
@@ -34,7 +35,7 @@ export function overlaySoc(f: Forecast, readings: SocReading[], toleranceMs = 30
   let j = 0;
   for (let x = 0; x <= n; x++) {
     const at = start + x * 3_600_000;
-    while (j + 1 < pts.length && pts[j + 1].t <= at) j++;
+    for (let next = pts[j + 1]; next && next.t <= at; next = pts[j + 1]) j++;
     let best: SocReading | null = null;
     for (const k of [j, j + 1]) {
       const p = pts[k];
@@ -48,8 +49,9 @@ export function overlaySoc(f: Forecast, readings: SocReading[], toleranceMs = 30
   let measuredMin: Overlay['measuredMin'] = null;
   for (let x = 1; x <= n; x++) {
     const m = measured[x];
-    if (m === null) continue;
-    const fc = f.hourly[x - 1].socPct;
+    const row = f.hourly[x - 1];
+    if (m === null || m === undefined || !row) continue;
+    const fc = row.socPct;
     sum += m - fc;
     matched++;
     if (!worst || fc - m > worst.diffPct) worst = { row: x - 1, diffPct: Math.round((fc - m) * 10) / 10 };

@@ -1,6 +1,7 @@
 import Papa from 'papaparse';
 import type { ColumnMapping } from './monitor.schema';
 import { localResolver, parseTimeCell } from './time';
+import { at } from '../../lib/invariant';
 
 // Reading a monitor log with a confirmed column mapping: papaparse splits the lines, each cell is
 // read with its unit and sign convention, and every problem is reported with the file's line and
@@ -150,9 +151,9 @@ export function parseLog(text: string, mapping: ColumnMapping, limits: BankLimit
   const needed = [mapping.time.column, mapping.time.dateColumn, mapping.voltage?.column, mapping.current?.column, mapping.soc?.column, mapping.temperature?.column].filter(
     (c): c is number => typeof c === 'number',
   );
-  const outside = needed.filter((c) => c >= width);
-  if (outside.length) {
-    push({ line: Math.max(1, mapping.headerLine), column: null, message: `the file has ${width} columns; column ${outside[0] + 1} does not exist` });
+  const [outside] = needed.filter((c) => c >= width);
+  if (outside !== undefined) {
+    push({ line: Math.max(1, mapping.headerLine), column: null, message: `the file has ${width} columns; column ${outside + 1} does not exist` });
     return { samples: [], lines: [], errors, errorCount, warnings, headers };
   }
   if (data.length === 0) {
@@ -261,22 +262,20 @@ export function parseLog(text: string, mapping: ColumnMapping, limits: BankLimit
   }
 
   if (errorCount === 0 && samples.length === 0) {
-    push({ line: data[0].line, column: null, message: 'No line under the header has a reading in the chosen columns.' });
+    push({ line: at(data, 0, 'data line').line, column: null, message: 'No line under the header has a reading in the chosen columns.' });
   }
   if (empty > 0) warnings.push(`${empty} line${empty === 1 ? ' has' : 's have'} a time but no reading in the chosen columns; ${empty === 1 ? 'it is' : 'they are'} left out.`);
 
   // Readings are kept in time order; a log that jumps back suggests day and month are swapped.
   let backwards = 0;
-  for (let i = 1; i < samples.length; i++) if (samples[i].t < samples[i - 1].t) backwards++;
+  for (let i = 1; i < samples.length; i++) if (at(samples, i).t < at(samples, i - 1).t) backwards++;
   if (backwards > 0) {
-    const order = samples.map((_, i) => i).sort((a, b) => samples[a].t - samples[b].t || a - b);
-    const s2 = order.map((i) => samples[i]);
-    const l2 = order.map((i) => lines[i]);
+    const order = samples.map((_, i) => i).sort((a, b) => at(samples, a).t - at(samples, b).t || a - b);
+    const s2 = order.map((i) => at(samples, i, 'reading'));
+    const l2 = order.map((i) => at(lines, i, 'line of reading'));
     // Element by element: a spread of a large log would overflow the call stack.
-    for (let i = 0; i < s2.length; i++) {
-      samples[i] = s2[i];
-      lines[i] = l2[i];
-    }
+    for (const [i, s] of s2.entries()) samples[i] = s;
+    for (const [i, l] of l2.entries()) lines[i] = l;
     warnings.push(`${backwards} reading${backwards === 1 ? ' is' : 's are'} earlier than the line before; the readings were put in time order. If this is unexpected, check the time format (day first or month first).`);
   }
   return { samples, lines, errors, errorCount, warnings, headers };

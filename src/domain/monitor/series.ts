@@ -14,8 +14,10 @@ export interface SeriesPoint {
 
 /** Readings averaged into buckets; `t` is the last reading's time in each bucket. */
 export function downsample(samples: Sample[], maxPoints = 5000): SeriesPoint[] {
-  if (samples.length === 0) return [];
-  const span = samples[samples.length - 1].t - samples[0].t;
+  const first = samples[0];
+  const last = samples.at(-1);
+  if (!first || !last) return [];
+  const span = last.t - first.t;
   const minute = 60_000;
   const bucket = Math.max(10 * minute, Math.ceil(span / maxPoints / minute) * minute);
   const out: SeriesPoint[] = [];

@@ -1,5 +1,6 @@
 import { daysFromCivil, localToInstant, offsetMinutes } from '../../engine/light';
 import type { TimeFormat } from './monitor.schema';
+import { at } from '../../lib/invariant';
 
 // Reading the time of a reading. Times with an offset (ISO with Z or ±hh:mm) and epoch numbers
 // are instants; any other time is the wall clock of the log's time zone.
@@ -43,7 +44,7 @@ function offsetOf(s: string | undefined): number | undefined {
 function hour12(h: number, ampm: string | undefined): number | null {
   if (!ampm) return h;
   if (h < 1 || h > 12) return null;
-  const pm = ampm[0].toLowerCase() === 'p';
+  const pm = ampm.toLowerCase().startsWith('p');
   return (h % 12) + (pm ? 12 : 0);
 }
 
@@ -52,21 +53,21 @@ function wallOf(text: string, format: TimeFormat): Wall | null {
   if (format === 'iso') {
     const m = ISO_RE.exec(text);
     if (!m) return null;
-    return { y: +m[1], mo: +m[2], d: +m[3], h: +m[4], mi: +m[5], s: +(m[6] ?? 0), ms: fraction(m[7]), offset: offsetOf(m[8]) };
+    return { y: Number(m[1]), mo: Number(m[2]), d: Number(m[3]), h: Number(m[4]), mi: Number(m[5]), s: Number(m[6] ?? 0), ms: fraction(m[7]), offset: offsetOf(m[8]) };
   }
   if (format === 'ymd') {
     const m = YMD_RE.exec(text);
     if (!m) return null;
-    return { y: +m[1], mo: +m[2], d: +m[3], h: +m[4], mi: +m[5], s: +(m[6] ?? 0), ms: fraction(m[7]) };
+    return { y: Number(m[1]), mo: Number(m[2]), d: Number(m[3]), h: Number(m[4]), mi: Number(m[5]), s: Number(m[6] ?? 0), ms: fraction(m[7]) };
   }
   if (format === 'dmy' || format === 'mdy') {
     const m = DM_RE.exec(text);
     if (!m) return null;
-    const [a, b] = [+m[1], +m[2]];
-    const y = m[3].length === 2 ? 2000 + +m[3] : +m[3];
-    const h = hour12(+m[4], m[8]);
+    const [a, b] = [Number(m[1]), Number(m[2])];
+    const y = m[3]?.length === 2 ? 2000 + Number(m[3]) : Number(m[3]);
+    const h = hour12(Number(m[4]), m[8]);
     if (h === null) return { y, mo: 0, d: 0, h: -1, mi: 0, s: 0, ms: 0 };
-    return { y, mo: format === 'dmy' ? b : a, d: format === 'dmy' ? a : b, h, mi: +m[5], s: +(m[6] ?? 0), ms: fraction(m[7]) };
+    return { y, mo: format === 'dmy' ? b : a, d: format === 'dmy' ? a : b, h, mi: Number(m[5]), s: Number(m[6] ?? 0), ms: fraction(m[7]) };
   }
   return null;
 }
@@ -76,7 +77,7 @@ const DAYS_IN_MONTH = [31, 29, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];
 function wallProblem(w: Wall, format: TimeFormat): string | null {
   if (w.mo < 1 || w.mo > 12) return format === 'dmy' ? 'the month (second number) must be 1 to 12 — is the date month first?' : format === 'mdy' ? 'the month (first number) must be 1 to 12 — is the date day first?' : 'the month must be 1 to 12';
   const leap = (w.y % 4 === 0 && w.y % 100 !== 0) || w.y % 400 === 0;
-  const dim = w.mo === 2 && !leap ? 28 : DAYS_IN_MONTH[w.mo - 1];
+  const dim = w.mo === 2 && !leap ? 28 : at(DAYS_IN_MONTH, w.mo - 1, 'month');
   if (w.d < 1 || w.d > dim) return `day ${w.d} does not exist in that month`;
   if (w.h < 0 || w.h > 23) return 'the hour must be 0 to 23 (or 1 to 12 with AM/PM)';
   if (w.mi > 59 || w.s > 59) return 'minutes and seconds must be 0 to 59';
