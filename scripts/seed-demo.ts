@@ -1,6 +1,6 @@
 import type { Kysely } from 'kysely';
 import type { DB } from '../db/schema';
-import { demoPlan } from '../src/engine/demo-plan';
+import { demoPlan } from '../src/engine';
 import { rigInputSchema } from '../src/domain/rigs/rigs.schema';
 import { loadInputSchema } from '../src/domain/loads/loads.schema';
 import { tripInputSchema } from '../src/domain/trips/trips.schema';

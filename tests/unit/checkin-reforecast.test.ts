@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { outcomeOf, reforecastFrom } from '../../src/domain/checkins/reforecast';
 import { checkInInputSchema } from '../../src/domain/checkins/checkins.schema';
+import { computeCheckIn, reforecastReading } from '../../src/domain/checkins/checkins';
+import { socFromRestingVolts } from '../../src/domain/checkins/ocv';
 import { demoPlan, forecast, validatePlan, type ResolvedPlan } from '../../src/engine';
 
 // The rest of a trip from a check-in, run by the engine: the demo trip (Juniper Mesa, 3 nights,
@@ -118,5 +120,42 @@ describe('the check-in body', () => {
   it('needs a time with its offset and a UUID', () => {
     const r = checkInInputSchema.safeParse({ id: 'abc', at: '2027-10-22 07:30', socPct: 120 });
     expect(r.error?.issues.map((i) => i.path.join('.')).sort()).toEqual(['at', 'id', 'socPct']);
+  });
+});
+
+// One rule for the server (storing a check-in) and the phone (showing it at once, offline):
+// reading → state of charge → the rest of the trip.
+describe('reforecastReading (server and phone)', () => {
+  const iso = '2027-10-22T19:20-06:00';
+
+  it('a state-of-charge reading re-forecasts from that SOC, as reforecastFrom does', () => {
+    const r = reforecastReading(plan, at(iso), { socPct: 61 });
+    expect(r.ok).toBe(true);
+    if (!r.ok) return;
+    expect(r.socPct).toBe(61);
+    expect(r.note).toBeNull();
+    expect(r.forecast).toEqual(run(iso, 61));
+    expect(r.outcome).toEqual(outcomeOf(run(iso, 61)));
+  });
+
+  it('a resting voltage is read on the bank’s curve first', () => {
+    const soc = socFromRestingVolts(plan.bank.chemistry, plan.bank.nominalVolts, 13.2);
+    if (!soc.ok) throw new Error(soc.message);
+    const r = reforecastReading(plan, at(iso), { restingVolts: 13.2 });
+    expect(r).toMatchObject({ ok: true, socPct: soc.socPct });
+    if (r.ok) expect(r.forecast.summary.startSocPct).toBe(soc.socPct);
+  });
+
+  it('names the field that is wrong: a voltage no such bank gives, a time outside the trip', () => {
+    expect(reforecastReading(plan, at(iso), { restingVolts: 130 })).toMatchObject({ ok: false, path: 'restingVolts' });
+    const early = reforecastReading(plan, at('2027-10-20T12:00-06:00'), { socPct: 80 });
+    expect(early).toMatchObject({ ok: false, path: 'at', message: expect.stringContaining('before the trip starts') });
+  });
+
+  it('the phone words a refused time as a sentence of its own', () => {
+    const basis = { forecastId: 'f1', name: 'Saved', plan, forecast: full };
+    expect(computeCheckIn(basis, '2027-10-20T12:00-06:00', { socPct: 80 })).toMatchObject({ ok: false, path: 'at', message: expect.stringMatching(/^The time is before the trip starts/) });
+    const ok = computeCheckIn(basis, iso, { socPct: 61 });
+    expect(ok).toMatchObject({ ok: true, socPct: 61, previous: { forecastId: 'f1', name: 'Saved', minSocPct: full.summary.minSocPct } });
   });
 });
