@@ -5,6 +5,7 @@ import type { Forecast, ResolvedPlan } from '../../engine';
 import { socFromRestingVolts } from './ocv';
 import { outcomeOf, reforecastFrom } from './reforecast';
 import type { CheckInOutcome, PreviousOutcome } from './checkins.schema';
+import { at } from '../../lib/invariant';
 
 export interface Basis {
   forecastId: string;
@@ -61,7 +62,8 @@ export function fromHour(f: Forecast, startAt: string): Forecast | null {
   const k = f.hourly.findIndex((r) => Date.parse(r.time) === start);
   if (k < 0) return null;
   const hourly = f.hourly.slice(k);
-  const startSoc = k === 0 ? f.summary.startSocPct : f.hourly[k - 1].socPct;
+  const before = f.hourly[k - 1];
+  const startSoc = before ? before.socPct : f.summary.startSocPct;
   const cut = f.summary.firstCutoffAt && Date.parse(f.summary.firstCutoffAt) >= start ? f.summary.firstCutoffAt : null;
   return { ...f, hourly, summary: { ...f.summary, startSocPct: startSoc, firstCutoffAt: cut } };
 }
@@ -70,8 +72,8 @@ export function fromHour(f: Forecast, startAt: string): Forecast | null {
 export function newCheckInId(): string {
   if (typeof crypto.randomUUID === 'function') return crypto.randomUUID();
   const b = crypto.getRandomValues(new Uint8Array(16));
-  b[6] = (b[6] & 0x0f) | 0x40;
-  b[8] = (b[8] & 0x3f) | 0x80;
+  b[6] = (at(b, 6) & 0x0f) | 0x40;
+  b[8] = (at(b, 8) & 0x3f) | 0x80;
   const h = [...b].map((x) => x.toString(16).padStart(2, '0')).join('');
   return `${h.slice(0, 8)}-${h.slice(8, 12)}-${h.slice(12, 16)}-${h.slice(16, 20)}-${h.slice(20)}`;
 }
@@ -80,7 +82,7 @@ export function newCheckInId(): string {
 export function localInputToIso(value: string): string | null {
   const m = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})$/.exec(value);
   if (!m) return null;
-  const d = new Date(+m[1], +m[2] - 1, +m[3], +m[4], +m[5]);
+  const d = new Date(Number(m[1]), Number(m[2]) - 1, Number(m[3]), Number(m[4]), Number(m[5]));
   if (Number.isNaN(d.getTime())) return null;
   const off = -d.getTimezoneOffset();
   const sign = off < 0 ? '-' : '+';

@@ -1,6 +1,7 @@
 import { forecast as runEngine, validatePlan, type DayRow, type Forecast, type HourlyRow, type ResolvedDrive, type ResolvedPlan, type ResolvedStop } from '../../engine';
 import { planTimeline, dayNumber, HOUR_MS, isoDate, localToInstant, offsetMinutes } from '../../engine/light';
 import type { CheckInOutcome } from './checkins.schema';
+import { at } from '../../lib/invariant';
 
 // The rest of a trip from a check-in: the same plan, starting at the hour of the reading with the
 // reading as the bank's state of charge, run by the same engine (which builds for the browser, so
@@ -16,14 +17,20 @@ export type ReforecastResult = { ok: true; forecast: Forecast; stopIndex: number
 
 const DAY = 86_400_000;
 
+/** Index of the stop that owns instant `ms`: the last one arrived at by then (the first before any arrival). */
+function stopIndexAt(arrivals: readonly number[], stopCount: number, ms: number): number {
+  let s = 0;
+  while (s + 1 < stopCount && at(arrivals, s + 1, 'stop arrival') <= ms) s++;
+  return s;
+}
+
 function label(plan: ResolvedPlan, ms: number): string {
   // The owning stop's local time, as the forecast writes it (YYYY-MM-DD HH:MM).
   const tl = planTimeline(plan.stops, plan.drives);
-  let s = 0;
-  while (s + 1 < plan.stops.length && tl.arrivals[s + 1] <= ms) s++;
-  const off = offsetMinutes(plan.stops[s].timeZone, ms);
+  const stop = at(plan.stops, stopIndexAt(tl.arrivals, plan.stops.length, ms), 'stop');
+  const off = offsetMinutes(stop.timeZone, ms);
   const local = new Date(ms + off * 60_000).toISOString();
-  return `${local.slice(0, 10)} ${local.slice(11, 16)} at ${plan.stops[s].name}`;
+  return `${local.slice(0, 10)} ${local.slice(11, 16)} at ${stop.name}`;
 }
 
 /** Drives (whole hours) that fall inside [from, to), cut to it, in the local terms of the stop owning each one's start. */
@@ -34,9 +41,7 @@ function drivesWithin(plan: ResolvedPlan, stops: ResolvedStop[], arrivals: numbe
     const a = Math.max(d.startMs, from);
     const b = Math.min(d.endMs, to);
     if (b <= a) continue;
-    let s = 0;
-    while (s + 1 < stops.length && arrivals[s + 1] <= a) s++;
-    const off = offsetMinutes(stops[s].timeZone, a);
+    const off = offsetMinutes(at(stops, stopIndexAt(arrivals, stops.length, a), 'stop').timeZone, a);
     const local = a + off * 60_000;
     const day = Math.floor(local / DAY);
     out.push({ date: isoDate(day), startHour: Math.floor((local - day * DAY) / HOUR_MS), hours: Math.max(1, Math.ceil((b - a) / HOUR_MS)) });
@@ -52,7 +57,9 @@ function run(plan: ResolvedPlan): Forecast | string {
 
 /** Rows of `f` that start before `endMs`, with the summary and days read from those rows. */
 function cut(f: Forecast, endMs: number): Forecast {
-  const start = Date.parse(f.hourly[0].time);
+  const first = f.hourly[0];
+  if (!first) return f;
+  const start = Date.parse(first.time);
   const k = Math.max(0, Math.min(f.hourly.length, Math.ceil((endMs - start) / HOUR_MS)));
   return rebuild(f, f.hourly.slice(0, k), f.warnings.filter((w) => Date.parse(w.at) < endMs));
 }
@@ -60,12 +67,12 @@ function cut(f: Forecast, endMs: number): Forecast {
 /** A forecast made of these rows: summary and days recomputed from them (watts are hour averages, so Wh = W × 1 h). */
 function rebuild(base: Forecast, hourly: HourlyRow[], warnings: Forecast['warnings'], stops = base.stops): Forecast {
   const days = new Map<string, DayRow>();
-  let minIdx = -1;
+  let minRow: HourlyRow | undefined;
   // The engine's own cutoff events (floor or voltage), as its summary reads them.
   const cutoffs = warnings.filter((w) => w.code === 'floor-cutoff' || w.code === 'voltage-cutoff').map((w) => w.at);
   const cutoff = cutoffs.length ? cutoffs.reduce((a, b) => (Date.parse(b) < Date.parse(a) ? b : a)) : null;
   const sum = { load: 0, solar: 0, charge: 0, unmet: 0, curtailed: 0, gen: 0 };
-  hourly.forEach((r, i) => {
+  hourly.forEach((r) => {
     const date = r.time.slice(0, 10);
     const d = days.get(date) ?? { date, loadWh: 0, solarWh: 0, chargeWh: 0, netWh: 0, minSocPct: r.socPct, endSocPct: r.socPct, unmetWh: 0, curtailedWh: 0 };
     d.loadWh += r.loadWatts;
@@ -77,7 +84,7 @@ function rebuild(base: Forecast, hourly: HourlyRow[], warnings: Forecast['warnin
     d.minSocPct = Math.min(d.minSocPct, r.socPct);
     d.endSocPct = r.socPct;
     days.set(date, d);
-    if (minIdx < 0 || r.socPct < hourly[minIdx].socPct) minIdx = i;
+    if (!minRow || r.socPct < minRow.socPct) minRow = r;
     sum.load += r.loadWatts;
     sum.solar += r.solarWatts;
     sum.charge += r.chargeWatts;
@@ -93,8 +100,8 @@ function rebuild(base: Forecast, hourly: HourlyRow[], warnings: Forecast['warnin
     stops,
     summary: {
       ...base.summary,
-      minSocPct: minIdx >= 0 ? hourly[minIdx].socPct : base.summary.startSocPct,
-      minSocAt: minIdx >= 0 ? hourly[minIdx].time : base.summary.minSocAt,
+      minSocPct: minRow ? minRow.socPct : base.summary.startSocPct,
+      minSocAt: minRow ? minRow.time : base.summary.minSocAt,
       firstCutoffAt: cutoff,
       unmetWh: sum.unmet,
       solarWh: sum.solar,
@@ -127,18 +134,18 @@ function loadsForDay(plan: ResolvedPlan, driveDay: boolean): ResolvedPlan['loads
  */
 function span(plan: ResolvedPlan, fromMs: number, socPct: number, depth = 0): Forecast | string {
   const tl = planTimeline(plan.stops, plan.drives);
-  let s = 0;
-  while (s + 1 < plan.stops.length && tl.arrivals[s + 1] <= fromMs) s++;
-  const stop = plan.stops[s];
+  const s = stopIndexAt(tl.arrivals, plan.stops.length, fromMs);
+  const stop = at(plan.stops, s, 'stop');
   const off = offsetMinutes(stop.timeZone, fromMs);
   const local = fromMs + off * 60_000;
   const day = Math.floor(local / DAY);
   const hour = Math.floor((local - day * DAY) / HOUR_MS);
   const bank = { ...plan.bank, initialSocPct: Math.max(0, Math.min(100, socPct)) };
   const rest = plan.stops.slice(s + 1);
-  const isLast = rest.length === 0;
+  const [next] = rest;
+  const isLast = next === undefined;
   const departDay = dayNumber(stop.arrive) + stop.nights;
-  const nextDay = isLast ? Infinity : dayNumber(rest[0].arrive);
+  const nextDay = next === undefined ? Infinity : dayNumber(next.arrive);
   const weather = stop.weather.filter((w) => dayNumber(w.date) >= day);
 
   let stops: ResolvedStop[];
@@ -152,7 +159,7 @@ function span(plan: ResolvedPlan, fromMs: number, socPct: number, depth = 0): Fo
     // The morning the stop is left: a one-night stop, cut where the stop really ends.
     stops = [{ ...stop, arrive: isoDate(day), nights: 1, arriveHour: hour, weather }];
     arrivals = [fromMs];
-    cutAt = isLast ? tl.endMs : tl.arrivals[s + 1];
+    cutAt = isLast ? tl.endMs : at(tl.arrivals, s + 1, 'next stop arrival');
   }
   const drives = drivesWithin(plan, stops, arrivals, fromMs, cutAt);
   let loads = plan.loads;
@@ -169,7 +176,7 @@ function span(plan: ResolvedPlan, fromMs: number, socPct: number, depth = 0): Fo
   const part = runEnd > cutAt ? cut(mine, cutAt) : mine;
   if (cutAt >= tl.endMs) return part;
   if (depth > 4 * plan.stops.length + 8) return 'the trip could not be split into runs';
-  const carried = part.hourly.length ? part.hourly[part.hourly.length - 1].socPct : bank.initialSocPct;
+  const carried = part.hourly.at(-1)?.socPct ?? bank.initialSocPct;
   const later = span(plan, cutAt, carried, depth + 1);
   if (typeof later === 'string') return later;
   return rebuild({ ...part, summary: { ...part.summary, startSocPct: bank.initialSocPct } }, [...part.hourly, ...later.hourly], [...part.warnings, ...later.warnings]);
@@ -184,12 +191,11 @@ export function reforecastFrom(plan: ResolvedPlan, atMs: number, socPct: number)
   const tl = planTimeline(plan.stops, plan.drives);
   if (!(atMs >= tl.startMs)) return { ok: false, path: 'at', message: `is before the trip starts (${label(plan, tl.startMs)}): check in once you are at camp.` };
   if (atMs >= tl.endMs) return { ok: false, path: 'at', message: `is after the trip ends (${label(plan, tl.endMs - HOUR_MS)}).` };
-  let s = 0;
-  while (s + 1 < plan.stops.length && tl.arrivals[s + 1] <= atMs) s++;
-  const zone = plan.stops[s].timeZone;
+  const s = stopIndexAt(tl.arrivals, plan.stops.length, atMs);
+  const zone = at(plan.stops, s, 'stop').timeZone;
   const local = atMs + offsetMinutes(zone, atMs) * 60_000;
   const day = Math.floor(local / DAY);
-  const startMs = Math.max(tl.arrivals[s], localToInstant(zone, day, Math.floor((local - day * DAY) / HOUR_MS)));
+  const startMs = Math.max(at(tl.arrivals, s, 'stop arrival'), localToInstant(zone, day, Math.floor((local - day * DAY) / HOUR_MS)));
   const f = span(plan, startMs, socPct);
   if (typeof f === 'string') return { ok: false, path: 'at', message: `cannot start a forecast here: ${f}` };
   return { ok: true, forecast: f, stopIndex: s };
