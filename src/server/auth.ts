@@ -1,6 +1,7 @@
 import { betterAuth } from 'better-auth';
 import { APIError } from 'better-auth/api';
 import { db } from './db';
+import { PASSWORD_MAX, PASSWORD_MIN } from '../domain/accounts/accounts.schema';
 import { env } from './env';
 import { personName } from './auth-input';
 import { createPersonalCrew } from './crews';
@@ -22,8 +23,8 @@ export const auth = betterAuth({
   baseURL: env.authUrl ?? { allowedHosts: ['localhost:*', '127.0.0.1:*', 'localhost', '127.0.0.1'], protocol: 'http', fallback: 'http://localhost:4321' },
   emailAndPassword: {
     enabled: true,
-    minPasswordLength: 8,
-    maxPasswordLength: 128,
+    minPasswordLength: PASSWORD_MIN,
+    maxPasswordLength: PASSWORD_MAX,
     autoSignIn: true,
     // better-auth's own reset flow; the link goes to our /reset-password page and the e-mail through the outbox.
     resetPasswordTokenExpiresIn: RESET_TOKEN_SECONDS,

@@ -33,10 +33,10 @@ export function parseWindows(text: string): { ok: true; windows: HourWindow[] } 
   for (const part of parts) {
     const shown = part.slice(0, 20);
     const m = /^(\d{1,2})(?::00)?\s*(?:-|–|—|to)\s*(\d{1,2})(?::00)?$/.exec(part);
-    if (!m) return { ok: false, message: `"${shown}" is not a window: ${HOW}.` };
+    if (!m) return { ok: false, message: `“${shown}” is not a window: ${HOW}.` };
     const from = Number(m[1]);
     const to = Number(m[2]);
-    if (from > 24 || to > 24) return { ok: false, message: `"${shown}": hours go from 0 to 24; ${HOW}.` };
+    if (from > 24 || to > 24) return { ok: false, message: `“${shown}”: hours go from 0 to 24; ${HOW}.` };
     windows.push([from, to]);
   }
   return { ok: true, windows };

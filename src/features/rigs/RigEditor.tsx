@@ -1,19 +1,20 @@
 import { useRef, useState } from 'react';
 import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type UseFormRegister, type UseFormSetValue } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useQueryClient } from '@tanstack/react-query';
 import { CHEMISTRIES, type Chemistry } from '../../engine/light';
 import type { RigDto } from '../../domain/rigs/rigs.schema';
 import { Field, describedBy } from '../../components/ui/Field';
 import { NumberField } from '../../components/ui/NumberField';
-import { ConflictNotice, useConflict } from '../../components/ui/ConflictNotice';
+import { ConflictNotice } from '../../components/ui/ConflictNotice';
+import { useVersionedEditor } from '../../components/ui/useVersionedEditor';
 import { asNumber, asNumberOrNull, errorAt, fieldId } from '../../components/ui/form';
 import { CHEMISTRY_LABELS, formatNumber, plural, rigSummary } from '../../lib/format';
 import { createRig, deleteRig, updateRig } from './rigs.api';
 import { rigKeys } from './rigs.queries';
 import { CHARGER_KINDS, emptyRig, newArray, newCharger, rigFormSchema, rigToForm, type RigFormOutput, type RigFormValues } from '../../domain/rigs/rig-form';
 import { COMPASS, CHEMISTRY_PRESETS, MOUNTINGS, applyMounting, maxChargeAmpsFor, mountingOf, nominalForChemistry, presetBank, seriesParallel, type Mounting } from '../../domain/rigs/presets';
-import { deleteProblem, DeleteRow, FormProblemBox, handleSaveError, type FormProblem } from '../../components/ui/SaveProblems';
+import { DeleteRow, FormProblemBox } from '../../components/ui/SaveProblems';
 
 interface RigEditorProps {
   rig?: RigDto;
@@ -27,16 +28,15 @@ type Ctx = {
 };
 
 const num = { setValueAs: asNumber };
+
+/** The fields a rig is saved with (the form also carries the crew it goes to). */
+const rigBody = (v: RigFormOutput) => ({ name: v.name, bank: v.bank, arrays: v.arrays, chargers: v.chargers, inverter: v.inverter });
 const numOrNull = { setValueAs: asNumberOrNull };
 
 /** The power-system form: bank (with chemistry presets and a series/parallel helper), solar arrays, chargers, inverter. */
 export function RigEditor({ rig }: RigEditorProps) {
   const qc = useQueryClient();
-  const [formError, setFormError] = useState<FormProblem | null>(null);
-  const [savedAt, setSavedAt] = useState<Date | null>(null);
   const [presetNote, setPresetNote] = useState<string | null>(null);
-  const version = useRef(rig?.version ?? 0);
-  const { conflict, setConflict, keepMine } = useConflict<RigDto, RigFormOutput>(version, (again) => save.mutate(again));
   const readOnly = rig?.canEdit === false;
 
   const form = useForm<RigFormValues, unknown, RigFormOutput>({
@@ -55,48 +55,28 @@ export function RigEditor({ rig }: RigEditorProps) {
   const chargerKinds = useWatch({ control, name: 'chargers' }) ?? [];
   const hasGenerator = chargerKinds.some((c) => c?.kind === 'generator');
 
-  const saved = (next: RigDto) => {
-    version.current = next.version;
-    qc.setQueryData(rigKeys.detail(next.id), next);
-    void qc.invalidateQueries({ queryKey: rigKeys.list() });
-    reset(rigToForm(next));
-    setConflict(null);
-    setSavedAt(new Date());
-  };
-
-  const save = useMutation({
-    mutationFn: async (values: RigFormOutput) => {
-      const body = { name: values.name, bank: values.bank, arrays: values.arrays, chargers: values.chargers, inverter: values.inverter };
-      return rig ? updateRig(rig.id, { ...body, version: version.current }) : createRig(body);
+  const { formError, savedAt, conflict, keepMine, takeTheirs, save, remove, onSubmit } = useVersionedEditor<RigDto, RigFormValues, RigFormOutput>({
+    what: 'rig',
+    row: rig,
+    create: (values) => createRig(rigBody(values)),
+    update: (id, values, version) => updateRig(id, { ...rigBody(values), version }),
+    remove: deleteRig,
+    onSaved: (next) => {
+      qc.setQueryData(rigKeys.detail(next.id), next);
+      void qc.invalidateQueries({ queryKey: rigKeys.list() });
+      reset(rigToForm(next));
     },
-    onSuccess: (next) => {
-      if (!rig) {
-        void qc.invalidateQueries({ queryKey: rigKeys.list() });
-        window.location.assign(`/rigs/${encodeURIComponent(next.id)}?created=1#loads`);
-        return;
-      }
-      saved(next);
+    onCreated: (next) => {
+      void qc.invalidateQueries({ queryKey: rigKeys.list() });
+      window.location.assign(`/rigs/${encodeURIComponent(next.id)}?created=1#loads`);
     },
-    onError: (err, values) => handleSaveError<RigDto, typeof values, typeof values>(err, values, 'rig', { conflict: setConflict, problem: setFormError, setError }),
-  });
-
-  const remove = useMutation({
-    mutationFn: () => deleteRig(rig!.id, version.current),
-    onSuccess: () => {
+    onDeleted: () => {
       void qc.invalidateQueries({ queryKey: rigKeys.all });
       window.location.assign('/rigs');
     },
-    onError: (err) => setFormError(deleteProblem(err, 'rig')),
+    handleSubmit,
+    setError,
   });
-
-  const onSubmit = handleSubmit(
-    (values) => {
-      setFormError(null);
-      setSavedAt(null);
-      save.mutate(values);
-    },
-    () => setFormError({ message: 'Some fields need fixing: see the messages next to them.', issues: [] }),
-  );
 
   /** Fills the chemistry's typical values (keeping the bank's voltage class and capacity). */
   const applyPreset = (chem: Chemistry) => {
@@ -142,7 +122,7 @@ export function RigEditor({ rig }: RigEditorProps) {
           theirs={conflict.current}
           busy={save.isPending}
           onKeepMine={keepMine}
-          onTakeTheirs={() => saved(conflict.current)}
+          onTakeTheirs={takeTheirs}
         >
           <dl className="mt-2 grid grid-cols-[5rem_1fr] gap-x-3 text-sm">
             <dt className="font-bold">Theirs</dt>

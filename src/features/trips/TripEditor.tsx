@@ -1,13 +1,14 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type UseFormRegister, type UseFormSetValue } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { useQuery, useQueryClient } from '@tanstack/react-query';
 import { SKY_CHOICES, type TripDto } from '../../domain/trips/trips.schema';
 import type { RigDto } from '../../domain/rigs/rigs.schema';
 import { Field, describedBy } from '../../components/ui/Field';
 import { NumberField } from '../../components/ui/NumberField';
 import { TemperatureInput } from '../../components/ui/TemperatureInput';
-import { ConflictNotice, useConflict } from '../../components/ui/ConflictNotice';
+import { ConflictNotice } from '../../components/ui/ConflictNotice';
+import { useVersionedEditor } from '../../components/ui/useVersionedEditor';
 import { asNumber, asNumberOrNull, errorAt, fieldId } from '../../components/ui/form';
 import { formatDate, formatHour, formatNumber, rigSummary } from '../../lib/format';
 import { formatTemp, type Units } from '../../lib/units';
@@ -16,7 +17,7 @@ import { PlaceSearch } from './PlaceSearch';
 import { createTrip, deleteTrip, updateTrip } from './trips.api';
 import { timeZoneQuery, tripKeys } from './trips.queries';
 import { describeSpan, emptyTrip, newDrive, newStop, stopDays, tripFormSchema, tripSpan, tripToForm, type TripFormOutput, type TripFormValues } from '../../domain/trips/trip-form';
-import { deleteProblem, DeleteRow, FormProblemBox, handleSaveError, type FormProblem } from '../../components/ui/SaveProblems';
+import { DeleteRow, FormProblemBox } from '../../components/ui/SaveProblems';
 
 type Ctx = {
   register: UseFormRegister<TripFormValues>;
@@ -50,10 +51,6 @@ function TimeZoneList() {
 export function TripEditor({ trip, units, initialRigId, initialRigs, onClose }: { trip?: TripDto; units: Units; initialRigId?: string; initialRigs?: RigDto[]; onClose?: () => void }) {
   const qc = useQueryClient();
   const rigs = useQuery({ ...rigsQuery(), initialData: initialRigs });
-  const [formError, setFormError] = useState<FormProblem | null>(null);
-  const [savedAt, setSavedAt] = useState<Date | null>(null);
-  const version = useRef(trip?.version ?? 0);
-  const { conflict, setConflict, keepMine } = useConflict<TripDto, TripFormOutput>(version, (again) => save.mutate(again));
   const readOnly = trip?.canEdit === false;
 
   const form = useForm<TripFormValues, unknown, TripFormOutput>({
@@ -77,44 +74,25 @@ export function TripEditor({ trip, units, initialRigId, initialRigs, onClose }: 
     if (!trip && !rigId && rigs.data?.length === 1) setValue('rigId', rigs.data[0].id);
   }, [rigs.data, rigId, trip, setValue]);
 
-  const saved = (next: TripDto) => {
-    version.current = next.version;
-    qc.setQueryData(tripKeys.detail(next.id), next);
-    void qc.invalidateQueries({ queryKey: tripKeys.all, exact: false, predicate: (q) => q.queryKey[1] === 'list' });
-    reset(tripToForm(next));
-    setConflict(null);
-    setSavedAt(new Date());
-  };
-
-  const save = useMutation({
-    mutationFn: (values: TripFormOutput) => (trip ? updateTrip(trip.id, { ...values, version: version.current }) : createTrip(values)),
-    onSuccess: (next) => {
-      if (!trip) {
-        window.location.assign(`/trips/${encodeURIComponent(next.id)}?created=1`);
-        return;
-      }
-      saved(next);
+  const { formError, savedAt, conflict, keepMine, takeTheirs, save, remove, onSubmit } = useVersionedEditor<TripDto, TripFormValues, TripFormOutput>({
+    what: 'trip',
+    row: trip,
+    create: createTrip,
+    update: (id, values, version) => updateTrip(id, { ...values, version }),
+    remove: deleteTrip,
+    onSaved: (next) => {
+      qc.setQueryData(tripKeys.detail(next.id), next);
+      void qc.invalidateQueries({ queryKey: tripKeys.all, exact: false, predicate: (q) => q.queryKey[1] === 'list' });
+      reset(tripToForm(next));
     },
-    onError: (err, values) => handleSaveError<TripDto, typeof values, typeof values>(err, values, 'trip', { conflict: setConflict, problem: setFormError, setError }),
-  });
-
-  const remove = useMutation({
-    mutationFn: () => deleteTrip(trip!.id, version.current),
-    onSuccess: () => {
+    onCreated: (next) => window.location.assign(`/trips/${encodeURIComponent(next.id)}?created=1`),
+    onDeleted: () => {
       void qc.invalidateQueries({ queryKey: tripKeys.all });
       window.location.assign('/trips');
     },
-    onError: (err) => setFormError(deleteProblem(err, 'trip')),
+    handleSubmit,
+    setError,
   });
-
-  const onSubmit = handleSubmit(
-    (values) => {
-      setFormError(null);
-      setSavedAt(null);
-      save.mutate(values);
-    },
-    () => setFormError({ message: 'Some fields need fixing: see the messages next to them.', issues: [] }),
-  );
 
   const span = tripSpan(stopValues);
   const busy = isSubmitting || save.isPending;
@@ -146,7 +124,7 @@ export function TripEditor({ trip, units, initialRigId, initialRigs, onClose }: 
           theirs={conflict.current}
           busy={save.isPending}
           onKeepMine={keepMine}
-          onTakeTheirs={() => saved(conflict.current)}
+          onTakeTheirs={takeTheirs}
         >
           <dl className="mt-2 grid grid-cols-[5rem_1fr] gap-x-3 text-sm">
             <dt className="font-bold">Theirs</dt>
