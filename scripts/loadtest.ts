@@ -3,6 +3,7 @@ import Database from 'better-sqlite3';
 import os from 'node:os';
 import { DEMO_ACCOUNTS } from './seed';
 import { demoPlan } from '../src/engine';
+import { describeHeavy, heavyRun } from './loadtest-heavy';
 
 /**
  * `npm run loadtest`: builds the server (into SUNRECKON_DIST, default .dist-loadtest; set
@@ -12,7 +13,9 @@ import { demoPlan } from '../src/engine';
  *   1. anonymous preview forecasts of the demo trip (rate limit off for the run),
  *   2. the signed-in forecast page of the demo trip,
  *   3. several editors of one crew reading and writing one rig's loads (PATCH with versions, add,
- *      remove); 409s are expected and counted.
+ *      remove); 409s are expected and counted;
+ *   4. heavy work (10 maximal sweeps, 2 previews of a 10 MB monitor log) while /api/health is
+ *      called: prints health p99 (target ≤ 100 ms) and the server's peak RSS (target ≤ 400 MB).
  * Prints requests/s, p50/p99 latency and errors per run. Fails on any 5xx or a lost write: every
  * acknowledged add must be there, every acknowledged removal gone, every load at least at its last
  * acknowledged version and, when at it, with that write's watts.
@@ -209,6 +212,14 @@ try {
     `\nLoads run: ${tally.read} reads, ${tally.patched} edits, ${tally.conflicts} stale edits answered 409 (expected), ${tally.added} added, ${tally.removed} removed, ${tally.otherRefusals} other refusals.`,
   );
   console.log(`Writes checked against the database: ${acked.added.size} adds, ${acked.removed.size} removals, ${acked.patched.size} loads' last edits; integrity_check: ${String(integrity)}.`);
+
+  // 4. Heavy work in the worker pool (sweeps, 10 MB log previews) while /api/health is called.
+  const heavy = describeHeavy(await heavyRun({ url, server, ownerCookie: camper, rigId: rig.id }));
+  for (const line of heavy.lines) console.log(line);
+  if (!heavy.ok) {
+    failed = true;
+    console.error('\nFAIL: the heavy run missed a target (health p99, RSS) or a heavy request was refused.');
+  }
 
   const fiveXx = rows.reduce((n, r) => n + r.fiveXx, 0);
   if (fiveXx > 0) {

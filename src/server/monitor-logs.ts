@@ -1,15 +1,14 @@
 import type { Kysely } from 'kysely';
 import type { DB, MonitorLogRow } from '../../db/schema';
-import { isValidTimeZone, planTimeline, type ResolvedPlan } from '../engine';
+import { planTimeline, type ResolvedPlan } from '../engine';
 import type { ForecastOverlap, MonitorLogDetail, MonitorLogDto, ColumnMapping } from '../domain/monitor/monitor.schema';
 import type { Sample } from '../domain/monitor/parse';
 import { bankLimits, refusalMessage, type LogPreview } from '../domain/monitor/monitor';
-import { mappingSchema } from '../domain/monitor/monitor.schema';
 import { rigAccess, type Actor, type Need, type RigGrant } from './access';
 import { HttpError } from './errors';
-import { zodIssues } from './http';
-import { lineIssues, readMultipart, type FileUpload } from './upload';
-import { unpack } from './workers/monitor-task';
+import { readLimited } from './http';
+import { lineIssues } from './upload';
+import { MAX_BODY_BYTES, SEND_AS, tooLarge, unpack } from './workers/monitor-task';
 import { logSeriesInPool, monitorLogInPool } from './workers/pool';
 import { env } from './env';
 import { conflict, nowIso } from './versions';
@@ -89,9 +88,7 @@ export async function createLog(
   input: { rigId: string; crewId: string; userId: string; name: string; original: Uint8Array; mapping: ColumnMapping; samples: Sample[] },
 ): Promise<MonitorLogDto> {
   const { samples } = input;
-  const first = samples[0];
-  const last = samples.at(-1);
-  if (!first || !last) throw new HttpError('invalid_request', 'The log has no readings to save.', [{ path: 'file', message: 'no readings' }]);
+  if (samples.length === 0) throw new HttpError('invalid_request', 'The log has no readings to save.', [{ path: 'file', message: 'no readings' }]);
   const id = crypto.randomUUID();
   await db.transaction().execute(async (trx) => {
     await trx
@@ -106,8 +103,8 @@ export async function createLog(
         mapping: JSON.stringify(input.mapping),
         time_zone: input.mapping.timeZone,
         sample_count: samples.length,
-        started_at: new Date(first.t).toISOString(),
-        ended_at: new Date(last.t).toISOString(),
+        started_at: new Date(samples[0].t).toISOString(),
+        ended_at: new Date(samples[samples.length - 1].t).toISOString(),
         created_by: input.userId,
         created_at: nowIso(),
       })
@@ -117,72 +114,57 @@ export async function createLog(
         .insertInto('monitor_samples')
         .values(samples.slice(i, i + BATCH).map((s) => ({ log_id: id, t: s.t, volts: s.volts, amps: s.amps, soc_pct: s.socPct, temp_c: s.tempC })))
         .execute();
+      // Let the event loop turn between batches: requests that need no database keep answering.
+      await new Promise((resolve) => setImmediate(resolve));
     }
   });
   const row = await rows(db).where('monitor_logs.id', '=', id).executeTakeFirstOrThrow();
   return toDto(row);
 }
 
-/** The largest monitor log accepted (the CSV itself). */
-const MAX_FILE_BYTES = 10 * 1024 * 1024;
-const ALLOWED_EXTENSIONS = /\.(csv|txt|tsv|log|dat)$/i;
-
-/** The multipart upload of a monitor log: a `file` (the CSV) and text fields (`mapping`, `timeZone`, `name`). */
-export function readLogUpload(request: Request): Promise<FileUpload> {
-  return readMultipart(request, {
-    maxFileBytes: MAX_FILE_BYTES,
-    // The multipart body may carry the mapping and a little framing on top of the file.
-    maxBodyBytes: MAX_FILE_BYTES + 256 * 1024,
-    tooLarge: () => new HttpError('payload_too_large', 'The file is larger than 10 MB. Export a shorter stretch of the log (a trip at a time).', [{ path: 'file', message: 'at most 10 MB' }]),
-    sendAs: 'Send the log as a file upload (multipart/form-data) with the CSV in the field "file".',
-    defaultName: 'monitor-log.csv',
-  });
+/** A monitor-log upload as received: the multipart body (at most 10 MB and a little framing) and its type. */
+export interface RawLogUpload {
+  body: Uint8Array;
+  contentType: string;
 }
 
-function mappingFrom(raw: string | undefined): ColumnMapping | null {
-  if (raw === undefined || raw.trim() === '') return null;
-  let data: unknown;
-  try {
-    data = JSON.parse(raw);
-  } catch {
-    throw new HttpError('invalid_request', 'The column mapping is not valid JSON.', [{ path: 'mapping', message: 'not valid JSON' }]);
+/**
+ * The multipart upload of a monitor log (a `file`, the CSV, and text fields `mapping`, `timeZone`,
+ * `name`), read within its limit; the form itself is taken apart in the worker pool.
+ */
+export async function readLogUpload(request: Request): Promise<RawLogUpload> {
+  const contentType = (request.headers.get('content-type') ?? '').trim();
+  if (!/^multipart\/form-data\b/i.test(contentType)) {
+    throw new HttpError('unsupported_media_type', SEND_AS, [{ path: '(headers).content-type', message: `expected multipart/form-data, got ${contentType ? `"${contentType.slice(0, 60)}"` : 'none'}` }]);
   }
-  const r = mappingSchema.safeParse(data);
-  if (!r.success) throw new HttpError('invalid_request', `The column mapping needs fixing: ${r.error.issues[0]?.message}`, zodIssues(r.error, 'mapping'));
-  return r.data;
+  return { body: await readLimited(request, MAX_BODY_BYTES, tooLarge), contentType };
 }
 
-/** The uploaded log read as the save would read it (in the worker pool): with the sent mapping, else the detected one. */
-async function readLog(rig: RigGrant['rig'], upload: FileUpload, withSamples: boolean) {
-  if (!ALLOWED_EXTENSIONS.test(upload.fileName) && /\.[a-z0-9]{1,5}$/i.test(upload.fileName)) {
-    throw new HttpError('unsupported_media_type', `"${upload.fileName.slice(0, 80)}" is not a CSV. Export the monitor's log as CSV (.csv or .txt) and upload that.`, [{ path: 'file', message: 'expected a .csv, .tsv or .txt file' }]);
-  }
-  const mapping = mappingFrom(upload.fields.get('mapping'));
-  const timeZone = upload.fields.get('timeZone')?.trim() || mapping?.timeZone || 'UTC';
-  if (!isValidTimeZone(timeZone)) throw new HttpError('invalid_request', 'The time zone is not one we know.', [{ path: 'timeZone', message: 'must be an IANA time zone such as America/Denver' }]);
+/** The uploaded log read as the save would read it, in the worker pool: with the sent mapping, else the detected one. */
+async function readLog(rig: RigGrant['rig'], upload: RawLogUpload, withSamples: boolean) {
   const limits = bankLimits(JSON.parse(rig.bank) as { chemistry: string; capacityAh: number; nominalVolts?: number });
-  const out = await monitorLogInPool({ bytes: upload.bytes, mapping, timeZone, limits, withSamples });
-  if (!out.ok) throw new HttpError(out.code, out.message, out.issues);
-  return { mapping, preview: out.preview, samples: out.samples ? unpack(out.samples) : null };
+  const out = await monitorLogInPool({ body: upload.body, contentType: upload.contentType, limits, withSamples });
+  if (!out.ok) throw new HttpError(out.code, out.message, out.issues, out.extra);
+  return out;
 }
 
 /** Step 1 of an upload: the detected (or sent) mapping, the first readings and every problem by line and column. */
-export async function previewUpload(rig: RigGrant['rig'], upload: FileUpload): Promise<LogPreview & { fileName: string; bytes: number }> {
-  return { ...(await readLog(rig, upload, false)).preview, fileName: upload.fileName, bytes: upload.bytes.byteLength };
+export async function previewUpload(rig: RigGrant['rig'], upload: RawLogUpload): Promise<LogPreview & { fileName: string; bytes: number }> {
+  const out = await readLog(rig, upload, false);
+  return { ...out.preview, fileName: out.fileName, bytes: out.fileBytes };
 }
 
 /**
  * Step 2: saves the log read with the confirmed mapping. Any problem refuses the whole file (400,
  * issues `line 12.Voltage (V)`); else the file and its readings are saved in one transaction.
  */
-export async function saveUpload(db: Kysely<DB>, ctx: { rig: RigGrant['rig']; userId: string }, upload: FileUpload): Promise<MonitorLogDto & { warnings: string[] }> {
-  const { mapping, preview, samples } = await readLog(ctx.rig, upload, true);
+export async function saveUpload(db: Kysely<DB>, ctx: { rig: RigGrant['rig']; userId: string }, upload: RawLogUpload): Promise<MonitorLogDto & { warnings: string[] }> {
+  const { mapping, preview, samples, file, fileName, name } = await readLog(ctx.rig, upload, true);
   if (!mapping) throw new HttpError('invalid_request', 'Confirm the column mapping before saving: send it in the field "mapping".', [{ path: 'mapping', message: 'send the confirmed column mapping' }]);
-  if (preview.errorCount > 0 || !samples) {
+  if (preview.errorCount > 0 || !samples || !file) {
     throw new HttpError('invalid_request', refusalMessage(preview), lineIssues(preview.errors), { errors: preview.errors, errorCount: preview.errorCount });
   }
-  const name = (upload.fields.get('name')?.trim() || upload.fileName).slice(0, 120);
-  const log = await createLog(db, { rigId: ctx.rig.id, crewId: ctx.rig.crew_id, userId: ctx.userId, name, original: upload.bytes, mapping, samples });
+  const log = await createLog(db, { rigId: ctx.rig.id, crewId: ctx.rig.crew_id, userId: ctx.userId, name: (name || fileName).slice(0, 120), original: file, mapping, samples: unpack(samples) });
   return { ...log, warnings: preview.warnings };
 }
 

@@ -5,7 +5,7 @@ import type { ProposalDto, ProposalListItem, CableRow, Changes, Part, PriceList,
 import { checkCables, defaultCables, lineAmount, partsTotal, proposalCautions, type CheckedCable } from '../domain/proposals/proposals';
 import { formatMoney } from '../lib/format';
 import type { SweepRequestValues } from '../domain/proposals/proposals.schema';
-import { forecastAfter, labelOf, oneOffItems, runSweep, type CostItem, type SweepResult } from '../domain/proposals/sweep';
+import { forecastAfter, labelOf, oneOffItems, type CostItem, type SweepResult } from '../domain/proposals/sweep';
 import { installerOnly, tripAccess, type Actor, type RigGrant } from './access';
 import { HttpError, type Issue } from './errors';
 import { forecastTripId, getForecast, packHourly, unpackHourly, type ForecastDto } from './forecasts';
@@ -13,6 +13,8 @@ import { renderMail, type MailContent } from './mail';
 import { savedPricesOrThrow } from './price-lists';
 import { enqueueMail, kickOutbox } from './outbox';
 import { conflict, nowIso } from './versions';
+import { oneAtATime } from './workers/per-user';
+import { sweepInPool } from './workers/pool';
 
 // Proposals: an installer turns a saved forecast and one sweep option into a priced upgrade with
 // its before/after forecasts, parts, cable and fuse checks and cautions; sends it to the crew's
@@ -362,10 +364,11 @@ export async function deleteProposal(db: Kysely<DB>, row: ProposalRow, access: R
 /**
  * Upgrade sweep on a saved forecast: every combination of the candidates rerun with the engine,
  * priced from the sent prices or the installer's saved list; `ms` is how long the runs took.
+ * Returns the answer's JSON text.
  */
-export async function sweepForecast(db: Kysely<DB>, installerId: string, forecast: ForecastDto, body: SweepRequestValues): Promise<SweepResult & { forecastId: string; ms: number }> {
+export async function sweepForecast(db: Kysely<DB>, installerId: string, forecast: ForecastDto, body: SweepRequestValues): Promise<string> {
   const prices = body.prices ?? (await savedPricesOrThrow(db, installerId));
-  const started = performance.now();
-  const result = runSweep({ plan: forecast.plan, reserveSocPct: forecast.reserveSocPct, candidates: body.candidates, prices });
-  return { ...result, forecastId: forecast.id, ms: Math.round((performance.now() - started) * 10) / 10 };
+  // In the worker pool, at most SWEEPS_PER_USER at once per installer: the request thread stays free.
+  // The answer comes back as its JSON text (SweepResult & { forecastId, ms }).
+  return oneAtATime(installerId, () => sweepInPool({ forecastId: forecast.id, plan: forecast.plan, reserveSocPct: forecast.reserveSocPct, candidates: body.candidates, prices }));
 }

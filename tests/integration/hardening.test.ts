@@ -4,7 +4,8 @@ import path from 'node:path';
 import Database from 'better-sqlite3';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { api, baseUrl, openTestDb, signUp, uniqueEmail } from '../helpers/api';
-import { makeRig, makeTrip } from '../helpers/crew';
+import { makeRig, makeTrip, RIG_INPUT, TRIP_INPUT } from '../helpers/crew';
+import { TEST_PRICES } from '../helpers/prices';
 import { cleanup, DIST, ROOT, startServer, type RunningServer } from '../helpers/server';
 
 // Hardening II (issue 15): auth and abuse findings of the attack on a production-mode server,
@@ -183,11 +184,11 @@ describe('smaller findings', () => {
   });
 });
 
-describe('mail, share and proxy limits (INVITE_CREW_HOURLY=3, INVITE_ADDRESS_HOURLY=2, GRANT_HOURLY=2)', () => {
+describe('mail, share, sweep and proxy limits (INVITE_CREW_HOURLY=3, INVITE_ADDRESS_HOURLY=2, GRANT_HOURLY=2, SWEEP_RATE_LIMIT=2)', () => {
   let server: RunningServer;
   beforeAll(async () => {
     // No SMTP_URL: every accepted message waits in the outbox, where it is counted.
-    server = await startServer({ INVITE_CREW_HOURLY: '3', INVITE_ADDRESS_HOURLY: '2', GRANT_HOURLY: '2', SMTP_URL: '' });
+    server = await startServer({ INVITE_CREW_HOURLY: '3', INVITE_ADDRESS_HOURLY: '2', GRANT_HOURLY: '2', SWEEP_RATE_LIMIT: '2', SMTP_URL: '' });
   });
   afterAll(async () => {
     await server?.stop();
@@ -249,6 +250,19 @@ describe('mail, share and proxy limits (INVITE_CREW_HOURLY=3, INVITE_ADDRESS_HOU
     expect(statuses).toEqual([201, 201, 201, 429]);
   });
 
+  it('sweeps: the third in a minute by one installer is 429 with Retry-After', async () => {
+    const owner = await account('camper');
+    const installer = await account('installer', 'Sweeper');
+    const rig = (await (await call('/api/rigs', { method: 'POST', cookie: owner.cookie, body: RIG_INPUT })).json()) as { id: string };
+    const trip = (await (await call('/api/trips', { method: 'POST', cookie: owner.cookie, body: TRIP_INPUT(rig.id) })).json()) as { id: string };
+    const forecast = (await (await call(`/api/trips/${trip.id}/forecasts`, { method: 'POST', cookie: owner.cookie, body: {} })).json()) as { id: string };
+    expect((await call(`/api/rigs/${rig.id}/grants`, { method: 'POST', cookie: owner.cookie, body: { email: installer.email } })).status).toBe(201);
+    const answers: Response[] = [];
+    for (let i = 0; i < 3; i++) answers.push(await call(`/api/forecasts/${forecast.id}/sweep`, { method: 'POST', cookie: installer.cookie, body: { candidates: { banks: [{ chemistry: 'lifepo4', capacityAh: 300 + i }] }, prices: TEST_PRICES } }));
+    expect(answers.map((r) => r.status)).toEqual([200, 200, 429]);
+    expect(Number(answers[2]!.headers.get('retry-after'))).toBeGreaterThan(0);
+  });
+
   it('shares: the third in an hour by one owner is 429; a camper and no account answer alike', async () => {
     const owner = await account('camper');
     const camper = await account('camper', 'Other Camper');
@@ -263,5 +277,91 @@ describe('mail, share and proxy limits (INVITE_CREW_HOURLY=3, INVITE_ADDRESS_HOU
     const third = await share(installer.email);
     expect(third.status).toBe(429);
     expect(outbox(installer.email)).toBe(0);
+  });
+});
+
+describe('monitor-log uploads are read in the worker pool, within caps', () => {
+  let owner: Awaited<ReturnType<typeof signUp>>;
+  let rigId: string;
+  beforeAll(async () => {
+    owner = await signUp();
+    rigId = (await makeRig(owner)).id;
+  });
+  const preview = (csv: string, name = 'log.csv') => {
+    const form = new FormData();
+    form.set('file', new Blob([csv], { type: 'text/csv' }), name);
+    form.set('timeZone', 'America/Denver');
+    return api(`/api/rigs/${rigId}/monitor-logs?preview=1`, { method: 'POST', session: owner, body: form });
+  };
+  const logs = async () => ((await (await api(`/api/rigs/${rigId}/monitor-logs`, { session: owner })).json()) as unknown[]).length;
+
+  it('one 1 MB line is a 400 naming the line-length limit', async () => {
+    const res = await preview('x'.repeat(1024 * 1024));
+    expect(res.status).toBe(400);
+    expect(await res.json()).toMatchObject({ error: { message: expect.stringContaining('4096 characters') }, issues: [{ path: 'line 1' }] });
+  });
+
+  it('1 MB of commas is a 400 naming the column limit, with a short answer', async () => {
+    const res = await preview(`${','.repeat(1000)}\n`.repeat(1000));
+    expect(res.status).toBe(400);
+    const text = await res.text();
+    expect(text.length).toBeLessThan(2000);
+    expect(JSON.parse(text)).toMatchObject({ error: { message: expect.stringContaining('64 columns') }, issues: [{ path: 'line 1' }] });
+  });
+
+  it('a valid 10 MB log previews with an answer under 1 MB and saves nothing', async () => {
+    const start = Date.parse('2027-05-01T00:00:00Z');
+    const lines = ['Time,Voltage (V),Current (A),SOC (%)'];
+    let size = 40;
+    for (let i = 0; size < 10 * 1024 * 1024 - 100_000; i++) {
+      const line = `${new Date(start + i * 60_000).toISOString()},${(13 + (i % 50) / 100).toFixed(2)},${(((i % 200) - 100) / 10).toFixed(1)},${(50 + (i % 400) / 10).toFixed(1)}`;
+      lines.push(line);
+      size += line.length + 1;
+    }
+    const res = await preview(`${lines.join('\n')}\n`);
+    const text = await res.text();
+    expect(res.status, text.slice(0, 300)).toBe(200);
+    expect(text.length).toBeLessThan(1024 * 1024);
+    const body = JSON.parse(text) as { count: number; rows: unknown[]; sample: unknown[]; errorCount: number };
+    expect(body.count).toBe(lines.length - 1);
+    expect(body.rows.length).toBeLessThanOrEqual(8);
+    expect(body.sample.length).toBeLessThanOrEqual(8);
+    expect(await logs()).toBe(0);
+  });
+
+  it('a file full of bad readings answers under 1 MB, every problem counted', async () => {
+    const bad = Array.from({ length: 20_000 }, (_, i) => `2027-05-01T${String(i % 24).padStart(2, '0')}:00:00Z,${'9'.repeat(40)},x${'y'.repeat(30)}`);
+    const res = await preview(`Time,Voltage (V),Current (A)\n${bad.join('\n')}\n`);
+    const text = await res.text();
+    expect(res.status).toBeLessThan(500);
+    expect(text.length).toBeLessThan(1024 * 1024);
+  });
+});
+
+describe('upgrade sweeps run in the worker pool, two at a time per installer', () => {
+  it('a third sweep while two run is 429 with Retry-After; more than 1,000 options is a 400', async () => {
+    const owner = await signUp();
+    const rig = await makeRig(owner);
+    const trip = await makeTrip(owner, rig.id);
+    const forecast = (await (await api(`/api/trips/${trip.id}/forecasts`, { method: 'POST', session: owner, json: {} })).json()) as { id: string };
+    const installer = await signUp({ kind: 'installer' });
+    expect((await api(`/api/rigs/${rig.id}/grants`, { method: 'POST', session: owner, json: { email: installer.email } })).status).toBe(201);
+    const banks = [150, 200, 250, 300, 350, 400, 450, 500, 600, 700, 800, 1000].map((capacityAh) => ({ chemistry: 'lifepo4', capacityAh }));
+    const panels = [100, 150, 200, 250, 300, 350, 400, 500, 600, 800].map((watts) => ({ watts, mounting: 'flat' }));
+    const sweep = (dcdcAmps: number[]) => api(`/api/forecasts/${forecast.id}/sweep`, { method: 'POST', session: installer, json: { candidates: { banks, panels, dcdcAmps }, prices: TEST_PRICES } });
+    // 13 × 11 × 7 − 1 = 1,000 options each.
+    const answers = await Promise.all([0, 1, 2].map(() => sweep([20, 30, 40, 50, 60, 80])));
+    const statuses = answers.map((r) => r.status).sort();
+    expect(statuses).toEqual([200, 200, 429]);
+    const refused = answers.find((r) => r.status === 429)!;
+    expect(Number(refused.headers.get('retry-after'))).toBeGreaterThan(0);
+    const done = (await answers.find((r) => r.status === 200)!.json()) as { options: unknown[]; forecastId: string };
+    expect(done.options).toHaveLength(1000);
+    expect(done.forecastId).toBe(forecast.id);
+    // Once they are done, the next one runs.
+    expect((await sweep([20])).status).toBe(200);
+    const tooMany = await api(`/api/forecasts/${forecast.id}/sweep`, { method: 'POST', session: installer, json: { candidates: { banks, panels, dcdcAmps: [20, 30, 40, 50, 60, 80], generatorHours: [2] }, prices: TEST_PRICES } });
+    expect(tooMany.status).toBe(400);
+    expect(await tooMany.json()).toMatchObject({ issues: [{ path: 'candidates', message: expect.stringContaining('at most 1000') }] });
   });
 });

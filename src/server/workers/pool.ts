@@ -45,12 +45,12 @@ async function run<T>(name: string, task: unknown): Promise<T> {
   return (await p.run(task, { name })) as T;
 }
 
-/** An upgrade sweep, off the request thread. */
+/** An upgrade sweep, off the request thread: the answer's JSON text. */
 export function sweepInPool(task: SweepTask): Promise<ReturnType<typeof sweep>> {
   return run('sweep', task);
 }
 
-/** Reads an uploaded monitor log off the request thread (the bytes are copied: a save still stores them). */
+/** Reads an uploaded monitor log (its multipart form and the CSV in it) off the request thread. */
 export function monitorLogInPool(task: MonitorLogTask): Promise<MonitorLogOutcome> {
   return run('monitorLog', task);
 }

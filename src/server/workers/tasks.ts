@@ -11,21 +11,26 @@ import { downsample, type SeriesPoint } from '../../domain/monitor/series';
 import { readMonitorLog, type MonitorLogTask, type MonitorLogOutcome } from './monitor-task';
 
 export interface SweepTask {
+  forecastId: string;
   plan: ResolvedPlan;
   reserveSocPct: number | null;
   candidates: Candidates;
   prices: PriceList;
 }
 
-/** Every combination of the candidates rerun with the engine; `ms` is how long the runs took. */
-export function sweep(task: SweepTask): SweepResult & { ms: number } {
+/**
+ * Every combination of the candidates rerun with the engine, as the JSON the route answers (a
+ * string crosses threads as one copy; the request thread neither rebuilds nor serialises the
+ * options); `ms` is how long the runs took.
+ */
+export function sweep(task: SweepTask): string {
   const started = performance.now();
-  const result = runSweep(task);
-  return { ...result, ms: Math.round((performance.now() - started) * 10) / 10 };
+  const result: SweepResult = runSweep(task);
+  return JSON.stringify({ ...result, forecastId: task.forecastId, ms: Math.round((performance.now() - started) * 10) / 10 });
 }
 
-/** Decodes, detects and parses an uploaded monitor log within the caps. */
-export function monitorLog(task: MonitorLogTask): MonitorLogOutcome {
+/** Reads an uploaded monitor log's form, then decodes, detects and parses it within the caps. */
+export function monitorLog(task: MonitorLogTask): Promise<MonitorLogOutcome> {
   return readMonitorLog(task);
 }
 

@@ -1,6 +1,6 @@
 import { sweepRequestSchema } from '../../../../domain/proposals/proposals.schema';
 import { db } from '../../../../server/db';
-import { json, parseWith, readJson, requireUser, route } from '../../../../server/http';
+import { parseWith, readJson, requireUser, route } from '../../../../server/http';
 import { forecastForInstaller, sweepForecast } from '../../../../server/proposals';
 import { limitSweeps } from '../../../../server/workers/per-user';
 
@@ -16,5 +16,6 @@ export const POST = route(async (ctx) => {
   const { forecast } = await forecastForInstaller(db, user, ctx.params.id!);
   const body = parseWith(sweepRequestSchema, await readJson(ctx.request, 64 * 1024));
   await limitSweeps(user.id);
-  return json(await sweepForecast(db, user.id, forecast, body));
+  // Already JSON: the worker serialised the options, so this thread does not.
+  return new Response(await sweepForecast(db, user.id, forecast, body), { status: 200, headers: { 'content-type': 'application/json; charset=utf-8', 'cache-control': 'no-store' } });
 });

@@ -1,0 +1,142 @@
+import { readFileSync } from 'node:fs';
+import { TEST_PRICES } from '../tests/helpers/prices';
+import type { RunningServer } from '../tests/helpers/server';
+
+/**
+ * The load test's heavy run (issue 15): while 10 maximal upgrade sweeps (1,000 options on a
+ * 60-day plan, five installers with two each) and 2 previews of a 10 MB monitor log run, four
+ * clients call /api/health back to back. Reports health p50/p99/max, the server's peak RSS
+ * (worker threads included: they share the process) and what the heavy requests answered.
+ * Targets: health p99 ≤ 100 ms, RSS ≤ 400 MB.
+ */
+export interface HeavyResult {
+  healthCalls: number;
+  p50: number;
+  p99: number;
+  max: number;
+  peakRssMb: number;
+  startRssMb: number;
+  sweeps: Record<string, number>;
+  previews: Record<string, number>;
+  seconds: number;
+}
+
+const HEALTH_TARGET_MS = 100;
+const RSS_TARGET_MB = 400;
+
+function rssMb(pid: number): number {
+  const m = /VmRSS:\s+(\d+) kB/.exec(readFileSync(`/proc/${pid}/status`, 'utf8'));
+  return m ? Math.round(Number(m[1]) / 1024) : NaN;
+}
+
+/** A valid monitor log of about `bytes`: one reading a minute (time, volts, amps, SOC, temperature). */
+export function monitorLogCsv(bytes: number): string {
+  const lines = ['Time,Voltage (V),Current (A),SOC (%),Temperature (C)'];
+  let size = lines[0]!.length + 1;
+  const start = Date.parse('2027-05-01T00:00:00Z');
+  for (let i = 0; size < bytes; i++) {
+    const soc = 60 + 30 * Math.sin(i / 720);
+    const line = `${new Date(start + i * 60_000).toISOString()},${(12.8 + soc / 200).toFixed(3)},${(Math.sin(i / 360) * 8).toFixed(2)},${soc.toFixed(1)},${(18 + 6 * Math.sin(i / 1440)).toFixed(1)}`;
+    lines.push(line);
+    size += line.length + 1;
+  }
+  return `${lines.join('\n')}\n`;
+}
+
+export async function heavyRun(p: { url: string; server: RunningServer; ownerCookie: string; rigId: string }): Promise<HeavyResult> {
+  const { url } = p;
+  const JSON_HEADERS = { 'content-type': 'application/json', origin: url };
+  const must = async <T>(res: Response, status: number, what: string): Promise<T> => {
+    if (res.status !== status) throw new Error(`${what}: ${res.status} ${(await res.text()).slice(0, 300)}`);
+    return (await res.json()) as T;
+  };
+  const owner = { ...JSON_HEADERS, cookie: p.ownerCookie };
+
+  // A 60-day trip (59 nights at one stop) on the rig, and its saved forecast.
+  const trip = await must<{ id: string }>(
+    await fetch(`${url}/api/trips`, {
+      method: 'POST',
+      headers: owner,
+      body: JSON.stringify({ rigId: p.rigId, name: 'Long summer', stops: [{ name: 'High desert camp', lat: 38.6, lon: -109.6, timeZone: 'America/Denver', arrive: '2027-06-01', nights: 59 }] }),
+    }),
+    201,
+    'long trip',
+  );
+  const forecast = await must<{ id: string }>(await fetch(`${url}/api/trips/${trip.id}/forecasts`, { method: 'POST', headers: owner, body: '{}' }), 201, 'forecast');
+
+  // Five installers with a grant each; two sweeps each (the per-installer limit).
+  const installers: string[] = [];
+  for (let i = 0; i < 5; i++) {
+    const email = `heavy.installer.${i + 1}@sweep-load.test`;
+    const up = await fetch(`${url}/api/auth/sign-up/email`, { method: 'POST', headers: JSON_HEADERS, body: JSON.stringify({ name: `Sweep installer ${i + 1}`, email, password: 'sweep-installer-password', kind: 'installer' }) });
+    await must(up, 200, 'installer sign-up');
+    installers.push(up.headers.getSetCookie().map((c) => c.split(';')[0]).join('; '));
+    await must(await fetch(`${url}/api/rigs/${p.rigId}/grants`, { method: 'POST', headers: owner, body: JSON.stringify({ email }) }), 201, 'grant');
+  }
+  // 13 × 11 × 7 − 1 = 1,000 options: the most a sweep may try.
+  const candidates = {
+    banks: [150, 200, 250, 300, 350, 400, 450, 500, 600, 700, 800, 1000].map((capacityAh) => ({ chemistry: 'lifepo4', capacityAh })),
+    panels: [100, 150, 200, 250, 300, 350, 400, 500, 600, 800].map((watts) => ({ watts, mounting: 'flat' })),
+    dcdcAmps: [20, 30, 40, 50, 60, 80],
+  };
+  const sweepBody = JSON.stringify({ candidates, prices: TEST_PRICES });
+
+  const csv = monitorLogCsv(10 * 1024 * 1024 - 64 * 1024);
+  const upload = () => {
+    const form = new FormData();
+    form.set('file', new Blob([csv], { type: 'text/csv' }), 'long-log.csv');
+    form.set('timeZone', 'America/Denver');
+    return fetch(`${url}/api/rigs/${p.rigId}/monitor-logs?preview=1`, { method: 'POST', headers: { origin: url, cookie: p.ownerCookie }, body: form });
+  };
+
+  const pid = p.server.child.pid!;
+  const startRssMb = rssMb(pid);
+  let peakRssMb = startRssMb;
+  const sampler = setInterval(() => (peakRssMb = Math.max(peakRssMb, rssMb(pid))), 50);
+
+  const tally = (into: Record<string, number>) => async (res: Response) => {
+    into[res.status] = (into[res.status] ?? 0) + 1;
+    await res.arrayBuffer();
+  };
+  const sweeps: Record<string, number> = {};
+  const previews: Record<string, number> = {};
+  const started = performance.now();
+  let done = false;
+  const heavy = Promise.all([
+    ...installers.flatMap((cookie) =>
+      [0, 1].map(() => fetch(`${url}/api/forecasts/${forecast.id}/sweep`, { method: 'POST', headers: { ...JSON_HEADERS, cookie }, body: sweepBody }).then(tally(sweeps))),
+    ),
+    upload().then(tally(previews)),
+    upload().then(tally(previews)),
+  ]).finally(() => (done = true));
+
+  const latencies: number[] = [];
+  const poll = async () => {
+    while (!done) {
+      const t0 = performance.now();
+      const res = await fetch(`${url}/api/health`);
+      await res.arrayBuffer();
+      latencies.push(performance.now() - t0);
+    }
+  };
+  await Promise.all([poll(), poll(), poll(), poll(), heavy]);
+  clearInterval(sampler);
+  const seconds = (performance.now() - started) / 1000;
+  const sorted = latencies.sort((a, b) => a - b);
+  const at = (q: number) => Math.round(sorted[Math.min(sorted.length - 1, Math.floor(q * sorted.length))]! * 10) / 10;
+  return { healthCalls: sorted.length, p50: at(0.5), p99: at(0.99), max: Math.round(sorted.at(-1)! * 10) / 10, peakRssMb, startRssMb, sweeps, previews, seconds: Math.round(seconds * 10) / 10 };
+}
+
+/** The run's lines for the report, and whether it met its targets. */
+export function describeHeavy(r: HeavyResult): { lines: string[]; ok: boolean } {
+  const ok = r.p99 <= HEALTH_TARGET_MS && r.peakRssMb <= RSS_TARGET_MB && Object.keys(r.sweeps).every((c) => c === '200') && Object.keys(r.previews).every((c) => c === '200');
+  return {
+    ok,
+    lines: [
+      `\nHeavy run: 10 sweeps of 1,000 options on a 60-day plan and 2 previews of a 10 MB monitor log, ${r.seconds} s.`,
+      `  /api/health (4 clients back to back, ${r.healthCalls} calls): p50 ${r.p50} ms, p99 ${r.p99} ms (target ≤ ${HEALTH_TARGET_MS}), max ${r.max} ms`,
+      `  server RSS: ${r.startRssMb} MB at the start, peak ${r.peakRssMb} MB (target ≤ ${RSS_TARGET_MB})`,
+      `  sweeps answered ${JSON.stringify(r.sweeps)}, previews ${JSON.stringify(r.previews)}`,
+    ],
+  };
+}
