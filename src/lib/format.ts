@@ -27,6 +27,11 @@ export function whPerDay(x: number): string {
   return `${formatWh(x)}/day`;
 }
 
+/** Litres of fuel, to a tenth: "1.2 L". */
+export function formatLitres(l: number): string {
+  return `${formatNumber(l, 1)} L`;
+}
+
 /** A percentage for sentences: whole numbers, "41 %". */
 export function pct(x: number): string {
   return `${Math.round(x)} %`;

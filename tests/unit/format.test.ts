@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { addDaysIso, formatAh, formatDate, formatHour, formatNumber, formatWatts, formatWh, plural, rigSummary } from '../../src/lib/format';
+import { addDaysIso, formatAh, formatBytes, formatDate, formatHour, formatLitres, formatMoney, formatNumber, formatWatts, formatWh, pct, plural, rigSummary, whPerDay } from '../../src/lib/format';
 
 describe('display formatting', () => {
   it('formats energy and power with units', () => {
@@ -33,5 +33,15 @@ describe('display formatting', () => {
     expect(plural(1, 'night')).toBe('1 night');
     expect(plural(5, 'night')).toBe('5 nights');
     expect(plural(2, 'battery', 'batteries')).toBe('2 batteries');
+  });
+
+  it('formats the figures the forecast, advice, proposals and logs show (one module for all)', () => {
+    expect(whPerDay(1234.4)).toBe('1,234 Wh/day');
+    expect(pct(40.6)).toBe('41 %');
+    expect(formatLitres(1.25)).toBe('1.3 L');
+    expect(formatLitres(12)).toBe('12 L');
+    expect(formatMoney(1234.5, 'USD')).toBe('$1,234.50');
+    expect(formatBytes(340 * 1024)).toBe('340 KB');
+    expect(formatBytes(1.25 * 1024 * 1024)).toBe('1.3 MB');
   });
 });

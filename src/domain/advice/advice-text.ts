@@ -43,11 +43,6 @@ export function effectText(e: Effect): string {
   }
 }
 
-/** Fuel, to a tenth of a litre: "1.2 L". */
-export function litres(x: number): string {
-  return `${(Math.round(x * 10) / 10).toLocaleString('en-US')} L`;
-}
-
 /** "a, b and c". */
 export function joinAnd(items: string[]): string {
   if (items.length <= 1) return items.join('');

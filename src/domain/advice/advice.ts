@@ -16,9 +16,9 @@ import {
   type ResolvedCharger,
   type ResolvedPlan,
 } from '../../engine';
-import { formatClock, formatDay, formatRowTime, localParts, pct } from '../../lib/format';
+import { formatClock, formatDay, formatLitres, formatRowTime, localParts, pct } from '../../lib/format';
 import { reserveOf } from '../forecasts/verdict';
-import { effectText, joinAnd, litres, notEnough, warningsOf, type Effect } from './advice-text';
+import { effectText, joinAnd, notEnough, warningsOf, type Effect } from './advice-text';
 import { CAUTIONS } from './cautions';
 
 
@@ -251,7 +251,7 @@ function generatorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: num
     return {
       kind: 'generator',
       title,
-      effect: `${e.text} About ${litres(current.summary.generatorLitres)} of fuel${ran < total ? ` (it runs ${ran} h: the bank is full sooner)` : ''}.${current.summary.minSocPct < target + 5 ? ' That leaves little margin: an extra hour gives room for error.' : ''}`,
+      effect: `${e.text} About ${formatLitres(current.summary.generatorLitres)} of fuel${ran < total ? ` (it runs ${ran} h: the bank is full sooner)` : ''}.${current.summary.minSocPct < target + 5 ? ' That leaves little margin: an extra hour gives room for error.' : ''}`,
       detail: `${runs.length > 3 ? `${list.join('; ')}. ` : ''}Through ${source}; worked out by running the forecast again with the generator on for those hours${runs.length > 1 ? ' (one morning is not enough)' : ''}.${belowReserve ? ` No generator hours keep the bank above your ${pct(reservePct)} reserve: it falls below it where no generator may run.` : ''}`,
       caution: CAUTIONS.generator,
       fixes: !belowReserve,
@@ -271,7 +271,7 @@ function generatorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: num
       return {
         kind: 'generator',
         title: `Run a generator ${h} h a day from ${formatClock(prepared.grid.time[days[days.length - 1][0]])}`,
-        effect: `${e.text} It would run about ${alt.summary.generatorHours} h in all (${litres(alt.summary.generatorLitres)} of fuel).`,
+        effect: `${e.text} It would run about ${alt.summary.generatorHours} h in all (${formatLitres(alt.summary.generatorLitres)} of fuel).`,
         detail: `Through ${source}; worked out by running the forecast again with the generator on for those hours.${under ? ` No generator hours keep the bank above your ${pct(reservePct)} reserve.` : ''}`,
         caution: CAUTIONS.generator,
         fixes: !under,
@@ -366,7 +366,7 @@ function ownGeneratorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: 
     return {
       kind: 'generator',
       title: `Start the generator below ${start} % instead of ${Math.round(own.startSocPct)} %`,
-      effect: `${e.text} It would run about ${alt.summary.generatorHours} h in all (${litres(alt.summary.generatorLitres)} of fuel)${first ? `, first on ${formatRowTime(first.time)}` : ''}.`,
+      effect: `${e.text} It would run about ${alt.summary.generatorHours} h in all (${formatLitres(alt.summary.generatorLitres)} of fuel)${first ? `, first on ${formatRowTime(first.time)}` : ''}.`,
       detail: `Same generator hours at each stop; it stops at ${stop} %. Worked out by running the forecast again.`,
       caution: CAUTIONS.generator,
       fixes: true,

@@ -2,7 +2,7 @@ import { useMemo } from 'react';
 import { Bar, BarChart, CartesianGrid, Tooltip, XAxis, YAxis } from 'recharts';
 import type { Forecast } from '../../engine';
 import { COLORS, daysSummaryText } from './chart-data';
-import { formatDay } from '../../lib/format';
+import { formatDay, formatWh } from '../../lib/format';
 import { useWidth } from './useWidth';
 
 const SERIES = [
@@ -33,7 +33,7 @@ export default function DailyEnergyChart({ forecast, height = 240 }: { forecast:
             <XAxis dataKey="label" tick={{ fontSize: 12, fill: COLORS.axis }} stroke={COLORS.axis} interval={data.length > 10 && width < 520 ? 'preserveStartEnd' : 0} />
             <YAxis tickFormatter={kwhTick} width={62} tick={{ fontSize: 12, fill: COLORS.axis }} stroke={COLORS.axis} />
             <Tooltip
-              formatter={(v, name) => [`${Number(v).toLocaleString('en-US')} Wh`, String(name)]}
+              formatter={(v, name) => [formatWh(Number(v)), String(name)]}
               labelFormatter={(_, p) => (p?.[0]?.payload ? formatDay((p[0].payload as { date: string }).date) : '')}
               contentStyle={{ borderRadius: 12, borderColor: COLORS.grid, fontSize: 13 }}
               cursor={{ fill: 'rgba(47,62,85,0.06)' }}

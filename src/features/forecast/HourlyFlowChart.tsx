@@ -2,7 +2,7 @@ import { useId, useMemo, useState } from 'react';
 import { Area, CartesianGrid, ComposedChart, Line, Tooltip, XAxis, YAxis } from 'recharts';
 import type { Forecast } from '../../engine';
 import { COLORS, defaultDay, rowsOfDay } from './chart-data';
-import { formatClock, formatDay } from '../../lib/format';
+import { formatClock, formatDay, formatWh } from '../../lib/format';
 import { useWidth } from './useWidth';
 
 /** Watts hour by hour on one chosen day — loads, solar and other charging — with the state of charge. */
@@ -35,7 +35,7 @@ export default function HourlyFlowChart({ forecast, height = 240 }: { forecast: 
   const summary =
     !first || !last
       ? 'No hours on this day.'
-      : `${formatDay(day)}, ${first.clock} to ${last.clock}: loads ${loadWh.toLocaleString('en-US')} Wh (peak ${peak.load} W at ${peak.clock}), solar ${solarWh.toLocaleString('en-US')} Wh; state of charge from ${first.soc} % to ${last.soc} %.${unmetWh > 0 ? ` Unmet: ${unmetWh.toLocaleString('en-US')} Wh while the bank is disconnected.` : ''}`;
+      : `${formatDay(day)}, ${first.clock} to ${last.clock}: loads ${formatWh(loadWh)} (peak ${peak.load} W at ${peak.clock}), solar ${formatWh(solarWh)}; state of charge from ${first.soc} % to ${last.soc} %.${unmetWh > 0 ? ` Unmet: ${formatWh(unmetWh)} while the bank is disconnected.` : ''}`;
 
   return (
     <figure className="m-0" data-testid="hourly-flow-chart">

@@ -1,5 +1,5 @@
 import type { Forecast } from '../../engine';
-import { formatRowTime, formatWh, pct } from '../../lib/format';
+import { formatLitres, formatRowTime, formatWh, pct } from '../../lib/format';
 
 
 function hoursShort(f: Forecast): number {
@@ -20,7 +20,7 @@ export default function SummaryCards({ forecast }: { forecast: Forecast }) {
     {
       label: 'Generator',
       value: `${s.generatorHours} h`,
-      sub: s.generatorHours > 0 ? `About ${s.generatorLitres.toLocaleString('en-US', { maximumFractionDigits: 1 })} L of fuel` : 'Not run',
+      sub: s.generatorHours > 0 ? `About ${formatLitres(s.generatorLitres)} of fuel` : 'Not run',
     },
     { label: 'At the end', value: pct(s.endSocPct), sub: s.chargeWh > 0 ? `After ${formatWh(s.chargeWh)} from other charging` : 'State of charge when the trip ends' },
   ];
