@@ -238,32 +238,31 @@ export function runSweep(input: { plan: ResolvedPlan; reserveSocPct: number | nu
   const panels: (PanelCandidate | null)[] = [null, ...cand.panels];
   const dcdcs: (number | null)[] = [null, ...cand.dcdcAmps];
   const gens: (number | null)[] = [null, ...cand.generatorHours];
-  const bankOf = banks.map((b) => (b ? bankFrom(plan.bank, b) : plan.bank));
 
   const options: SweepOption[] = [];
-  for (let bi = 0; bi < banks.length; bi++) {
-    for (let pi = 0; pi < panels.length; pi++) {
-      const panel = panels[pi];
+  for (const [bi, bank] of banks.entries()) {
+    const bankPlan = bank ? bankFrom(plan.bank, bank) : plan.bank;
+    for (const [pi, panel] of panels.entries()) {
       const prepared = panel ? byGeometry.get(geometryKey(plan, panel))! : base;
-      for (let di = 0; di < dcdcs.length; di++) {
-        for (let gi = 0; gi < gens.length; gi++) {
+      for (const [di, dcdcAmps] of dcdcs.entries()) {
+        for (const [gi, generatorHours] of gens.entries()) {
           if (bi === 0 && pi === 0 && di === 0 && gi === 0) continue;
           const changes: Changes = {
-            bank: banks[bi],
+            bank,
             panel,
-            dcdcAmps: dcdcs[di],
-            generatorHours: gens[gi],
+            dcdcAmps,
+            generatorHours,
             generatorStartHour: cand.generatorStartHour,
             generatorAmps: cand.generatorAmps,
           };
           const variant: Variant = {};
-          if (changes.bank) variant.bank = bankOf[bi];
+          if (changes.bank) variant.bank = bankPlan;
           if (panel) variant.arrayWatts = [...existingWatts, panel.watts];
           const chargers = chargersFrom(plan, changes);
           if (chargers) variant.chargers = chargers;
           if (changes.generatorHours !== null) variant.generatorHours = [cand.generatorStartHour, cand.generatorStartHour + changes.generatorHours];
           const s = simulatePrepared(prepared, variant).summary;
-          const outcome = outcomeOf(prepared, s, bankOf[bi], reserveSocPct);
+          const outcome = outcomeOf(prepared, s, bankPlan, reserveSocPct);
           const items = [...oneOffItems(plan, changes, prices), ...runningItems(s.generatorHours, prices)];
           const oneOff = items.filter((i) => i.kind === 'one-off').reduce((t, i) => t + i.amount, 0);
           const running = items.filter((i) => i.kind === 'running').reduce((t, i) => t + i.amount, 0);

@@ -1,7 +1,7 @@
 // The trip planner's form model: the shared trip schema, plus the itinerary rules the form can
 // check before the server does (stops in order, drives inside the trip, high above low), and
 // the small date helpers the planner needs. Pure and unit-tested.
-import { z } from 'zod';
+import type { z } from 'zod';
 import { tripInputSchema, type TripDto } from './trips.schema';
 import { addDaysIso, formatDate } from '../../lib/format';
 
@@ -18,8 +18,8 @@ export const tripFormSchema = tripInputSchema.superRefine((trip, ctx) => {
     (s.weather ?? []).forEach((w, j) => {
       if (typeof w.highC === 'number' && typeof w.lowC === 'number' && w.highC < w.lowC) add(['stops', i, 'weather', j, 'lowC'], 'must not be above the high');
     });
-    if (i === 0) return;
     const prev = stops[i - 1];
+    if (!prev) return;
     if (!isDate(s.arrive) || !isDate(prev.arrive) || !Number.isInteger(prev.nights)) return;
     const leaves = dayNo(prev.arrive) + prev.nights;
     if (dayNo(s.arrive) <= dayNo(prev.arrive)) add(['stops', i, 'arrive'], 'must be after the stop before: stops go in the order you travel.');
@@ -40,9 +40,9 @@ type StopValues = TripFormValues['stops'][number];
 
 /** First arrival to the last departure day, when the stops' dates are readable. */
 export function tripSpan(stops: readonly { arrive?: unknown; nights?: unknown }[]): { from: string; to: string; nights: number } | null {
-  if (!stops.length) return null;
   const first = stops[0];
-  const last = stops[stops.length - 1];
+  const last = stops.at(-1);
+  if (!first || !last) return null;
   if (!isDate(first.arrive) || !isDate(last.arrive) || typeof last.nights !== 'number' || !Number.isInteger(last.nights)) return null;
   const to = addDaysIso(last.arrive, last.nights);
   return { from: first.arrive, to, nights: dayNo(to) - dayNo(first.arrive) };
