@@ -35,10 +35,10 @@ const trailerLoads = [
 export async function seedDemoRigs(db: Kysely<DB>, ids: { crewId: string; ownerId: string; memberId: string }): Promise<void> {
   const existing = await db.selectFrom('rigs').select('id').where('crew_id', '=', ids.crewId).executeTakeFirst();
   if (existing) return;
-  const plan = demoPlan() as Record<string, any>;
+  const plan = demoPlan();
 
   const van = await createRig(db, ids.ownerId, ids.crewId, rigInputSchema.parse({ name: 'Camper van (6.1 m)', bank: plan.bank, arrays: plan.arrays, chargers: plan.chargers, inverter: plan.inverter }));
-  for (const load of plan.loads) {
+  for (const load of plan.loads ?? []) {
     const standby = load.name === 'Parasitic draw';
     await createLoad(db, van.id, load.name === 'CPAP' || load.name === 'Laptop' ? ids.memberId : ids.ownerId, loadInputSchema.parse({ ...load, standby }));
   }

@@ -1,6 +1,6 @@
 // The rig editor's form model: the shared rig schema plus the rules a form can check before the
 // server does, and conversions between a saved rig and the form's values.
-import { z } from 'zod';
+import type { z } from 'zod';
 import { rigInputSchema, type RigDto } from './rigs.schema';
 import type { Chemistry } from '../../engine/light';
 import { presetBank } from './presets';
