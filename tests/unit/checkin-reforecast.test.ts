@@ -4,6 +4,7 @@ import { checkInInputSchema } from '../../src/domain/checkins/checkins.schema';
 import { computeCheckIn, reforecastReading } from '../../src/domain/checkins/checkins';
 import { socFromRestingVolts } from '../../src/domain/checkins/ocv';
 import { demoPlan, forecast, validatePlan, type ResolvedPlan } from '../../src/engine';
+import { at as entry } from '../../src/lib/invariant';
 
 // The rest of a trip from a check-in, run by the engine: the demo trip (Juniper Mesa, 3 nights,
 // America/Denver; a drive day; Cinder Flat, 2 nights, America/Phoenix).
@@ -13,6 +14,9 @@ if (!v.ok) throw new Error('demo plan');
 const plan: ResolvedPlan = v.plan;
 const full = forecast(plan);
 const at = (iso: string) => Date.parse(iso);
+const hourOf = (i: number) => entry(full.hourly, i, 'forecast hour');
+/** The forecast's state of charge at the start of hour `k`. */
+const socBefore = (k: number) => (k === 0 ? full.summary.startSocPct : hourOf(k - 1).socPct);
 
 function run(iso: string, soc: number) {
   const r = reforecastFrom(plan, at(iso), soc);
@@ -22,7 +26,7 @@ function run(iso: string, soc: number) {
 
 describe('re-forecast from a check-in', () => {
   it('from the trip’s first hour with its starting SOC, it is the forecast itself', () => {
-    const r = run(full.hourly[0].time, plan.bank.initialSocPct);
+    const r = run(hourOf(0).time, plan.bank.initialSocPct);
     expect(r.hourly).toEqual(full.hourly);
     expect(r.summary).toEqual(full.summary);
   });
@@ -33,25 +37,26 @@ describe('re-forecast from a check-in', () => {
   it.each(['2027-10-22T19:20-06:00', '2027-10-24T08:10-06:00', '2027-10-25T03:00-07:00', '2027-10-26T07:45-07:00'])('continues the forecast when the reading agrees with it (%s)', (iso) => {
     const t = at(iso);
     const k = full.hourly.findIndex((r) => Date.parse(r.time) <= t && t < Date.parse(r.time) + 3_600_000);
-    const socAtStart = k === 0 ? full.summary.startSocPct : full.hourly[k - 1].socPct;
+    const socAtStart = socBefore(k);
     const r = run(iso, socAtStart);
-    expect(r.hourly[0].time).toBe(full.hourly[k].time);
+    expect(r.hourly[0]?.time).toBe(hourOf(k).time);
     expect(r.hourly.length).toBe(full.hourly.length - k);
     expect(r.hourly.at(-1)!.time).toBe(full.hourly.at(-1)!.time);
     r.hourly.forEach((row, i) => {
-      expect(row.time).toBe(full.hourly[k + i].time);
-      expect(Math.abs(row.socPct - full.hourly[k + i].socPct)).toBeLessThanOrEqual(0.3);
-      expect(row.driving).toBe(full.hourly[k + i].driving);
-      expect(r.stops[row.stop].name).toBe(full.stops[full.hourly[k + i].stop].name);
+      const want = hourOf(k + i);
+      expect(row.time).toBe(want.time);
+      expect(Math.abs(row.socPct - want.socPct)).toBeLessThanOrEqual(0.3);
+      expect(row.driving).toBe(want.driving);
+      expect(r.stops[row.stop]?.name).toBe(full.stops[want.stop]?.name);
     });
   });
 
   it('continues the forecast from every hour of the trip', () => {
     full.hourly.forEach((row, k) => {
-      const soc = k === 0 ? full.summary.startSocPct : full.hourly[k - 1].socPct;
+      const soc = socBefore(k);
       const r = run(row.time, soc);
       expect(r.hourly.length, row.time).toBe(full.hourly.length - k);
-      const worst = Math.max(...r.hourly.map((x, i) => Math.abs(x.socPct - full.hourly[k + i].socPct)));
+      const worst = Math.max(...r.hourly.map((x, i) => Math.abs(x.socPct - hourOf(k + i).socPct)));
       expect(worst, row.time).toBeLessThanOrEqual(0.3);
       expect(r.hourly.map((x) => x.loadWatts), row.time).toEqual(full.hourly.slice(k).map((x) => x.loadWatts));
     });
@@ -63,8 +68,8 @@ describe('re-forecast from a check-in', () => {
     expect(times[0]).toBeNull();
     const found = times.filter((x): x is string => x !== null).map(Date.parse);
     expect(found.length).toBeGreaterThanOrEqual(2);
-    for (let i = 1; i < found.length; i++) expect(found[i]).toBeLessThanOrEqual(found[i - 1]);
-    expect(found[0]).toBeGreaterThan(found[found.length - 1]);
+    for (let i = 1; i < found.length; i++) expect(entry(found, i)).toBeLessThanOrEqual(entry(found, i - 1));
+    expect(entry(found, 0)).toBeGreaterThan(entry(found, found.length - 1));
   });
 
   it('a reading at or below the floor cuts off at once', () => {

@@ -71,7 +71,8 @@ export function TripEditor({ trip, units, initialRigId, initialRigs, onClose }: 
 
   // A new trip with one rig in the crew picks that rig.
   useEffect(() => {
-    if (!trip && !rigId && rigs.data?.length === 1) setValue('rigId', rigs.data[0].id);
+    const onlyRig = rigs.data?.length === 1 ? rigs.data[0] : undefined;
+    if (!trip && !rigId && onlyRig) setValue('rigId', onlyRig.id);
   }, [rigs.data, rigId, trip, setValue]);
 
   const { formError, savedAt, conflict, keepMine, takeTheirs, save, remove, onSubmit } = useVersionedEditor<TripDto, TripFormValues, TripFormOutput>({
