@@ -82,6 +82,8 @@ export function PlaceSearch({ id, label, onPick }: { id: string; label: string; 
             <li className="px-3 py-2 text-slate-text" role="presentation">No town starts with “{q}”. Try a nearby town, or type the coordinates.</li>
           ) : null}
           {results.map((p, i) => (
+            // The combobox's input takes the keys for its options (arrows, Enter, Escape; aria-activedescendant).
+            // eslint-disable-next-line jsx-a11y/click-events-have-key-events
             <li
               key={`${p.name}-${p.lat}-${p.lon}`}
               id={`${listId}-${i}`}
