@@ -175,9 +175,21 @@ export function detectSign(samples: Sample[], timeZone: string): { sign: SignCon
   return { sign: 'charge-positive', reason: 'We could not tell which sign the current uses; we assumed positive is charging. Check it.' };
 }
 
+/** The text up to its `n`th line break (all of it when it has fewer lines). */
+export function headOf(text: string, n: number): string {
+  let cut = -1;
+  for (let k = 0; k < n; k++) {
+    cut = text.indexOf('\n', cut + 1);
+    if (cut < 0) return text;
+  }
+  return text.slice(0, cut);
+}
+
 /** Proposes a mapping for a log: delimiter, header, columns, units, time format and current sign. */
 export function detectLog(text: string, timeZone: string): Detection {
-  const all = text.split('\n');
+  // The first 20 000 lines are plenty to detect the layout and tell the sign; the rest of a large file is never split here.
+  const head = headOf(text, 20_000);
+  const all = head.split('\n');
   const sample: Line[] = [];
   for (const [i, text] of all.entries()) {
     if (sample.length >= SAMPLE_LINES) break;
@@ -276,8 +288,6 @@ export function detectLog(text: string, timeZone: string): Detection {
 
   // The current's sign, from the readings themselves.
   if (mapping.current && mapping.time) {
-    // The first 20 000 lines are plenty to tell the sign, and keep a large file's preview quick.
-    const head = all.length > 20_000 ? all.slice(0, 20_000).join('\n') : text;
     const parsed = parseLog(head, { ...mapping, time: mapping.time }, null);
     const s = detectSign(parsed.samples, timeZone);
     mapping.current.sign = s.sign;

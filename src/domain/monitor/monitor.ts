@@ -1,4 +1,4 @@
-import { detectLog, type DetectedMapping } from './detect';
+import { detectLog, headOf, type DetectedMapping } from './detect';
 import type { ColumnMapping } from './monitor.schema';
 import { splitLine } from './text';
 import { parseLog, type BankLimits, type LogLineError, type ParseResult } from './parse';
@@ -77,7 +77,7 @@ export function previewLog(text: string, opts: { timeZone: string; mapping: Colu
 /** The first data rows as written, split with the mapping's delimiter. */
 function firstRows(text: string, mapping: DetectedMapping, n = 8): string[][] {
   const out: string[][] = [];
-  const lines = text.split('\n');
+  const lines = headOf(text, mapping.headerLine + 1000).split('\n');
   for (const line of lines.slice(mapping.headerLine)) {
     if (out.length >= n) break;
     if (line.trim() !== '') out.push(splitLine(line, mapping.delimiter));

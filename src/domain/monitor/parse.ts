@@ -87,16 +87,19 @@ interface RawRecord {
   problems: string[];
 }
 
-/** Splits the text into records with papaparse, each with the file line it starts on. */
-export function readRecords(text: string, delimiter: string): RawRecord[] {
-  const out: RawRecord[] = [];
+/**
+ * Splits the text into records with papaparse and hands each, with the file line it starts on, to
+ * `onRecord` as it is read (nothing is kept: a 10 MB log is never held as a list of cells); return
+ * false to stop reading.
+ */
+export function eachRecord(text: string, delimiter: string, onRecord: (r: RawRecord) => boolean | void): void {
   let start = 0;
   let line = 1;
   Papa.parse<string[]>(text, {
     delimiter,
     newline: '\n',
     quoteChar: '"',
-    step: (res) => {
+    step: (res, parser) => {
       const end = res.meta.cursor;
       const problems = [
         ...new Set(
@@ -105,11 +108,18 @@ export function readRecords(text: string, delimiter: string): RawRecord[] {
           ),
         ),
       ];
-      out.push({ cells: res.data, line, problems });
+      const rec = { cells: res.data, line, problems };
       for (let i = start; i < end; i++) if (text.charCodeAt(i) === 10) line++;
       start = end;
+      if (onRecord(rec) === false) parser.abort();
     },
   });
+}
+
+/** Splits the text into records with papaparse, each with the file line it starts on. */
+export function readRecords(text: string, delimiter: string): RawRecord[] {
+  const out: RawRecord[] = [];
+  eachRecord(text, delimiter, (r) => void out.push(r));
   return out;
 }
 
@@ -125,7 +135,6 @@ export function columnNames(headerCells: string[] | null, count: number): string
  * every problem by line and column; a caller saves nothing while `errorCount` > 0.
  */
 export function parseLog(text: string, mapping: ColumnMapping, limits: BankLimits | null): ParseResult {
-  const records = readRecords(text, mapping.delimiter);
   const errors: LogLineError[] = [];
   let errorCount = 0;
   const warnings: string[] = [];
@@ -134,40 +143,25 @@ export function parseLog(text: string, mapping: ColumnMapping, limits: BankLimit
     if (errors.length < MAX_ERRORS) errors.push(e);
   };
 
-  const header = mapping.headerLine > 0 ? records.find((r) => r.line === mapping.headerLine) : undefined;
-  if (mapping.headerLine > 0 && !header) {
-    push({ line: mapping.headerLine, column: null, message: `the file has no line ${mapping.headerLine} to read the header from` });
-    return { samples: [], lines: [], errors, errorCount, warnings, headers: [] };
-  }
-  const data = records.filter((r) => r.line > mapping.headerLine && !blank(r));
-  // The width of the data lines (their most common cell count), or the header's when it is wider.
-  const freq = new Map<number, number>();
-  for (const r of data.slice(0, 200)) freq.set(r.cells.length, (freq.get(r.cells.length) ?? 0) + 1);
-  const modal = [...freq.entries()].sort((a, b) => b[1] - a[1] || b[0] - a[0])[0]?.[0] ?? 0;
-  const width = Math.max(header?.cells.length ?? 0, modal);
-  const headers = columnNames(header?.cells ?? null, width);
-  const name = (col: number) => headers[col] ?? `column ${col + 1}`;
-
-  const needed = [mapping.time.column, mapping.time.dateColumn, mapping.voltage?.column, mapping.current?.column, mapping.soc?.column, mapping.temperature?.column].filter(
-    (c): c is number => typeof c === 'number',
-  );
-  const [outside] = needed.filter((c) => c >= width);
-  if (outside !== undefined) {
-    push({ line: Math.max(1, mapping.headerLine), column: null, message: `the file has ${width} columns; column ${outside + 1} does not exist` });
-    return { samples: [], lines: [], errors, errorCount, warnings, headers };
-  }
-  if (data.length === 0) {
-    push({ line: Math.max(1, mapping.headerLine), column: null, message: mapping.headerLine > 0 ? 'The file has a header but no readings under it.' : 'The file has no readings.' });
-    return { samples: [], lines: [], errors, errorCount, warnings, headers };
-  }
-
   const ranges = plausibleRanges(limits);
   const resolve = localResolver(mapping.timeZone);
   const samples: Sample[] = [];
   const lines: number[] = [];
   let empty = 0;
 
-  for (const rec of data) {
+  // Line by line: the header and the first data lines (enough to know the width) are held until
+  // the width is known; every later line is read as it comes and let go.
+  const WIDTH_LINES = 200;
+  let header: RawRecord | undefined;
+  const prefix: RawRecord[] = [];
+  let firstDataLine: number | null = null;
+  let width = -1;
+  let headers: string[] = [];
+  let needed: number[] = [];
+  const halt: { result: ParseResult | null } = { result: null };
+  const name = (col: number) => headers[col] ?? `column ${col + 1}`;
+
+  const readLine = (rec: RawRecord) => {
     let bad = false;
     const fail = (column: string | null, message: string) => {
       bad = true;
@@ -176,14 +170,13 @@ export function parseLog(text: string, mapping: ColumnMapping, limits: BankLimit
     for (const p of rec.problems) fail(null, p);
     if (rec.cells.length < width && needed.some((c) => c >= rec.cells.length)) {
       fail(null, `has ${rec.cells.length} cells but the header names ${width} columns — is the line cut short?`);
-      continue;
+      return;
     }
     if (rec.cells.length > width && rec.cells.slice(width).some((c) => c.trim() !== '')) {
       fail(null, `has ${rec.cells.length} cells but the header names ${width} columns — is a delimiter inside an unquoted cell?`);
-      continue;
+      return;
     }
     const cell = (c: number) => rec.cells[c] ?? '';
-
     // Time
     const timeText = mapping.time.dateColumn !== null ? `${cell(mapping.time.dateColumn).trim()} ${cell(mapping.time.column).trim()}` : cell(mapping.time.column);
     const time = parseTimeCell(timeText, mapping.time.format, resolve);
@@ -252,17 +245,60 @@ export function parseLog(text: string, mapping: ColumnMapping, limits: BankLimit
       }
     }
 
-    if (bad || !time.ok) continue;
+    if (bad || !time.ok) return;
     if (volts === null && amps === null && socPct === null && tempC === null) {
       empty++;
-      continue;
+      return;
     }
     samples.push({ t: time.ms, volts, amps, socPct, tempC });
     lines.push(rec.line);
-  }
+  };
+
+  /** Once the first data lines are in: the width, the column names and the checks that stop the read. */
+  const settle = (): boolean => {
+    if (mapping.headerLine > 0 && !header) {
+      push({ line: mapping.headerLine, column: null, message: `the file has no line ${mapping.headerLine} to read the header from` });
+      halt.result = { samples: [], lines: [], errors, errorCount, warnings, headers: [] };
+      return false;
+    }
+    // The width of the data lines (their most common cell count), or the header's when it is wider.
+    const freq = new Map<number, number>();
+    for (const r of prefix) freq.set(r.cells.length, (freq.get(r.cells.length) ?? 0) + 1);
+    const modal = [...freq.entries()].sort((a, b) => b[1] - a[1] || b[0] - a[0])[0]?.[0] ?? 0;
+    width = Math.max(header?.cells.length ?? 0, modal);
+    headers = columnNames(header?.cells ?? null, width);
+    needed = [mapping.time.column, mapping.time.dateColumn, mapping.voltage?.column, mapping.current?.column, mapping.soc?.column, mapping.temperature?.column].filter(
+      (c): c is number => typeof c === 'number',
+    );
+    const [outside] = needed.filter((c) => c >= width);
+    if (outside !== undefined) {
+      push({ line: Math.max(1, mapping.headerLine), column: null, message: `the file has ${width} columns; column ${outside + 1} does not exist` });
+      halt.result = { samples: [], lines: [], errors, errorCount, warnings, headers };
+      return false;
+    }
+    if (prefix.length === 0) {
+      push({ line: Math.max(1, mapping.headerLine), column: null, message: mapping.headerLine > 0 ? 'The file has a header but no readings under it.' : 'The file has no readings.' });
+      halt.result = { samples: [], lines: [], errors, errorCount, warnings, headers };
+      return false;
+    }
+    for (const r of prefix) readLine(r);
+    prefix.length = 0;
+    return true;
+  };
+
+  eachRecord(text, mapping.delimiter, (rec) => {
+    if (mapping.headerLine > 0 && rec.line === mapping.headerLine) header = rec;
+    if (rec.line <= mapping.headerLine || blank(rec)) return;
+    firstDataLine ??= rec.line;
+    if (width >= 0) return readLine(rec);
+    prefix.push(rec);
+    if (prefix.length >= WIDTH_LINES) return settle();
+  });
+  if (width < 0 && !halt.result) settle();
+  if (halt.result) return halt.result;
 
   if (errorCount === 0 && samples.length === 0) {
-    push({ line: at(data, 0, 'data line').line, column: null, message: 'No line under the header has a reading in the chosen columns.' });
+    push({ line: firstDataLine ?? Math.max(1, mapping.headerLine), column: null, message: 'No line under the header has a reading in the chosen columns.' });
   }
   if (empty > 0) warnings.push(`${empty} line${empty === 1 ? ' has' : 's have'} a time but no reading in the chosen columns; ${empty === 1 ? 'it is' : 'they are'} left out.`);
 

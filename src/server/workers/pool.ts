@@ -12,8 +12,13 @@ import type { LogDetailTask, LogSeries, SweepTask, sweep } from './tasks';
 // The production build carries the tasks as one file of their own (<build>/server/workers/tasks.mjs,
 // bundled by astro.config.mjs); under `astro dev` and vitest the TypeScript source runs through tsx.
 
-/** Tasks waiting for a thread beyond this many are refused (503) instead of piling up in memory. */
+/** Tasks waiting for a thread beyond this many are refused (429) instead of piling up in memory. */
 const MAX_QUEUE = 32;
+/**
+ * A thread's heap: enough for the largest task (a 10 MB log's preview holds under 100 MB at its
+ * peak, read line by line), small enough that V8 collects early and the server stays within its memory budget.
+ */
+const WORKER_HEAP_MB = 128;
 
 function workerFile(): { filename: string; execArgv: string[] } {
   const here = path.dirname(fileURLToPath(import.meta.url));
@@ -34,7 +39,15 @@ export function workerPool(): Piscina {
   if (!pool) {
     const { filename, execArgv } = workerFile();
     const threads = Math.max(1, availableParallelism() - 1);
-    pool = new Piscina({ filename, execArgv, minThreads: 1, maxThreads: threads, maxQueue: MAX_QUEUE, idleTimeout: 60_000 });
+    pool = new Piscina({
+      filename,
+      execArgv,
+      minThreads: 1,
+      maxThreads: threads,
+      maxQueue: MAX_QUEUE,
+      idleTimeout: 60_000,
+      resourceLimits: { maxOldGenerationSizeMb: WORKER_HEAP_MB, maxYoungGenerationSizeMb: 16 },
+    });
   }
   return pool;
 }
@@ -42,7 +55,15 @@ export function workerPool(): Piscina {
 async function run<T>(name: string, task: unknown): Promise<T> {
   const p = workerPool();
   if (p.queueSize >= MAX_QUEUE) throw new HttpError('rate_limited', 'The server is busy with other long calculations. Try again in a minute.', [], {}, { 'Retry-After': '30' });
-  return (await p.run(task, { name })) as T;
+  try {
+    return (await p.run(task, { name })) as T;
+  } catch (err) {
+    // The thread ran out of its heap: the task was too big for one calculation (the pool starts a new thread).
+    if ((err as { code?: string }).code === 'ERR_WORKER_OUT_OF_MEMORY') {
+      throw new HttpError('payload_too_large', 'This is too large to calculate in one go: send a shorter log or fewer options.');
+    }
+    throw err;
+  }
 }
 
 /** An upgrade sweep, off the request thread: the answer's JSON text. */
