@@ -55,6 +55,21 @@ const zones = [
     message: 'Domain rules have no I/O: they import only the engine, src/lib and libraries.',
   },
   {
+    target: './src/lib',
+    from: ['./src/server', './src/features', './src/pages', './src/components', './src/domain', './src/middleware.ts', './db'],
+    message: 'src/lib sits under every layer (formatters, units, clients): it imports only the engine and libraries.',
+  },
+  {
+    target: './src/server',
+    from: ['./src/features', './src/pages', './src/components', './src/middleware.ts'],
+    message: 'Imports point down: the server never imports pages, islands, UI components or the middleware.',
+  },
+  {
+    target: './src/components/ui',
+    from: ['./src/features', './src/pages', './src/server', './db'],
+    message: 'Shared UI primitives know no feature, page or server module: pass what they need as props.',
+  },
+  {
     target: OUTSIDE_SERVER,
     from: './db',
     message: 'Only src/server reaches the database layer (db/); go through a src/server module.',
