@@ -71,7 +71,7 @@ describe('parseLoadsCsv', () => {
   it('takes columns in any order and any case; only name and watts are required', () => {
     const { rows, errors } = parseLoadsCsv('Watts, NAME ,duty_pct\n5,Lamp,50\n');
     expect(errors).toEqual([]);
-    expect(rows[0].load).toMatchObject({ name: 'Lamp', watts: 5, dutyPct: 50 });
+    expect(rows[0]?.load).toMatchObject({ name: 'Lamp', watts: 5, dutyPct: 50 });
   });
 
   it('refuses a header with unknown, doubled or missing columns, on line 1', () => {
@@ -91,7 +91,7 @@ describe('parseLoadsCsv', () => {
       [2, 'Fridge'],
       [6, 'Fan'],
     ]);
-    expect(rows[0].load.note).toBe('door\nseal');
+    expect(rows[0]?.load.note).toBe('door\nseal');
     expect(errors).toEqual([
       { line: 5, column: 'watts', message: '"x" is not a number' },
       { line: 9, column: 'watts', message: 'must be at least 0' },

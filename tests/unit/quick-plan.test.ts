@@ -60,12 +60,12 @@ describe('buildQuickPlan', () => {
     expect(r.ok).toBe(true);
     if (r.ok) expect(r.forecast.hourly.length).toBe(3 * 24 - 4); // 15:00 on day 1 to 11:00 after the 3rd night
     expect(plan.loads?.map((l) => l.name)).toEqual(['Compressor fridge', 'Laptop (via inverter)', 'Parasitic draw']);
-    expect(plan.loads?.[1].supply).toBe('ac');
+    expect(plan.loads?.[1]?.supply).toBe('ac');
   });
 
   it('stores temperatures in °C whatever unit the form used', () => {
     const plan = buildQuickPlan(values({ tempUnit: 'F', high: 68, low: 23 }));
-    expect(plan.stops[0].weather?.[0]).toMatchObject({ highC: 20, lowC: -5 });
+    expect(plan.stops[0]?.weather?.[0]).toMatchObject({ highC: 20, lowC: -5 });
   });
 
   it('leaves the panels out when there are 0 W', () => {

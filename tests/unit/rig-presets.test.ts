@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { CHEMISTRIES, CHEMISTRY_DEFAULTS, bankSchema } from '../../src/engine';
 import { applyMounting, CHEMISTRY_PRESETS, maxChargeAmpsFor, mountingOf, nominalForChemistry, presetBank, seriesParallel } from '../../src/domain/rigs/presets';
 import { emptyRig, newArray, newCharger, rigFormSchema } from '../../src/domain/rigs/rig-form';
+import { at } from '../../src/lib/invariant';
 
 describe('series/parallel helper', () => {
   // product.md demo rig: "two 6 V flooded golf-cart batteries (225 Ah at 12 V)".
@@ -100,7 +101,7 @@ describe('rig form rules', () => {
   it('names the missing capacity and rated watts', () => {
     const r = valid();
     r.bank.capacityAh = undefined as unknown as number;
-    r.arrays![0].ratedWatts = Number.NaN;
+    at(r.arrays ?? [], 0, 'panel array').ratedWatts = Number.NaN;
     const res = rigFormSchema.safeParse(r);
     expect(res.success).toBe(false);
     const paths = res.error!.issues.map((i) => i.path.join('.'));
