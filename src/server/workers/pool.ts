@@ -52,11 +52,11 @@ export function workerPool(): Piscina {
   return pool;
 }
 
-async function run<T>(name: string, task: unknown): Promise<T> {
+async function run<T>(name: string, task: unknown, transferList?: ArrayBuffer[]): Promise<T> {
   const p = workerPool();
   if (p.queueSize >= MAX_QUEUE) throw new HttpError('rate_limited', 'The server is busy with other long calculations. Try again in a minute.', [], {}, { 'Retry-After': '30' });
   try {
-    return (await p.run(task, { name })) as T;
+    return (await p.run(task, { name, transferList: transferList as never })) as T;
   } catch (err) {
     // The thread ran out of its heap: the task was too big for one calculation (the pool starts a new thread).
     if ((err as { code?: string }).code === 'ERR_WORKER_OUT_OF_MEMORY') {
@@ -71,9 +71,13 @@ export function sweepInPool(task: SweepTask): Promise<ReturnType<typeof sweep>> 
   return run('sweep', task);
 }
 
-/** Reads an uploaded monitor log (its multipart form and the CSV in it) off the request thread. */
+/**
+ * Reads an uploaded monitor log (its multipart form and the CSV in it) off the request thread. The
+ * body is moved to the thread, not copied (it is unusable here afterwards; a save gets the file back).
+ */
 export function monitorLogInPool(task: MonitorLogTask): Promise<MonitorLogOutcome> {
-  return run('monitorLog', task);
+  const own = task.body.byteOffset === 0 && task.body.byteLength === task.body.buffer.byteLength ? task.body : task.body.slice();
+  return run('monitorLog', { ...task, body: own }, [own.buffer as ArrayBuffer]);
 }
 
 /** A saved log's thinned series and what it tells, read and computed off the request thread. */
