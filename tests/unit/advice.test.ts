@@ -98,8 +98,8 @@ describe('advise: generator hours', () => {
     const f = forecast(light);
     expect(f.summary.firstCutoffAt).toBeNull();
     const advice = advise(light, f);
-    expect(advice.changes[0].kind).toBe('no-generator');
-    expect(advice.changes[0].effect).toContain('stays above the 12 % floor');
+    expect(advice.changes[0]?.kind).toBe('no-generator');
+    expect(advice.changes[0]?.effect).toContain('stays above the 12 % floor');
   });
 
   it('says when a generator alone cannot help: the bank runs out in the first night, before any allowed hours', () => {
@@ -134,10 +134,10 @@ describe('advise: which loads use the most', () => {
     const use = loadUse(prepareTrip(plan));
     expect(use.totalWhPerDay).toBeCloseTo(602, 6);
     expect(use.loads.map((l) => l.name)).toEqual(['Standby', 'Lights', 'Kettle', 'Pump', 'Inverter idle draw']);
-    expect(use.loads[0].whPerDay).toBeCloseTo(240, 6);
-    expect(use.loads[2].whPerDay).toBeCloseTo(100, 6);
-    expect(use.loads[4].whPerDay).toBeCloseTo(12, 6);
-    expect(use.loads[0].sharePct).toBeCloseTo((240 / 602) * 100, 6);
+    expect(use.loads[0]?.whPerDay).toBeCloseTo(240, 6);
+    expect(use.loads[2]?.whPerDay).toBeCloseTo(100, 6);
+    expect(use.loads[4]?.whPerDay).toBeCloseTo(12, 6);
+    expect(use.loads[0]?.sharePct).toBeCloseTo((240 / 602) * 100, 6);
 
     const advice = advise(plan, forecast(plan));
     expect(advice.topLoads.map((l) => l.name)).toEqual(['Standby', 'Lights', 'Kettle']);

@@ -54,7 +54,7 @@ export function notEnough(e: { text: string; score: number }, detail: string, le
   return {
     kind: 'generator',
     title: 'A generator alone is not enough',
-    effect: `${lead}: ${e.text[0].toLowerCase()}${e.text.slice(1)}`,
+    effect: `${lead}: ${e.text.charAt(0).toLowerCase()}${e.text.slice(1)}`,
     detail: `${detail} The bank runs low where no generator may run (at night, or while driving): it needs more capacity, more charging or fewer loads.`,
     caution: CAUTIONS.generator,
     fixes: false,
@@ -71,12 +71,13 @@ export function warningsOf(forecast: Forecast): AdviceWarning[] {
     list.push(w);
     byCode.set(w.code, list);
   }
-  const cold = byCode.get('cold-charge-blocked');
-  if (cold && cold.length > 0) {
+  const cold = byCode.get('cold-charge-blocked') ?? [];
+  const [firstCold] = cold;
+  if (firstCold) {
     out.push({
       code: 'cold-charge-blocked',
       title: 'The bank refuses charge in the cold',
-      message: `In ${hours(forecast.summary.coldBlockedHours || cold.length)} the LiFePO4 bank is below 0 °C and takes no charge, first on ${formatRowTime(cold[0].at)}; the panels and chargers still run the loads.`,
+      message: `In ${hours(forecast.summary.coldBlockedHours || cold.length)} the LiFePO4 bank is below 0 °C and takes no charge, first on ${formatRowTime(firstCold.at)}; the panels and chargers still run the loads.`,
       caution: CAUTIONS.cold,
     });
   }
@@ -90,9 +91,9 @@ export function warningsOf(forecast: Forecast): AdviceWarning[] {
     });
   }
   for (const w of byCode.get('weather-ignored') ?? []) out.push({ code: w.code, title: 'Weather not used', message: w.message });
-  const volt = byCode.get('voltage-cutoff');
-  if (volt && volt.length > 0) {
-    out.push({ code: 'voltage-cutoff', title: 'Low-voltage cutoff', message: `${volt[0].message} (${formatRowTime(volt[0].at)})` });
+  const [firstVolt] = byCode.get('voltage-cutoff') ?? [];
+  if (firstVolt) {
+    out.push({ code: 'voltage-cutoff', title: 'Low-voltage cutoff', message: `${firstVolt.message} (${formatRowTime(firstVolt.at)})` });
   }
   return out;
 }

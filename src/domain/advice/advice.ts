@@ -20,6 +20,7 @@ import { formatClock, formatDay, formatLitres, formatRowTime, localParts, pct } 
 import { reserveOf } from '../forecasts/verdict';
 import { effectText, joinAnd, notEnough, warningsOf, type Effect } from './advice-text';
 import { CAUTIONS } from './cautions';
+import { at } from '../../lib/invariant';
 
 
 /** Converter/charger amps assumed for generator advice when the plan names none (common practice: 30 A is a usual RV converter). */
@@ -86,23 +87,19 @@ export function loadUse(prepared: PreparedTrip): { loads: LoadUse[]; totalWhPerD
   let idleWh = 0;
   const eff = plan.inverter.efficiencyPct / 100;
   for (let r = 0; r < n; r++) {
-    const hour = grid.localHour[r];
+    const hour = at(grid.localHour, r, 'hour of the trip');
     const driveDay = grid.driveDay[r] === 1;
+    const ambientC = at(prepared.ambientC, r, 'hour of the trip');
     let ac = 0;
-    for (let i = 0; i < plan.loads.length; i++) {
-      const l = plan.loads[i];
-      const w = loadWattsAt(l, masks[i], hour, driveDay, prepared.ambientC[r]);
-      if (l.supply === 'ac') {
-        ac += w;
-        totals[i] += w / eff;
-      } else {
-        totals[i] += w;
-      }
-    }
+    plan.loads.forEach((l, i) => {
+      const w = loadWattsAt(l, at(masks, i, 'load window'), hour, driveDay, ambientC);
+      if (l.supply === 'ac') ac += w;
+      totals[i] = at(totals, i, 'load total') + (l.supply === 'ac' ? w / eff : w);
+    });
     // The inverter's idle draw counts whenever it is on (inverterDcWatts adds it to the AC share).
     idleWh += inverterDcWatts(ac, plan.inverter) - (ac > 0 ? ac / eff : 0);
   }
-  const rows: LoadUse[] = plan.loads.map((l, i) => ({ name: l.name, whPerDay: totals[i] / days, sharePct: 0 }));
+  const rows: LoadUse[] = plan.loads.map((l, i) => ({ name: l.name, whPerDay: at(totals, i, 'load total') / days, sharePct: 0 }));
   if (idleWh > 0) rows.push({ name: 'Inverter idle draw', whPerDay: idleWh / days, sharePct: 0 });
   const total = rows.reduce((s, r) => s + r.whPerDay, 0);
   for (const r of rows) r.sharePct = total > 0 ? (r.whPerDay / total) * 100 : 0;
@@ -187,7 +184,7 @@ function generatorWindows(prepared: PreparedTrip, beforeRow: number): number[][]
   const days = new Map<number, number[]>();
   for (let r = 0; r < Math.min(beforeRow, prepared.n); r++) {
     if (prepared.generatorAllowed[r] !== 1) continue;
-    const d = prepared.grid.localDay[r];
+    const d = at(prepared.grid.localDay, r, 'hour of the trip');
     const list = days.get(d) ?? [];
     list.push(r);
     days.set(d, list);
@@ -218,7 +215,7 @@ function generatorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: num
     return {
       kind: 'generator',
       title: 'A generator comes too late',
-      effect: `The bank runs low on ${formatRowTime(base.hourly[problem].time)}, before any allowed generator hours.`,
+      effect: `The bank runs low on ${formatRowTime(at(base.hourly, problem, 'trouble hour').time)}, before any allowed generator hours.`,
       detail: 'Start the trip with a fuller bank, or allow generator hours earlier at this stop.',
       caution: CAUTIONS.generator,
       fixes: false,
@@ -270,7 +267,7 @@ function generatorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: num
       const under = target < reservePct;
       return {
         kind: 'generator',
-        title: `Run a generator ${h} h a day from ${formatClock(prepared.grid.time[days[days.length - 1][0]])}`,
+        title: `Run a generator ${h} h a day from ${formatClock(at(prepared.grid.time, at(at(days, days.length - 1, 'generator day'), 0, 'generator hour'), 'hour of the trip'))}`,
         effect: `${e.text} It would run about ${alt.summary.generatorHours} h in all (${formatLitres(alt.summary.generatorLitres)} of fuel).`,
         detail: `Through ${source}; worked out by running the forecast again with the generator on for those hours.${under ? ` No generator hours keep the bank above your ${pct(reservePct)} reserve.` : ''}`,
         caution: CAUTIONS.generator,
@@ -307,16 +304,18 @@ function greedyRuns(prepared: PreparedTrip, base: Forecast, target: number, amps
     const windows = generatorWindows(prepared, p);
     let fixed = false;
     for (let back = 1; back <= Math.min(2, windows.length) && !fixed; back++) {
-      const rows = windows[windows.length - back];
-      const day = prepared.grid.localDay[rows[0]];
+      const rows = at(windows, windows.length - back, 'generator window');
+      const firstRow = at(rows, 0, 'generator hour');
+      const day = at(prepared.grid.localDay, firstRow, 'hour of the trip');
+      const startTime = at(prepared.grid.time, firstRow, 'hour of the trip');
       const had = runs.get(day)?.hours ?? 0;
       // A run should carry the bank to the next allowed generator hours (or the trip's end);
       // failing that, the smallest run that at least moves the trouble later.
-      const next = nextWindowStart(prepared, rows[rows.length - 1]);
+      const next = nextWindowStart(prepared, at(rows, rows.length - 1, 'generator hour'));
       let progress: { hours: number; alt: Forecast } | null = null;
       for (let h = had + 1; h <= rows.length && budget > 0; h++) {
         budget--;
-        runs.set(day, { rows, hours: h, startTime: prepared.grid.time[rows[0]] });
+        runs.set(day, { rows, hours: h, startTime });
         const alt = withForcedGenerator(prepared, forcedRows(), amps, fuel);
         const p2 = firstProblemRow(alt, target);
         if (p2 < 0 || (next >= 0 && p2 > next)) {
@@ -327,19 +326,19 @@ function greedyRuns(prepared: PreparedTrip, base: Forecast, target: number, amps
         if (p2 > p && !progress) progress = { hours: h, alt };
       }
       if (!fixed && progress) {
-        runs.set(day, { rows, hours: progress.hours, startTime: prepared.grid.time[rows[0]] });
+        runs.set(day, { rows, hours: progress.hours, startTime });
         current = progress.alt;
         fixed = true;
       }
       if (!fixed) {
-        if (had > 0) runs.set(day, { rows, hours: had, startTime: prepared.grid.time[rows[0]] });
+        if (had > 0) runs.set(day, { rows, hours: had, startTime });
         else runs.delete(day);
       }
     }
     if (!fixed) break;
   }
   if (runs.size === 0 || !isFine(current, target)) return null;
-  return { runs: [...runs.values()].sort((a, b) => a.rows[0] - b.rows[0]), current };
+  return { runs: [...runs.values()].sort((a, b) => at(a.rows, 0, 'generator hour') - at(b.rows, 0, 'generator hour')), current };
 }
 
 /** First row after `row` on a later local day where the plan allows a generator; −1 when none. */
@@ -439,7 +438,7 @@ function driveAdvice(plan: ResolvedPlan, base: Forecast, prepared: PreparedTrip,
   // The last 10:00 before the trouble, at a camp day with room for a two-hour drive.
   for (let r = problem - 2; r >= 0; r--) {
     if (grid.localHour[r] !== 10 || grid.driving[r] === 1 || grid.driving[r + 1] === 1) continue;
-    const p = localParts(grid.time[r]);
+    const p = localParts(at(grid.time, r, 'hour of the trip'));
     if (!p || driveDates.has(p.date)) continue;
     const drive = { date: p.date, startHour: 10, hours: 2 };
     const v = validatePlan({ ...plan, drives: [...plan.drives, drive].sort((a, b) => a.date.localeCompare(b.date)) });
