@@ -11,9 +11,9 @@ let viewer: Session;
 let tripId: string;
 let rigId: string;
 
-async function page(s: Session): Promise<string> {
+async function page(s: Session, status = 200): Promise<string> {
   const res = await api(`/trips/${tripId}`, { session: s });
-  expect(res.status).toBe(200);
+  expect(res.status).toBe(status);
   return res.text();
 }
 
@@ -64,7 +64,8 @@ describe('the trip page as the server sends it', () => {
 
   it('tells a stranger nothing about the trip', async () => {
     const stranger = await signUp({ name: 'Page stranger' });
-    const html = await page(stranger);
+    // A trip outside the visitor's crews is a real 404 page.
+    const html = await page(stranger, 404);
     expect(html).not.toContain('Mesa camp');
     expect(html).not.toContain('Server-drawn run');
   });
