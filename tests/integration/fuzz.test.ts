@@ -314,10 +314,14 @@ describe('sign-in redirect and names (issue 15)', () => {
   it('next= never leaves our origin and never answers 5xx', async () => {
     const s = cast.owner;
     const origin = new URL(baseUrl());
+    let redirected = 0;
     await fc.assert(
       fc.asyncProperty(nextArb, fc.constantFrom('/sign-in', '/sign-up'), async (next, page) => {
         const res = await api(`${page}?next=${next}`, { session: s });
-        expect(res.status).toBe(302);
+        // A malformed query (a lone "%") is refused before the page runs: a 4xx, never a 5xx.
+        expect(res.status).toBeLessThan(500);
+        if (res.status !== 302) return;
+        redirected++;
         const location = res.headers.get('location') ?? '';
         // As a browser reads it: tabs and line breaks dropped, then resolved against our origin.
         const seen = new URL(location.replace(/[\t\n\r]/g, ''), origin);
@@ -325,6 +329,8 @@ describe('sign-in redirect and names (issue 15)', () => {
       }),
       { numRuns: 150 },
     );
+    // Most inputs reach the page: the property is about redirects, not refusals.
+    expect(redirected).toBeGreaterThan(100);
   });
 
   it('any name to sign-up and update-user is stored trimmed within 1–80 characters or refused with a 4xx', async () => {
