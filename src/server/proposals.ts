@@ -5,7 +5,7 @@ import type { ProposalDto, ProposalListItem, CableRow, Changes, Part, PriceList,
 import { checkCables, defaultCables, lineAmount, partsTotal, proposalCautions, type CheckedCable } from '../domain/proposals/proposals';
 import { formatMoney } from '../lib/format';
 import type { SweepRequestValues } from '../domain/proposals/proposals.schema';
-import { forecastAfter, labelOf, oneOffItems, type CostItem, type SweepResult } from '../domain/proposals/sweep';
+import { forecastAfter, labelOf, oneOffItems, type CostItem } from '../domain/proposals/sweep';
 import { installerOnly, tripAccess, type Actor, type RigGrant } from './access';
 import { HttpError, type Issue } from './errors';
 import { forecastTripId, getForecast, packHourly, unpackHourly, type ForecastDto } from './forecasts';
