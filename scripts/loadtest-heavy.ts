@@ -45,7 +45,14 @@ export function monitorLogCsv(bytes: number): string {
   return `${lines.join('\n')}\n`;
 }
 
-export async function heavyRun(p: { url: string; server: RunningServer; ownerCookie: string; rigId: string; sweepsPerInstaller?: number; previewCount?: number }): Promise<HeavyResult> {
+export async function heavyRun(p: {
+  url: string;
+  server: RunningServer;
+  ownerCookie: string;
+  rigId: string;
+  sweepsPerInstaller?: number;
+  previewCount?: number;
+}): Promise<HeavyResult> {
   const { url } = p;
   const JSON_HEADERS = { 'content-type': 'application/json', origin: url };
   const must = async <T>(res: Response, status: number, what: string): Promise<T> => {
@@ -59,21 +66,42 @@ export async function heavyRun(p: { url: string; server: RunningServer; ownerCoo
     await fetch(`${url}/api/trips`, {
       method: 'POST',
       headers: owner,
-      body: JSON.stringify({ rigId: p.rigId, name: 'Long summer', stops: [{ name: 'High desert camp', lat: 38.6, lon: -109.6, timeZone: 'America/Denver', arrive: '2027-06-01', nights: 59 }] }),
+      body: JSON.stringify({
+        rigId: p.rigId,
+        name: 'Long summer',
+        stops: [{ name: 'High desert camp', lat: 38.6, lon: -109.6, timeZone: 'America/Denver', arrive: '2027-06-01', nights: 59 }],
+      }),
     }),
     201,
     'long trip',
   );
-  const forecast = await must<{ id: string }>(await fetch(`${url}/api/trips/${trip.id}/forecasts`, { method: 'POST', headers: owner, body: '{}' }), 201, 'forecast');
+  const forecast = await must<{ id: string }>(
+    await fetch(`${url}/api/trips/${trip.id}/forecasts`, { method: 'POST', headers: owner, body: '{}' }),
+    201,
+    'forecast',
+  );
 
   // Five installers with a grant each; two sweeps each (the per-installer limit).
   const installers: string[] = [];
   for (let i = 0; i < 5; i++) {
     const email = `heavy.installer.${i + 1}@sweep-load.test`;
-    const up = await fetch(`${url}/api/auth/sign-up/email`, { method: 'POST', headers: JSON_HEADERS, body: JSON.stringify({ name: `Sweep installer ${i + 1}`, email, password: 'sweep-installer-password', kind: 'installer' }) });
+    const up = await fetch(`${url}/api/auth/sign-up/email`, {
+      method: 'POST',
+      headers: JSON_HEADERS,
+      body: JSON.stringify({ name: `Sweep installer ${i + 1}`, email, password: 'sweep-installer-password', kind: 'installer' }),
+    });
     await must(up, 200, 'installer sign-up');
-    installers.push(up.headers.getSetCookie().map((c) => c.split(';')[0]).join('; '));
-    await must(await fetch(`${url}/api/rigs/${p.rigId}/grants`, { method: 'POST', headers: owner, body: JSON.stringify({ email }) }), 201, 'grant');
+    installers.push(
+      up.headers
+        .getSetCookie()
+        .map((c) => c.split(';')[0])
+        .join('; '),
+    );
+    await must(
+      await fetch(`${url}/api/rigs/${p.rigId}/grants`, { method: 'POST', headers: owner, body: JSON.stringify({ email }) }),
+      201,
+      'grant',
+    );
   }
   // 13 × 11 × 7 − 1 = 1,000 options: the most a sweep may try.
   const candidates = {
@@ -88,7 +116,11 @@ export async function heavyRun(p: { url: string; server: RunningServer; ownerCoo
     const form = new FormData();
     form.set('file', new Blob([csv], { type: 'text/csv' }), 'long-log.csv');
     form.set('timeZone', 'America/Denver');
-    return fetch(`${url}/api/rigs/${p.rigId}/monitor-logs?preview=1`, { method: 'POST', headers: { origin: url, cookie: p.ownerCookie }, body: form });
+    return fetch(`${url}/api/rigs/${p.rigId}/monitor-logs?preview=1`, {
+      method: 'POST',
+      headers: { origin: url, cookie: p.ownerCookie },
+      body: form,
+    });
   };
 
   // The same polling with nothing heavy running: what this machine gives /api/health anyway.
@@ -109,7 +141,11 @@ export async function heavyRun(p: { url: string; server: RunningServer; ownerCoo
   let done = false;
   const heavy = Promise.all([
     ...installers.flatMap((cookie) =>
-      Array.from({ length: p.sweepsPerInstaller ?? 2 }, () => fetch(`${url}/api/forecasts/${forecast.id}/sweep`, { method: 'POST', headers: { ...JSON_HEADERS, cookie }, body: sweepBody }).then(tally(sweeps))),
+      Array.from({ length: p.sweepsPerInstaller ?? 2 }, () =>
+        fetch(`${url}/api/forecasts/${forecast.id}/sweep`, { method: 'POST', headers: { ...JSON_HEADERS, cookie }, body: sweepBody }).then(
+          tally(sweeps),
+        ),
+      ),
     ),
     ...Array.from({ length: p.previewCount ?? 2 }, () => upload().then(tally(previews))),
   ]).finally(() => (done = true));
@@ -118,7 +154,16 @@ export async function heavyRun(p: { url: string; server: RunningServer; ownerCoo
   await heavy;
   clearInterval(sampler);
   const seconds = (performance.now() - started) / 1000;
-  return { healthCalls: busy.length, ...quantiles(busy), idleP99: quantiles(idle).p99, peakRssMb, startRssMb, sweeps, previews, seconds: Math.round(seconds * 10) / 10 };
+  return {
+    healthCalls: busy.length,
+    ...quantiles(busy),
+    idleP99: quantiles(idle).p99,
+    peakRssMb,
+    startRssMb,
+    sweeps,
+    previews,
+    seconds: Math.round(seconds * 10) / 10,
+  };
 }
 
 /** Four clients calling /api/health back to back until `stop()`; the latencies in ms. */
@@ -149,7 +194,11 @@ function quantiles(latencies: number[]): { p50: number; p99: number; max: number
 
 /** The run's lines for the report, and whether it met its targets. */
 export function describeHeavy(r: HeavyResult): { lines: string[]; ok: boolean } {
-  const ok = r.p99 <= HEALTH_TARGET_MS && r.peakRssMb <= RSS_TARGET_MB && Object.keys(r.sweeps).every((c) => c === '200') && Object.keys(r.previews).every((c) => c === '200');
+  const ok =
+    r.p99 <= HEALTH_TARGET_MS &&
+    r.peakRssMb <= RSS_TARGET_MB &&
+    Object.keys(r.sweeps).every((c) => c === '200') &&
+    Object.keys(r.previews).every((c) => c === '200');
   return {
     ok,
     lines: [

@@ -37,7 +37,9 @@ export function checkAuthBody(pathname: string, body: Uint8Array): Uint8Array {
   try {
     data = JSON.parse(new TextDecoder().decode(body));
   } catch (e) {
-    throw new HttpError('invalid_request', 'The body is not valid JSON.', [{ path: '(body)', message: (e as Error).message.slice(0, 200) }]);
+    throw new HttpError('invalid_request', 'The body is not valid JSON.', [
+      { path: '(body)', message: (e as Error).message.slice(0, 200) },
+    ]);
   }
   if (typeof data !== 'object' || data === null || Array.isArray(data)) {
     throw new HttpError('invalid_request', 'Send a JSON object.', [{ path: '(body)', message: 'expected an object' }]);

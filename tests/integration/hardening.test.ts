@@ -19,7 +19,10 @@ const json = (body: unknown, headers: Record<string, string> = {}) => ({
 
 describe('/api/auth/* reads the body with the bounded reader', () => {
   it('refuses a body over 64 KB with 413 in the error envelope (Content-Length sent)', async () => {
-    const res = await fetch(`${baseUrl()}/api/auth/sign-in/email`, json({ email: 'a@example.test', password: 'x'.repeat(70 * 1024) }, { connection: 'close' }));
+    const res = await fetch(
+      `${baseUrl()}/api/auth/sign-in/email`,
+      json({ email: 'a@example.test', password: 'x'.repeat(70 * 1024) }, { connection: 'close' }),
+    );
     expect(res.status).toBe(413);
     expect(await res.json()).toMatchObject({ error: { code: 'payload_too_large', message: expect.stringContaining('64 KB') } });
   });
@@ -28,10 +31,18 @@ describe('/api/auth/* reads the body with the bounded reader', () => {
     // Chunked, 1 MB at most, on a connection of its own (the server closes it after refusing).
     const status = await new Promise<number>((resolve, reject) => {
       const url = new URL('/api/auth/sign-up/email', baseUrl());
-      const req = request(url, { method: 'POST', agent: false, headers: { 'content-type': 'application/json', origin: baseUrl(), 'transfer-encoding': 'chunked' } }, (res) => {
-        res.resume();
-        resolve(res.statusCode ?? 0);
-      });
+      const req = request(
+        url,
+        {
+          method: 'POST',
+          agent: false,
+          headers: { 'content-type': 'application/json', origin: baseUrl(), 'transfer-encoding': 'chunked' },
+        },
+        (res) => {
+          res.resume();
+          resolve(res.statusCode ?? 0);
+        },
+      );
       req.on('error', reject);
       const chunk = 'x'.repeat(16 * 1024);
       let sent = 0;
@@ -56,7 +67,19 @@ describe('/api/auth/* reads the body with the bounded reader', () => {
 });
 
 describe('redirect after sign-in (next)', () => {
-  const evil = ['/%09/evil.example', '/%0A/evil.example', '/%0D/evil.example', '/%0D%0A/evil.example', '//evil.example', '/\\evil.example', '/%5Cevil.example', '/%09%09/evil.example', 'https://evil.example/', '%2F%2Fevil.example', '/%00/evil.example'];
+  const evil = [
+    '/%09/evil.example',
+    '/%0A/evil.example',
+    '/%0D/evil.example',
+    '/%0D%0A/evil.example',
+    '//evil.example',
+    '/\\evil.example',
+    '/%5Cevil.example',
+    '/%09%09/evil.example',
+    'https://evil.example/',
+    '%2F%2Fevil.example',
+    '/%00/evil.example',
+  ];
 
   it.each(evil)('next=%s stays on our origin and never answers 500', async (next) => {
     const s = await signUp();
@@ -132,7 +155,10 @@ describe('one name rule and a fixed kind on better-auth endpoints', () => {
     for (const kind of ['camper', 'installer', 'superadmin']) {
       const res = await api('/api/auth/update-user', { method: 'POST', session: s, json: { kind } });
       expect(res.status, kind).toBe(400);
-      expect(await res.json()).toMatchObject({ error: { code: 'invalid_request' }, issues: [{ path: '(body)', message: expect.stringContaining('kind') }] });
+      expect(await res.json()).toMatchObject({
+        error: { code: 'invalid_request' },
+        issues: [{ path: '(body)', message: expect.stringContaining('kind') }],
+      });
     }
     expect(userRow(s.userId).kind).toBe('installer');
   });
@@ -188,7 +214,13 @@ describe('mail, share, sweep and proxy limits (INVITE_CREW_HOURLY=3, INVITE_ADDR
   let server: RunningServer;
   beforeAll(async () => {
     // No SMTP_URL: every accepted message waits in the outbox, where it is counted.
-    server = await startServer({ INVITE_CREW_HOURLY: '3', INVITE_ADDRESS_HOURLY: '2', GRANT_HOURLY: '2', SWEEP_RATE_LIMIT: '2', SMTP_URL: '' });
+    server = await startServer({
+      INVITE_CREW_HOURLY: '3',
+      INVITE_ADDRESS_HOURLY: '2',
+      GRANT_HOURLY: '2',
+      SWEEP_RATE_LIMIT: '2',
+      SMTP_URL: '',
+    });
   });
   afterAll(async () => {
     await server?.stop();
@@ -197,14 +229,25 @@ describe('mail, share, sweep and proxy limits (INVITE_CREW_HOURLY=3, INVITE_ADDR
   const call = (p: string, init: { method?: string; cookie?: string; body?: unknown; headers?: Record<string, string> } = {}) =>
     fetch(`${server.url}${p}`, {
       method: init.method ?? 'GET',
-      headers: { origin: server.url, ...(init.cookie ? { cookie: init.cookie } : {}), ...(init.body !== undefined ? { 'content-type': 'application/json' } : {}), ...init.headers },
+      headers: {
+        origin: server.url,
+        ...(init.cookie ? { cookie: init.cookie } : {}),
+        ...(init.body !== undefined ? { 'content-type': 'application/json' } : {}),
+        ...init.headers,
+      },
       body: init.body === undefined ? undefined : JSON.stringify(init.body),
     });
   async function account(kind: 'camper' | 'installer', name = 'Limit Owner') {
     const email = uniqueEmail(kind);
     const res = await call('/api/auth/sign-up/email', { method: 'POST', body: { name, email, password: 'limit-password-1', kind } });
     expect(res.status).toBe(200);
-    return { email, cookie: res.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ') };
+    return {
+      email,
+      cookie: res.headers
+        .getSetCookie()
+        .map((c) => c.split(';')[0])
+        .join('; '),
+    };
   }
   const outbox = (to: string) => {
     const db = new Database(server.dbPath, { readonly: true });
@@ -226,7 +269,11 @@ describe('mail, share, sweep and proxy limits (INVITE_CREW_HOURLY=3, INVITE_ADDR
     const owner = await account('camper');
     const crewId = ((await (await call('/api/crews', { cookie: owner.cookie })).json()) as { id: string }[])[0]!.id;
     const to = uniqueEmail('target');
-    const first = await call(`/api/crews/${crewId}/invitations`, { method: 'POST', cookie: owner.cookie, body: { email: to, role: 'viewer' } });
+    const first = await call(`/api/crews/${crewId}/invitations`, {
+      method: 'POST',
+      cookie: owner.cookie,
+      body: { email: to, role: 'viewer' },
+    });
     expect(first.status).toBe(201);
     let inv = (await first.json()) as { id: string; version: number };
     const statuses: number[] = [];
@@ -246,7 +293,16 @@ describe('mail, share, sweep and proxy limits (INVITE_CREW_HOURLY=3, INVITE_ADDR
     const owner = await account('camper');
     const crewId = ((await (await call('/api/crews', { cookie: owner.cookie })).json()) as { id: string }[])[0]!.id;
     const statuses: number[] = [];
-    for (let i = 0; i < 4; i++) statuses.push((await call(`/api/crews/${crewId}/invitations`, { method: 'POST', cookie: owner.cookie, body: { email: uniqueEmail(`crew${i}`), role: 'viewer' } })).status);
+    for (let i = 0; i < 4; i++)
+      statuses.push(
+        (
+          await call(`/api/crews/${crewId}/invitations`, {
+            method: 'POST',
+            cookie: owner.cookie,
+            body: { email: uniqueEmail(`crew${i}`), role: 'viewer' },
+          })
+        ).status,
+      );
     expect(statuses).toEqual([201, 201, 201, 429]);
   });
 
@@ -254,11 +310,24 @@ describe('mail, share, sweep and proxy limits (INVITE_CREW_HOURLY=3, INVITE_ADDR
     const owner = await account('camper');
     const installer = await account('installer', 'Sweeper');
     const rig = (await (await call('/api/rigs', { method: 'POST', cookie: owner.cookie, body: RIG_INPUT })).json()) as { id: string };
-    const trip = (await (await call('/api/trips', { method: 'POST', cookie: owner.cookie, body: TRIP_INPUT(rig.id) })).json()) as { id: string };
-    const forecast = (await (await call(`/api/trips/${trip.id}/forecasts`, { method: 'POST', cookie: owner.cookie, body: {} })).json()) as { id: string };
-    expect((await call(`/api/rigs/${rig.id}/grants`, { method: 'POST', cookie: owner.cookie, body: { email: installer.email } })).status).toBe(201);
+    const trip = (await (await call('/api/trips', { method: 'POST', cookie: owner.cookie, body: TRIP_INPUT(rig.id) })).json()) as {
+      id: string;
+    };
+    const forecast = (await (await call(`/api/trips/${trip.id}/forecasts`, { method: 'POST', cookie: owner.cookie, body: {} })).json()) as {
+      id: string;
+    };
+    expect(
+      (await call(`/api/rigs/${rig.id}/grants`, { method: 'POST', cookie: owner.cookie, body: { email: installer.email } })).status,
+    ).toBe(201);
     const answers: Response[] = [];
-    for (let i = 0; i < 3; i++) answers.push(await call(`/api/forecasts/${forecast.id}/sweep`, { method: 'POST', cookie: installer.cookie, body: { candidates: { banks: [{ chemistry: 'lifepo4', capacityAh: 300 + i }] }, prices: TEST_PRICES } }));
+    for (let i = 0; i < 3; i++)
+      answers.push(
+        await call(`/api/forecasts/${forecast.id}/sweep`, {
+          method: 'POST',
+          cookie: installer.cookie,
+          body: { candidates: { banks: [{ chemistry: 'lifepo4', capacityAh: 300 + i }] }, prices: TEST_PRICES },
+        }),
+      );
     expect(answers.map((r) => r.status)).toEqual([200, 200, 429]);
     expect(Number(answers[2]!.headers.get('retry-after'))).toBeGreaterThan(0);
   });
@@ -267,7 +336,13 @@ describe('mail, share, sweep and proxy limits (INVITE_CREW_HOURLY=3, INVITE_ADDR
     const owner = await account('camper');
     const camper = await account('camper', 'Other Camper');
     const installer = await account('installer', 'Wren');
-    const rig = (await (await call('/api/rigs', { method: 'POST', cookie: owner.cookie, body: { name: 'Share van', bank: { chemistry: 'lifepo4', capacityAh: 100, nominalVolts: 12.8 } } })).json()) as { id: string };
+    const rig = (await (
+      await call('/api/rigs', {
+        method: 'POST',
+        cookie: owner.cookie,
+        body: { name: 'Share van', bank: { chemistry: 'lifepo4', capacityAh: 100, nominalVolts: 12.8 } },
+      })
+    ).json()) as { id: string };
     const share = (email: string) => call(`/api/rigs/${rig.id}/grants`, { method: 'POST', cookie: owner.cookie, body: { email } });
     const asCamper = await share(camper.email);
     const ghost = uniqueEmail('ghost');
@@ -298,7 +373,10 @@ describe('monitor-log uploads are read in the worker pool, within caps', () => {
   it('one 1 MB line is a 400 naming the line-length limit', async () => {
     const res = await preview('x'.repeat(1024 * 1024));
     expect(res.status).toBe(400);
-    expect(await res.json()).toMatchObject({ error: { message: expect.stringContaining('4096 characters') }, issues: [{ path: 'line 1' }] });
+    expect(await res.json()).toMatchObject({
+      error: { message: expect.stringContaining('4096 characters') },
+      issues: [{ path: 'line 1' }],
+    });
   });
 
   it('1 MB of commas is a 400 naming the column limit, with a short answer', async () => {
@@ -330,7 +408,10 @@ describe('monitor-log uploads are read in the worker pool, within caps', () => {
   });
 
   it('a file full of bad readings answers under 1 MB, every problem counted', async () => {
-    const bad = Array.from({ length: 20_000 }, (_, i) => `2027-05-01T${String(i % 24).padStart(2, '0')}:00:00Z,${'9'.repeat(40)},x${'y'.repeat(30)}`);
+    const bad = Array.from(
+      { length: 20_000 },
+      (_, i) => `2027-05-01T${String(i % 24).padStart(2, '0')}:00:00Z,${'9'.repeat(40)},x${'y'.repeat(30)}`,
+    );
     const res = await preview(`Time,Voltage (V),Current (A)\n${bad.join('\n')}\n`);
     const text = await res.text();
     expect(res.status).toBeLessThan(500);
@@ -343,12 +424,21 @@ describe('upgrade sweeps run in the worker pool, two at a time per installer', (
     const owner = await signUp();
     const rig = await makeRig(owner);
     const trip = await makeTrip(owner, rig.id);
-    const forecast = (await (await api(`/api/trips/${trip.id}/forecasts`, { method: 'POST', session: owner, json: {} })).json()) as { id: string };
+    const forecast = (await (await api(`/api/trips/${trip.id}/forecasts`, { method: 'POST', session: owner, json: {} })).json()) as {
+      id: string;
+    };
     const installer = await signUp({ kind: 'installer' });
-    expect((await api(`/api/rigs/${rig.id}/grants`, { method: 'POST', session: owner, json: { email: installer.email } })).status).toBe(201);
+    expect((await api(`/api/rigs/${rig.id}/grants`, { method: 'POST', session: owner, json: { email: installer.email } })).status).toBe(
+      201,
+    );
     const banks = [150, 200, 250, 300, 350, 400, 450, 500, 600, 700, 800, 1000].map((capacityAh) => ({ chemistry: 'lifepo4', capacityAh }));
     const panels = [100, 150, 200, 250, 300, 350, 400, 500, 600, 800].map((watts) => ({ watts, mounting: 'flat' }));
-    const sweep = (dcdcAmps: number[]) => api(`/api/forecasts/${forecast.id}/sweep`, { method: 'POST', session: installer, json: { candidates: { banks, panels, dcdcAmps }, prices: TEST_PRICES } });
+    const sweep = (dcdcAmps: number[]) =>
+      api(`/api/forecasts/${forecast.id}/sweep`, {
+        method: 'POST',
+        session: installer,
+        json: { candidates: { banks, panels, dcdcAmps }, prices: TEST_PRICES },
+      });
     // 13 × 11 × 7 − 1 = 1,000 options each.
     const answers = await Promise.all([0, 1, 2].map(() => sweep([20, 30, 40, 50, 60, 80])));
     const statuses = answers.map((r) => r.status).sort();
@@ -360,7 +450,11 @@ describe('upgrade sweeps run in the worker pool, two at a time per installer', (
     expect(done.forecastId).toBe(forecast.id);
     // Once they are done, the next one runs.
     expect((await sweep([20])).status).toBe(200);
-    const tooMany = await api(`/api/forecasts/${forecast.id}/sweep`, { method: 'POST', session: installer, json: { candidates: { banks, panels, dcdcAmps: [20, 30, 40, 50, 60, 80], generatorHours: [2] }, prices: TEST_PRICES } });
+    const tooMany = await api(`/api/forecasts/${forecast.id}/sweep`, {
+      method: 'POST',
+      session: installer,
+      json: { candidates: { banks, panels, dcdcAmps: [20, 30, 40, 50, 60, 80], generatorHours: [2] }, prices: TEST_PRICES },
+    });
     expect(tooMany.status).toBe(400);
     expect(await tooMany.json()).toMatchObject({ issues: [{ path: 'candidates', message: expect.stringContaining('at most 1000') }] });
   });

@@ -25,10 +25,19 @@ export const MAX_BODY_BYTES = MAX_FILE_BYTES + 256 * 1024;
 const ALLOWED_EXTENSIONS = /\.(csv|txt|tsv|log|dat)$/i;
 
 /** The 413 of an upload over 10 MB. */
-export const tooLarge = () => new HttpError('payload_too_large', 'The file is larger than 10 MB. Export a shorter stretch of the log (a trip at a time).', [{ path: 'file', message: 'at most 10 MB' }]);
+export const tooLarge = () =>
+  new HttpError('payload_too_large', 'The file is larger than 10 MB. Export a shorter stretch of the log (a trip at a time).', [
+    { path: 'file', message: 'at most 10 MB' },
+  ]);
 export const SEND_AS = 'Send the log as a file upload (multipart/form-data) with the CSV in the field "file".';
 
-const UPLOAD_RULES: MultipartRules = { maxFileBytes: MAX_FILE_BYTES, maxBodyBytes: MAX_BODY_BYTES, tooLarge, sendAs: SEND_AS, defaultName: 'monitor-log.csv' };
+const UPLOAD_RULES: MultipartRules = {
+  maxFileBytes: MAX_FILE_BYTES,
+  maxBodyBytes: MAX_BODY_BYTES,
+  tooLarge,
+  sendAs: SEND_AS,
+  defaultName: 'monitor-log.csv',
+};
 
 export interface MonitorLogTask {
   /** The multipart body as received (read within MAX_BODY_BYTES on the request thread) and its Content-Type. */
@@ -79,7 +88,8 @@ function mappingFrom(raw: string | undefined): ColumnMapping | null {
     throw new HttpError('invalid_request', 'The column mapping is not valid JSON.', [{ path: 'mapping', message: 'not valid JSON' }]);
   }
   const r = mappingSchema.safeParse(data);
-  if (!r.success) throw new HttpError('invalid_request', `The column mapping needs fixing: ${r.error.issues[0]?.message}`, zodIssues(r.error, 'mapping'));
+  if (!r.success)
+    throw new HttpError('invalid_request', `The column mapping needs fixing: ${r.error.issues[0]?.message}`, zodIssues(r.error, 'mapping'));
   return r.data;
 }
 
@@ -92,11 +102,19 @@ function capsProblem(text: string): MonitorLogOutcome | null {
     const c = i < text.length ? text.charCodeAt(i) : 10;
     if (c === 10) {
       if (i - start > MAX_LINE_CHARS) {
-        return refuse(`Line ${line} is longer than ${MAX_LINE_CHARS} characters; a monitor log has one reading per line. Export the log as CSV again.`, `line ${line}`, `longer than ${MAX_LINE_CHARS} characters`);
+        return refuse(
+          `Line ${line} is longer than ${MAX_LINE_CHARS} characters; a monitor log has one reading per line. Export the log as CSV again.`,
+          `line ${line}`,
+          `longer than ${MAX_LINE_CHARS} characters`,
+        );
       }
       for (const d of [44, 59, 9, 124]) {
         if (counts[d]! + 1 > MAX_COLUMNS) {
-          return refuse(`Line ${line} has more than ${MAX_COLUMNS} columns; a monitor log has a handful (time, voltage, current, SOC, temperature).`, `line ${line}`, `more than ${MAX_COLUMNS} columns`);
+          return refuse(
+            `Line ${line} has more than ${MAX_COLUMNS} columns; a monitor log has a handful (time, voltage, current, SOC, temperature).`,
+            `line ${line}`,
+            `more than ${MAX_COLUMNS} columns`,
+          );
         }
         counts[d] = 0;
       }
@@ -118,13 +136,20 @@ function capped(preview: LogPreview): LogPreview {
     sample: preview.sample.slice(0, PREVIEW_ROWS),
     errors: preview.errors.map((e) => ({ ...e, column: e.column === null ? null : clip(e.column), message: clip(e.message) })),
   };
-  while (out.errors.length > 1 && JSON.stringify(out).length > MAX_PREVIEW_JSON_BYTES) out.errors = out.errors.slice(0, Math.floor(out.errors.length / 2));
+  while (out.errors.length > 1 && JSON.stringify(out).length > MAX_PREVIEW_JSON_BYTES)
+    out.errors = out.errors.slice(0, Math.floor(out.errors.length / 2));
   return out;
 }
 
 function pack(samples: Sample[]): PackedSamples {
   const n = samples.length;
-  const p: PackedSamples = { t: new Float64Array(n), volts: new Float64Array(n), amps: new Float64Array(n), socPct: new Float64Array(n), tempC: new Float64Array(n) };
+  const p: PackedSamples = {
+    t: new Float64Array(n),
+    volts: new Float64Array(n),
+    amps: new Float64Array(n),
+    socPct: new Float64Array(n),
+    tempC: new Float64Array(n),
+  };
   samples.forEach((s, i) => {
     p.t[i] = s.t;
     p.volts[i] = s.volts ?? NaN;
@@ -147,19 +172,34 @@ export function unpack(p: PackedSamples): Sample[] {
  */
 export async function readMonitorLog(task: MonitorLogTask): Promise<MonitorLogOutcome> {
   try {
-    const request = new Request('http://upload.invalid/', { method: 'POST', headers: { 'content-type': task.contentType }, body: task.body as BodyInit });
+    const request = new Request('http://upload.invalid/', {
+      method: 'POST',
+      headers: { 'content-type': task.contentType },
+      body: task.body as BodyInit,
+    });
     const upload = await readMultipart(request, UPLOAD_RULES);
     if (!ALLOWED_EXTENSIONS.test(upload.fileName) && /\.[a-z0-9]{1,5}$/i.test(upload.fileName)) {
-      return refuse(`"${upload.fileName.slice(0, 80)}" is not a CSV. Export the monitor's log as CSV (.csv or .txt) and upload that.`, 'file', 'expected a .csv, .tsv or .txt file', 'unsupported_media_type');
+      return refuse(
+        `"${upload.fileName.slice(0, 80)}" is not a CSV. Export the monitor's log as CSV (.csv or .txt) and upload that.`,
+        'file',
+        'expected a .csv, .tsv or .txt file',
+        'unsupported_media_type',
+      );
     }
     const decoded = decodeCsvBytes(upload.bytes);
     if (!decoded.ok) {
       const empty = upload.bytes.byteLength === 0 || /empty/.test(decoded.message);
-      return refuse(decoded.message, 'file', empty ? 'the file is empty' : 'not a text CSV', empty ? 'invalid_request' : 'unsupported_media_type');
+      return refuse(
+        decoded.message,
+        'file',
+        empty ? 'the file is empty' : 'not a text CSV',
+        empty ? 'invalid_request' : 'unsupported_media_type',
+      );
     }
     const mapping = mappingFrom(upload.fields.get('mapping'));
     const timeZone = upload.fields.get('timeZone')?.trim() || mapping?.timeZone || 'UTC';
-    if (!isValidTimeZone(timeZone)) return refuse('The time zone is not one we know.', 'timeZone', 'must be an IANA time zone such as America/Denver');
+    if (!isValidTimeZone(timeZone))
+      return refuse('The time zone is not one we know.', 'timeZone', 'must be an IANA time zone such as America/Denver');
     const problem = capsProblem(decoded.text);
     if (problem) return problem;
     const { preview, parsed } = previewLog(decoded.text, { timeZone, mapping, limits: task.limits });

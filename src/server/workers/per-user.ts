@@ -14,7 +14,13 @@ const running = new Map<string, number>();
 export async function oneAtATime<T>(userId: string, fn: () => Promise<T>): Promise<T> {
   const now = running.get(userId) ?? 0;
   if (now >= SWEEPS_PER_USER) {
-    throw new HttpError('rate_limited', `You already have ${SWEEPS_PER_USER} sweeps running; wait for one to finish.`, [], {}, { 'Retry-After': '5' });
+    throw new HttpError(
+      'rate_limited',
+      `You already have ${SWEEPS_PER_USER} sweeps running; wait for one to finish.`,
+      [],
+      {},
+      { 'Retry-After': '5' },
+    );
   }
   running.set(userId, now + 1);
   try {

@@ -54,7 +54,14 @@ export function workerPool(): Piscina {
 
 async function run<T>(name: string, task: unknown, transferList?: ArrayBuffer[]): Promise<T> {
   const p = workerPool();
-  if (p.queueSize >= MAX_QUEUE) throw new HttpError('rate_limited', 'The server is busy with other long calculations. Try again in a minute.', [], {}, { 'Retry-After': '30' });
+  if (p.queueSize >= MAX_QUEUE)
+    throw new HttpError(
+      'rate_limited',
+      'The server is busy with other long calculations. Try again in a minute.',
+      [],
+      {},
+      { 'Retry-After': '30' },
+    );
   try {
     return (await p.run(task, { name, transferList: transferList as never })) as T;
   } catch (err) {

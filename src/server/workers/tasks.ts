@@ -62,7 +62,15 @@ function reader(dbPath: string): Database.Database {
 
 /** A saved log's readings thinned for a chart, its night-time baseline and daily amp-hours, read and computed here. */
 export function logSeries(task: LogDetailTask): LogSeries {
-  const rows = reader(task.dbPath).prepare('select t, volts, amps, soc_pct, temp_c from monitor_samples where log_id = ? order by t').raw().all(task.logId) as [number, number | null, number | null, number | null, number | null][];
+  const rows = reader(task.dbPath)
+    .prepare('select t, volts, amps, soc_pct, temp_c from monitor_samples where log_id = ? order by t')
+    .raw()
+    .all(task.logId) as [number, number | null, number | null, number | null, number | null][];
   const samples: Sample[] = rows.map(([t, volts, amps, socPct, tempC]) => ({ t, volts, amps, socPct, tempC }));
-  return { series: downsample(samples), baseline: nightBaseline(samples, task.timeZone), nightTempC: nightTemperature(samples, task.timeZone), days: dailyAh(samples, task.timeZone) };
+  return {
+    series: downsample(samples),
+    baseline: nightBaseline(samples, task.timeZone),
+    nightTempC: nightTemperature(samples, task.timeZone),
+    days: dailyAh(samples, task.timeZone),
+  };
 }

@@ -16,10 +16,14 @@ export const ALL: APIRoute = route(async (ctx) => {
   headers.set(CLIENT_IP_HEADER, clientKey(ctx));
   const method = ctx.request.method;
   // Bounded like every other route (413 past 64 KB), and the app's field rules first (400 in our envelope).
-  const body = method === 'GET' || method === 'HEAD' ? undefined : checkAuthBody(ctx.url.pathname, await readLimited(ctx.request, AUTH_BODY_MAX_BYTES));
+  const body =
+    method === 'GET' || method === 'HEAD'
+      ? undefined
+      : checkAuthBody(ctx.url.pathname, await readLimited(ctx.request, AUTH_BODY_MAX_BYTES));
   if (body) headers.delete('content-length');
   const res = await auth.handler(new Request(ctx.request.url, { method, headers, body: body as BodyInit | undefined }));
-  if (!SESSION_LISTS.has(ctx.url.pathname.replace(/\/+$/, '')) || !res.ok || !/json/.test(res.headers.get('content-type') ?? '')) return res;
+  if (!SESSION_LISTS.has(ctx.url.pathname.replace(/\/+$/, '')) || !res.ok || !/json/.test(res.headers.get('content-type') ?? ''))
+    return res;
   const out = new Headers(res.headers);
   out.delete('content-length');
   return new Response(JSON.stringify(withoutTokens(await res.json())), { status: res.status, headers: out });
