@@ -141,6 +141,14 @@ export default defineConfig(
           ],
         },
       ],
+      // …and no clock or randomness: the same plan always gives the same forecast.
+      'no-restricted-properties': [
+        'error',
+        { object: 'Date', property: 'now', message: 'The engine reads no clock: take the time as an input.' },
+        { object: 'Math', property: 'random', message: 'The engine is deterministic: no randomness.' },
+        { object: 'performance', property: 'now', message: 'The engine reads no clock: take the time as an input.' },
+      ],
+      'no-restricted-syntax': ['error', { selector: "NewExpression[callee.name='Date'][arguments.length=0]", message: 'The engine reads no clock: `new Date()` is now; pass the time in.' }],
     },
   },
   {
