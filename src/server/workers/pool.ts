@@ -10,7 +10,7 @@ import type { LogDetailTask, LogSeries, SweepTask, sweep } from './tasks';
 // The worker pool for CPU-heavy work (upgrade sweeps, reading monitor logs): the request thread only
 // hands the task over and waits, so /api/health and every other request keep answering.
 // The production build carries the tasks as one file of their own (<build>/server/workers/tasks.mjs,
-// bundled by astro.config.mjs); under `astro dev` and vitest the TypeScript source runs through tsx.
+// bundled by astro.config.mjs); under `astro dev` and vitest dev-tasks.mjs loads the TypeScript through tsx.
 
 /** Tasks waiting for a thread beyond this many are refused (429) instead of piling up in memory. */
 const MAX_QUEUE = 32;
@@ -20,15 +20,15 @@ const MAX_QUEUE = 32;
  */
 const WORKER_HEAP_MB = 128;
 
-function workerFile(): { filename: string; execArgv: string[] } {
+function workerFile(): string {
   const here = path.dirname(fileURLToPath(import.meta.url));
   // The server chunk that holds this module lives in <build>/server or one of its subfolders.
   for (let dir = here, i = 0; i < 4; i++, dir = path.dirname(dir)) {
     const built = path.join(dir, 'workers', 'tasks.mjs');
-    if (existsSync(built)) return { filename: pathToFileURL(built).href, execArgv: [] };
+    if (existsSync(built)) return pathToFileURL(built).href;
   }
-  const source = path.join(here, 'tasks.ts');
-  if (existsSync(source)) return { filename: pathToFileURL(source).href, execArgv: ['--import', 'tsx'] };
+  const dev = path.join(here, 'dev-tasks.mjs');
+  if (existsSync(dev)) return pathToFileURL(dev).href;
   throw new Error(`The worker tasks were not found near ${here}: build with "astro build" (it writes server/workers/tasks.mjs).`);
 }
 
@@ -37,11 +37,10 @@ let pool: Piscina | null = null;
 /** The one pool: one thread fewer than the machine has cores (at least one), so the request thread keeps a core. */
 export function workerPool(): Piscina {
   if (!pool) {
-    const { filename, execArgv } = workerFile();
+    const filename = workerFile();
     const threads = Math.max(1, availableParallelism() - 1);
     pool = new Piscina({
       filename,
-      execArgv,
       minThreads: 1,
       maxThreads: threads,
       maxQueue: MAX_QUEUE,
