@@ -54,6 +54,11 @@ export async function startServer(extraEnv: Record<string, string> = {}, reuse?:
     BETTER_AUTH_SECRET: 'test-secret-test-secret-test-secret-0001',
     PREVIEW_RATE_LIMIT: '0',
     AUTH_RATE_LIMIT: '0',
+    // Mail, share and sweep limits are tested on servers of their own (hardening.test.ts).
+    INVITE_CREW_HOURLY: '0',
+    INVITE_ADDRESS_HOURLY: '0',
+    GRANT_HOURLY: '0',
+    SWEEP_RATE_LIMIT: '0',
     SUNRECKON_ENV: 'test',
     NODE_ENV: 'production',
     ...extraEnv,
