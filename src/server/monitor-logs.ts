@@ -88,7 +88,9 @@ export async function createLog(
   input: { rigId: string; crewId: string; userId: string; name: string; original: Uint8Array; mapping: ColumnMapping; samples: Sample[] },
 ): Promise<MonitorLogDto> {
   const { samples } = input;
-  if (samples.length === 0) throw new HttpError('invalid_request', 'The log has no readings to save.', [{ path: 'file', message: 'no readings' }]);
+  const first = samples[0];
+  const last = samples.at(-1);
+  if (!first || !last) throw new HttpError('invalid_request', 'The log has no readings to save.', [{ path: 'file', message: 'no readings' }]);
   const id = crypto.randomUUID();
   await db.transaction().execute(async (trx) => {
     await trx
@@ -103,8 +105,8 @@ export async function createLog(
         mapping: JSON.stringify(input.mapping),
         time_zone: input.mapping.timeZone,
         sample_count: samples.length,
-        started_at: new Date(samples[0].t).toISOString(),
-        ended_at: new Date(samples[samples.length - 1].t).toISOString(),
+        started_at: new Date(first.t).toISOString(),
+        ended_at: new Date(last.t).toISOString(),
         created_by: input.userId,
         created_at: nowIso(),
       })
