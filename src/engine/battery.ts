@@ -1,6 +1,7 @@
-// The battery bank (forecast-engine.md step 13 and "Chargers and battery"): coulomb counting
-// in Ah at nominal volts, Peukert on discharge, charge efficiency and acceptance with taper,
-// cold capacity, the LiFePO4 cold lockout and open-circuit voltage tables.
+// The battery bank (forecast-engine.md step 13, "Chargers and battery" and "Revision 2"): charge
+// Q in Ah conserved, usable charge in the cold, Peukert on discharge, charge efficiency and
+// acceptance with taper (exact inside a sub-step), cold acceptance for lead-acid, the LiFePO4 cold
+// lockout, open-circuit voltage tables, current from power at terminal volts, thermal lag.
 import type { Chemistry } from './schema';
 
 /** True for the lead-acid family (flooded, AGM, gel). */
@@ -24,7 +25,7 @@ export function peukertAh(currentA: number, capacityAh: number, k: number, hours
 }
 
 /**
- * Cold capacity factor f: SOC moves by Ah/(C·f), f = max(0.3, 1 − k·max(0, 25 − T)), k = 0.008
+ * Cold capacity factor f (Revision 2: the bottom C·(1 − f) Ah cannot be drawn; first model: SOC moved by Ah/(C·f)), f = max(0.3, 1 − k·max(0, 25 − T)), k = 0.008
  * LiFePO4, 0.012 lead-acid (common practice: ~80 % at 0 °C LiFePO4, ~40 % near −18 °C lead-acid).
  */
 export function capacityFactor(chem: Chemistry, batteryC: number): number {
@@ -32,9 +33,14 @@ export function capacityFactor(chem: Chemistry, batteryC: number): number {
   return Math.max(0.3, 1 - k * Math.max(0, 25 - batteryC));
 }
 
+/** SOC (fraction) where the charge taper starts: 95 % LiFePO4, 80 % lead-acid (common practice). */
+export function taperKnee(chem: Chemistry): number {
+  return isLeadAcid(chem) ? 0.8 : 0.95;
+}
+
 /**
  * Charge-acceptance taper (common practice): full up to 95 % SOC (LiFePO4) or 80 % (lead-acid),
- * then linear to zero at 100 %. `soc` is a fraction 0..1, taken at the hour's start.
+ * then linear to zero at 100 %. `soc` is a fraction 0..1 (Revision 2: at each sub-step's SOC).
  */
 export function taperFactor(chem: Chemistry, soc: number): number {
   const knee = isLeadAcid(chem) ? 0.8 : 0.95;
@@ -60,14 +66,93 @@ export function ocvVolts(chem: Chemistry, soc: number, nominalVolts: number): nu
   const t = OCV[chem];
   const pct = Math.min(100, Math.max(0, soc * 100));
   let i = 1;
-  while (i < t.soc.length - 1 && pct > t.soc[i]) i++;
-  const s0 = t.soc[i - 1];
-  const s1 = t.soc[i];
-  const v = t.v[i - 1] + ((t.v[i] - t.v[i - 1]) * (pct - s0)) / (s1 - s0);
+  while (i < t.soc.length - 1 && pct > (t.soc[i] ?? 100)) i++;
+  const s0 = t.soc[i - 1] ?? 0;
+  const s1 = t.soc[i] ?? 100;
+  const v0 = t.v[i - 1] ?? 0;
+  const v1 = t.v[i] ?? 0;
+  const v = v0 + ((v1 - v0) * (pct - s0)) / (s1 - s0);
   return (v * nominalVolts) / t.base;
 }
 
 /** Terminal volts: OCV(SOC) + I·R, with I the hour's average net current (positive charging). */
 export function terminalVolts(chem: Chemistry, soc: number, nominalVolts: number, netCurrentA: number, internalResistanceMilliohm: number): number {
   return ocvVolts(chem, soc, nominalVolts) + (netCurrentA * internalResistanceMilliohm) / 1000;
+}
+
+/** Internal resistance of a bank in ohms from milliohms per 100 Ah: R = R100 × 100 / C (Revision 2). */
+export function bankResistanceOhms(milliohmPer100Ah: number, capacityAh: number): number {
+  return (milliohmPer100Ah / 1000) * (100 / capacityAh);
+}
+
+/** Ah at the bottom of a bank that the cold keeps from being drawn: C·(1 − f(Tb)) (Revision 2). */
+export function strandedAh(chem: Chemistry, capacityAh: number, batteryC: number): number {
+  return capacityAh * (1 - capacityFactor(chem, batteryC));
+}
+
+/** Usable charge, % of rated: 100·max(0, Q − C·(1 − f(Tb)))/C (Revision 2). */
+export function usablePct(chem: Chemistry, chargeAh: number, capacityAh: number, batteryC: number): number {
+  return (100 * Math.max(0, chargeAh - strandedAh(chem, capacityAh, batteryC))) / capacityAh;
+}
+
+/**
+ * Bank current (A, positive discharging) on a bus with loads minus MPPT solar `netPowerW`
+ * (= Pload − Pmppt) and current sources `sourceA` (chargers, PWM), solving
+ * (I + Isrc)·(OCV − I·R) = Pload − Pmppt (Revision 2). Null when no real I exists (voltage collapse).
+ * With Isrc = 0: discharge I = (OCV − √(OCV² − 4RP))/(2R), charge I = −(√(OCV² + 4RP) − OCV)/(2R).
+ */
+export function busCurrent(ocv: number, ohms: number, sourceA: number, netPowerW: number): number | null {
+  // R·I² − b·I + c = 0 with b = OCV − Isrc·R, c = D − Isrc·OCV; the root near D/OCV − Isrc, in the
+  // form 2c/(b + √(b² − 4Rc)) that stays exact as R → 0.
+  const b = ocv - sourceA * ohms;
+  const c = netPowerW - sourceA * ocv;
+  const disc = b * b - 4 * ohms * c;
+  if (disc < 0) return null;
+  const den = b + Math.sqrt(disc);
+  if (!(den > 0)) return null;
+  return (2 * c) / den;
+}
+
+/** Discharge current for `watts` at the terminals: (OCV − √(OCV² − 4RP))/(2R); null on collapse (Revision 2). */
+export function dischargeCurrent(ocv: number, ohms: number, watts: number): number | null {
+  return busCurrent(ocv, ohms, 0, watts);
+}
+
+/** Charge current for `watts` into the terminals: (√(OCV² + 4RP) − OCV)/(2R) (Revision 2). */
+export function chargeCurrent(ocv: number, ohms: number, watts: number): number {
+  return -(busCurrent(ocv, ohms, 0, -watts) ?? 0);
+}
+
+/**
+ * Charge after charging for `hours` at the acceptance limit (the source is strong enough
+ * throughout): dQ/dt = η·Imax·g(Q), g = 1 below the knee and (1 − Q/C)/(1 − knee) above, solved
+ * exactly — linear to the knee, then 1 − Q/C = (1 − Q₀/C)·exp(−t·Imax·η/(C·(1 − knee))) (Revision 2).
+ */
+export function taperedChargeAh(chargeAh: number, capacityAh: number, maxAmps: number, eta: number, knee: number, hours: number): number {
+  if (!(maxAmps > 0) || !(hours > 0)) return chargeAh;
+  const kneeAh = knee * capacityAh;
+  let q = chargeAh;
+  let t = hours;
+  if (q < kneeAh) {
+    const toKnee = (kneeAh - q) / (eta * maxAmps);
+    if (toKnee >= t) return q + eta * maxAmps * t;
+    q = kneeAh;
+    t -= toKnee;
+  }
+  if (knee >= 1) return Math.min(q, capacityAh);
+  const rate = (eta * maxAmps) / (capacityAh * (1 - knee));
+  return capacityAh - (capacityAh - q) * Math.exp(-t * rate);
+}
+
+/** Charge acceptance in amps at `soc`: max amps × taper, × f(Tb) for lead-acid, 0 when the LiFePO4 lockout applies (Revision 2). */
+export function acceptanceAmps(chem: Chemistry, soc: number, maxChargeAmps: number, batteryC: number, selfHeating: boolean): number {
+  if (coldChargeBlocked(chem, batteryC, selfHeating)) return 0;
+  const cold = isLeadAcid(chem) ? capacityFactor(chem, batteryC) : 1;
+  return maxChargeAmps * taperFactor(chem, soc) * cold;
+}
+
+/** Battery temperature after an hour: Tb + (Tsur − Tb)·(1 − e^(−1/τ)); τ = 0 follows at once (Revision 2). */
+export function thermalStep(batteryC: number, surroundingsC: number, thermalHours: number): number {
+  const alpha = thermalHours > 0 ? 1 - Math.exp(-1 / thermalHours) : 1;
+  return batteryC + (surroundingsC - batteryC) * alpha;
 }

@@ -25,8 +25,14 @@ export interface HourlyRow {
   generatorOn: boolean;
   /** Added: the bank is disconnected for some or all of the hour. */
   disconnected: boolean;
-  /** Added: battery temperature, °C. */
+  /** Added: battery temperature, °C (Revision 2: with thermal lag). */
   batteryC: number;
+  /** Revision 2: usable charge at the hour's end, % of rated (cold strands the bottom of the bank). */
+  usablePct: number;
+  /** Revision 2: the hour's lowest terminal volts, its biggest appliance's surge included. */
+  minVolts: number;
+  /** Added (Revision 2): the cabin's temperature, °C. */
+  cabinC: number;
 }
 
 /** One local day; Wh are sums of its hours, minimums use end-of-hour SOC. */
@@ -66,7 +72,15 @@ export interface ForecastSummary {
   chargeWh: number;
   /** Added: hours in which the cold lockout refused charge. */
   coldBlockedHours: number;
+  /** Revision 2: the trip's lowest terminal volts and the row where it happens. */
+  minVolts: number;
+  minVoltsAt: string;
+  /** Added (Revision 2): the lowest end-of-hour usable charge, %. */
+  minUsablePct: number;
 }
+
+/** The engine revision whose rules made a forecast (forecast-engine.md, "Revision 2"). */
+export const ENGINE_REVISION = 2;
 
 /** A plain-English warning at a row's `time`. */
 export interface ForecastWarning {
@@ -83,6 +97,8 @@ export interface Forecast {
   warnings: ForecastWarning[];
   /** Added: the stops `hourly[].stop` points into. */
   stops: { name: string; timeZone: string }[];
+  /** The engine revision that made this forecast (2). */
+  engineRevision: number;
 }
 
 // Rounding per the contract: watts whole, SOC 0.1, volts 0.01. `+ 0` turns −0 into 0 and a
@@ -102,7 +118,10 @@ const WARNING_ORDER: Record<string, number> = {
   'weather-assumed': 1,
   'floor-cutoff': 2,
   'voltage-cutoff': 3,
+  'surge-cutoff': 3,
+  'voltage-collapse': 3,
   'cold-charge-blocked': 4,
+  'inverter-overload': 5,
 };
 
 /** Builds the contract's JSON from a prepared trip and one simulation of it. */
@@ -126,7 +145,10 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
       driving: grid.driving[r] === 1,
       generatorOn: sim.generatorOn[r] === 1,
       disconnected: sim.disconnected[r] === 1,
-      batteryC: r1(sim.batteryC[r]),
+      batteryC: r1(sim.batteryC[r]!),
+      usablePct: r1(sim.usablePct[r]!),
+      minVolts: r2(sim.minVolts[r]!),
+      cabinC: r1(sim.cabinC[r]!),
     };
   }
 
@@ -178,6 +200,9 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
     loadWh: r0(s.loadWh),
     chargeWh: r0(s.chargeWh),
     coldBlockedHours: s.coldBlockedHours,
+    minVolts: r2(s.minVolts),
+    minVoltsAt: grid.time[s.minVoltsRow] ?? grid.time[0] ?? '',
+    minUsablePct: r1(s.minUsablePct),
   };
 
   const all = [...prepared.warnings, ...sim.warnings];
@@ -190,6 +215,7 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
     summary,
     warnings,
     stops: prepared.plan.stops.map((st) => ({ name: st.name, timeZone: st.timeZone })),
+    engineRevision: ENGINE_REVISION,
   };
 }
 

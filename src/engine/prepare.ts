@@ -4,7 +4,7 @@
 // and each hour's load demand. An upgrade sweep prepares once and simulates many variants.
 import { ambientForRow } from './ambient';
 import { inGeneratorWindow } from './chargers';
-import { inverterDcWatts, runsOnDay, windowMask, dutyAt } from './loads';
+import { inverterDcWatts, runsOnDay, windowMask, dutyAt, windowFraction, loadTemp } from './loads';
 import type { ResolvedArray, ResolvedPlan } from './schema';
 import { cosIncidenceTrig, extraterrestrial, haurwitz, kastenCzeplak, poaIsotropicCos, splitErbs } from './sun';
 import { cellTempNoct, dcPerWatt } from './pv';
@@ -15,6 +15,8 @@ import { assumedMessage, ignoredMessage, resolveStopWeather, type DayWeather } f
 
 /** Solar sub-steps per hour: midpoints of 6 equal slices (forecast-engine.md asks for at least 6). */
 export const SUBSTEPS = 6;
+/** Battery sub-steps per hour (Revision 2: at least 12); each uses the solar sub-step it lies in. */
+export const BATTERY_SUBSTEPS = 12;
 
 /**
  * Midpoint altitude (apparent, degrees) below which an hour at this latitude has no sun at all,
@@ -42,8 +44,29 @@ export interface PreparedArray {
   perWatt: Float64Array;
   /** Largest sub-step W per rated W in the hour (decides whether the controller cap can bind). */
   perWattMax: Float64Array;
-  /** W per rated W at each sub-step, row-major (n × SUBSTEPS). */
+  /**
+   * W per rated W at each sub-step, row-major (n × SUBSTEPS). MPPT: DC output with the power
+   * temperature coefficient. PWM (Revision 2): POA/1000·(1 − losses), no temperature coefficient
+   * (the panel's current is (rated/Vmp) × this).
+   */
   perWattSub: Float64Array;
+}
+
+/** Load demand of every row in one cabin state (heating without power, or with power). */
+export interface PreparedDemand {
+  /** DC loads, W. */
+  dcW: Float64Array;
+  /** AC loads before the inverter, W. */
+  acW: Float64Array;
+  /** The biggest single unit at full draw among all loads (AC through the inverter's efficiency), DC W. */
+  peakAllW: Float64Array;
+  /** That unit's average DC W in the hour. */
+  peakAllAvgW: Float64Array;
+  /** The same among DC loads only (AC served from shore or a generator). */
+  peakDcW: Float64Array;
+  peakDcAvgW: Float64Array;
+  /** 1 when the AC loads can overload the inverter (continuous or surge rating). */
+  inverterOverload: Uint8Array;
 }
 
 /** A trip prepared for simulation: the plan, its grid and every per-hour input of the battery loop. */
@@ -60,6 +83,12 @@ export interface PreparedTrip {
   dcLoadW: Float64Array;
   /** What the inverter draws from the bank for the AC loads (losses and idle included), W. */
   acBankW: Float64Array;
+  /** Revision 2: the cabin's temperature when its heating loads have power (= ambient without them). */
+  cabinHeatedC: Float64Array;
+  /** Revision 2: demand with the cabin at ambient ([0]) and with heating powered ([1]). */
+  demand: [PreparedDemand, PreparedDemand];
+  /** Revision 2: fraction of each row inside a drive (alternator charging). */
+  driveFrac: Float64Array;
   /** 1 at a hookup stop outside drive hours: shore charging, AC loads off the bank. */
   shore: Uint8Array;
   /** 1 where the plan's generator may run (window, no hookup, not driving). */
@@ -122,6 +151,20 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   const sinTilt = plan.arrays.map((a) => Math.sin(a.tiltDeg * RAD));
 
   const ambientC = new Float64Array(n);
+  const cabinHeatedC = new Float64Array(n);
+  const newDemand = (): PreparedDemand => ({
+    dcW: new Float64Array(n),
+    acW: new Float64Array(n),
+    peakAllW: new Float64Array(n),
+    peakAllAvgW: new Float64Array(n),
+    peakDcW: new Float64Array(n),
+    peakDcAvgW: new Float64Array(n),
+    inverterOverload: new Uint8Array(n),
+  });
+  const demand: [PreparedDemand, PreparedDemand] = [newDemand(), newDemand()];
+  const driveFrac = new Float64Array(n);
+  const invEta = plan.inverter.efficiencyPct / 100;
+  const heatingLoads = plan.loads.some((l) => l.response === 'heating');
   const sunAltitudeDeg = new Float64Array(n);
   const poaWm2 = new Float64Array(n);
   const dcLoadW = new Float64Array(n);
@@ -135,6 +178,10 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   const masks = plan.loads.map((l) => windowMask(l.windows));
   const loadWatts = plan.loads.map((l) => l.watts * l.quantity);
   const fixedDuty = plan.loads.map((l) => (l.response === 'none' ? dutyAt(l, 0) : -1));
+  const pwm = plan.arrays.map((a) => a.controller === 'pwm');
+  const cosZSub = new Float64Array(SUBSTEPS);
+  const azSub = new Float64Array(SUBSTEPS);
+  const drives = grid.timeline.drives;
 
   // suncalc 2.x directly (see sun.ts sunPosition for its conventions), with one reused Date:
   // thousands of sub-steps per trip make allocation show up in the timings.
@@ -148,8 +195,21 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     const hour = grid.localHour[r];
     const w = weather[s].byDay.get(day) as DayWeather;
     dayIndex[r] = dayPos.get(day) ?? 0;
-    const ta = ambientForRow(hour, w.highC, w.lowC);
+    // Revision 2: an hour's `tempC` from a source replaces the ASHRAE profile.
+    const givenT = w.tempC ? w.tempC[hour] : NaN;
+    const ta = givenT !== undefined && Number.isFinite(givenT) ? givenT : ambientForRow(hour, w.highC, w.lowC);
     ambientC[r] = ta;
+    const t0 = grid.startMs + r * HOUR_MS;
+    // Minutes past the local clock hour, as a fraction (rows after a move to a zone with a different minute offset).
+    const local = t0 + grid.offsetMin[r] * 60_000;
+    const minuteFrac = (((local % HOUR_MS) + HOUR_MS) % HOUR_MS) / HOUR_MS;
+    let df = 0;
+    for (const d of drives) {
+      const lo = Math.max(d.startMs, t0);
+      const hi = Math.min(d.endMs, t0 + HOUR_MS);
+      if (hi > lo) df += (hi - lo) / HOUR_MS;
+    }
+    driveFrac[r] = Math.min(1, df);
 
     const driving = grid.driving[r] === 1;
     const hookup = stop.hookup === 'shore';
@@ -157,22 +217,77 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     generatorSite[r] = !hookup && !driving ? 1 : 0;
     generatorAllowed[r] = generatorSite[r] && inGeneratorWindow(hour, stop.generatorHours) ? 1 : 0;
 
-    // ---- loads ----
-    let dc = 0;
-    let ac = 0;
+    // ---- loads (Revision 2: cabin temperature, location, fraction of the row, surges) ----
     const isDriveDay = grid.driveDay[r] === 1;
-    for (let i = 0; i < plan.loads.length; i++) {
-      const l = plan.loads[i];
-      if (((masks[i] >>> hour) & 1) === 0 || !runsOnDay(l.days, isDriveDay)) continue;
-      const wts = loadWatts[i] * (fixedDuty[i] >= 0 ? fixedDuty[i] : dutyAt(l, ta));
-      if (l.supply === 'ac') ac += wts;
-      else dc += wts;
+    let maxSet = -Infinity;
+    if (heatingLoads) {
+      for (let i = 0; i < plan.loads.length; i++) {
+        const l = plan.loads[i]!;
+        if (l.response !== 'heating' || !runsOnDay(l.days, isDriveDay) || windowFraction(masks[i]!, hour, minuteFrac) <= 0) continue;
+        if (l.setpointC > maxSet) maxSet = l.setpointC;
+      }
     }
-    dcLoadW[r] = dc;
-    acBankW[r] = inverterDcWatts(ac, plan.inverter);
+    cabinHeatedC[r] = maxSet > ta ? maxSet : ta;
+    for (let st = 0; st < 2; st++) {
+      const cab = st === 1 ? cabinHeatedC[r]! : ta;
+      const dm = demand[st as 0 | 1];
+      let dc = 0;
+      let ac = 0;
+      let peakAll = 0;
+      let peakAllAvg = 0;
+      let peakDc = 0;
+      let peakDcAvg = 0;
+      let acPeakFull = 0;
+      let acPeakAvg = 0;
+      let acSurgeOver = false;
+      for (let i = 0; i < plan.loads.length; i++) {
+        const l = plan.loads[i]!;
+        if (!runsOnDay(l.days, isDriveDay)) continue;
+        const frac = windowFraction(masks[i]!, hour, minuteFrac);
+        if (frac <= 0 || l.quantity === 0) continue;
+        const duty = fixedDuty[i]! >= 0 ? fixedDuty[i]! : dutyAt(l, loadTemp(l, ta, cab));
+        const unitAvg = l.watts * duty * frac;
+        if (!(unitAvg > 0)) continue;
+        const wts = unitAvg * l.quantity;
+        const full = l.surgeWatts ?? l.watts;
+        if (l.supply === 'ac') {
+          ac += wts;
+          if (full / invEta > peakAll) {
+            peakAll = full / invEta;
+            peakAllAvg = unitAvg / invEta;
+          }
+          if (full > acPeakFull) {
+            acPeakFull = full;
+            acPeakAvg = unitAvg;
+          }
+          if (plan.inverter.surgeWatts !== null && l.surgeWatts !== null && l.surgeWatts > plan.inverter.surgeWatts) acSurgeOver = true;
+        } else {
+          dc += wts;
+          if (full > peakAll) {
+            peakAll = full;
+            peakAllAvg = unitAvg;
+          }
+          if (full > peakDc) {
+            peakDc = full;
+            peakDcAvg = unitAvg;
+          }
+        }
+      }
+      dm.dcW[r] = dc;
+      dm.acW[r] = ac;
+      dm.peakAllW[r] = peakAll;
+      dm.peakAllAvgW[r] = peakAllAvg;
+      dm.peakDcW[r] = peakDc;
+      dm.peakDcAvgW[r] = peakDcAvg;
+      const cont = plan.inverter.continuousWatts;
+      // The biggest AC unit at full draw plus the others' averages.
+      const overCont = cont !== null && ac > 0 && acPeakFull + (ac - acPeakAvg) > cont;
+      dm.inverterOverload[r] = overCont || acSurgeOver ? 1 : 0;
+    }
+    dcLoadW[r] = demand[1].dcW[r]!;
+    acBankW[r] = inverterDcWatts(demand[1].acW[r]!, plan.inverter);
 
     // ---- sun at the midpoint (reported) ----
-    const t0 = grid.startMs + r * HOUR_MS;
     date.setTime(t0 + HOUR_MS / 2);
     const mid = getPosition(date, stop.lat, stop.lon);
     sunAltitudeDeg[r] = mid.altitude;
@@ -183,14 +298,26 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     const cloud = kastenCzeplak(w.cloudOktas);
     const shadeStop = 1 - stop.shadePct / 100;
     let poaFirstSum = 0;
+    let clearSum = 0;
     for (let k = 0; k < SUBSTEPS; k++) {
       date.setTime(t0 + ((k + 0.5) * HOUR_MS) / SUBSTEPS);
       const p = getPosition(date, stop.lat, stop.lon);
-      const cosZ = Math.sin(p.altitude * RAD);
+      cosZSub[k] = Math.sin(p.altitude * RAD);
+      azSub[k] = p.azimuth;
+      clearSum += haurwitz(cosZSub[k]!);
+    }
+    // Revision 2: an hour's GHI from a source replaces clear sky × clouds, spread over the
+    // sub-steps with the hour's clear-sky shape (dropped where that shape is zero).
+    const givenGhi = w.ghiWm2 ? w.ghiWm2[hour] : NaN;
+    const useGiven = givenGhi !== undefined && Number.isFinite(givenGhi);
+    const ghiScale = useGiven ? (clearSum > 0 ? (givenGhi * SUBSTEPS) / clearSum : 0) : cloud;
+    for (let k = 0; k < SUBSTEPS; k++) {
+      const cosZ = cosZSub[k]!;
       if (!(cosZ > 0)) continue;
-      // Steps 3–5: clear sky, clouds, beam/diffuse split.
-      const sky = splitErbs(haurwitz(cosZ) * cloud, cosZ, e0);
-      const sinZ = Math.cos(p.altitude * RAD);
+      const p = { azimuth: azSub[k]! };
+      // Steps 3–5: clear sky, clouds (or the given GHI), beam/diffuse split.
+      const sky = splitErbs(haurwitz(cosZ) * ghiScale, cosZ, e0);
+      const sinZ = Math.sqrt(Math.max(0, 1 - cosZ * cosZ));
       for (let a = 0; a < na; a++) {
         const spec = plan.arrays[a];
         // Step 6: a panel that follows the sun faces the sun's azimuth at every sub-step.
@@ -200,7 +327,8 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
         const poa = poaIsotropicCos(sky.dni, sky.dhi, sky.ghi, cosT, cosTilt[a]) * shadeStop * arrayShade[a];
         poaSub[a] = poa;
         // Step 8: NOCT cell temperature and DC output per rated watt.
-        const pw = dcPerWatt(poa, cellTempNoct(ta, poa, spec.nocC), spec.tempCoeffPctPerC, spec.lossesPct);
+        // PWM (Revision 2): the panel's current follows POA with no temperature coefficient.
+        const pw = pwm[a] ? Math.max(0, (poa / 1000) * (1 - spec.lossesPct / 100)) : dcPerWatt(poa, cellTempNoct(ta, poa, spec.nocC), spec.tempCoeffPctPerC, spec.lossesPct);
         const arr = arrays[a];
         arr.perWattSub[r * SUBSTEPS + k] = pw;
         arr.perWatt[r] += pw / SUBSTEPS;
@@ -216,6 +344,9 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     grid,
     n,
     ambientC,
+    cabinHeatedC,
+    demand,
+    driveFrac,
     sunAltitudeDeg,
     poaWm2,
     arrays,
