@@ -61,6 +61,25 @@ const OCV: Record<Chemistry, { soc: number[]; v: number[]; base: number }> = {
   gel: { soc: [0, 25, 50, 75, 100], v: [11.8, 12.0, 12.3, 12.6, 12.8], base: 12 },
 };
 
+/**
+ * A fast open-circuit-volts function for one bank (the same table and scaling as `ocvVolts`), for
+ * the sub-step loop: breakpoints pre-scaled, slopes pre-computed.
+ */
+export function ocvFunction(chem: Chemistry, nominalVolts: number): (soc: number) => number {
+  const t = OCV[chem];
+  const k = nominalVolts / t.base;
+  const xs = t.soc.map((p) => p / 100);
+  const vs = t.v.map((v) => v * k);
+  const m = xs.length;
+  const slopes = xs.slice(1).map((x, i) => ((vs[i + 1] ?? 0) - (vs[i] ?? 0)) / (x - (xs[i] ?? 0)));
+  return (soc: number) => {
+    const x = soc < 0 ? 0 : soc > 1 ? 1 : soc;
+    let i = 1;
+    while (i < m - 1 && x > (xs[i] ?? 1)) i++;
+    return (vs[i - 1] ?? 0) + (slopes[i - 1] ?? 0) * (x - (xs[i - 1] ?? 0));
+  };
+}
+
 /** Open-circuit volts at `soc` (fraction), linear between table points, scaled by nominal/12.8 or nominal/12. */
 export function ocvVolts(chem: Chemistry, soc: number, nominalVolts: number): number {
   const t = OCV[chem];

@@ -228,7 +228,9 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
       }
     }
     cabinHeatedC[r] = maxSet > ta ? maxSet : ta;
-    for (let st = 0; st < 2; st++) {
+    // With the cabin at ambient either way, both states are the same: compute once, copy.
+    const sameStates = cabinHeatedC[r] === ta;
+    for (let st = sameStates ? 1 : 0; st < 2; st++) {
       const cab = st === 1 ? cabinHeatedC[r]! : ta;
       const dm = demand[st as 0 | 1];
       let dc = 0;
@@ -283,6 +285,17 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
       // The biggest AC unit at full draw plus the others' averages.
       const overCont = cont !== null && ac > 0 && acPeakFull + (ac - acPeakAvg) > cont;
       dm.inverterOverload[r] = overCont || acSurgeOver ? 1 : 0;
+    }
+    if (sameStates) {
+      const d0 = demand[0];
+      const d1 = demand[1];
+      d0.dcW[r] = d1.dcW[r]!;
+      d0.acW[r] = d1.acW[r]!;
+      d0.peakAllW[r] = d1.peakAllW[r]!;
+      d0.peakAllAvgW[r] = d1.peakAllAvgW[r]!;
+      d0.peakDcW[r] = d1.peakDcW[r]!;
+      d0.peakDcAvgW[r] = d1.peakDcAvgW[r]!;
+      d0.inverterOverload[r] = d1.inverterOverload[r]!;
     }
     dcLoadW[r] = demand[1].dcW[r]!;
     acBankW[r] = inverterDcWatts(demand[1].acW[r]!, plan.inverter);

@@ -3,7 +3,7 @@
 // integrated in sub-steps inside each hour, with loads and MPPT solar as power at the terminal
 // volts and chargers and PWM solar as current sources.
 import { z } from 'zod';
-import { bankResistanceOhms, busCurrent, capacityFactor, coldChargeBlocked, dischargeCurrent, isLeadAcid, ocvVolts, peukertFactor, taperedChargeAh, taperKnee, thermalStep } from './battery';
+import { bankResistanceOhms, busCurrent, capacityFactor, coldChargeBlocked, dischargeCurrent, isLeadAcid, ocvFunction, peukertFactor, taperedChargeAh, taperKnee, thermalStep } from './battery';
 import { generatorRuns, inGeneratorWindow } from './chargers';
 import { PlanValidationError, zodIssuesToEnvelope } from './errors';
 import { inverterDcWatts } from './loads';
@@ -153,6 +153,7 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
   const lead = isLeadAcid(chem);
   const inCabin = bank.location === 'cabin';
   const cutoffV = bank.cutoffVolts;
+  const ocvAt = ocvFunction(chem, vn);
 
   // ---- chargers by kind: current sources at their rated amps (Revision 2) ----
   let alternatorA = 0;
@@ -316,7 +317,7 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
       let tLeft = dt;
       // At most three passes: a floor or collapse part-way through turns the rest into a disconnected pass.
       for (let pass = 0; pass < 3 && tLeft > 1e-12; pass++) {
-        const ocv = ocvVolts(chem, q / cap, vn);
+        const ocv = ocvAt(q / cap);
         const load = disc ? 0 : demandW;
         let iBank = busCurrent(ocv, ohms, isrc, load - pm);
         let servedFrac = 1;
@@ -406,9 +407,9 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
     // ---- volts: end of hour, average, and the hour's lowest with its biggest appliance (Revision 2) ----
     const iAvg = netASum; // A·h over one hour = average A, positive discharging
     const socEnd = q / cap;
-    const vt = ocvVolts(chem, socEnd, vn) - iAvg * ohms;
+    const vt = ocvAt(socEnd) - iAvg * ohms;
     const vAvg = vSum > 0 ? vSum : vt;
-    const ocvLow = ocvVolts(chem, Math.min(qStart, q) / cap, vn);
+    const ocvLow = ocvAt(Math.min(qStart, q) / cap);
     let vMin = ocvLow - iAvg * ohms;
     if (!discAtStart) {
       const pk = acOnBank ? dm.peakAllW[r]! : dm.peakDcW[r]!;
