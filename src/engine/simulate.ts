@@ -224,6 +224,7 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
     tb = amb0;
     disc = usableOf(q, capacityFactor(chem, tb)) <= floor + EPS;
   }
+  const startedDisconnected = disc;
   let reason = disc ? CUTOFF_FLOOR : CUTOFF_NONE;
   let usableAtVoltCut = 0;
   let reconnectRow = 0;
@@ -439,7 +440,8 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
             : 'The bank cannot deliver the loads\u2019 power (its voltage collapses under the draw): part of the hour goes unmet.',
       });
     }
-    if (cutoffEvent[r] !== CUTOFF_NONE) {
+    // A bank that starts at or below its floor was announced before the loop: one warning, not two.
+    if (cutoffEvent[r] !== CUTOFF_NONE && !(r === 0 && startedDisconnected)) {
       if (firstCutoffRow === null) firstCutoffRow = r;
       if (cutoffEvent[r] === CUTOFF_FLOOR) {
         warnings.push({ code: 'floor-cutoff', row: r, message: `The bank's usable charge reaches its ${fmt(bank.floorSocPct, 1)} % floor and it disconnects; loads go unmet until charging lifts it to ${fmt(bank.floorSocPct + 5, 1)} %.` });

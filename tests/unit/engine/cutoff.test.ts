@@ -80,6 +80,8 @@ describe('floor cutoff', () => {
     expect(f.hourly[0].loadWatts).toBe(0);
     expect(f.hourly[0].unmetWatts).toBe(128);
     expect(f.warnings[0].code).toBe('floor-cutoff');
+    // One warning for it, not a second one from the first row's own check.
+    expect(f.warnings.filter((w) => w.code === 'floor-cutoff' && w.at === f.hourly[0]!.time)).toHaveLength(1);
   });
 });
 
