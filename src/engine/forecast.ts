@@ -130,21 +130,21 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
   const hourly: HourlyRow[] = new Array<HourlyRow>(n);
   for (let r = 0; r < n; r++) {
     hourly[r] = {
-      time: grid.time[r],
-      socPct: r1(sim.socEndPct[r]),
-      volts: r2(sim.volts[r]),
-      solarWatts: r0(sim.solarW[r]),
-      chargeWatts: r0(sim.chargeW[r]),
-      loadWatts: r0(sim.loadW[r]),
-      unmetWatts: r0(sim.unmetW[r]),
-      curtailedWatts: r0(sim.curtailedW[r]),
-      ambientC: r1(prepared.ambientC[r]),
-      sunAltitudeDeg: r1(prepared.sunAltitudeDeg[r]),
-      poaWm2: r0(prepared.poaWm2[r]),
-      stop: grid.stop[r],
-      driving: grid.driving[r] === 1,
-      generatorOn: sim.generatorOn[r] === 1,
-      disconnected: sim.disconnected[r] === 1,
+      time: grid.time[r]!,
+      socPct: r1(sim.socEndPct[r]!),
+      volts: r2(sim.volts[r]!),
+      solarWatts: r0(sim.solarW[r]!),
+      chargeWatts: r0(sim.chargeW[r]!),
+      loadWatts: r0(sim.loadW[r]!),
+      unmetWatts: r0(sim.unmetW[r]!),
+      curtailedWatts: r0(sim.curtailedW[r]!),
+      ambientC: r1(prepared.ambientC[r]!),
+      sunAltitudeDeg: r1(prepared.sunAltitudeDeg[r]!),
+      poaWm2: r0(prepared.poaWm2[r]!),
+      stop: grid.stop[r]!,
+      driving: grid.driving[r]! === 1,
+      generatorOn: sim.generatorOn[r]! === 1,
+      disconnected: sim.disconnected[r]! === 1,
       batteryC: r1(sim.batteryC[r]!),
       usablePct: r1(sim.usablePct[r]!),
       minVolts: r2(sim.minVolts[r]!),
@@ -156,22 +156,22 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
   const nd = prepared.days.length;
   const acc = prepared.days.map(() => ({ load: 0, solar: 0, charge: 0, unmet: 0, curtailed: 0, min: Infinity, end: 0, seen: false }));
   for (let r = 0; r < n; r++) {
-    const d = acc[prepared.dayIndex[r]];
-    d.load += sim.loadW[r];
-    d.solar += sim.solarW[r];
-    d.charge += sim.chargeW[r];
-    d.unmet += sim.unmetW[r];
-    d.curtailed += sim.curtailedW[r];
-    if (sim.socEndPct[r] < d.min) d.min = sim.socEndPct[r];
-    d.end = sim.socEndPct[r];
+    const d = acc[prepared.dayIndex[r]!]!;
+    d.load += sim.loadW[r]!;
+    d.solar += sim.solarW[r]!;
+    d.charge += sim.chargeW[r]!;
+    d.unmet += sim.unmetW[r]!;
+    d.curtailed += sim.curtailedW[r]!;
+    if (sim.socEndPct[r]! < d.min) d.min = sim.socEndPct[r]!;
+    d.end = sim.socEndPct[r]!;
     d.seen = true;
   }
   const days: DayRow[] = [];
   for (let i = 0; i < nd; i++) {
-    const d = acc[i];
+    const d = acc[i]!;
     if (!d.seen) continue;
     days.push({
-      date: prepared.days[i],
+      date: prepared.days[i]!,
       loadWh: r0(d.load),
       solarWh: r0(d.solar),
       chargeWh: r0(d.charge),
@@ -186,8 +186,8 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
   const s = sim.summary;
   const summary: ForecastSummary = {
     minSocPct: r1(s.minSocPct),
-    minSocAt: grid.time[s.minSocRow] ?? grid.time[0],
-    firstCutoffAt: s.firstCutoffRow === null ? null : grid.time[s.firstCutoffRow],
+    minSocAt: grid.time[s.minSocRow] ?? grid.time[0] ?? '',
+    firstCutoffAt: s.firstCutoffRow === null ? null : (grid.time[s.firstCutoffRow] ?? null),
     unmetWh: r0(s.unmetWh),
     solarWh: r0(s.solarWh),
     curtailedWh: r0(s.curtailedWh),
@@ -207,7 +207,7 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
 
   const all = [...prepared.warnings, ...sim.warnings];
   all.sort((a, b) => a.row - b.row || (WARNING_ORDER[a.code] ?? 9) - (WARNING_ORDER[b.code] ?? 9));
-  const warnings = all.map((w) => ({ code: w.code, at: grid.time[w.row], message: w.message }));
+  const warnings = all.map((w) => ({ code: w.code, at: grid.time[w.row] ?? '', message: w.message }));
 
   return {
     hourly,

@@ -114,24 +114,26 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   const firstRowOfStopDay = new Map<string, number>();
   const firstRowOfStop: number[] = plan.stops.map(() => -1);
   for (let r = 0; r < n; r++) {
-    const s = grid.stop[r];
-    const d = grid.localDay[r];
+    const s = grid.stop[r]!;
+    const d = grid.localDay[r]!;
     daySet.add(d);
     const key = `${s}|${d}`;
     if (!firstRowOfStopDay.has(key)) {
       firstRowOfStopDay.set(key, r);
-      ownedDays[s].push(d);
+      ownedDays[s]!.push(d);
     }
-    if (firstRowOfStop[s] < 0) firstRowOfStop[s] = r;
+    if (firstRowOfStop[s]! < 0) firstRowOfStop[s] = r;
   }
   const dayList = [...daySet].sort((a, b) => a - b);
   const dayPos = new Map<number, number>(dayList.map((d, i) => [d, i]));
   const weather = plan.stops.map((stop, s) => {
-    const w = resolveStopWeather(stop.weather, ownedDays[s]);
+    const owned = ownedDays[s]!;
+    const w = resolveStopWeather(stop.weather, owned);
     // A stop that owns no row still gets its ignored-weather warning, at the row after its arrival.
-    const at = firstRowOfStop[s] >= 0 ? firstRowOfStop[s] : Math.min(n - 1, Math.max(0, Math.ceil((grid.timeline.arrivals[s] - grid.startMs) / HOUR_MS)));
+    const firstRow = firstRowOfStop[s]!;
+    const at = firstRow >= 0 ? firstRow : Math.min(n - 1, Math.max(0, Math.ceil((grid.timeline.arrivals[s]! - grid.startMs) / HOUR_MS)));
     if (w.ignoredDates.length > 0) warnings.push({ code: 'weather-ignored', row: at, message: ignoredMessage(stop.name, w.ignoredDates) });
-    for (const d of ownedDays[s]) {
+    for (const d of owned) {
       if (w.byDay.get(d)?.assumed) warnings.push({ code: 'weather-assumed', row: firstRowOfStopDay.get(`${s}|${d}`) ?? 0, message: assumedMessage(stop.name, d) });
     }
     return w;
@@ -189,11 +191,11 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   const date = new Date(0);
   const poaSub = new Float64Array(na);
   for (let r = 0; r < n; r++) {
-    const s = grid.stop[r];
-    const stop = plan.stops[s];
-    const day = grid.localDay[r];
-    const hour = grid.localHour[r];
-    const w = weather[s].byDay.get(day) as DayWeather;
+    const s = grid.stop[r]!;
+    const stop = plan.stops[s]!;
+    const day = grid.localDay[r]!;
+    const hour = grid.localHour[r]!;
+    const w = weather[s]!.byDay.get(day) as DayWeather;
     dayIndex[r] = dayPos.get(day) ?? 0;
     // Revision 2: an hour's `tempC` from a source replaces the ASHRAE profile.
     const givenT = w.tempC ? w.tempC[hour] : NaN;
@@ -201,7 +203,7 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     ambientC[r] = ta;
     const t0 = grid.startMs + r * HOUR_MS;
     // Minutes past the local clock hour, as a fraction (rows after a move to a zone with a different minute offset).
-    const local = t0 + grid.offsetMin[r] * 60_000;
+    const local = t0 + grid.offsetMin[r]! * 60_000;
     const minuteFrac = (((local % HOUR_MS) + HOUR_MS) % HOUR_MS) / HOUR_MS;
     let df = 0;
     for (const d of drives) {
@@ -215,7 +217,7 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     const hookup = stop.hookup === 'shore';
     shore[r] = hookup && !driving ? 1 : 0;
     generatorSite[r] = !hookup && !driving ? 1 : 0;
-    generatorAllowed[r] = generatorSite[r] && inGeneratorWindow(hour, stop.generatorHours) ? 1 : 0;
+    generatorAllowed[r] = generatorSite[r] === 1 && inGeneratorWindow(hour, stop.generatorHours) ? 1 : 0;
 
     // ---- loads (Revision 2: cabin temperature, location, fraction of the row, surges) ----
     const isDriveDay = grid.driveDay[r] === 1;
@@ -304,7 +306,7 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     date.setTime(t0 + HOUR_MS / 2);
     const mid = getPosition(date, stop.lat, stop.lon);
     sunAltitudeDeg[r] = mid.altitude;
-    if (na === 0 || mid.altitude < dark[s]) continue;
+    if (na === 0 || mid.altitude < dark[s]!) continue;
 
     // ---- irradiance at each sub-step (forecast-engine.md steps 1–8) ----
     const e0 = extraterrestrial(dayOfYear(day));
@@ -332,22 +334,22 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
       const sky = splitErbs(haurwitz(cosZ) * ghiScale, cosZ, e0);
       const sinZ = Math.sqrt(Math.max(0, 1 - cosZ * cosZ));
       for (let a = 0; a < na; a++) {
-        const spec = plan.arrays[a];
+        const spec = plan.arrays[a]!;
         // Step 6: a panel that follows the sun faces the sun's azimuth at every sub-step.
         const cosDaz = follow[a] ? 1 : Math.cos((p.azimuth - spec.azimuthDeg) * RAD);
-        const cosT = cosIncidenceTrig(cosZ, sinZ, cosTilt[a], sinTilt[a], cosDaz);
+        const cosT = cosIncidenceTrig(cosZ, sinZ, cosTilt[a]!, sinTilt[a]!, cosDaz);
         // Step 7: shade scales the plane-of-array irradiance before the cell temperature.
-        const poa = poaIsotropicCos(sky.dni, sky.dhi, sky.ghi, cosT, cosTilt[a]) * shadeStop * arrayShade[a];
+        const poa = poaIsotropicCos(sky.dni, sky.dhi, sky.ghi, cosT, cosTilt[a]!) * shadeStop * arrayShade[a]!;
         poaSub[a] = poa;
         // Step 8: NOCT cell temperature and DC output per rated watt.
         // PWM (Revision 2): the panel's current follows POA with no temperature coefficient.
         const pw = pwm[a] ? Math.max(0, (poa / 1000) * (1 - spec.lossesPct / 100)) : dcPerWatt(poa, cellTempNoct(ta, poa, spec.nocC), spec.tempCoeffPctPerC, spec.lossesPct);
-        const arr = arrays[a];
+        const arr = arrays[a]!;
         arr.perWattSub[r * SUBSTEPS + k] = pw;
-        arr.perWatt[r] += pw / SUBSTEPS;
-        if (pw > arr.perWattMax[r]) arr.perWattMax[r] = pw;
+        arr.perWatt[r] = arr.perWatt[r]! + pw / SUBSTEPS;
+        if (pw > arr.perWattMax[r]!) arr.perWattMax[r] = pw;
       }
-      poaFirstSum += poaSub[0];
+      poaFirstSum += poaSub[0]!;
     }
     poaWm2[r] = poaFirstSum / SUBSTEPS;
   }

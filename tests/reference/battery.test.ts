@@ -68,13 +68,13 @@ describe('coulomb counting with charge efficiency (Ah added = I·ηcoulomb)', ()
 
   it('LiFePO4 at the default 99 %: 10 A for an hour adds 9.9 Ah = 9.9 points on 100 Ah', () => {
     const s = charging('lifepo4');
-    expect(s.socEndPct[0] - 30).toBeCloseTo(9.9, 9);
-    expect(s.socEndPct[1] - s.socEndPct[0]).toBeCloseTo(9.9, 9);
+    expect(s.socEndPct[0]! - 30).toBeCloseTo(9.9, 9);
+    expect(s.socEndPct[1]! - s.socEndPct[0]!).toBeCloseTo(9.9, 9);
   });
 
   it('flooded lead-acid at the default 85 % (trade notes: 0.80–0.85 [cp]) adds 8.5 Ah per 10 Ah', () => {
     const s = charging('flooded');
-    expect(s.socEndPct[0] - 30).toBeCloseTo(8.5, 9);
+    expect(s.socEndPct[0]! - 30).toBeCloseTo(8.5, 9);
   });
 
   it('the charger reports amps × terminal volts as chargeWatts (Revision 2)', () => {

@@ -134,7 +134,7 @@ describe('generator: only inside its hours, start below startSocPct, run to stop
     for (let r = 0; r < s.n; r++) {
       if (s.generatorOn[r]) {
         on++;
-        const h = hourOf(f.hourly[r].time);
+        const h = hourOf(f.hourly[r]!.time);
         expect(h >= 8 && h < 20).toBe(true);
       }
     }
@@ -143,12 +143,12 @@ describe('generator: only inside its hours, start below startSocPct, run to stop
 
   it('starts only below 40 %, keeps running below 80 % inside the window, stops at 80 % or the window end', () => {
     for (let r = 0; r < s.n; r++) {
-      const h = hourOf(f.hourly[r].time);
+      const h = hourOf(f.hourly[r]!.time);
       const inWindow = h >= 8 && h < 20;
       const was = r > 0 && s.generatorOn[r - 1] === 1;
-      const soc = s.socStartPct[r];
+      const soc = s.socStartPct[r]!;
       const expected = inWindow && (was ? soc < 80 : soc < 40);
-      expect(s.generatorOn[r] === 1, `row ${f.hourly[r].time}`).toBe(expected);
+      expect(s.generatorOn[r] === 1, `row ${f.hourly[r]!.time}`).toBe(expected);
     }
   });
 
@@ -183,7 +183,7 @@ describe('generator: only inside its hours, start below startSocPct, run to stop
     expect(hook.summary.generatorHours).toBe(0);
     const drive = sim(basePlan({ ...plan, stop: { generatorHours: [0, 24] }, drives: [{ date: '2027-06-11', startHour: 0, hours: 11 }] }));
     const f2 = run(basePlan({ ...plan, stop: { generatorHours: [0, 24] }, drives: [{ date: '2027-06-11', startHour: 0, hours: 11 }] }));
-    for (let r = 0; r < drive.n; r++) if (f2.hourly[r].driving) expect(drive.generatorOn[r]).toBe(0);
+    for (let r = 0; r < drive.n; r++) if (f2.hourly[r]!.driving) expect(drive.generatorOn[r]).toBe(0);
   });
 
   it('takes AC loads off the bank while it runs', () => {

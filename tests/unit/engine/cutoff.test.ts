@@ -58,7 +58,7 @@ describe('floor cutoff', () => {
     const cut = s.summary.firstCutoffRow ?? -1;
     expect(cut).toBeGreaterThanOrEqual(0);
     let r = cut + 1;
-    while (r < s.n && s.socStartPct[r] < 15 - 1e-9) {
+    while (r < s.n && s.socStartPct[r]! < 15 - 1e-9) {
       expect(s.disconnected[r]).toBe(1);
       expect(s.loadW[r]).toBe(0);
       // Every watt of solar the bank accepts is charge at the terminal volts (= OCV with R = 0); nothing serves the loads.
@@ -75,11 +75,11 @@ describe('floor cutoff', () => {
 
   it('a bank that starts at or below its floor starts disconnected and firstCutoffAt is the first row', () => {
     const f = run(basePlan({ bank: { ...bank, initialSocPct: 10 }, loads: load10A, tempC: 30 }));
-    expect(f.summary.firstCutoffAt).toBe(f.hourly[0].time);
-    expect(f.hourly[0].disconnected).toBe(true);
-    expect(f.hourly[0].loadWatts).toBe(0);
-    expect(f.hourly[0].unmetWatts).toBe(128);
-    expect(f.warnings[0].code).toBe('floor-cutoff');
+    expect(f.summary.firstCutoffAt).toBe(f.hourly[0]!.time);
+    expect(f.hourly[0]!.disconnected).toBe(true);
+    expect(f.hourly[0]!.loadWatts).toBe(0);
+    expect(f.hourly[0]!.unmetWatts).toBe(128);
+    expect(f.warnings[0]!.code).toBe('floor-cutoff');
     // One warning for it, not a second one from the first row's own check.
     expect(f.warnings.filter((w) => w.code === 'floor-cutoff' && w.at === f.hourly[0]!.time)).toHaveLength(1);
   });

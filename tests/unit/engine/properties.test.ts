@@ -181,48 +181,48 @@ describe('properties of random valid plans', () => {
         let throughput = 0;
         for (let r = 0; r < s.n; r++) {
           // 0 ≤ SOC ≤ 100.
-          check(s.socEndPct[r] >= 0 && s.socEndPct[r] <= 100, '0 ≤ SOC ≤ 100', r);
-          check(f.hourly[r].socPct >= 0 && f.hourly[r].socPct <= 100, '0 ≤ rounded SOC ≤ 100', r);
-          for (const a of [s.solarW, s.chargeW, s.loadW, s.unmetW, s.curtailedW, s.ahIn, s.ahOut, s.ahOutRaw]) check(a[r] >= 0, 'flows are not negative', r);
+          check(s.socEndPct[r]! >= 0 && s.socEndPct[r]! <= 100, '0 ≤ SOC ≤ 100', r);
+          check(f.hourly[r]!.socPct >= 0 && f.hourly[r]!.socPct <= 100, '0 ≤ rounded SOC ≤ 100', r);
+          for (const a of [s.solarW, s.chargeW, s.loadW, s.unmetW, s.curtailedW, s.ahIn, s.ahOut, s.ahOutRaw]) check(a[r]! >= 0, 'flows are not negative', r);
 
           // SOC never rises in an hour without charging.
-          if (s.socEndPct[r] > s.socStartPct[r] + 1e-9) check(s.ahIn[r] > 0 && s.solarW[r] + s.chargeW[r] > 0, 'SOC rises only with charging', r);
+          if (s.socEndPct[r]! > s.socStartPct[r]! + 1e-9) check(s.ahIn[r]! > 0 && s.solarW[r]! + s.chargeW[r]! > 0, 'SOC rises only with charging', r);
 
           // Unmet energy only at or below the floor, while disconnected, or in a voltage collapse (Revision 2).
           const collapse = s.warnings.some((w) => w.row === r && w.code === 'voltage-collapse');
-          if (s.unmetW[r] > 1e-9) check(s.disconnected[r] === 1 || s.usablePct[r] <= bank.floorSocPct + 1e-6 || collapse, 'unmet only when disconnected', r);
+          if (s.unmetW[r]! > 1e-9) check(s.disconnected[r] === 1 || s.usablePct[r]! <= bank.floorSocPct + 1e-6 || collapse, 'unmet only when disconnected', r);
 
           // Usable charge (Revision 2) is never more than the true SOC and never negative.
-          check(s.usablePct[r] >= 0 && s.usablePct[r] <= s.socEndPct[r] + 1e-9, '0 ≤ usable ≤ SOC', r);
+          check(s.usablePct[r]! >= 0 && s.usablePct[r]! <= s.socEndPct[r]! + 1e-9, '0 ≤ usable ≤ SOC', r);
 
           // Bus: with only charge flowing in, sources exceed loads; with only discharge, loads exceed sources
           // (Revision 2 converts at the sub-step's terminal volts, so no single voltage closes it exactly).
-          const bus = s.solarW[r] + s.chargeW[r] - s.loadW[r];
-          if (s.ahIn[r] > 1e-9 && s.ahOutRaw[r] === 0) check(bus > 0, 'charging hour: sources exceed loads', r);
-          if (s.ahOutRaw[r] > 1e-9 && s.ahIn[r] === 0) check(bus < 0, 'discharging hour: loads exceed sources', r);
+          const bus = s.solarW[r]! + s.chargeW[r]! - s.loadW[r]!;
+          if (s.ahIn[r]! > 1e-9 && s.ahOutRaw[r] === 0) check(bus > 0, 'charging hour: sources exceed loads', r);
+          if (s.ahOutRaw[r]! > 1e-9 && s.ahIn[r] === 0) check(bus < 0, 'discharging hour: loads exceed sources', r);
 
           // Hour ledger (Revision 2: charge conserved, no cold factor): ΔSOC·C = Ah in × η − Ah out (Peukert-adjusted).
-          const stored = ((s.socEndPct[r] - s.socStartPct[r]) / 100) * C;
-          const flow = s.ahIn[r] * eta - s.ahOut[r];
+          const stored = ((s.socEndPct[r]! - s.socStartPct[r]!) / 100) * C;
+          const flow = s.ahIn[r]! * eta - s.ahOut[r]!;
           check(Math.abs(stored - flow) <= 1e-9 * C, 'hour ledger', r);
           lhs += stored;
           rhs += flow;
-          throughput += s.ahIn[r] * eta + s.ahOut[r];
+          throughput += s.ahIn[r]! * eta + s.ahOut[r]!;
           if (r > 0) check(s.socStartPct[r] === s.socEndPct[r - 1], 'SOC carries over', r);
-          if (s.unmetW[r] > 0) stats.unmet++;
+          if (s.unmetW[r]! > 0) stats.unmet++;
           if (s.coldBlocked[r]) stats.cold++;
           if (s.generatorOn[r]) stats.generator++;
-          if (s.curtailedW[r] > 0) stats.curtailed++;
+          if (s.curtailedW[r]! > 0) stats.curtailed++;
         }
         // The trip ledger closes to 0.1 %: start energy + charged × η − discharged = end energy.
         expect(Math.abs(lhs - rhs)).toBeLessThanOrEqual(0.001 * Math.max(C, throughput));
         // Whatever the temperatures: start charge + Ah in × η − Ah out = end charge (Revision 2).
         const startAh = (bank.initialSocPct / 100) * C;
-        const endAh = (s.socEndPct[s.n - 1] / 100) * C;
+        const endAh = (s.socEndPct[s.n - 1]! / 100) * C;
         expect(Math.abs(startAh + rhs - endAh)).toBeLessThanOrEqual(1e-6 * Math.max(C, throughput));
 
         // Rows are exactly an hour apart; days and summary agree with the hours.
-        for (let r = 1; r < s.n; r++) check(Date.parse(f.hourly[r].time) - Date.parse(f.hourly[r - 1].time) === 3_600_000, 'rows an hour apart', r);
+        for (let r = 1; r < s.n; r++) check(Date.parse(f.hourly[r]!.time) - Date.parse(f.hourly[r - 1]!.time) === 3_600_000, 'rows an hour apart', r);
         const dayLoad = f.days.reduce((a, d) => a + d.loadWh, 0);
         expect(Math.abs(dayLoad - f.summary.loadWh)).toBeLessThanOrEqual(f.days.length);
         expect(f.summary.hoursSimulated).toBe(f.hourly.length);

@@ -137,7 +137,7 @@ describe('refusals name the field with a dot path', () => {
     const env = refuse(mutate);
     expect(env.error.code).toBe('invalid_plan');
     expect(env.issues.map((i) => i.path)).toContain(path);
-    expect(env.error.message).toContain(env.issues[0].message);
+    expect(env.error.message).toContain(env.issues[0]!.message);
     for (const i of env.issues) expect(i.message.length).toBeGreaterThan(3);
   });
 
@@ -186,7 +186,7 @@ describe('refusals name the field with a dot path', () => {
         const p = structuredClone(demoPlan()) as Mutable;
         let o = p;
         for (const k of path.slice(0, -1)) o = o[k];
-        o[path[path.length - 1]] = value;
+        o[path[path.length - 1]!] = value;
         const r = runForecast(p);
         if (!r.ok) expect(r.envelope.issues.length).toBeGreaterThan(0);
       }),
