@@ -121,14 +121,20 @@ export function usablePct(chem: Chemistry, chargeAh: number, capacityAh: number,
  * With Isrc = 0: discharge I = (OCV − √(OCV² − 4RP))/(2R), charge I = −(√(OCV² + 4RP) − OCV)/(2R).
  */
 export function busCurrent(ocv: number, ohms: number, sourceA: number, netPowerW: number): number | null {
+  const i = busCurrentOrNaN(ocv, ohms, sourceA, netPowerW);
+  return Number.isNaN(i) ? null : i;
+}
+
+/** `busCurrent` with NaN for a voltage collapse (no allocation in the sub-step loop). */
+export function busCurrentOrNaN(ocv: number, ohms: number, sourceA: number, netPowerW: number): number {
   // R·I² − b·I + c = 0 with b = OCV − Isrc·R, c = D − Isrc·OCV; the root near D/OCV − Isrc, in the
   // form 2c/(b + √(b² − 4Rc)) that stays exact as R → 0.
   const b = ocv - sourceA * ohms;
   const c = netPowerW - sourceA * ocv;
   const disc = b * b - 4 * ohms * c;
-  if (disc < 0) return null;
+  if (disc < 0) return NaN;
   const den = b + Math.sqrt(disc);
-  if (!(den > 0)) return null;
+  if (!(den > 0)) return NaN;
   return (2 * c) / den;
 }
 

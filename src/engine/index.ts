@@ -23,6 +23,7 @@ export {
   acceptanceAmps,
   bankResistanceOhms,
   busCurrent,
+  busCurrentOrNaN,
   capacityFactor,
   chargeCurrent,
   coldChargeBlocked,

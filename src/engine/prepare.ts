@@ -30,6 +30,17 @@ export function darkBelowDeg(latDeg: number): number {
 
 const RAD = Math.PI / 180;
 
+// Offsets of one cabin state's accumulators in prepareTrip's scratch array.
+const A_DC = 0;
+const A_AC = 1;
+const A_PEAK_ALL = 2;
+const A_PEAK_ALL_AVG = 3;
+const A_PEAK_DC = 4;
+const A_PEAK_DC_AVG = 5;
+const A_AC_PEAK = 6;
+const A_AC_PEAK_AVG = 7;
+const ACC = 8;
+
 /** A warning tied to a row (the row's `time` becomes its `at`). */
 export interface RowWarning {
   code: string;
@@ -166,7 +177,6 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   const demand: [PreparedDemand, PreparedDemand] = [newDemand(), newDemand()];
   const driveFrac = new Float64Array(n);
   const invEta = plan.inverter.efficiencyPct / 100;
-  const heatingLoads = plan.loads.some((l) => l.response === 'heating');
   const sunAltitudeDeg = new Float64Array(n);
   const poaWm2 = new Float64Array(n);
   const dcLoadW = new Float64Array(n);
@@ -180,8 +190,17 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   const masks = plan.loads.map((l) => windowMask(l.windows));
   const loadWatts = plan.loads.map((l) => l.watts * l.quantity);
   const fixedDuty = plan.loads.map((l) => (l.response === 'none' ? dutyAt(l, 0) : -1));
+  const nLoads = plan.loads.length;
+  const heatingIdx: number[] = [];
+  plan.loads.forEach((l, i) => {
+    if (l.response === 'heating') heatingIdx.push(i);
+  });
+  const cabinCooling = Uint8Array.from(plan.loads, (l) => (l.response === 'cooling' && l.location === 'cabin' ? 1 : 0));
+  // Per-row accumulators for the two cabin states (offsets into `acc`).
+  const acc = new Float64Array(2 * ACC);
   const pwm = plan.arrays.map((a) => a.controller === 'pwm');
   const cosZSub = new Float64Array(SUBSTEPS);
+  const clearSub = new Float64Array(SUBSTEPS);
   const azSub = new Float64Array(SUBSTEPS);
   const drives = grid.timeline.drives;
 
@@ -220,84 +239,81 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     generatorAllowed[r] = generatorSite[r] === 1 && inGeneratorWindow(hour, stop.generatorHours) ? 1 : 0;
 
     // ---- loads (Revision 2: cabin temperature, location, fraction of the row, surges) ----
+    // One pass computes both cabin states: only cooling loads in the cabin differ between them.
     const isDriveDay = grid.driveDay[r] === 1;
     let maxSet = -Infinity;
-    if (heatingLoads) {
-      for (let i = 0; i < plan.loads.length; i++) {
-        const l = plan.loads[i]!;
-        if (l.response !== 'heating' || !runsOnDay(l.days, isDriveDay) || windowFraction(masks[i]!, hour, minuteFrac) <= 0) continue;
-        if (l.setpointC > maxSet) maxSet = l.setpointC;
-      }
+    for (const i of heatingIdx) {
+      const l = plan.loads[i]!;
+      if (!runsOnDay(l.days, isDriveDay) || windowFraction(masks[i]!, hour, minuteFrac) <= 0) continue;
+      if (l.setpointC > maxSet) maxSet = l.setpointC;
     }
-    cabinHeatedC[r] = maxSet > ta ? maxSet : ta;
-    // With the cabin at ambient either way, both states are the same: compute once, copy.
-    const sameStates = cabinHeatedC[r] === ta;
-    for (let st = sameStates ? 1 : 0; st < 2; st++) {
-      const cab = st === 1 ? cabinHeatedC[r]! : ta;
-      const dm = demand[st as 0 | 1];
-      let dc = 0;
-      let ac = 0;
-      let peakAll = 0;
-      let peakAllAvg = 0;
-      let peakDc = 0;
-      let peakDcAvg = 0;
-      let acPeakFull = 0;
-      let acPeakAvg = 0;
-      let acSurgeOver = false;
-      for (let i = 0; i < plan.loads.length; i++) {
-        const l = plan.loads[i]!;
-        if (!runsOnDay(l.days, isDriveDay)) continue;
-        const frac = windowFraction(masks[i]!, hour, minuteFrac);
-        if (frac <= 0 || l.quantity === 0) continue;
-        const duty = fixedDuty[i]! >= 0 ? fixedDuty[i]! : dutyAt(l, loadTemp(l, ta, cab));
-        const unitAvg = l.watts * duty * frac;
+    const cabHeated = maxSet > ta ? maxSet : ta;
+    cabinHeatedC[r] = cabHeated;
+    acc.fill(0);
+    let acSurgeOver0 = false;
+    let acSurgeOver1 = false;
+    for (let i = 0; i < nLoads; i++) {
+      const l = plan.loads[i]!;
+      if (l.quantity === 0 || !runsOnDay(l.days, isDriveDay)) continue;
+      const frac = windowFraction(masks[i]!, hour, minuteFrac);
+      if (frac <= 0) continue;
+      const fixed = fixedDuty[i]!;
+      let duty1: number;
+      let duty0: number;
+      if (fixed >= 0) duty1 = duty0 = fixed;
+      else if (cabinCooling[i] === 1) {
+        duty1 = dutyAt(l, cabHeated);
+        duty0 = cabHeated === ta ? duty1 : dutyAt(l, ta);
+      } else duty1 = duty0 = dutyAt(l, loadTemp(l, ta, ta));
+      const full = l.surgeWatts ?? l.watts;
+      const ac = l.supply === 'ac';
+      const overSurge = ac && plan.inverter.surgeWatts !== null && l.surgeWatts !== null && l.surgeWatts > plan.inverter.surgeWatts;
+      for (let st = 0; st < 2; st++) {
+        const unitAvg = l.watts * (st === 1 ? duty1 : duty0) * frac;
         if (!(unitAvg > 0)) continue;
+        const o = st * ACC;
         const wts = unitAvg * l.quantity;
-        const full = l.surgeWatts ?? l.watts;
-        if (l.supply === 'ac') {
-          ac += wts;
-          if (full / invEta > peakAll) {
-            peakAll = full / invEta;
-            peakAllAvg = unitAvg / invEta;
+        if (ac) {
+          acc[o + A_AC] = acc[o + A_AC]! + wts;
+          if (full / invEta > acc[o + A_PEAK_ALL]!) {
+            acc[o + A_PEAK_ALL] = full / invEta;
+            acc[o + A_PEAK_ALL_AVG] = unitAvg / invEta;
           }
-          if (full > acPeakFull) {
-            acPeakFull = full;
-            acPeakAvg = unitAvg;
+          if (full > acc[o + A_AC_PEAK]!) {
+            acc[o + A_AC_PEAK] = full;
+            acc[o + A_AC_PEAK_AVG] = unitAvg;
           }
-          if (plan.inverter.surgeWatts !== null && l.surgeWatts !== null && l.surgeWatts > plan.inverter.surgeWatts) acSurgeOver = true;
+          if (overSurge) {
+            if (st === 1) acSurgeOver1 = true;
+            else acSurgeOver0 = true;
+          }
         } else {
-          dc += wts;
-          if (full > peakAll) {
-            peakAll = full;
-            peakAllAvg = unitAvg;
+          acc[o + A_DC] = acc[o + A_DC]! + wts;
+          if (full > acc[o + A_PEAK_ALL]!) {
+            acc[o + A_PEAK_ALL] = full;
+            acc[o + A_PEAK_ALL_AVG] = unitAvg;
           }
-          if (full > peakDc) {
-            peakDc = full;
-            peakDcAvg = unitAvg;
+          if (full > acc[o + A_PEAK_DC]!) {
+            acc[o + A_PEAK_DC] = full;
+            acc[o + A_PEAK_DC_AVG] = unitAvg;
           }
         }
       }
-      dm.dcW[r] = dc;
-      dm.acW[r] = ac;
-      dm.peakAllW[r] = peakAll;
-      dm.peakAllAvgW[r] = peakAllAvg;
-      dm.peakDcW[r] = peakDc;
-      dm.peakDcAvgW[r] = peakDcAvg;
-      const cont = plan.inverter.continuousWatts;
-      // The biggest AC unit at full draw plus the others' averages.
-      const overCont = cont !== null && ac > 0 && acPeakFull + (ac - acPeakAvg) > cont;
-      dm.inverterOverload[r] = overCont || acSurgeOver ? 1 : 0;
     }
-    if (sameStates) {
-      const d0 = demand[0];
-      const d1 = demand[1];
-      d0.dcW[r] = d1.dcW[r]!;
-      d0.acW[r] = d1.acW[r]!;
-      d0.peakAllW[r] = d1.peakAllW[r]!;
-      d0.peakAllAvgW[r] = d1.peakAllAvgW[r]!;
-      d0.peakDcW[r] = d1.peakDcW[r]!;
-      d0.peakDcAvgW[r] = d1.peakDcAvgW[r]!;
-      d0.inverterOverload[r] = d1.inverterOverload[r]!;
+    const cont = plan.inverter.continuousWatts;
+    for (let st = 0; st < 2; st++) {
+      const o = st * ACC;
+      const dm = demand[st as 0 | 1];
+      const ac = acc[o + A_AC]!;
+      dm.dcW[r] = acc[o + A_DC]!;
+      dm.acW[r] = ac;
+      dm.peakAllW[r] = acc[o + A_PEAK_ALL]!;
+      dm.peakAllAvgW[r] = acc[o + A_PEAK_ALL_AVG]!;
+      dm.peakDcW[r] = acc[o + A_PEAK_DC]!;
+      dm.peakDcAvgW[r] = acc[o + A_PEAK_DC_AVG]!;
+      // The biggest AC unit at full draw plus the others' averages.
+      const overCont = cont !== null && ac > 0 && acc[o + A_AC_PEAK]! + (ac - acc[o + A_AC_PEAK_AVG]!) > cont;
+      dm.inverterOverload[r] = overCont || (st === 1 ? acSurgeOver1 : acSurgeOver0) ? 1 : 0;
     }
     dcLoadW[r] = demand[1].dcW[r]!;
     acBankW[r] = inverterDcWatts(demand[1].acW[r]!, plan.inverter);
@@ -319,7 +335,8 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
       const p = getPosition(date, stop.lat, stop.lon);
       cosZSub[k] = Math.sin(p.altitude * RAD);
       azSub[k] = p.azimuth;
-      clearSum += haurwitz(cosZSub[k]!);
+      clearSub[k] = haurwitz(cosZSub[k]!);
+      clearSum += clearSub[k]!;
     }
     // Revision 2: an hour's GHI from a source replaces clear sky × clouds, spread over the
     // sub-steps with the hour's clear-sky shape (dropped where that shape is zero).
@@ -331,7 +348,7 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
       if (!(cosZ > 0)) continue;
       const p = { azimuth: azSub[k]! };
       // Steps 3–5: clear sky, clouds (or the given GHI), beam/diffuse split.
-      const sky = splitErbs(haurwitz(cosZ) * ghiScale, cosZ, e0);
+      const sky = splitErbs(clearSub[k]! * ghiScale, cosZ, e0);
       const sinZ = Math.sqrt(Math.max(0, 1 - cosZ * cosZ));
       for (let a = 0; a < na; a++) {
         const spec = plan.arrays[a]!;

@@ -3,11 +3,11 @@
 // integrated in sub-steps inside each hour, with loads and MPPT solar as power at the terminal
 // volts and chargers and PWM solar as current sources.
 import { z } from 'zod';
-import { bankResistanceOhms, busCurrent, capacityFactor, coldChargeBlocked, dischargeCurrent, isLeadAcid, ocvFunction, peukertFactor, taperedChargeAh, taperKnee, thermalStep } from './battery';
+import { bankResistanceOhms, busCurrentOrNaN, capacityFactor, coldChargeBlocked, dischargeCurrent, isLeadAcid, ocvFunction, peukertFactor, taperedChargeAh, taperKnee, thermalStep } from './battery';
 import { generatorRuns, inGeneratorWindow } from './chargers';
 import { PlanValidationError, zodIssuesToEnvelope } from './errors';
 import { inverterDcWatts } from './loads';
-import { BATTERY_SUBSTEPS, SUBSTEPS, type PreparedTrip, type RowWarning } from './prepare';
+import { BATTERY_SUBSTEPS, darkBelowDeg, SUBSTEPS, type PreparedTrip, type RowWarning } from './prepare';
 import { controllerCapWatts } from './pv';
 import { bankSchema, chargerSchema, resolveBank, type ResolvedBank, type ResolvedCharger } from './schema';
 
@@ -150,6 +150,7 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
   const maxChargeA = bank.maxChargeAmps;
   const ohms = bankResistanceOhms(bank.internalResistanceMilliohm, cap);
   const knee = taperKnee(chem);
+  const kneeAh = knee * cap;
   const lead = isLeadAcid(chem);
   const inCabin = bank.location === 'cabin';
   const cutoffV = bank.cutoffVolts;
@@ -187,6 +188,12 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
       arrCap[a] = pa.spec.controllerMaxAmps ?? Infinity;
     }
   }
+
+  const nMppt = mpptIdx.length;
+  const nPwm = pwmIdx.length;
+  const perWattSubs = prepared.arrays.map((pa) => pa.perWattSub);
+  // Hours whose midpoint sun is this far down have no sun in any sub-step (see prepare.ts).
+  const darkDeg = plan.stops.map((st) => darkBelowDeg(st.lat));
 
   const socStartPct = new Float64Array(n);
   const socEndPct = new Float64Array(n);
@@ -302,17 +309,29 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
     let collapsed = false;
     let wasDisc = disc;
 
+    // Panels per solar sub-step (each battery sub-step uses the solar sub-step it lies in).
+    const hasSun = prepared.sunAltitudeDeg[r]! >= darkDeg[grid.stop[r]!]!;
+    let lastSi = -1;
+    let pm = 0;
+    let ipwm = 0;
     for (let j = 0; j < M; j++) {
       const si = r * SUBSTEPS + Math.floor(j * solarPerBattery);
-      let pm = 0;
-      for (const a of mpptIdx) {
-        const w = prepared.arrays[a]!.perWattSub[si]! * arrMul[a]!;
-        pm += w < arrCap[a]! ? w : arrCap[a]!;
-      }
-      let ipwm = 0;
-      for (const a of pwmIdx) {
-        const i = prepared.arrays[a]!.perWattSub[si]! * arrMul[a]!;
-        ipwm += i < arrCap[a]! ? i : arrCap[a]!;
+      if (si !== lastSi) {
+        lastSi = si;
+        pm = 0;
+        ipwm = 0;
+        if (hasSun) {
+          for (let x = 0; x < nMppt; x++) {
+            const a = mpptIdx[x]!;
+            const w = perWattSubs[a]![si]! * arrMul[a]!;
+            pm += w < arrCap[a]! ? w : arrCap[a]!;
+          }
+          for (let x = 0; x < nPwm; x++) {
+            const a = pwmIdx[x]!;
+            const i = perWattSubs[a]![si]! * arrMul[a]!;
+            ipwm += i < arrCap[a]! ? i : arrCap[a]!;
+          }
+        }
       }
       const isrc = ipwm + chargerA;
       let tLeft = dt;
@@ -320,9 +339,9 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
       for (let pass = 0; pass < 3 && tLeft > 1e-12; pass++) {
         const ocv = ocvAt(q / cap);
         const load = disc ? 0 : demandW;
-        let iBank = busCurrent(ocv, ohms, isrc, load - pm);
+        let iBank = busCurrentOrNaN(ocv, ohms, isrc, load - pm);
         let servedFrac = 1;
-        if (iBank === null) {
+        if (Number.isNaN(iBank)) {
           collapsed = true;
           if (cutoffV !== null) {
             // Voltage collapse with a cutoff: the bank disconnects here, the rest of the hour is unmet.
@@ -374,8 +393,12 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
           const want = -iBank;
           if (lockout && want > EPS && q < cap - EPS) refused = true;
           const qFree = q + eta * want * tLeft;
-          const qBind = taperedChargeAh(q, cap, accMax, eta, knee, tLeft);
-          const qNew = Math.min(qFree, accMax > 0 ? qBind : q, cap);
+          // The acceptance falls as the bank fills: if it still covers `want` at the free end point it
+          // covered it all along; otherwise the exact tapered charge bounds it.
+          let qNew: number;
+          if (accMax <= 0) qNew = q;
+          else if (want <= accMax * (qFree <= kneeAh ? 1 : (cap - Math.min(qFree, cap)) / (cap - kneeAh))) qNew = Math.min(qFree, cap);
+          else qNew = Math.min(qFree, taperedChargeAh(q, cap, accMax, eta, knee, tLeft), cap);
           const got = qNew > q ? (qNew - q) / (eta * tLeft) : 0;
           q = qNew > q ? qNew : q;
           const vc = ocv + got * ohms;
