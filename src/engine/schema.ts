@@ -302,6 +302,11 @@ function crossCheck(p: RawPlan, issue: AddIssue): void {
     s.weather.forEach((w, j) => {
       if (w.highC < w.lowC) issue(['stops', i, 'weather', j, 'highC'], 'the high must not be below the low');
       if (seen.has(w.date)) issue(['stops', i, 'weather', j, 'date'], `weather for ${w.date} is given twice`);
+      const hours = new Set<number>();
+      (w.hourly ?? []).forEach((h, k) => {
+        if (hours.has(h.hour)) issue(['stops', i, 'weather', j, 'hourly', k, 'hour'], `hour ${h.hour} is given twice`);
+        hours.add(h.hour);
+      });
       seen.set(w.date, j);
     });
     const prevStop = i > 0 ? p.stops[i - 1] : undefined;

@@ -18,6 +18,7 @@ import {
   taperedChargeAh,
   thermalStep,
   usablePct,
+  validatePlan,
   type Plan,
 } from '../../src/engine/index';
 import { basePlan, resolved, run, sim } from './plan-helpers';
@@ -133,6 +134,17 @@ describe('charge in Ah is conserved; cold strands the bottom of the bank (issue 
     expect(s.socEndPct[s.n - 1]).toBeLessThan(22);
     // During the cold day usable = SOC − 28 points.
     expect(s.usablePct[12]).toBeCloseTo(s.socEndPct[12]! - 28, 9);
+  });
+});
+
+describe('Peukert defaults (Revision 2)', () => {
+  it('LiFePO4 1.02: a 1C draw costs 20^0.02 − 1 = 6.2 % (first model 1.05: 20^0.05 − 1 = 16.2 %; cells lose ~2–6 %, common practice)', () => {
+    // 1C on 100 Ah is 100 A = 20 × I20 (I20 = 5 A).
+    expect(peukertAh(100, 100, 1.02) / 100 - 1).toBeCloseTo(20 ** 0.02 - 1, 12);
+    expect(20 ** 0.02 - 1).toBeCloseTo(0.0617, 4);
+    expect(20 ** 0.05 - 1).toBeCloseTo(0.1616, 4);
+    const v = validatePlan(basePlan({ bank: { chemistry: 'lifepo4', capacityAh: 100 } }));
+    expect(v.ok && v.plan.bank.peukertExponent).toBe(1.02);
   });
 });
 

@@ -129,6 +129,7 @@ describe('refusals name the field with a dot path', () => {
     ['bank location elsewhere', (p) => (p.bank.location = 'roof'), 'bank.location'],
     ['load location elsewhere', (p) => (p.loads[0].location = 'roof'), 'loads.0.location'],
     ['weather hour 24', (p) => (p.stops[0].weather[0].hourly = [{ hour: 24, ghiWm2: 100 }]), 'stops.0.weather.0.hourly.0.hour'],
+    ['weather hour given twice', (p) => (p.stops[0].weather[0].hourly = [{ hour: 12, ghiWm2: 100 }, { hour: 12, tempC: 3 }]), 'stops.0.weather.0.hourly.1.hour'],
     ['weather source unknown', (p) => (p.stops[0].weather[0].source = 'guess'), 'stops.0.weather.0.source'],
     ['drive hours fractional', (p) => (p.drives = [{ date: '2027-10-24', startHour: 9, hours: 1.5 }]), 'drives.0.hours'],
     ['array ratedWatts infinite-ish', (p) => (p.arrays[0].ratedWatts = 1e12), 'arrays.0.ratedWatts'],
