@@ -83,6 +83,8 @@ export const bankSchema = z.object(
     location: z.enum(BANK_LOCATIONS, { error: 'must be outside or cabin' }).optional(),
     /** Thermal time constant τ of the battery, hours (Revision 2; default 6, common practice). 0 = follows its surroundings with one hour's delay. */
     thermalHours: num(0, 240).default(6),
+    /** Added: the battery's temperature at the forecast's start (default: its surroundings), e.g. to continue a forecast from a check-in. */
+    initialBatteryC: num(-60, 80).optional(),
   },
   { error: 'must be an object with at least chemistry and capacityAh' },
 );
@@ -228,6 +230,8 @@ export type ResolvedBank = {
   selfHeating: boolean;
   location: BankLocation;
   thermalHours: number;
+  /** Present only when the plan gives it. */
+  initialBatteryC?: number;
 };
 /** Resolved parts of a plan. */
 export type ResolvedArray = Omit<z.output<typeof arraySchema>, 'name'> & { name: string };
@@ -266,6 +270,7 @@ export function resolveBank(b: z.output<typeof bankSchema>): ResolvedBank {
     // `location` wins over the older `insideHeatedSpace` when both are given.
     location: b.location ?? (b.insideHeatedSpace ? 'cabin' : 'outside'),
     thermalHours: b.thermalHours,
+    ...(b.initialBatteryC !== undefined ? { initialBatteryC: b.initialBatteryC } : {}),
   };
 }
 

@@ -225,9 +225,10 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
   // when the bank can power the heating (or shore power does).
   const amb0 = n > 0 ? prepared.ambientC[0]! : 20;
   const heated0 = n > 0 ? prepared.cabinHeatedC[0]! : amb0;
-  let tb = inCabin ? heated0 : amb0;
+  const givenTb = bank.initialBatteryC;
+  let tb = givenTb ?? (inCabin ? heated0 : amb0);
   let disc = usableOf(q, capacityFactor(chem, tb)) <= floor + EPS;
-  if (disc && inCabin && !(n > 0 && prepared.shore[0] === 1)) {
+  if (givenTb === undefined && disc && inCabin && !(n > 0 && prepared.shore[0] === 1)) {
     tb = amb0;
     disc = usableOf(q, capacityFactor(chem, tb)) <= floor + EPS;
   }

@@ -184,6 +184,19 @@ describe('cold acceptance and the LiFePO4 lockout', () => {
       expect(s.coldBlocked[24 + k]).toBe(1);
     }
     expect(s.batteryC[29]).toBeCloseTo(1.31, 2);
+    // Continuing from a check-in: `initialBatteryC` replaces "starts at its surroundings".
+    const warmStart = sim(
+      basePlan({
+        bank: { chemistry: 'lifepo4', capacityAh: 100, initialSocPct: 50, initialBatteryC: 5 },
+        chargers: [{ kind: 'shore', amps: 10 }],
+        stop: { arriveHour: 0, hookup: 'shore', weather: dailyTemps('2027-06-10', [-10, 10, 10]) },
+      }),
+    );
+    // Tb(0) = 5; Tb(1) = 5 + (−10 − 5)·(1 − e^(−1/6)) = 5 − 15·0.15352 = 2.70 °C; both hours charge.
+    expect(warmStart.batteryC[0]).toBe(5);
+    expect(warmStart.batteryC[1]).toBeCloseTo(5 - 15 * (1 - Math.exp(-1 / 6)), 9);
+    expect(warmStart.coldBlocked[0]).toBe(0);
+    expect(warmStart.coldBlocked[1]).toBe(0);
     expect(s.coldBlocked[29]).toBe(0);
     expect(s.socEndPct[29]).toBeCloseTo(50 + 9.9, 9);
   });
