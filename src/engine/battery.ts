@@ -80,6 +80,27 @@ export function ocvFunction(chem: Chemistry, nominalVolts: number): (soc: number
   };
 }
 
+/** The open-circuit table of one bank, scaled and in charge units, for a segment-tracking lookup. */
+export interface OcvTable {
+  /** Breakpoints in Ah, ascending (0 … C). */
+  qs: Float64Array;
+  /** Volts at the breakpoints. */
+  vs: Float64Array;
+  /** Volts per Ah of each segment. */
+  slopes: Float64Array;
+}
+
+/** Builds the OCV table of a bank (the same table and scaling as `ocvVolts`) in Ah. */
+export function ocvTable(chem: Chemistry, nominalVolts: number, capacityAh: number): OcvTable {
+  const t = OCV[chem];
+  const k = nominalVolts / t.base;
+  const qs = Float64Array.from(t.soc, (p) => (p / 100) * capacityAh);
+  const vs = Float64Array.from(t.v, (v) => v * k);
+  const slopes = new Float64Array(qs.length - 1);
+  for (let i = 0; i < slopes.length; i++) slopes[i] = (vs[i + 1]! - vs[i]!) / (qs[i + 1]! - qs[i]!);
+  return { qs, vs, slopes };
+}
+
 /** Open-circuit volts at `soc` (fraction), linear between table points, scaled by nominal/12.8 or nominal/12. */
 export function ocvVolts(chem: Chemistry, soc: number, nominalVolts: number): number {
   const t = OCV[chem];

@@ -3,7 +3,7 @@
 // integrated in sub-steps inside each hour, with loads and MPPT solar as power at the terminal
 // volts and chargers and PWM solar as current sources.
 import { z } from 'zod';
-import { bankResistanceOhms, busCurrentOrNaN, capacityFactor, coldChargeBlocked, dischargeCurrent, isLeadAcid, ocvFunction, peukertFactor, taperedChargeAh, taperKnee, thermalStep } from './battery';
+import { bankResistanceOhms, busCurrentOrNaN, capacityFactor, coldChargeBlocked, dischargeCurrent, isLeadAcid, ocvFunction, ocvTable, peukertFactor, taperedChargeAh, taperKnee, thermalStep } from './battery';
 import { generatorRuns, inGeneratorWindow } from './chargers';
 import { PlanValidationError, zodIssuesToEnvelope } from './errors';
 import { inverterDcWatts } from './loads';
@@ -155,6 +155,14 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
   const inCabin = bank.location === 'cabin';
   const cutoffV = bank.cutoffVolts;
   const ocvAt = ocvFunction(chem, vn);
+  // The sub-step loop tracks its OCV segment (charge moves little between sub-steps).
+  const ocvT = ocvTable(chem, vn, cap);
+  const oQ = ocvT.qs;
+  const oV = ocvT.vs;
+  const oS = ocvT.slopes;
+  const oLast = oS.length - 1;
+  let seg = 0;
+  const i20 = cap / 20;
 
   // ---- chargers by kind: current sources at their rated amps (Revision 2) ----
   let alternatorA = 0;
@@ -338,7 +346,9 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
       let tLeft = dt;
       // At most three passes: a floor or collapse part-way through turns the rest into a disconnected pass.
       for (let pass = 0; pass < 3 && tLeft > 1e-12; pass++) {
-        const ocv = ocvAt(q / cap);
+        while (seg < oLast && q > oQ[seg + 1]!) seg++;
+        while (seg > 0 && q < oQ[seg]!) seg--;
+        const ocv = oV[seg]! + oS[seg]! * ((q < 0 ? 0 : q > cap ? cap : q) - oQ[seg]!);
         const load = disc ? 0 : demandW;
         let iBank = busCurrentOrNaN(ocv, ohms, isrc, load - pm);
         let servedFrac = 1;
@@ -364,7 +374,7 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
         const vt = ocv - iBank * ohms;
         if (iBank > 0) {
           // Discharging: Peukert on this sub-step's net current, floor on usable charge.
-          const removed = iBank * peukertFactor(iBank, cap, k) * tLeft;
+          const removed = (iBank > i20 && k !== 1 ? iBank * peukertFactor(iBank, cap, k) : iBank) * tLeft;
           let tUsed = tLeft;
           let floorHit = false;
           if (q - removed <= qFloor + EPS * cap) {
