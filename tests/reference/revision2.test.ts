@@ -488,6 +488,15 @@ describe('rows, summary and revision', () => {
     expect(f.hourly.some((x) => x.time === f.summary.minVoltsAt)).toBe(true);
   });
 
+  it('a drive must start inside the forecast; its hours past the end (11:00 on the last morning) are ignored', () => {
+    // Last morning 2027-06-12 (two nights from 06-10): a 4 h drive from 09:00 charges in the 09:00 and
+    // 10:00 rows only (10 A × 0.99 = 9.9 points each into 100 Ah LiFePO4), then the forecast ends.
+    const f = run(basePlan({ bank: { chemistry: 'lifepo4', capacityAh: 100, initialSocPct: 50 }, chargers: [{ kind: 'alternator', amps: 10 }], drives: [{ date: '2027-06-12', startHour: 9, hours: 4 }] }));
+    expect(f.hourly.at(-1)?.time).toBe('2027-06-12T10:00-07:00');
+    expect(f.hourly.filter((h) => h.driving).map((h) => h.time)).toEqual(['2027-06-12T09:00-07:00', '2027-06-12T10:00-07:00']);
+    expect(f.summary.endSocPct).toBeCloseTo(50 + 2 * 9.9, 9);
+  });
+
   it('rows that start 45 minutes past the hour count the part of each load window and drive inside them', () => {
     // Stop 1 in UTC, stop 2 in Asia/Kathmandu (UTC+05:45): the grid stays on whole UTC hours, so
     // Kathmandu rows start at hh:45. A load in [18, 19) covers 45 min of the 17:45 row (18:00–18:45,
@@ -505,5 +514,27 @@ describe('rows, summary and revision', () => {
     expect(at('2027-06-11T17:45+05:45')).toBe(75);
     expect(at('2027-06-11T18:45+05:45')).toBe(25);
     expect(at('2027-06-11T19:45+05:45')).toBe(0);
+    // A 20 A alternator on a drive 18:00–19:00 Kathmandu time: 0.75 of the 17:45 row and 0.25 of the
+    // 18:45 row → 15 A and 5 A on average (a current source: watts ÷ terminal volts).
+    const s = sim({
+      bank: { chemistry: 'lifepo4', capacityAh: 400, initialSocPct: 50 },
+      chargers: [{ kind: 'alternator', amps: 20 }],
+      drives: [{ date: '2027-06-11', startHour: 18, hours: 1 }],
+      stops: [
+        { lat: 51.5, lon: 0, timeZone: 'UTC', arrive: '2027-06-10', nights: 1, arriveHour: 12 },
+        { lat: 27.7, lon: 85.3, timeZone: 'Asia/Kathmandu', arrive: '2027-06-11', nights: 1, arriveHour: 15 },
+      ],
+    });
+    const g = run({
+      bank: { chemistry: 'lifepo4', capacityAh: 400, initialSocPct: 50 },
+      stops: [
+        { lat: 51.5, lon: 0, timeZone: 'UTC', arrive: '2027-06-10', nights: 1, arriveHour: 12 },
+        { lat: 27.7, lon: 85.3, timeZone: 'Asia/Kathmandu', arrive: '2027-06-11', nights: 1, arriveHour: 15 },
+      ],
+    });
+    const row = (t: string) => g.hourly.findIndex((h) => h.time === t);
+    expect(s.chargeW[row('2027-06-11T17:45+05:45')]! / s.avgVolts[row('2027-06-11T17:45+05:45')]!).toBeCloseTo(15, 9);
+    expect(s.chargeW[row('2027-06-11T18:45+05:45')]! / s.avgVolts[row('2027-06-11T18:45+05:45')]!).toBeCloseTo(5, 9);
+    expect(s.chargeW[row('2027-06-11T19:45+05:45')]).toBe(0);
   });
 });
