@@ -148,6 +148,58 @@ describe('Peukert defaults (Revision 2)', () => {
   });
 });
 
+describe('the floor on usable charge is checked only while discharging; the generator keeps true SOC', () => {
+  // AGM 100 Ah, floor 50 %, a 25 °C day then −10 °C days, the battery following the air with one
+  // hour's delay (τ = 0). At −10 °C 42 Ah are stranded (f = 1 − 0.012·35 = 0.58, hand calculation).
+  const temps = dailyTemps('2027-06-10', [25, -10, -10]);
+
+  it('cooling alone, while shore power covers the loads, does not disconnect', () => {
+    // 60 % SOC, a 2 A shore charger and a 24 W load (≈ 1.95 A at 12.3 V): the charger covers the load
+    // all along, so SOC stays ≈ 60 % and at −10 °C usable ≈ 60 − 42 = 18 % < 50 %, yet nothing discharges.
+    const s = sim(
+      basePlan({
+        bank: { chemistry: 'agm', capacityAh: 100, initialSocPct: 60, thermalHours: 0 },
+        chargers: [{ kind: 'shore', amps: 2 }],
+        loads: [{ name: 'Lights', watts: 24 }],
+        stop: { arriveHour: 0, hookup: 'shore', weather: temps },
+      }),
+    );
+    expect(s.usablePct[30]!).toBeLessThan(20);
+    expect(s.summary.firstCutoffRow).toBeNull();
+    expect(s.unmetW.every((w) => w === 0)).toBe(true);
+  });
+
+  // 90 % SOC and a 4 W load (≈ 0.32 A, ≈ 7.8 Ah a day): ≈ 82 % at midnight, usable ≈ 82 − 42 = 40 %
+  // once the battery is at −10 °C.
+  const cold = (chargers: Plan['chargers']) =>
+    sim(
+      basePlan({
+        bank: { chemistry: 'agm', capacityAh: 100, initialSocPct: 90, thermalHours: 0 },
+        chargers,
+        loads: [{ name: 'Standby', watts: 4 }],
+        stop: { arriveHour: 0, weather: temps },
+      }),
+    );
+
+  it('without a charger the first discharging sub-step of the cold day disconnects', () => {
+    const s = cold([]);
+    // Row 24 (00:00 on the cold day) uses the battery temperature of 23:00's air: still 25 °C; row 25
+    // is the first at −10 °C, and its first sub-step discharges.
+    expect(s.batteryC[24]).toBe(25);
+    expect(s.batteryC[25]).toBe(-10);
+    expect(s.summary.firstCutoffRow).toBe(25);
+    expect(s.loadW[25]).toBe(0);
+    expect(s.socEndPct[25]!).toBeGreaterThan(80);
+  });
+
+  it('the generator starts on true SOC, not usable charge: ≈ 82 % SOC (≈ 40 % usable) does not start a 45 % generator', () => {
+    const s = cold([{ kind: 'generator', amps: 20, startSocPct: 45, stopSocPct: 80 }]);
+    expect(s.usablePct[32]!).toBeLessThan(45);
+    expect(s.socStartPct[32]!).toBeGreaterThan(45);
+    for (let r = 0; r < s.n; r++) expect(s.generatorOn[r]).toBe(0);
+  });
+});
+
 describe('cold acceptance and the LiFePO4 lockout', () => {
   it('lead-acid accepts max amps × taper × f(Tb): 100 Ah AGM at −10 °C takes 20 × 0.58 = 11.6 A', () => {
     expect(acceptanceAmps('agm', 0.5, 20, -10, false)).toBeCloseTo(11.6, 12);
