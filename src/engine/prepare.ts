@@ -4,7 +4,7 @@
 // and each hour's load demand. An upgrade sweep prepares once and simulates many variants.
 import { ambientForRow } from './ambient';
 import { inGeneratorWindow } from './chargers';
-import { inverterDcWatts, runsOnDay, windowMask, dutyAt, windowFraction, loadTemp } from './loads';
+import { inverterDcWatts, runsOnDay, windowMask, dutyAt, windowFraction } from './loads';
 import type { ResolvedArray, ResolvedPlan } from './schema';
 import { cosIncidenceTrig, extraterrestrial, haurwitz, kastenCzeplak, poaIsotropicCos, splitErbs } from './sun';
 import { cellTempNoct, dcPerWatt } from './pv';
@@ -241,6 +241,7 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     // ---- loads (Revision 2: cabin temperature, location, fraction of the row, surges) ----
     // One pass computes both cabin states: only cooling loads in the cabin differ between them.
     const isDriveDay = grid.driveDay[r] === 1;
+    const wholeHour = minuteFrac === 0;
     let maxSet = -Infinity;
     for (const i of heatingIdx) {
       const l = plan.loads[i]!;
@@ -255,7 +256,7 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     for (let i = 0; i < nLoads; i++) {
       const l = plan.loads[i]!;
       if (l.quantity === 0 || !runsOnDay(l.days, isDriveDay)) continue;
-      const frac = windowFraction(masks[i]!, hour, minuteFrac);
+      const frac = wholeHour ? (masks[i]! >>> hour) & 1 : windowFraction(masks[i]!, hour, minuteFrac);
       if (frac <= 0) continue;
       const fixed = fixedDuty[i]!;
       let duty1: number;
@@ -264,7 +265,7 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
       else if (cabinCooling[i] === 1) {
         duty1 = dutyAt(l, cabHeated);
         duty0 = cabHeated === ta ? duty1 : dutyAt(l, ta);
-      } else duty1 = duty0 = dutyAt(l, loadTemp(l, ta, ta));
+      } else duty1 = duty0 = dutyAt(l, ta); // heating and outside cooling follow the outdoor air
       const full = l.surgeWatts ?? l.watts;
       const ac = l.supply === 'ac';
       const overSurge = ac && plan.inverter.surgeWatts !== null && l.surgeWatts !== null && l.surgeWatts > plan.inverter.surgeWatts;
