@@ -15,7 +15,7 @@ export const ASHRAE_FRACTIONS: readonly number[] = [
  * T = Tmax − f·(Tmax − Tmin), with the day's own high and low.
  */
 export function ambientForRow(localHour: number, highC: number, lowC: number): number {
-  const f = ASHRAE_FRACTIONS[Math.min(23, Math.max(0, Math.floor(localHour)))];
+  const f = ASHRAE_FRACTIONS[Math.min(23, Math.max(0, Math.floor(localHour)))] ?? 0;
   return highC - f * (highC - lowC);
 }
 

@@ -25,8 +25,14 @@ export interface HourlyRow {
   generatorOn: boolean;
   /** Added: the bank is disconnected for some or all of the hour. */
   disconnected: boolean;
-  /** Added: battery temperature, °C. */
+  /** Added: battery temperature, °C (Revision 2: with thermal lag). */
   batteryC: number;
+  /** Revision 2: usable charge at the hour's end, % of rated (cold strands the bottom of the bank). */
+  usablePct: number;
+  /** Revision 2: the hour's lowest terminal volts, its biggest appliance's surge included. */
+  minVolts: number;
+  /** Added (Revision 2): the cabin's temperature, °C. */
+  cabinC: number;
 }
 
 /** One local day; Wh are sums of its hours, minimums use end-of-hour SOC. */
@@ -66,7 +72,15 @@ export interface ForecastSummary {
   chargeWh: number;
   /** Added: hours in which the cold lockout refused charge. */
   coldBlockedHours: number;
+  /** Revision 2: the trip's lowest terminal volts and the row where it happens. */
+  minVolts: number;
+  minVoltsAt: string;
+  /** Added (Revision 2): the lowest end-of-hour usable charge, %. */
+  minUsablePct: number;
 }
+
+/** The engine revision whose rules made a forecast (forecast-engine.md, "Revision 2"). */
+export const ENGINE_REVISION = 2;
 
 /** A plain-English warning at a row's `time`. */
 export interface ForecastWarning {
@@ -83,6 +97,8 @@ export interface Forecast {
   warnings: ForecastWarning[];
   /** Added: the stops `hourly[].stop` points into. */
   stops: { name: string; timeZone: string }[];
+  /** The engine revision that made this forecast (2). */
+  engineRevision: number;
 }
 
 // Rounding per the contract: watts whole, SOC 0.1, volts 0.01. `+ 0` turns −0 into 0 and a
@@ -102,7 +118,10 @@ const WARNING_ORDER: Record<string, number> = {
   'weather-assumed': 1,
   'floor-cutoff': 2,
   'voltage-cutoff': 3,
+  'surge-cutoff': 3,
+  'voltage-collapse': 3,
   'cold-charge-blocked': 4,
+  'inverter-overload': 5,
 };
 
 /** Builds the contract's JSON from a prepared trip and one simulation of it. */
@@ -111,22 +130,25 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
   const hourly: HourlyRow[] = new Array<HourlyRow>(n);
   for (let r = 0; r < n; r++) {
     hourly[r] = {
-      time: grid.time[r],
-      socPct: r1(sim.socEndPct[r]),
-      volts: r2(sim.volts[r]),
-      solarWatts: r0(sim.solarW[r]),
-      chargeWatts: r0(sim.chargeW[r]),
-      loadWatts: r0(sim.loadW[r]),
-      unmetWatts: r0(sim.unmetW[r]),
-      curtailedWatts: r0(sim.curtailedW[r]),
-      ambientC: r1(prepared.ambientC[r]),
-      sunAltitudeDeg: r1(prepared.sunAltitudeDeg[r]),
-      poaWm2: r0(prepared.poaWm2[r]),
-      stop: grid.stop[r],
-      driving: grid.driving[r] === 1,
-      generatorOn: sim.generatorOn[r] === 1,
-      disconnected: sim.disconnected[r] === 1,
-      batteryC: r1(sim.batteryC[r]),
+      time: grid.time[r]!,
+      socPct: r1(sim.socEndPct[r]!),
+      volts: r2(sim.volts[r]!),
+      solarWatts: r0(sim.solarW[r]!),
+      chargeWatts: r0(sim.chargeW[r]!),
+      loadWatts: r0(sim.loadW[r]!),
+      unmetWatts: r0(sim.unmetW[r]!),
+      curtailedWatts: r0(sim.curtailedW[r]!),
+      ambientC: r1(prepared.ambientC[r]!),
+      sunAltitudeDeg: r1(prepared.sunAltitudeDeg[r]!),
+      poaWm2: r0(prepared.poaWm2[r]!),
+      stop: grid.stop[r]!,
+      driving: grid.driving[r]! === 1,
+      generatorOn: sim.generatorOn[r]! === 1,
+      disconnected: sim.disconnected[r]! === 1,
+      batteryC: r1(sim.batteryC[r]!),
+      usablePct: r1(sim.usablePct[r]!),
+      minVolts: r2(sim.minVolts[r]!),
+      cabinC: r1(sim.cabinC[r]!),
     };
   }
 
@@ -134,22 +156,22 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
   const nd = prepared.days.length;
   const acc = prepared.days.map(() => ({ load: 0, solar: 0, charge: 0, unmet: 0, curtailed: 0, min: Infinity, end: 0, seen: false }));
   for (let r = 0; r < n; r++) {
-    const d = acc[prepared.dayIndex[r]];
-    d.load += sim.loadW[r];
-    d.solar += sim.solarW[r];
-    d.charge += sim.chargeW[r];
-    d.unmet += sim.unmetW[r];
-    d.curtailed += sim.curtailedW[r];
-    if (sim.socEndPct[r] < d.min) d.min = sim.socEndPct[r];
-    d.end = sim.socEndPct[r];
+    const d = acc[prepared.dayIndex[r]!]!;
+    d.load += sim.loadW[r]!;
+    d.solar += sim.solarW[r]!;
+    d.charge += sim.chargeW[r]!;
+    d.unmet += sim.unmetW[r]!;
+    d.curtailed += sim.curtailedW[r]!;
+    if (sim.socEndPct[r]! < d.min) d.min = sim.socEndPct[r]!;
+    d.end = sim.socEndPct[r]!;
     d.seen = true;
   }
   const days: DayRow[] = [];
   for (let i = 0; i < nd; i++) {
-    const d = acc[i];
+    const d = acc[i]!;
     if (!d.seen) continue;
     days.push({
-      date: prepared.days[i],
+      date: prepared.days[i]!,
       loadWh: r0(d.load),
       solarWh: r0(d.solar),
       chargeWh: r0(d.charge),
@@ -164,8 +186,8 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
   const s = sim.summary;
   const summary: ForecastSummary = {
     minSocPct: r1(s.minSocPct),
-    minSocAt: grid.time[s.minSocRow] ?? grid.time[0],
-    firstCutoffAt: s.firstCutoffRow === null ? null : grid.time[s.firstCutoffRow],
+    minSocAt: grid.time[s.minSocRow] ?? grid.time[0] ?? '',
+    firstCutoffAt: s.firstCutoffRow === null ? null : (grid.time[s.firstCutoffRow] ?? null),
     unmetWh: r0(s.unmetWh),
     solarWh: r0(s.solarWh),
     curtailedWh: r0(s.curtailedWh),
@@ -178,11 +200,14 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
     loadWh: r0(s.loadWh),
     chargeWh: r0(s.chargeWh),
     coldBlockedHours: s.coldBlockedHours,
+    minVolts: r2(s.minVolts),
+    minVoltsAt: grid.time[s.minVoltsRow] ?? grid.time[0] ?? '',
+    minUsablePct: r1(s.minUsablePct),
   };
 
   const all = [...prepared.warnings, ...sim.warnings];
   all.sort((a, b) => a.row - b.row || (WARNING_ORDER[a.code] ?? 9) - (WARNING_ORDER[b.code] ?? 9));
-  const warnings = all.map((w) => ({ code: w.code, at: grid.time[w.row], message: w.message }));
+  const warnings = all.map((w) => ({ code: w.code, at: grid.time[w.row] ?? '', message: w.message }));
 
   return {
     hourly,
@@ -190,6 +215,7 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
     summary,
     warnings,
     stops: prepared.plan.stops.map((st) => ({ name: st.name, timeZone: st.timeZone })),
+    engineRevision: ENGINE_REVISION,
   };
 }
 

@@ -4,17 +4,41 @@
 //   validatePlan(input: unknown)     → { ok: true, plan }     | { ok: false, envelope }
 //   forecast(plan: ResolvedPlan)     → Forecast
 //   prepareTrip(plan) + simulatePrepared(prepared, variant) (+ toForecast) for upgrade sweeps
-export { runForecast, validatePlan, forecast, toForecast } from './forecast';
+export { runForecast, validatePlan, forecast, toForecast, ENGINE_REVISION } from './forecast';
 export type { Forecast, HourlyRow, DayRow, ForecastSummary, ForecastWarning, RunResult, ValidationResult } from './forecast';
-export { prepareTrip, SUBSTEPS } from './prepare';
-export type { PreparedTrip, PreparedArray, RowWarning } from './prepare';
-export { simulatePrepared, variantSchema } from './simulate';
+export { prepareTrip, SUBSTEPS, BATTERY_SUBSTEPS } from './prepare';
+export type { PreparedTrip, PreparedArray, PreparedDemand, RowWarning } from './prepare';
+export { simulatePrepared, variantSchema, CUTOFF_NONE, CUTOFF_FLOOR, CUTOFF_VOLTS } from './simulate';
 export type { SimResult, SimSummary, Variant } from './simulate';
-export { planSchema, bankSchema, arraySchema, chargerSchema, inverterSchema, loadSchema, stopSchema, driveSchema, weatherSchema, resolveBank, LIMITS } from './schema';
-export type { Plan, ResolvedPlan, ResolvedBank, ResolvedArray, ResolvedCharger, ResolvedInverter, ResolvedLoad, ResolvedStop, ResolvedDrive } from './schema';
+export { planSchema, bankSchema, arraySchema, chargerSchema, inverterSchema, loadSchema, stopSchema, driveSchema, weatherSchema, resolveBank, LIMITS, BANK_LOCATIONS, LOAD_LOCATIONS, WEATHER_SOURCES, weatherHourSchema } from './schema';
+export type { Plan, ResolvedPlan, ResolvedBank, ResolvedArray, ResolvedCharger, ResolvedInverter, ResolvedLoad, ResolvedStop, ResolvedDrive, BankLocation, LoadLocation } from './schema';
 export { PlanValidationError, zodIssuesToEnvelope, issuePath } from './errors';
 export type { InvalidPlanEnvelope, PlanIssue } from './errors';
 export { demoPlan } from './demo-plan';
 // The zod-free helpers (chemistries, time zones, timeline, load windows, resting voltage), also
 // importable alone through './light' by islands that must not load zod.
 export * from './light';
+// Revision 2: the battery and load rules, for reference tests, sweeps and pages.
+export {
+  acceptanceAmps,
+  bankResistanceOhms,
+  busCurrent,
+  busCurrentOrNaN,
+  capacityFactor,
+  chargeCurrent,
+  coldChargeBlocked,
+  dischargeCurrent,
+  isLeadAcid,
+  peukertAh,
+  peukertFactor,
+  strandedAh,
+  taperedChargeAh,
+  taperFactor,
+  taperKnee,
+  terminalVolts,
+  thermalStep,
+  usablePct,
+} from './battery';
+export { cabinTemp, dutyAt, loadTemp, windowFraction } from './loads';
+export { hourlyArrays } from './weather';
+export type { WeatherHour } from './weather';

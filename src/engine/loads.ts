@@ -10,6 +10,10 @@ export interface LoadSpec {
   days: 'all' | 'camp' | 'drive';
   response: 'none' | 'cooling' | 'heating';
   setpointC: number;
+  /** Revision 2: where the load sits (default cabin); cooling loads follow that place's temperature. */
+  location?: 'cabin' | 'outside';
+  /** Revision 2: one unit's draw while starting or running flat out, W (null: its running watts). */
+  surgeWatts?: number | null;
 }
 
 /**
@@ -75,4 +79,27 @@ export function inverterDcWatts(acWatts: number, inv: InverterSpec): number {
   const on = acWatts > 0 || inv.alwaysOn;
   if (!on) return 0;
   return acWatts / (inv.efficiencyPct / 100) + inv.idleWatts;
+}
+
+/**
+ * Cabin temperature (Revision 2): max(Ta, the highest setpoint of the heating loads scheduled in
+ * the hour) when such a load has power, else Ta. `maxSetpointC` is −Infinity when none is scheduled.
+ */
+export function cabinTemp(ambientC: number, maxSetpointC: number, heatingPowered: boolean): number {
+  return heatingPowered && maxSetpointC > ambientC ? maxSetpointC : ambientC;
+}
+
+/** The temperature a load's duty follows (Revision 2): cooling loads their location's, heating loads the outdoor air. */
+export function loadTemp(load: Pick<LoadSpec, 'response' | 'location'>, ambientC: number, cabinC: number): number {
+  return load.response === 'cooling' && (load.location ?? 'cabin') === 'cabin' ? cabinC : ambientC;
+}
+
+/**
+ * Fraction of a row inside a load's windows (Revision 2): a row starting `minuteFrac` of an hour
+ * past local hour h counts (1 − minuteFrac) of hour h and minuteFrac of hour h + 1.
+ */
+export function windowFraction(mask: number, localHour: number, minuteFrac: number): number {
+  const a = inWindow(mask, localHour) ? 1 - minuteFrac : 0;
+  if (!(minuteFrac > 0)) return a;
+  return a + (inWindow(mask, (localHour + 1) % 24) ? minuteFrac : 0);
 }

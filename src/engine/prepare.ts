@@ -4,7 +4,7 @@
 // and each hour's load demand. An upgrade sweep prepares once and simulates many variants.
 import { ambientForRow } from './ambient';
 import { inGeneratorWindow } from './chargers';
-import { inverterDcWatts, runsOnDay, windowMask, dutyAt } from './loads';
+import { inverterDcWatts, runsOnDay, windowMask, dutyAt, windowFraction } from './loads';
 import type { ResolvedArray, ResolvedPlan } from './schema';
 import { cosIncidenceTrig, extraterrestrial, haurwitz, kastenCzeplak, poaIsotropicCos, splitErbs } from './sun';
 import { cellTempNoct, dcPerWatt } from './pv';
@@ -15,6 +15,8 @@ import { assumedMessage, ignoredMessage, resolveStopWeather, type DayWeather } f
 
 /** Solar sub-steps per hour: midpoints of 6 equal slices (forecast-engine.md asks for at least 6). */
 export const SUBSTEPS = 6;
+/** Battery sub-steps per hour (Revision 2: at least 12); each uses the solar sub-step it lies in. */
+export const BATTERY_SUBSTEPS = 12;
 
 /**
  * Midpoint altitude (apparent, degrees) below which an hour at this latitude has no sun at all,
@@ -27,6 +29,17 @@ export function darkBelowDeg(latDeg: number): number {
 }
 
 const RAD = Math.PI / 180;
+
+// Offsets of one cabin state's accumulators in prepareTrip's scratch array.
+const A_DC = 0;
+const A_AC = 1;
+const A_PEAK_ALL = 2;
+const A_PEAK_ALL_AVG = 3;
+const A_PEAK_DC = 4;
+const A_PEAK_DC_AVG = 5;
+const A_AC_PEAK = 6;
+const A_AC_PEAK_AVG = 7;
+const ACC = 8;
 
 /** A warning tied to a row (the row's `time` becomes its `at`). */
 export interface RowWarning {
@@ -42,8 +55,29 @@ export interface PreparedArray {
   perWatt: Float64Array;
   /** Largest sub-step W per rated W in the hour (decides whether the controller cap can bind). */
   perWattMax: Float64Array;
-  /** W per rated W at each sub-step, row-major (n × SUBSTEPS). */
+  /**
+   * W per rated W at each sub-step, row-major (n × SUBSTEPS). MPPT: DC output with the power
+   * temperature coefficient. PWM (Revision 2): POA/1000·(1 − losses), no temperature coefficient
+   * (the panel's current is (rated/Vmp) × this).
+   */
   perWattSub: Float64Array;
+}
+
+/** Load demand of every row in one cabin state (heating without power, or with power). */
+export interface PreparedDemand {
+  /** DC loads, W. */
+  dcW: Float64Array;
+  /** AC loads before the inverter, W. */
+  acW: Float64Array;
+  /** The biggest single unit at full draw among all loads (AC through the inverter's efficiency), DC W. */
+  peakAllW: Float64Array;
+  /** That unit's average DC W in the hour. */
+  peakAllAvgW: Float64Array;
+  /** The same among DC loads only (AC served from shore or a generator). */
+  peakDcW: Float64Array;
+  peakDcAvgW: Float64Array;
+  /** 1 when the AC loads can overload the inverter (continuous or surge rating). */
+  inverterOverload: Uint8Array;
 }
 
 /** A trip prepared for simulation: the plan, its grid and every per-hour input of the battery loop. */
@@ -60,6 +94,12 @@ export interface PreparedTrip {
   dcLoadW: Float64Array;
   /** What the inverter draws from the bank for the AC loads (losses and idle included), W. */
   acBankW: Float64Array;
+  /** Revision 2: the cabin's temperature when its heating loads have power (= ambient without them). */
+  cabinHeatedC: Float64Array;
+  /** Revision 2: demand with the cabin at ambient ([0]) and with heating powered ([1]). */
+  demand: [PreparedDemand, PreparedDemand];
+  /** Revision 2: fraction of each row inside a drive (alternator charging). */
+  driveFrac: Float64Array;
   /** 1 at a hookup stop outside drive hours: shore charging, AC loads off the bank. */
   shore: Uint8Array;
   /** 1 where the plan's generator may run (window, no hookup, not driving). */
@@ -85,24 +125,26 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   const firstRowOfStopDay = new Map<string, number>();
   const firstRowOfStop: number[] = plan.stops.map(() => -1);
   for (let r = 0; r < n; r++) {
-    const s = grid.stop[r];
-    const d = grid.localDay[r];
+    const s = grid.stop[r]!;
+    const d = grid.localDay[r]!;
     daySet.add(d);
     const key = `${s}|${d}`;
     if (!firstRowOfStopDay.has(key)) {
       firstRowOfStopDay.set(key, r);
-      ownedDays[s].push(d);
+      ownedDays[s]!.push(d);
     }
-    if (firstRowOfStop[s] < 0) firstRowOfStop[s] = r;
+    if (firstRowOfStop[s]! < 0) firstRowOfStop[s] = r;
   }
   const dayList = [...daySet].sort((a, b) => a - b);
   const dayPos = new Map<number, number>(dayList.map((d, i) => [d, i]));
   const weather = plan.stops.map((stop, s) => {
-    const w = resolveStopWeather(stop.weather, ownedDays[s]);
+    const owned = ownedDays[s]!;
+    const w = resolveStopWeather(stop.weather, owned);
     // A stop that owns no row still gets its ignored-weather warning, at the row after its arrival.
-    const at = firstRowOfStop[s] >= 0 ? firstRowOfStop[s] : Math.min(n - 1, Math.max(0, Math.ceil((grid.timeline.arrivals[s] - grid.startMs) / HOUR_MS)));
+    const firstRow = firstRowOfStop[s]!;
+    const at = firstRow >= 0 ? firstRow : Math.min(n - 1, Math.max(0, Math.ceil((grid.timeline.arrivals[s]! - grid.startMs) / HOUR_MS)));
     if (w.ignoredDates.length > 0) warnings.push({ code: 'weather-ignored', row: at, message: ignoredMessage(stop.name, w.ignoredDates) });
-    for (const d of ownedDays[s]) {
+    for (const d of owned) {
       if (w.byDay.get(d)?.assumed) warnings.push({ code: 'weather-assumed', row: firstRowOfStopDay.get(`${s}|${d}`) ?? 0, message: assumedMessage(stop.name, d) });
     }
     return w;
@@ -122,6 +164,19 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   const sinTilt = plan.arrays.map((a) => Math.sin(a.tiltDeg * RAD));
 
   const ambientC = new Float64Array(n);
+  const cabinHeatedC = new Float64Array(n);
+  const newDemand = (): PreparedDemand => ({
+    dcW: new Float64Array(n),
+    acW: new Float64Array(n),
+    peakAllW: new Float64Array(n),
+    peakAllAvgW: new Float64Array(n),
+    peakDcW: new Float64Array(n),
+    peakDcAvgW: new Float64Array(n),
+    inverterOverload: new Uint8Array(n),
+  });
+  const demand: [PreparedDemand, PreparedDemand] = [newDemand(), newDemand()];
+  const driveFrac = new Float64Array(n);
+  const invEta = plan.inverter.efficiencyPct / 100;
   const sunAltitudeDeg = new Float64Array(n);
   const poaWm2 = new Float64Array(n);
   const dcLoadW = new Float64Array(n);
@@ -135,6 +190,19 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   const masks = plan.loads.map((l) => windowMask(l.windows));
   const loadWatts = plan.loads.map((l) => l.watts * l.quantity);
   const fixedDuty = plan.loads.map((l) => (l.response === 'none' ? dutyAt(l, 0) : -1));
+  const nLoads = plan.loads.length;
+  const heatingIdx: number[] = [];
+  plan.loads.forEach((l, i) => {
+    if (l.response === 'heating') heatingIdx.push(i);
+  });
+  const cabinCooling = Uint8Array.from(plan.loads, (l) => (l.response === 'cooling' && l.location === 'cabin' ? 1 : 0));
+  // Per-row accumulators for the two cabin states (offsets into `acc`).
+  const acc = new Float64Array(2 * ACC);
+  const pwm = plan.arrays.map((a) => a.controller === 'pwm');
+  const cosZSub = new Float64Array(SUBSTEPS);
+  const clearSub = new Float64Array(SUBSTEPS);
+  const azSub = new Float64Array(SUBSTEPS);
+  const drives = grid.timeline.drives;
 
   // suncalc 2.x directly (see sun.ts sunPosition for its conventions), with one reused Date:
   // thousands of sub-steps per trip make allocation show up in the timings.
@@ -142,71 +210,164 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   const date = new Date(0);
   const poaSub = new Float64Array(na);
   for (let r = 0; r < n; r++) {
-    const s = grid.stop[r];
-    const stop = plan.stops[s];
-    const day = grid.localDay[r];
-    const hour = grid.localHour[r];
-    const w = weather[s].byDay.get(day) as DayWeather;
+    const s = grid.stop[r]!;
+    const stop = plan.stops[s]!;
+    const day = grid.localDay[r]!;
+    const hour = grid.localHour[r]!;
+    const w = weather[s]!.byDay.get(day) as DayWeather;
     dayIndex[r] = dayPos.get(day) ?? 0;
-    const ta = ambientForRow(hour, w.highC, w.lowC);
+    // Revision 2: an hour's `tempC` from a source replaces the ASHRAE profile.
+    const givenT = w.tempC ? w.tempC[hour] : NaN;
+    const ta = givenT !== undefined && Number.isFinite(givenT) ? givenT : ambientForRow(hour, w.highC, w.lowC);
     ambientC[r] = ta;
+    const t0 = grid.startMs + r * HOUR_MS;
+    // Minutes past the local clock hour, as a fraction (rows after a move to a zone with a different minute offset).
+    const local = t0 + grid.offsetMin[r]! * 60_000;
+    const minuteFrac = (((local % HOUR_MS) + HOUR_MS) % HOUR_MS) / HOUR_MS;
+    let df = 0;
+    for (const d of drives) {
+      const lo = Math.max(d.startMs, t0);
+      const hi = Math.min(d.endMs, t0 + HOUR_MS);
+      if (hi > lo) df += (hi - lo) / HOUR_MS;
+    }
+    driveFrac[r] = Math.min(1, df);
 
     const driving = grid.driving[r] === 1;
     const hookup = stop.hookup === 'shore';
     shore[r] = hookup && !driving ? 1 : 0;
     generatorSite[r] = !hookup && !driving ? 1 : 0;
-    generatorAllowed[r] = generatorSite[r] && inGeneratorWindow(hour, stop.generatorHours) ? 1 : 0;
+    generatorAllowed[r] = generatorSite[r] === 1 && inGeneratorWindow(hour, stop.generatorHours) ? 1 : 0;
 
-    // ---- loads ----
-    let dc = 0;
-    let ac = 0;
+    // ---- loads (Revision 2: cabin temperature, location, fraction of the row, surges) ----
+    // One pass computes both cabin states: only cooling loads in the cabin differ between them.
     const isDriveDay = grid.driveDay[r] === 1;
-    for (let i = 0; i < plan.loads.length; i++) {
-      const l = plan.loads[i];
-      if (((masks[i] >>> hour) & 1) === 0 || !runsOnDay(l.days, isDriveDay)) continue;
-      const wts = loadWatts[i] * (fixedDuty[i] >= 0 ? fixedDuty[i] : dutyAt(l, ta));
-      if (l.supply === 'ac') ac += wts;
-      else dc += wts;
+    const wholeHour = minuteFrac === 0;
+    let maxSet = -Infinity;
+    for (const i of heatingIdx) {
+      const l = plan.loads[i]!;
+      if (!runsOnDay(l.days, isDriveDay) || windowFraction(masks[i]!, hour, minuteFrac) <= 0) continue;
+      if (l.setpointC > maxSet) maxSet = l.setpointC;
     }
-    dcLoadW[r] = dc;
-    acBankW[r] = inverterDcWatts(ac, plan.inverter);
+    const cabHeated = maxSet > ta ? maxSet : ta;
+    cabinHeatedC[r] = cabHeated;
+    acc.fill(0);
+    let acSurgeOver0 = false;
+    let acSurgeOver1 = false;
+    for (let i = 0; i < nLoads; i++) {
+      const l = plan.loads[i]!;
+      if (l.quantity === 0 || !runsOnDay(l.days, isDriveDay)) continue;
+      const frac = wholeHour ? (masks[i]! >>> hour) & 1 : windowFraction(masks[i]!, hour, minuteFrac);
+      if (frac <= 0) continue;
+      const fixed = fixedDuty[i]!;
+      let duty1: number;
+      let duty0: number;
+      if (fixed >= 0) duty1 = duty0 = fixed;
+      else if (cabinCooling[i] === 1) {
+        duty1 = dutyAt(l, cabHeated);
+        duty0 = cabHeated === ta ? duty1 : dutyAt(l, ta);
+      } else duty1 = duty0 = dutyAt(l, ta); // heating and outside cooling follow the outdoor air
+      const full = l.surgeWatts ?? l.watts;
+      const ac = l.supply === 'ac';
+      const overSurge = ac && plan.inverter.surgeWatts !== null && l.surgeWatts !== null && l.surgeWatts > plan.inverter.surgeWatts;
+      for (let st = 0; st < 2; st++) {
+        const unitAvg = l.watts * (st === 1 ? duty1 : duty0) * frac;
+        if (!(unitAvg > 0)) continue;
+        const o = st * ACC;
+        const wts = unitAvg * l.quantity;
+        if (ac) {
+          acc[o + A_AC] = acc[o + A_AC]! + wts;
+          if (full / invEta > acc[o + A_PEAK_ALL]!) {
+            acc[o + A_PEAK_ALL] = full / invEta;
+            acc[o + A_PEAK_ALL_AVG] = unitAvg / invEta;
+          }
+          if (full > acc[o + A_AC_PEAK]!) {
+            acc[o + A_AC_PEAK] = full;
+            acc[o + A_AC_PEAK_AVG] = unitAvg;
+          }
+          if (overSurge) {
+            if (st === 1) acSurgeOver1 = true;
+            else acSurgeOver0 = true;
+          }
+        } else {
+          acc[o + A_DC] = acc[o + A_DC]! + wts;
+          if (full > acc[o + A_PEAK_ALL]!) {
+            acc[o + A_PEAK_ALL] = full;
+            acc[o + A_PEAK_ALL_AVG] = unitAvg;
+          }
+          if (full > acc[o + A_PEAK_DC]!) {
+            acc[o + A_PEAK_DC] = full;
+            acc[o + A_PEAK_DC_AVG] = unitAvg;
+          }
+        }
+      }
+    }
+    const cont = plan.inverter.continuousWatts;
+    for (let st = 0; st < 2; st++) {
+      const o = st * ACC;
+      const dm = demand[st as 0 | 1];
+      const ac = acc[o + A_AC]!;
+      dm.dcW[r] = acc[o + A_DC]!;
+      dm.acW[r] = ac;
+      dm.peakAllW[r] = acc[o + A_PEAK_ALL]!;
+      dm.peakAllAvgW[r] = acc[o + A_PEAK_ALL_AVG]!;
+      dm.peakDcW[r] = acc[o + A_PEAK_DC]!;
+      dm.peakDcAvgW[r] = acc[o + A_PEAK_DC_AVG]!;
+      // The biggest AC unit at full draw plus the others' averages.
+      const overCont = cont !== null && ac > 0 && acc[o + A_AC_PEAK]! + (ac - acc[o + A_AC_PEAK_AVG]!) > cont;
+      dm.inverterOverload[r] = overCont || (st === 1 ? acSurgeOver1 : acSurgeOver0) ? 1 : 0;
+    }
+    dcLoadW[r] = demand[1].dcW[r]!;
+    acBankW[r] = inverterDcWatts(demand[1].acW[r]!, plan.inverter);
 
     // ---- sun at the midpoint (reported) ----
-    const t0 = grid.startMs + r * HOUR_MS;
     date.setTime(t0 + HOUR_MS / 2);
     const mid = getPosition(date, stop.lat, stop.lon);
     sunAltitudeDeg[r] = mid.altitude;
-    if (na === 0 || mid.altitude < dark[s]) continue;
+    if (na === 0 || mid.altitude < dark[s]!) continue;
 
     // ---- irradiance at each sub-step (forecast-engine.md steps 1–8) ----
     const e0 = extraterrestrial(dayOfYear(day));
     const cloud = kastenCzeplak(w.cloudOktas);
     const shadeStop = 1 - stop.shadePct / 100;
     let poaFirstSum = 0;
+    let clearSum = 0;
     for (let k = 0; k < SUBSTEPS; k++) {
       date.setTime(t0 + ((k + 0.5) * HOUR_MS) / SUBSTEPS);
       const p = getPosition(date, stop.lat, stop.lon);
-      const cosZ = Math.sin(p.altitude * RAD);
+      cosZSub[k] = Math.sin(p.altitude * RAD);
+      azSub[k] = p.azimuth;
+      clearSub[k] = haurwitz(cosZSub[k]!);
+      clearSum += clearSub[k]!;
+    }
+    // Revision 2: an hour's GHI from a source replaces clear sky × clouds, spread over the
+    // sub-steps with the hour's clear-sky shape (dropped where that shape is zero).
+    const givenGhi = w.ghiWm2 ? w.ghiWm2[hour] : NaN;
+    const useGiven = givenGhi !== undefined && Number.isFinite(givenGhi);
+    const ghiScale = useGiven ? (clearSum > 0 ? (givenGhi * SUBSTEPS) / clearSum : 0) : cloud;
+    for (let k = 0; k < SUBSTEPS; k++) {
+      const cosZ = cosZSub[k]!;
       if (!(cosZ > 0)) continue;
-      // Steps 3–5: clear sky, clouds, beam/diffuse split.
-      const sky = splitErbs(haurwitz(cosZ) * cloud, cosZ, e0);
-      const sinZ = Math.cos(p.altitude * RAD);
+      const p = { azimuth: azSub[k]! };
+      // Steps 3–5: clear sky, clouds (or the given GHI), beam/diffuse split.
+      const sky = splitErbs(clearSub[k]! * ghiScale, cosZ, e0);
+      const sinZ = Math.sqrt(Math.max(0, 1 - cosZ * cosZ));
       for (let a = 0; a < na; a++) {
-        const spec = plan.arrays[a];
+        const spec = plan.arrays[a]!;
         // Step 6: a panel that follows the sun faces the sun's azimuth at every sub-step.
         const cosDaz = follow[a] ? 1 : Math.cos((p.azimuth - spec.azimuthDeg) * RAD);
-        const cosT = cosIncidenceTrig(cosZ, sinZ, cosTilt[a], sinTilt[a], cosDaz);
+        const cosT = cosIncidenceTrig(cosZ, sinZ, cosTilt[a]!, sinTilt[a]!, cosDaz);
         // Step 7: shade scales the plane-of-array irradiance before the cell temperature.
-        const poa = poaIsotropicCos(sky.dni, sky.dhi, sky.ghi, cosT, cosTilt[a]) * shadeStop * arrayShade[a];
+        const poa = poaIsotropicCos(sky.dni, sky.dhi, sky.ghi, cosT, cosTilt[a]!) * shadeStop * arrayShade[a]!;
         poaSub[a] = poa;
         // Step 8: NOCT cell temperature and DC output per rated watt.
-        const pw = dcPerWatt(poa, cellTempNoct(ta, poa, spec.nocC), spec.tempCoeffPctPerC, spec.lossesPct);
-        const arr = arrays[a];
+        // PWM (Revision 2): the panel's current follows POA with no temperature coefficient.
+        const pw = pwm[a] ? Math.max(0, (poa / 1000) * (1 - spec.lossesPct / 100)) : dcPerWatt(poa, cellTempNoct(ta, poa, spec.nocC), spec.tempCoeffPctPerC, spec.lossesPct);
+        const arr = arrays[a]!;
         arr.perWattSub[r * SUBSTEPS + k] = pw;
-        arr.perWatt[r] += pw / SUBSTEPS;
-        if (pw > arr.perWattMax[r]) arr.perWattMax[r] = pw;
+        arr.perWatt[r] = arr.perWatt[r]! + pw / SUBSTEPS;
+        if (pw > arr.perWattMax[r]!) arr.perWattMax[r] = pw;
       }
-      poaFirstSum += poaSub[0];
+      poaFirstSum += poaSub[0]!;
     }
     poaWm2[r] = poaFirstSum / SUBSTEPS;
   }
@@ -216,6 +377,9 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     grid,
     n,
     ambientC,
+    cabinHeatedC,
+    demand,
+    driveFrac,
     sunAltitudeDeg,
     poaWm2,
     arrays,

@@ -22,6 +22,15 @@ export const LIMITS = {
 // Re-exported: the chemistry table lives in a module without zod, so pages can show it cheaply.
 export { CHEMISTRIES, CHEMISTRY_DEFAULTS, type Chemistry };
 
+/** Where a bank sits (Revision 2). */
+export const BANK_LOCATIONS = ['outside', 'cabin'] as const;
+/** A bank's place. */
+export type BankLocation = (typeof BANK_LOCATIONS)[number];
+/** Where a load sits (Revision 2). */
+export const LOAD_LOCATIONS = ['cabin', 'outside'] as const;
+/** A load's place. */
+export type LoadLocation = (typeof LOAD_LOCATIONS)[number];
+
 // ---------- small builders, so every number has bounds and a plain-English message ----------
 
 function num(min: number, max: number, opts: { gt?: boolean } = {}) {
@@ -65,9 +74,17 @@ export const bankSchema = z.object(
     maxChargeAmps: num(0, 10_000, { gt: true }).optional(),
     peukertExponent: num(1, 2).optional(),
     chargeEfficiencyPct: num(50, 100).optional(),
+    /** Per 100 Ah (Revision 2): the bank's R = this × 100 / capacityAh. */
     internalResistanceMilliohm: num(0, 1000).optional(),
+    /** Read as `location: "cabin"` when `location` is not given (Revision 2). */
     insideHeatedSpace: z.boolean({ error: 'must be true or false' }).default(false),
     selfHeating: z.boolean({ error: 'must be true or false' }).default(false),
+    /** Where the bank sits: an outside box or bay (default) or inside the heated cabin (Revision 2). */
+    location: z.enum(BANK_LOCATIONS, { error: 'must be outside or cabin' }).optional(),
+    /** Thermal time constant τ of the battery, hours (Revision 2; default 6, common practice). 0 = follows its surroundings with one hour's delay. */
+    thermalHours: num(0, 240).default(6),
+    /** Added: the battery's temperature at the forecast's start (default: its surroundings), e.g. to continue a forecast from a check-in. */
+    initialBatteryC: num(-60, 80).optional(),
   },
   { error: 'must be an object with at least chemistry and capacityAh' },
 );
@@ -103,6 +120,10 @@ export const inverterSchema = z.object({
   efficiencyPct: num(50, 100).default(90),
   idleWatts: num(0, 1000).default(12),
   alwaysOn: z.boolean({ error: 'must be true or false' }).default(false),
+  /** AC watts it can deliver continuously (Revision 2; none = not checked). */
+  continuousWatts: num(0, 100_000, { gt: true }).nullable().default(null),
+  /** AC watts it can deliver for a surge (Revision 2; none = not checked). */
+  surgeWatts: num(0, 100_000, { gt: true }).nullable().default(null),
 });
 
 /** One appliance (or several alike) with its schedule and duty. */
@@ -119,6 +140,24 @@ export const loadSchema = z.object({
   days: z.enum(['all', 'camp', 'drive'], { error: 'must be all, camp or drive' }).default('all'),
   response: z.enum(['none', 'cooling', 'heating'], { error: 'must be none, cooling or heating' }).default('none'),
   setpointC: num(-30, 40).default(18),
+  /** Where the load sits; cooling loads follow that place's temperature (Revision 2). */
+  location: z.enum(LOAD_LOCATIONS, { error: 'must be cabin or outside' }).default('cabin'),
+  /** Draw of one unit while starting or running flat out, W (Revision 2; none = its running watts). */
+  surgeWatts: num(0, 100_000).nullable().default(null),
+});
+
+/** Where a day's weather came from (Revision 2). */
+export const WEATHER_SOURCES = ['forecast', 'past-year', 'typed'] as const;
+
+/** One local clock hour of measured or forecast weather (Revision 2, "Weather from a source"). */
+export const weatherHourSchema = z.object({
+  hour: int(0, 23),
+  /** Global horizontal irradiance, W/m²; replaces clear sky × clouds in that hour. */
+  ghiWm2: num(0, 1500).optional(),
+  /** Air temperature, °C; replaces the ASHRAE profile in that hour. */
+  tempC: num(-60, 60).optional(),
+  /** Cloud cover, %: shown to people, not used by the engine. */
+  cloudPct: num(0, 100).optional(),
 });
 
 /** The expected sky and temperatures of one day at a stop. */
@@ -127,11 +166,13 @@ export const weatherSchema = z.object({
   cloudOktas: num(0, 8),
   highC: num(-60, 60),
   lowC: num(-60, 60),
+  source: z.enum(WEATHER_SOURCES, { error: 'must be forecast, past-year or typed' }).optional(),
+  hourly: z.array(weatherHourSchema, { error: 'must be a list of hours' }).max(24, { error: 'at most 24 hours' }).optional(),
 });
 
 /** A camp: place, zone, dates, shade, hookup, generator window and weather. */
 export const stopSchema = z.object({
-  name,
+  name: name.optional(),
   lat: num(-90, 90),
   lon: num(-180, 180),
   timeZone: z.string({ error: 'must be an IANA time zone such as America/Denver' }).refine(isValidTimeZone, {
@@ -187,13 +228,17 @@ export type ResolvedBank = {
   internalResistanceMilliohm: number;
   insideHeatedSpace: boolean;
   selfHeating: boolean;
+  location: BankLocation;
+  thermalHours: number;
+  /** Present only when the plan gives it. */
+  initialBatteryC?: number;
 };
 /** Resolved parts of a plan. */
 export type ResolvedArray = Omit<z.output<typeof arraySchema>, 'name'> & { name: string };
 export type ResolvedCharger = z.output<typeof chargerSchema>;
 export type ResolvedInverter = z.output<typeof inverterSchema>;
 export type ResolvedLoad = Omit<z.output<typeof loadSchema>, 'name'> & { name: string };
-export type ResolvedStop = z.output<typeof stopSchema>;
+export type ResolvedStop = Omit<z.output<typeof stopSchema>, 'name'> & { name: string };
 export type ResolvedDrive = z.output<typeof driveSchema>;
 /** A plan with every default applied: what the rest of the engine reads. */
 export type ResolvedPlan = {
@@ -222,6 +267,10 @@ export function resolveBank(b: z.output<typeof bankSchema>): ResolvedBank {
     internalResistanceMilliohm: b.internalResistanceMilliohm ?? d.internalResistanceMilliohm,
     insideHeatedSpace: b.insideHeatedSpace,
     selfHeating: b.selfHeating,
+    // `location` wins over the older `insideHeatedSpace` when both are given.
+    location: b.location ?? (b.insideHeatedSpace ? 'cabin' : 'outside'),
+    thermalHours: b.thermalHours,
+    ...(b.initialBatteryC !== undefined ? { initialBatteryC: b.initialBatteryC } : {}),
   };
 }
 
@@ -232,7 +281,7 @@ function resolve(p: RawPlan): ResolvedPlan {
     chargers: p.chargers,
     inverter: p.inverter,
     loads: p.loads.map((l, i) => ({ ...l, name: l.name ?? `Load ${i + 1}` })),
-    stops: p.stops,
+    stops: p.stops.map((st, i) => ({ ...st, name: st.name ?? `Stop ${i + 1}` })),
     drives: p.drives,
   };
 }
@@ -253,15 +302,24 @@ function crossCheck(p: RawPlan, issue: AddIssue): void {
 
   p.stops.forEach((s, i) => {
     const [gFrom, gTo] = s.generatorHours;
-    if (!(gFrom < gTo)) issue(['stops', i, 'generatorHours'], 'generator hours must be [start, stop] with start before stop');
+    if (!(gFrom < gTo)) issue(['stops', i, 'generatorHours'], 'generator hours must be [start, stop] with start before stop (0 ≤ start < stop ≤ 24); a window across midnight is not allowed, split it if needed');
     const seen = new Map<string, number>();
     s.weather.forEach((w, j) => {
       if (w.highC < w.lowC) issue(['stops', i, 'weather', j, 'highC'], 'the high must not be below the low');
       if (seen.has(w.date)) issue(['stops', i, 'weather', j, 'date'], `weather for ${w.date} is given twice`);
+      const hours = new Set<number>();
+      (w.hourly ?? []).forEach((h, k) => {
+        if (hours.has(h.hour)) issue(['stops', i, 'weather', j, 'hourly', k, 'hour'], `hour ${h.hour} is given twice`);
+        hours.add(h.hour);
+      });
       seen.set(w.date, j);
     });
-    if (i > 0) {
-      const prev = p.stops[i - 1];
+    const prevStop = i > 0 ? p.stops[i - 1] : undefined;
+    if (prevStop && Math.abs(s.lon - prevStop.lon) > 180) {
+      issue(['stops', i, 'lon'], `${s.name ?? `Stop ${i + 1}`}: trips across the date line are not supported yet`);
+    }
+    if (prevStop) {
+      const prev = prevStop;
       const a = dayNumber(s.arrive);
       const pa = dayNumber(prev.arrive);
       if (a <= pa) issue(['stops', i, 'arrive'], 'stops must be in order: each arrives after the one before');
@@ -270,17 +328,21 @@ function crossCheck(p: RawPlan, issue: AddIssue): void {
   });
 
   // Timeline-level checks need valid stop order; skip them if the stops already failed.
-  const stopIssues = p.stops.some((s, i) => i > 0 && dayNumber(s.arrive) < dayNumber(p.stops[i - 1].arrive) + p.stops[i - 1].nights);
+  const stopIssues = p.stops.some((s, i) => {
+    const prev = i > 0 ? p.stops[i - 1] : undefined;
+    return prev !== undefined && (dayNumber(s.arrive) < dayNumber(prev.arrive) + prev.nights || Math.abs(s.lon - prev.lon) > 180);
+  });
   if (stopIssues) return;
   const tl = planTimeline(p.stops, p.drives);
   for (let i = 1; i < tl.arrivals.length; i++) {
-    if (tl.arrivals[i] <= tl.arrivals[i - 1]) issue(['stops', i, 'arriveHour'], 'arrives before the stop before it (check the time zones and arrival hours)');
+    if ((tl.arrivals[i] ?? 0) <= (tl.arrivals[i - 1] ?? 0)) issue(['stops', i, 'arriveHour'], 'arrives before the stop before it (check the time zones and arrival hours)');
   }
   if (tl.hours > LIMITS.maxHours) {
     issue(['stops', p.stops.length - 1, 'nights'], `the trip spans ${Math.ceil(tl.hours / 24)} days; at most ${LIMITS.maxDays}`);
   }
   tl.drives.forEach((d, i) => {
-    if (d.startMs < tl.startMs || d.endMs > tl.endMs) issue(['drives', i, 'date'], 'the drive falls outside the trip (between the first arrival and 11:00 on the last morning)');
+    // Revision 2: a drive must start inside the forecast; hours past its end are ignored.
+    if (d.startMs < tl.startMs || d.startMs >= tl.endMs) issue(['drives', i, 'date'], 'the drive must start inside the trip (between the first arrival and 11:00 on the last morning)');
   });
 }
 

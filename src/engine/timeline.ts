@@ -28,8 +28,8 @@ export interface TripTimeline {
 /** Computes the trip's frame: first arrival, end instant, row count, arrival and drive instants. */
 export function planTimeline(stops: StopTime[], drives: DriveTime[]): TripTimeline {
   const arrivals = stops.map((s) => localToInstant(s.timeZone, dayNumber(s.arrive), s.arriveHour));
-  const startMs = arrivals[0];
-  const last = stops[stops.length - 1];
+  const startMs = arrivals[0]!;
+  const last = stops[stops.length - 1]!;
   const endLocal = localToInstant(last.timeZone, dayNumber(last.arrive) + last.nights, 11);
   const hours = Math.max(1, Math.ceil((endLocal - startMs) / HOUR_MS));
   const arriveDays = stops.map((s) => dayNumber(s.arrive));
@@ -38,11 +38,11 @@ export function planTimeline(stops: StopTime[], drives: DriveTime[]): TripTimeli
     // A drive's clock time is read in the zone of the stop that owns that instant: start from
     // the last stop that has arrived by that date and walk back while it has not yet arrived.
     let s = stops.length - 1;
-    while (s > 0 && arriveDays[s] > day) s--;
-    let t = localToInstant(stops[s].timeZone, day, d.startHour);
-    while (s > 0 && t < arrivals[s]) {
+    while (s > 0 && arriveDays[s]! > day) s--;
+    let t = localToInstant(stops[s]!.timeZone, day, d.startHour);
+    while (s > 0 && t < arrivals[s]!) {
       s--;
-      t = localToInstant(stops[s].timeZone, day, d.startHour);
+      t = localToInstant(stops[s]!.timeZone, day, d.startHour);
     }
     return { startMs: t, endMs: t + d.hours * HOUR_MS, day };
   });
@@ -87,25 +87,25 @@ export function buildGrid(stops: StopTime[], drives: DriveTime[]): Grid {
   let s = 0;
   for (let i = 0; i < n; i++) {
     const t = startMs + i * HOUR_MS;
-    while (s + 1 < stops.length && timeline.arrivals[s + 1] <= t) s++;
+    while (s + 1 < stops.length && timeline.arrivals[s + 1]! <= t) s++;
     stop[i] = s;
   }
   // Offsets are looked up per run of rows owned by one stop (sampled, see offsetsAlong).
   for (let a = 0; a < n; ) {
     let b = a + 1;
     while (b < n && stop[b] === stop[a]) b++;
-    offsetsAlong(stops[stop[a]].timeZone, startMs + a * HOUR_MS, HOUR_MS, b - a, offsetMin, a);
+    offsetsAlong(stops[stop[a]!]!.timeZone, startMs + a * HOUR_MS, HOUR_MS, b - a, offsetMin, a);
     a = b;
   }
 
   const driveDays = new Set(timeline.drives.map((d) => d.day));
   for (let i = 0; i < n; i++) {
     const t = startMs + i * HOUR_MS;
-    const local = t + offsetMin[i] * 60_000;
+    const local = t + offsetMin[i]! * 60_000;
     const day = Math.floor(local / 86_400_000);
     localDay[i] = day;
     localHour[i] = Math.floor((local - day * 86_400_000) / HOUR_MS);
-    time[i] = formatLocal(t, offsetMin[i]);
+    time[i] = formatLocal(t, offsetMin[i]!);
     for (const d of timeline.drives) {
       if (t >= d.startMs && t < d.endMs) {
         driving[i] = 1;

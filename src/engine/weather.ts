@@ -8,6 +8,30 @@ export interface DayWeather {
   lowC: number;
   /** True when no day was given and the 4 oktas / 20 °C / 10 °C fallback applies. */
   assumed: boolean;
+  /** Revision 2: measured or forecast GHI (W/m²) per local clock hour, NaN where not given. */
+  ghiWm2?: Float64Array;
+  /** Revision 2: measured or forecast air °C per local clock hour, NaN where not given. */
+  tempC?: Float64Array;
+}
+
+/** One hour of weather from a source (Revision 2). */
+export interface WeatherHour {
+  hour: number;
+  ghiWm2?: number | undefined;
+  tempC?: number | undefined;
+  cloudPct?: number | undefined;
+}
+
+/** Per-clock-hour GHI and temperature arrays (NaN where an hour gives none), or undefined without hours. */
+export function hourlyArrays(hours: WeatherHour[] | undefined): { ghiWm2: Float64Array; tempC: Float64Array } | undefined {
+  if (!hours || hours.length === 0) return undefined;
+  const ghiWm2 = new Float64Array(24).fill(NaN);
+  const tempC = new Float64Array(24).fill(NaN);
+  for (const h of hours) {
+    if (h.ghiWm2 !== undefined) ghiWm2[h.hour] = h.ghiWm2;
+    if (h.tempC !== undefined) tempC[h.hour] = h.tempC;
+  }
+  return { ghiWm2, tempC };
 }
 
 /** Fallback when a stop gives no usable weather at all. */
@@ -18,6 +42,7 @@ interface WeatherEntry {
   cloudOktas: number;
   highC: number;
   lowC: number;
+  hourly?: WeatherHour[] | undefined;
 }
 
 /** Weather of each owned day of one stop, plus the given dates it ignores. */
@@ -52,7 +77,7 @@ export function resolveStopWeather(entries: WeatherEntry[], ownedDays: number[])
     byDay.set(
       day,
       best
-        ? { cloudOktas: best.e.cloudOktas, highC: best.e.highC, lowC: best.e.lowC, assumed: false }
+        ? { cloudOktas: best.e.cloudOktas, highC: best.e.highC, lowC: best.e.lowC, assumed: false, ...hourlyArrays(best.e.hourly) }
         : { ...ASSUMED_WEATHER, assumed: true },
     );
   }

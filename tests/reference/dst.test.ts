@@ -15,7 +15,7 @@ function trip(timeZone: string, arrive: string, arriveHour = 15) {
 function expectEveryInstantOnce(times: string[]) {
   const instants = times.map((t) => Date.parse(t));
   for (const x of instants) expect(Number.isFinite(x)).toBe(true);
-  for (let i = 1; i < instants.length; i++) expect(instants[i] - instants[i - 1]).toBe(HOUR);
+  for (let i = 1; i < instants.length; i++) expect(instants[i]! - instants[i - 1]!).toBe(HOUR);
   expect(new Set(times).size).toBe(times.length);
 }
 
@@ -44,7 +44,7 @@ describe('spring forward (America/Denver, 2027-03-14 02:00 MST → 03:00 MDT)', 
 
   it('an arrival hour inside the gap means the first instant after it', () => {
     const g = trip('America/Denver', '2027-03-14', 2);
-    expect(g.hourly[0].time).toBe('2027-03-14T03:00-06:00');
+    expect(g.hourly[0]!.time).toBe('2027-03-14T03:00-06:00');
   });
 });
 
@@ -70,13 +70,13 @@ describe('fall back (America/Denver, 2027-11-07 02:00 MDT → 01:00 MST)', () =>
   it('the local day has 25 rows, and both 01:00 rows use the same ASHRAE hour', () => {
     expect(times.filter((t) => t.startsWith('2027-11-07')).length).toBe(25);
     const i = times.indexOf('2027-11-07T01:00-06:00');
-    expect(f.hourly[i].ambientC).toBe(f.hourly[i + 1].ambientC);
+    expect(f.hourly[i]!.ambientC).toBe(f.hourly[i + 1]!.ambientC);
   });
 
   it('an arrival hour inside the overlap means the earlier instant', () => {
     const g = trip('America/Denver', '2027-11-07', 1);
-    expect(g.hourly[0].time).toBe('2027-11-07T01:00-06:00');
-    expect(g.hourly[1].time).toBe('2027-11-07T01:00-07:00');
+    expect(g.hourly[0]!.time).toBe('2027-11-07T01:00-06:00');
+    expect(g.hourly[1]!.time).toBe('2027-11-07T01:00-07:00');
   });
 });
 
@@ -91,7 +91,7 @@ describe.each([
   it(`every instant once; ${day} has ${rows} rows; offset ${before} → ${after}`, () => {
     expectEveryInstantOnce(times);
     expect(times.filter((t) => t.startsWith(day)).length).toBe(rows);
-    expect(times[0].endsWith(before)).toBe(true);
-    expect(times[times.length - 1].endsWith(after)).toBe(true);
+    expect(times[0]!.endsWith(before)).toBe(true);
+    expect(times[times.length - 1]!.endsWith(after)).toBe(true);
   });
 });

@@ -78,8 +78,8 @@ describe('controllers (forecast-engine.md step 9 and "Solar")', () => {
     const capW = 40 * 12.8;
     for (let r = 0; r < p.n; r++) {
       let expected = 0;
-      for (let k = 0; k < SUBSTEPS; k++) expected += Math.min(p.arrays[0].perWattSub[r * SUBSTEPS + k] * 2000 * 0.97, capW) / SUBSTEPS;
-      expect(s.solarW[r] + s.curtailedW[r]).toBeCloseTo(expected, 9);
+      for (let k = 0; k < SUBSTEPS; k++) expected += Math.min(p.arrays[0]!.perWattSub[r * SUBSTEPS + k]! * 2000 * 0.97, capW) / SUBSTEPS;
+      expect(s.solarW[r]! + s.curtailedW[r]!).toBeCloseTo(expected, 9);
       expect(s.solarW[r]).toBeLessThanOrEqual(capW + 1e-9);
     }
   });

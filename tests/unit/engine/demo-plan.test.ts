@@ -10,8 +10,8 @@ const fullDays = f.days.slice(1, -1);
 
 describe('demo trip: Reyes-Okafor van, late October 2027', () => {
   it('spans five nights at two stops across two zones, with the drive day between them', () => {
-    expect(f.hourly[0].time).toBe('2027-10-21T15:00-06:00');
-    expect(f.hourly[f.hourly.length - 1].time).toBe('2027-10-26T10:00-07:00');
+    expect(f.hourly[0]!.time).toBe('2027-10-21T15:00-06:00');
+    expect(f.hourly[f.hourly.length - 1]!.time).toBe('2027-10-26T10:00-07:00');
     expect(f.stops.map((s) => s.name)).toEqual(['Juniper Mesa', 'Cinder Flat']);
     expect(f.hourly.filter((h) => h.driving)).toHaveLength(5);
     expect(f.days.find((d) => d.date === '2027-10-24')?.chargeWh).toBeGreaterThan(0);

@@ -75,7 +75,7 @@ describe('variants equal the plan changed the same way', () => {
     try {
       simulatePrepared(prepared, { bank: { chemistry: 'lifepo4', capacityAh: -1 } });
     } catch (e) {
-      expect((e as PlanValidationError).envelope.issues[0].path).toBe('bank.capacityAh');
+      expect((e as PlanValidationError).envelope.issues[0]!.path).toBe('bank.capacityAh');
     }
   });
 });

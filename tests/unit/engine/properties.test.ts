@@ -20,6 +20,8 @@ const loadArb = fc.record({
   days: fc.constantFrom('all' as const, 'camp' as const, 'drive' as const),
   response: fc.constantFrom('none' as const, 'cooling' as const, 'heating' as const),
   setpointC: fc.integer({ min: 5, max: 25 }),
+  location: fc.constantFrom('cabin' as const, 'outside' as const),
+  surgeWatts: fc.option(fc.integer({ min: 0, max: 3000 }), { nil: null }),
 });
 
 const arrayArb = fc.record({
@@ -44,6 +46,9 @@ const bankArb = fc.record({
   peukertExponent: fc.option(fc.double({ min: 1, max: 1.4, noNaN: true }), { nil: undefined }),
   insideHeatedSpace: fc.boolean(),
   selfHeating: fc.boolean(),
+  location: fc.option(fc.constantFrom('outside' as const, 'cabin' as const), { nil: undefined }),
+  thermalHours: fc.option(fc.double({ min: 0, max: 48, noNaN: true }), { nil: undefined }),
+  internalResistanceMilliohm: fc.option(fc.double({ min: 0, max: 200, noNaN: true }), { nil: undefined }),
 });
 
 const chargersArb = fc.tuple(
@@ -71,7 +76,20 @@ const stopArb = fc.record({
   hookup: fc.constantFrom('none' as const, 'none' as const, 'shore' as const),
   gen: fc.tuple(fc.integer({ min: 0, max: 23 }), fc.integer({ min: 1, max: 24 })),
   weather: fc.array(
-    fc.record({ offset: fc.integer({ min: -1, max: 4 }), cloudOktas: fc.integer({ min: 0, max: 8 }), lowC: fc.integer({ min: -25, max: 30 }), range: fc.integer({ min: 0, max: 20 }) }),
+    fc.record({
+      offset: fc.integer({ min: -1, max: 4 }),
+      cloudOktas: fc.integer({ min: 0, max: 8 }),
+      lowC: fc.integer({ min: -25, max: 30 }),
+      range: fc.integer({ min: 0, max: 20 }),
+      // Revision 2: hours from a source.
+      hourly: fc.option(
+        fc.uniqueArray(
+          fc.record({ hour: fc.integer({ min: 0, max: 23 }), ghiWm2: fc.option(fc.integer({ min: 0, max: 1200 }), { nil: undefined }), tempC: fc.option(fc.integer({ min: -30, max: 40 }), { nil: undefined }) }),
+          { maxLength: 24, selector: (h) => h.hour },
+        ),
+        { nil: undefined },
+      ),
+    }),
     { maxLength: 4 },
   ),
 });
@@ -82,7 +100,13 @@ const planArb: fc.Arbitrary<Plan> = fc
     bank: bankArb,
     arrays: fc.array(arrayArb, { maxLength: 3 }),
     chargers: chargersArb,
-    inverter: fc.record({ efficiencyPct: fc.integer({ min: 80, max: 98 }), idleWatts: fc.integer({ min: 0, max: 30 }), alwaysOn: fc.boolean() }),
+    inverter: fc.record({
+      efficiencyPct: fc.integer({ min: 80, max: 98 }),
+      idleWatts: fc.integer({ min: 0, max: 30 }),
+      alwaysOn: fc.boolean(),
+      continuousWatts: fc.option(fc.integer({ min: 100, max: 3000 }), { nil: null }),
+      surgeWatts: fc.option(fc.integer({ min: 100, max: 6000 }), { nil: null }),
+    }),
     loads: fc.array(loadArb, { maxLength: 8 }),
     stops: fc.array(stopArb, { minLength: 1, maxLength: 3 }),
     drives: fc.array(fc.record({ dayFrac: fc.double({ min: 0, max: 1, noNaN: true }), startHour: fc.integer({ min: 0, max: 23 }), hours: fc.integer({ min: 1, max: 6 }) }), { maxLength: 2 }),
@@ -96,7 +120,7 @@ const planArb: fc.Arbitrary<Plan> = fc
       const seen = new Set<number>();
       const weather = s.weather
         .filter((w) => (seen.has(w.offset) ? false : (seen.add(w.offset), true)))
-        .map((w) => ({ date: iso(arrive + w.offset), cloudOktas: w.cloudOktas, lowC: w.lowC, highC: w.lowC + w.range }));
+        .map((w) => ({ date: iso(arrive + w.offset), cloudOktas: w.cloudOktas, lowC: w.lowC, highC: w.lowC + w.range, ...(w.hourly ? { source: 'forecast' as const, hourly: w.hourly } : {}) }));
       const from = Math.min(s.gen[0], 23);
       return {
         name: `Stop ${i + 1}`,
@@ -157,45 +181,48 @@ describe('properties of random valid plans', () => {
         let throughput = 0;
         for (let r = 0; r < s.n; r++) {
           // 0 ≤ SOC ≤ 100.
-          check(s.socEndPct[r] >= 0 && s.socEndPct[r] <= 100, '0 ≤ SOC ≤ 100', r);
-          check(f.hourly[r].socPct >= 0 && f.hourly[r].socPct <= 100, '0 ≤ rounded SOC ≤ 100', r);
-          for (const a of [s.solarW, s.chargeW, s.loadW, s.unmetW, s.curtailedW, s.ahIn, s.ahOut, s.ahOutRaw]) check(a[r] >= 0, 'flows are not negative', r);
+          check(s.socEndPct[r]! >= 0 && s.socEndPct[r]! <= 100, '0 ≤ SOC ≤ 100', r);
+          check(f.hourly[r]!.socPct >= 0 && f.hourly[r]!.socPct <= 100, '0 ≤ rounded SOC ≤ 100', r);
+          for (const a of [s.solarW, s.chargeW, s.loadW, s.unmetW, s.curtailedW, s.ahIn, s.ahOut, s.ahOutRaw]) check(a[r]! >= 0, 'flows are not negative', r);
 
           // SOC never rises in an hour without charging.
-          if (s.socEndPct[r] > s.socStartPct[r] + 1e-9) check(s.ahIn[r] > 0 && s.solarW[r] + s.chargeW[r] > 0, 'SOC rises only with charging', r);
+          if (s.socEndPct[r]! > s.socStartPct[r]! + 1e-9) check(s.ahIn[r]! > 0 && s.solarW[r]! + s.chargeW[r]! > 0, 'SOC rises only with charging', r);
 
-          // Unmet energy only at or below the floor or while disconnected.
-          if (s.unmetW[r] > 1e-9) check(s.disconnected[r] === 1 || s.socEndPct[r] <= bank.floorSocPct + 1e-6, 'unmet only when disconnected', r);
+          // Unmet energy only at or below the floor, while disconnected, or in a voltage collapse (Revision 2).
+          const collapse = s.warnings.some((w) => w.row === r && w.code === 'voltage-collapse');
+          if (s.unmetW[r]! > 1e-9) check(s.disconnected[r] === 1 || s.usablePct[r]! <= bank.floorSocPct + 1e-6 || collapse, 'unmet only when disconnected', r);
 
-          // Power balance at the bus: solar + chargers − loads = (Ah in − Ah out at the terminals) × V.
-          const bus = s.solarW[r] + s.chargeW[r] - s.loadW[r];
-          check(Math.abs(bus - (s.ahIn[r] - s.ahOutRaw[r]) * bank.nominalVolts) <= 1e-6 * (1 + Math.abs(bus)), 'bus balance', r);
+          // Usable charge (Revision 2) is never more than the true SOC and never negative.
+          check(s.usablePct[r]! >= 0 && s.usablePct[r]! <= s.socEndPct[r]! + 1e-9, '0 ≤ usable ≤ SOC', r);
 
-          // Hour ledger: ΔSOC·C·f = Ah in × η − Ah out (Peukert-adjusted).
-          const stored = ((s.socEndPct[r] - s.socStartPct[r]) / 100) * C * s.capacityFactor[r];
-          const flow = s.ahIn[r] * eta - s.ahOut[r];
+          // Bus: with only charge flowing in, sources exceed loads; with only discharge, loads exceed sources
+          // (Revision 2 converts at the sub-step's terminal volts, so no single voltage closes it exactly).
+          const bus = s.solarW[r]! + s.chargeW[r]! - s.loadW[r]!;
+          if (s.ahIn[r]! > 1e-9 && s.ahOutRaw[r] === 0) check(bus > 0, 'charging hour: sources exceed loads', r);
+          if (s.ahOutRaw[r]! > 1e-9 && s.ahIn[r] === 0) check(bus < 0, 'discharging hour: loads exceed sources', r);
+
+          // Hour ledger (Revision 2: charge conserved, no cold factor): ΔSOC·C = Ah in × η − Ah out (Peukert-adjusted).
+          const stored = ((s.socEndPct[r]! - s.socStartPct[r]!) / 100) * C;
+          const flow = s.ahIn[r]! * eta - s.ahOut[r]!;
           check(Math.abs(stored - flow) <= 1e-9 * C, 'hour ledger', r);
           lhs += stored;
           rhs += flow;
-          throughput += s.ahIn[r] * eta + s.ahOut[r];
+          throughput += s.ahIn[r]! * eta + s.ahOut[r]!;
           if (r > 0) check(s.socStartPct[r] === s.socEndPct[r - 1], 'SOC carries over', r);
-          if (s.unmetW[r] > 0) stats.unmet++;
+          if (s.unmetW[r]! > 0) stats.unmet++;
           if (s.coldBlocked[r]) stats.cold++;
           if (s.generatorOn[r]) stats.generator++;
-          if (s.curtailedW[r] > 0) stats.curtailed++;
+          if (s.curtailedW[r]! > 0) stats.curtailed++;
         }
         // The trip ledger closes to 0.1 %: start energy + charged × η − discharged = end energy.
         expect(Math.abs(lhs - rhs)).toBeLessThanOrEqual(0.001 * Math.max(C, throughput));
-        if (bank.insideHeatedSpace) {
-          // Constant battery temperature: one capacity factor for the whole trip.
-          const fc0 = s.capacityFactor[0];
-          const startAh = (bank.initialSocPct / 100) * C * fc0;
-          const endAh = (s.socEndPct[s.n - 1] / 100) * C * fc0;
-          expect(Math.abs(startAh + rhs - endAh)).toBeLessThanOrEqual(0.001 * C);
-        }
+        // Whatever the temperatures: start charge + Ah in × η − Ah out = end charge (Revision 2).
+        const startAh = (bank.initialSocPct / 100) * C;
+        const endAh = (s.socEndPct[s.n - 1]! / 100) * C;
+        expect(Math.abs(startAh + rhs - endAh)).toBeLessThanOrEqual(1e-6 * Math.max(C, throughput));
 
         // Rows are exactly an hour apart; days and summary agree with the hours.
-        for (let r = 1; r < s.n; r++) check(Date.parse(f.hourly[r].time) - Date.parse(f.hourly[r - 1].time) === 3_600_000, 'rows an hour apart', r);
+        for (let r = 1; r < s.n; r++) check(Date.parse(f.hourly[r]!.time) - Date.parse(f.hourly[r - 1]!.time) === 3_600_000, 'rows an hour apart', r);
         const dayLoad = f.days.reduce((a, d) => a + d.loadWh, 0);
         expect(Math.abs(dayLoad - f.summary.loadWh)).toBeLessThanOrEqual(f.days.length);
         expect(f.summary.hoursSimulated).toBe(f.hourly.length);

@@ -14,9 +14,10 @@ function refuse(mutate: (p: Mutable) => void) {
   return v.envelope;
 }
 
-describe('defaults (forecast-engine.md defaults table)', () => {
+describe('defaults (forecast-engine.md defaults table, Revision 2)', () => {
+  // Revision 2: LiFePO4 Peukert 1.02 (was 1.05); resistance in mΩ per 100 Ah; location outside; thermalHours 6.
   it.each([
-    ['lifepo4', 12.8, 10, 150, 1.05, 99, 8],
+    ['lifepo4', 12.8, 10, 150, 1.02, 99, 8],
     ['agm', 12, 50, 60, 1.12, 92, 12],
     ['gel', 12, 50, 60, 1.12, 90, 15],
     ['flooded', 12, 50, 60, 1.25, 85, 15],
@@ -36,7 +37,30 @@ describe('defaults (forecast-engine.md defaults table)', () => {
       internalResistanceMilliohm: mohm,
       insideHeatedSpace: false,
       selfHeating: false,
+      location: 'outside',
+      thermalHours: 6,
     });
+  });
+
+  it('bank location: insideHeatedSpace is read as "cabin"; location wins when both are given', () => {
+    const bankOf = (bank: Record<string, unknown>) => {
+      const v = validatePlan(basePlan({ bank: { chemistry: 'agm', capacityAh: 100, ...bank } }));
+      if (!v.ok) throw new Error('invalid');
+      return v.plan.bank;
+    };
+    expect(bankOf({ insideHeatedSpace: true }).location).toBe('cabin');
+    expect(bankOf({ insideHeatedSpace: true, location: 'outside' }).location).toBe('outside');
+    expect(bankOf({ location: 'cabin' }).location).toBe('cabin');
+    expect(bankOf({}).location).toBe('outside');
+  });
+
+  it('a stop without a name is "Stop N" (Revision 2), like arrays and loads', () => {
+    const p = basePlan();
+    const stop = { ...p.stops[0]! } as Record<string, unknown>;
+    delete stop.name;
+    const v = validatePlan({ ...p, stops: [stop] });
+    if (!v.ok) throw new Error(JSON.stringify(v.envelope));
+    expect(v.plan.stops[0]!.name).toBe('Stop 1');
   });
 
   it('fills array, charger, inverter, load and stop defaults', () => {
@@ -63,8 +87,8 @@ describe('defaults (forecast-engine.md defaults table)', () => {
       shadePct: 0,
     });
     expect(v.plan.chargers[0]).toEqual({ kind: 'generator', amps: 30, startSocPct: 40, stopSocPct: 80, fuelLitresPerHour: 0.6 });
-    expect(v.plan.inverter).toEqual({ efficiencyPct: 90, idleWatts: 12, alwaysOn: false });
-    expect(v.plan.loads[0]).toEqual({ name: 'Fridge', watts: 45, quantity: 1, supply: 'dc', windows: [[0, 24]], dutyPct: 100, days: 'all', response: 'none', setpointC: 18 });
+    expect(v.plan.inverter).toEqual({ efficiencyPct: 90, idleWatts: 12, alwaysOn: false, continuousWatts: null, surgeWatts: null });
+    expect(v.plan.loads[0]).toEqual({ name: 'Fridge', watts: 45, quantity: 1, supply: 'dc', windows: [[0, 24]], dutyPct: 100, days: 'all', response: 'none', setpointC: 18, location: 'cabin', surgeWatts: null });
     expect(v.plan.stops[0]).toMatchObject({ arriveHour: 15, shadePct: 0, hookup: 'none', generatorHours: [8, 20], weather: [] });
     expect(v.plan.drives).toEqual([]);
   });
@@ -99,7 +123,14 @@ describe('refusals name the field with a dot path', () => {
     ['generator start ≥ stop', (p) => (p.chargers = [{ kind: 'generator', amps: 10, startSocPct: 80, stopSocPct: 80 }]), 'chargers.0.startSocPct'],
     ['generator hours backwards', (p) => (p.stops[0].generatorHours = [20, 8]), 'stops.0.generatorHours'],
     ['drive before the trip', (p) => (p.drives = [{ date: '2027-10-20', startHour: 9, hours: 2 }]), 'drives.0.date'],
-    ['drive after the trip', (p) => (p.drives = [{ date: '2027-10-26', startHour: 10, hours: 3 }]), 'drives.0.date'],
+    ['drive starting after the trip (Revision 2: a drive must start inside it)', (p) => (p.drives = [{ date: '2027-10-26', startHour: 11, hours: 3 }]), 'drives.0.date'],
+    ['generator hours across midnight (Revision 2)', (p) => (p.stops[0].generatorHours = [22, 6]), 'stops.0.generatorHours'],
+    ['trip across the date line (Revision 2) names the later stop', (p) => ((p.stops[0].lon = 179), (p.stops[1].lon = -179)), 'stops.1.lon'],
+    ['bank location elsewhere', (p) => (p.bank.location = 'roof'), 'bank.location'],
+    ['load location elsewhere', (p) => (p.loads[0].location = 'roof'), 'loads.0.location'],
+    ['weather hour 24', (p) => (p.stops[0].weather[0].hourly = [{ hour: 24, ghiWm2: 100 }]), 'stops.0.weather.0.hourly.0.hour'],
+    ['weather hour given twice', (p) => (p.stops[0].weather[0].hourly = [{ hour: 12, ghiWm2: 100 }, { hour: 12, tempC: 3 }]), 'stops.0.weather.0.hourly.1.hour'],
+    ['weather source unknown', (p) => (p.stops[0].weather[0].source = 'guess'), 'stops.0.weather.0.source'],
     ['drive hours fractional', (p) => (p.drives = [{ date: '2027-10-24', startHour: 9, hours: 1.5 }]), 'drives.0.hours'],
     ['array ratedWatts infinite-ish', (p) => (p.arrays[0].ratedWatts = 1e12), 'arrays.0.ratedWatts'],
     ['array tilt 100', (p) => (p.arrays[0].tiltDeg = 100), 'arrays.0.tiltDeg'],
@@ -107,7 +138,7 @@ describe('refusals name the field with a dot path', () => {
     const env = refuse(mutate);
     expect(env.error.code).toBe('invalid_plan');
     expect(env.issues.map((i) => i.path)).toContain(path);
-    expect(env.error.message).toContain(env.issues[0].message);
+    expect(env.error.message).toContain(env.issues[0]!.message);
     for (const i of env.issues) expect(i.message.length).toBeGreaterThan(3);
   });
 
@@ -156,7 +187,7 @@ describe('refusals name the field with a dot path', () => {
         const p = structuredClone(demoPlan()) as Mutable;
         let o = p;
         for (const k of path.slice(0, -1)) o = o[k];
-        o[path[path.length - 1]] = value;
+        o[path[path.length - 1]!] = value;
         const r = runForecast(p);
         if (!r.ok) expect(r.envelope.issues.length).toBeGreaterThan(0);
       }),
@@ -176,8 +207,10 @@ describe('types', () => {
       stops: [{ name: 'Mesa camp', lat: 35.6, lon: -105.9, timeZone: 'America/Denver', arrive: '2027-10-21', nights: 3, arriveHour: 15, shadePct: 10, hookup: 'none', generatorHours: [8, 20], weather: [{ date: '2027-10-21', cloudOktas: 2, highC: 18, lowC: -2 }] }],
       drives: [{ date: '2027-10-24', startHour: 9, hours: 2 }],
     };
-    // The contract example's drive (2027-10-24 09:00 for 4 h) runs past the 11:00 end of this one-stop trip.
+    // Revision 2: the contract example's drive (2027-10-24 09:00 for 4 h) starts before the 11:00 end of
+    // this one-stop trip; the hours past the end are ignored, so it is accepted.
     expect(validatePlan(p).ok).toBe(true);
-    expect(validatePlan({ ...p, drives: [{ date: '2027-10-24', startHour: 9, hours: 4 }] }).ok).toBe(false);
+    expect(validatePlan({ ...p, drives: [{ date: '2027-10-24', startHour: 9, hours: 4 }] }).ok).toBe(true);
+    expect(validatePlan({ ...p, drives: [{ date: '2027-10-24', startHour: 11, hours: 1 }] }).ok).toBe(false);
   });
 });

@@ -54,9 +54,9 @@ describe('grid', () => {
 
   it('hands the rows to the next stop at its arrival instant; moving west repeats a clock hour', () => {
     const i = times.indexOf('2027-10-24T15:00-06:00');
-    expect(f.hourly[i].stop).toBe(0);
+    expect(f.hourly[i]!.stop).toBe(0);
     expect(times[i + 1]).toBe('2027-10-24T15:00-07:00');
-    expect(f.hourly[i + 1].stop).toBe(1);
+    expect(f.hourly[i + 1]!.stop).toBe(1);
     expect(f.stops.map((s) => s.name)).toEqual(['Juniper Mesa', 'Cinder Flat']);
   });
 
@@ -74,7 +74,7 @@ describe('grid', () => {
     const i = t.indexOf('2027-10-23T13:00-07:00');
     expect(i).toBeGreaterThan(0);
     expect(t[i + 1]).toBe('2027-10-23T15:00-06:00');
-    for (let r = 1; r < t.length; r++) expect(Date.parse(t[r]) - Date.parse(t[r - 1])).toBe(3_600_000);
+    for (let r = 1; r < t.length; r++) expect(Date.parse(t[r]!) - Date.parse(t[r - 1]!)).toBe(3_600_000);
   });
 
   it('a zone with a non-whole-hour offset labels rows with minutes after moving into it', () => {
@@ -85,7 +85,7 @@ describe('grid', () => {
         { name: 'Pokhara', lat: 28.2, lon: 84, timeZone: 'Asia/Kathmandu', arrive: '2027-10-22', nights: 1 },
       ],
     });
-    expect(g.hourly[0].time).toBe('2027-10-21T15:00+05:30');
+    expect(g.hourly[0]!.time).toBe('2027-10-21T15:00+05:30');
     expect(g.hourly.some((h) => h.time.endsWith(':15+05:45'))).toBe(true);
   });
 
@@ -104,7 +104,7 @@ describe('grid', () => {
     const grid = buildGrid(p.stops, p.drives);
     const drivingRows = [...grid.driving.keys()].filter((r) => grid.driving[r] === 1).map((r) => grid.time[r]);
     expect(drivingRows).toEqual(['2027-10-22T22:00-06:00', '2027-10-22T23:00-06:00', '2027-10-23T00:00-06:00', '2027-10-23T01:00-06:00']);
-    for (let r = 0; r < grid.n; r++) expect(grid.driveDay[r] === 1).toBe(grid.time[r].startsWith('2027-10-22'));
+    for (let r = 0; r < grid.n; r++) expect(grid.driveDay[r] === 1).toBe(grid.time[r]!.startsWith('2027-10-22'));
   });
 
   it('days are local dates of the owning stop, ascending, with partial first and last days', () => {

@@ -36,7 +36,7 @@ describe('warnings in the forecast', () => {
     const f = run(basePlan({ stop: { weather: [] } }));
     const assumed = f.warnings.filter((x) => x.code === 'weather-assumed');
     expect(assumed.map((x) => x.at)).toEqual(['2027-06-10T15:00-07:00', '2027-06-11T00:00-07:00', '2027-06-12T00:00-07:00']);
-    expect(assumed[0].message).toBe('No weather given for Test camp on 2027-06-10: assumed 4 oktas of cloud, a high of 20 °C and a low of 10 °C.');
+    expect(assumed[0]!.message).toBe('No weather given for Test camp on 2027-06-10: assumed 4 oktas of cloud, a high of 20 °C and a low of 10 °C.');
     expect(f.hourly.find((h) => h.time === '2027-06-11T04:00-07:00')?.ambientC).toBe(10);
   });
 
@@ -50,8 +50,8 @@ describe('warnings in the forecast', () => {
     const f = run(basePlan({ stop: { weather: [w('2027-06-10', 25), w('2027-06-20', 25), w('2027-05-01', 25)] } }));
     const ignored = f.warnings.filter((x) => x.code === 'weather-ignored');
     expect(ignored).toHaveLength(1);
-    expect(ignored[0].at).toBe('2027-06-10T15:00-07:00');
-    expect(ignored[0].message).toContain('2027-05-01, 2027-06-20');
+    expect(ignored[0]!.at).toBe('2027-06-10T15:00-07:00');
+    expect(ignored[0]!.message).toContain('2027-05-01, 2027-06-20');
   });
 
   it('warnings are ordered by time', () => {
