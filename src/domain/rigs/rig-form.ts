@@ -42,6 +42,8 @@ export function emptyRig(chemistry: Chemistry = 'lifepo4'): RigFormValues {
       initialSocPct: 100,
       insideHeatedSpace: false,
       selfHeating: false,
+      location: 'outside',
+      thermalHours: DEFAULT_THERMAL_HOURS,
     },
     arrays: [],
     chargers: [],
@@ -62,13 +64,40 @@ export function rigToForm(rig: RigDto): RigFormValues {
       peukertExponent: rig.bank.peukertExponent ?? p.peukertExponent,
       chargeEfficiencyPct: rig.bank.chargeEfficiencyPct ?? p.chargeEfficiencyPct,
       internalResistanceMilliohm: rig.bank.internalResistanceMilliohm ?? p.internalResistanceMilliohm,
+      location: bankLocationOf(rig.bank),
+      thermalHours: rig.bank.thermalHours ?? DEFAULT_THERMAL_HOURS,
     },
     // Every key present (optional ones as undefined): the form compares keys to tell whether it is dirty.
     arrays: rig.arrays.map((a) => ({ ...a, name: a.name, vmpVolts: a.vmpVolts, controllerMaxAmps: a.controllerMaxAmps ?? null })),
     chargers: rig.chargers.map((c) => ({ ...c })),
-    inverter: rig.inverter ? { ...rig.inverter } : null,
+    inverter: rig.inverter ? { ...rig.inverter, continuousWatts: rig.inverter.continuousWatts ?? null, surgeWatts: rig.inverter.surgeWatts ?? null } : null,
   };
 }
+
+/** The battery's thermal lag the engine assumes, hours (a 20–30 kg battery in a box: common practice). */
+export const DEFAULT_THERMAL_HOURS = 6;
+
+/** Where a saved bank sits: its `location`, else the older `insideHeatedSpace` flag (as the engine reads them). */
+export function bankLocationOf(bank: { location?: 'outside' | 'cabin'; insideHeatedSpace?: boolean }): 'outside' | 'cabin' {
+  return bank.location ?? (bank.insideHeatedSpace ? 'cabin' : 'outside');
+}
+
+/** A bank as saved: `insideHeatedSpace` kept in step with `location`, so both readings agree. */
+export function bankToSave<B extends { location?: 'outside' | 'cabin'; insideHeatedSpace?: boolean }>(bank: B): B {
+  const location = bankLocationOf(bank);
+  return { ...bank, location, insideHeatedSpace: location === 'cabin' };
+}
+
+/** A new inverter: the engine's efficiency and idle draw, ratings not given yet. */
+export function newInverter() {
+  return { efficiencyPct: 90, idleWatts: 12, alwaysOn: false, continuousWatts: null, surgeWatts: null };
+}
+
+/** Where the bank can sit, in words. */
+export const BANK_LOCATION_CHOICES = [
+  { value: 'outside', label: 'Outside box or bay', hint: 'A tongue box or an outside compartment: the battery follows the outdoor air, hours behind.' },
+  { value: 'cabin', label: 'Inside the heated cabin', hint: 'Under a seat or bed: it stays near the furnace setpoint while the furnace has power.' },
+] as const;
 
 /** A new solar array of a given mounting, with the engine's defaults. */
 export function newArray(kind: 'roof' | 'portable', index: number): ArrayValues {

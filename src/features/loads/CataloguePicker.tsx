@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { formatNumber } from '../../lib/format';
 import type { Units } from '../../lib/units';
-import { CATALOGUE, catalogueToLoad, type CatalogueItem } from '../../domain/loads/catalogue';
+import { CATALOGUE, SURGE_TYPICAL, catalogueToLoad, type CatalogueItem } from '../../domain/loads/catalogue';
 import type { EnergyRig } from '../../domain/loads/energy';
 import { LoadEditor } from './LoadEditor';
 import { loadToForm, type LoadFormOutput } from '../../domain/loads/load-form';
@@ -29,6 +29,9 @@ export function CataloguePicker({ units, rig, add, onClose }: { units: Units; ri
           <div className="caution mt-2 text-sm">
             <p><span className="font-bold">Typical — check the label.</span> {picked.about}</p>
             <p className="mt-1">Typical draw {range(picked)}; we filled in {formatNumber(picked.watts, 1)} W and a usual schedule ({describeWindows(picked.windows)}). Change them to match yours, then confirm.</p>
+            {picked.surgeWatts ? (
+              <p className="mt-1"><span className="font-bold">Surge {formatNumber(picked.surgeWatts)} W{picked.supply === 'ac' ? ' AC' : ''}: {SURGE_TYPICAL}</span> {picked.surgeAbout}</p>
+            ) : null}
           </div>
         }
         save={async (values) => {
@@ -51,7 +54,7 @@ export function CataloguePicker({ units, rig, add, onClose }: { units: Units; ri
           <li key={item.id}>
             <button type="button" onClick={() => setPicked(item)} className="flex h-full w-full flex-col items-start rounded-xl border-2 border-sand-dark bg-card px-3 py-2 text-left hover:border-ember">
               <span className="font-bold">{item.name}</span>
-              <span className="text-sm text-slate-text">typical {range(item)}{item.standby ? ' · standby' : ''}</span>
+              <span className="text-sm text-slate-text">typical {range(item)}{item.surgeWatts ? ` · surge ${formatNumber(item.surgeWatts)} W` : ''}{item.standby ? ' · standby' : ''}</span>
             </button>
           </li>
         ))}

@@ -1,4 +1,4 @@
-import { useState, type ReactNode } from 'react';
+import { useMemo, useState, type ReactNode } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { LoadDto } from '../../domain/loads/loads.schema';
@@ -6,12 +6,14 @@ import { Field, describedBy } from '../../components/ui/Field';
 import { NumberField } from '../../components/ui/NumberField';
 import { TemperatureInput } from '../../components/ui/TemperatureInput';
 import { ConflictNotice } from '../../components/ui/ConflictNotice';
-import { applyServerIssues, asNumber, errorAt } from '../../components/ui/form';
+import { applyServerIssues, asNumber, asNumberOrNull, errorAt } from '../../components/ui/form';
 import { ApiError, isConflict, isNotFound } from '../../lib/query-client';
 import { formatAh, formatNumber, formatWh } from '../../lib/format';
 import { formatTemp, formatTempDelta, type Units } from '../../lib/units';
 import { loadWhPerDay, whToAh, type EnergyRig } from '../../domain/loads/energy';
-import { LOAD_FIELDS, loadFormSchema, loadToForm, type LoadFormOutput, type LoadFormValues } from '../../domain/loads/load-form';
+import { LOAD_FIELDS, LOAD_LOCATION_LABELS, loadFormSchemaFor, loadToForm, type LoadFormOutput, type LoadFormValues } from '../../domain/loads/load-form';
+import { AC_VOLTS, ampsToWatts, bankAmpsOfAc, drawVolts, roundWatts, wattsToAmps, type AcVolts } from '../../domain/loads/draw';
+import { DEFAULT_INVERTER_EFFICIENCY_PCT } from '../../domain/loads/energy';
 import { describeWindows, parseWindows } from '../../domain/loads/windows';
 
 interface LoadEditorProps {
@@ -31,6 +33,8 @@ interface LoadEditorProps {
 }
 
 const num = { setValueAs: asNumber };
+const numOrNull = { setValueAs: asNumberOrNull };
+const isNum = (v: unknown): v is number => typeof v === 'number' && Number.isFinite(v);
 
 function show(key: string, v: unknown, units: Units): string {
   if (v === undefined || v === null || v === '') return '—';
@@ -38,6 +42,7 @@ function show(key: string, v: unknown, units: Units): string {
   if (key === 'setpointC' && typeof v === 'number') return formatTemp(v, units);
   if (key === 'standby') return v ? 'yes' : 'no';
   if (key === 'supply') return String(v).toUpperCase();
+  if (key === 'location') return LOAD_LOCATION_LABELS[v as keyof typeof LOAD_LOCATION_LABELS] ?? String(v);
   return String(v);
 }
 
@@ -45,8 +50,9 @@ function show(key: string, v: unknown, units: Units): string {
 export function LoadEditor({ idPrefix, initial, units, rig, title, intro, submitLabel, save, onCancel, onTakeTheirs }: LoadEditorProps) {
   const [formError, setFormError] = useState<string | null>(null);
   const [conflict, setConflict] = useState<{ current: LoadDto; mine: LoadFormOutput } | null>(null);
-  const form = useForm<LoadFormValues, unknown, LoadFormOutput>({ resolver: zodResolver(loadFormSchema), defaultValues: initial, mode: 'onTouched' });
-  const { register, control, handleSubmit, setError, formState: { errors, isSubmitting } } = form;
+  const schema = useMemo(() => loadFormSchemaFor(rig.nominalVolts), [rig.nominalVolts]);
+  const form = useForm<LoadFormValues, unknown, LoadFormOutput>({ resolver: zodResolver(schema), defaultValues: initial, mode: 'onTouched' });
+  const { register, control, handleSubmit, setError, setValue, getValues, formState: { errors, isSubmitting } } = form;
   const id = (k: string) => `${idPrefix}-${k}`;
   const err = (k: string) => errorAt(errors, k);
 
@@ -54,11 +60,24 @@ export function LoadEditor({ idPrefix, initial, units, rig, title, intro, submit
   const standby = values.standby === true;
   const response = values.response;
   const parsed = parseWindows(typeof values.windows === 'string' ? values.windows : '');
+  const byAmps = values.drawUnit === 'A';
+  const acVolts: AcVolts = values.acVolts === 230 ? 230 : 120;
+  const volts = drawVolts(values.supply, rig.nominalVolts, acVolts);
+  // The draw in watts, whichever way it was typed: what will be saved.
+  const drawW = byAmps ? (isNum(values.amps) ? roundWatts(ampsToWatts(values.amps, values.supply, rig.nominalVolts, acVolts)) : null) : isNum(values.watts) ? values.watts : null;
+  const inverterPct = rig.inverter?.efficiencyPct ?? DEFAULT_INVERTER_EFFICIENCY_PCT;
+  /** Switches how the draw is typed, carrying the number across so nothing is lost. */
+  const switchUnit = (next: 'W' | 'A') => {
+    const v = getValues();
+    const av: AcVolts = v.acVolts === 230 ? 230 : 120;
+    if (next === 'A' && isNum(v.watts)) setValue('amps', Math.round(wattsToAmps(v.watts, v.supply, rig.nominalVolts, av) * 100) / 100, { shouldDirty: true });
+    if (next === 'W' && isNum(v.amps)) setValue('watts', roundWatts(ampsToWatts(v.amps, v.supply, rig.nominalVolts, av)), { shouldDirty: true });
+  };
   const estimate =
-    typeof values.watts === 'number' && Number.isFinite(values.watts) && parsed.ok
+    drawW !== null && parsed.ok
       ? loadWhPerDay(
           {
-            watts: values.watts,
+            watts: drawW,
             quantity: typeof values.quantity === 'number' && Number.isFinite(values.quantity) ? values.quantity : 1,
             supply: values.supply,
             windows: standby ? [[0, 24]] : parsed.windows,
@@ -129,20 +148,70 @@ export function LoadEditor({ idPrefix, initial, units, rig, title, intro, submit
         <Field id={id('name')} label="Name" error={err('name')} className="sm:col-span-2">
           <input id={id('name')} className="field-input" autoComplete="off" {...describedBy(id('name'), err('name'))} {...register('name')} />
         </Field>
-        <NumberField id={id('watts')} label="Watts (each)" errorName="Watts" unit="W" registration={register('watts', num)} error={err('watts')} hint="Running draw from the label; AC watts for AC loads." />
-        <NumberField id={id('quantity')} label="Quantity" registration={register('quantity', num)} error={err('quantity')} />
+        <NumberField id={id('quantity')} label="Quantity" registration={register('quantity', num)} error={err('quantity')} className="lg:col-span-2" />
 
         <fieldset className="sm:col-span-2">
           <legend className="field-label">Supply</legend>
           <div className="flex gap-2">
             {(['dc', 'ac'] as const).map((s) => (
               <label key={s} className="flex min-h-[44px] flex-1 cursor-pointer items-center gap-2 rounded-xl border-2 border-sand-dark bg-white px-3 font-bold has-[:checked]:border-ember">
-                <input type="radio" value={s} className="accent-ember" {...register('supply')} /> {s === 'dc' ? '12 V DC' : 'AC (inverter)'}
+                <input type="radio" value={s} className="accent-ember" {...register('supply')} /> {s === 'dc' ? `${formatNumber(rig.nominalVolts, 1)} V DC` : 'AC (inverter)'}
               </label>
             ))}
           </div>
           {values.supply === 'ac' && !rig.inverter ? <p className="field-hint mt-1">This rig has no inverter yet; the estimate assumes one at 90 % efficiency.</p> : null}
         </fieldset>
+
+        <fieldset className="sm:col-span-2">
+          <legend className="field-label">Draw typed in</legend>
+          <div className="flex gap-2">
+            {(['W', 'A'] as const).map((u) => (
+              <label key={u} className="flex min-h-[44px] flex-1 cursor-pointer items-center gap-2 rounded-xl border-2 border-sand-dark bg-white px-3 font-bold has-[:checked]:border-ember">
+                <input type="radio" value={u} className="accent-ember" {...register('drawUnit', { onChange: (e) => switchUnit(e.target.value as 'W' | 'A') })} /> {u === 'W' ? 'Watts' : 'Amps'}
+              </label>
+            ))}
+          </div>
+        </fieldset>
+        {byAmps ? (
+          <>
+            <NumberField id={id('amps')} label="Amps (each)" errorName="Amps" unit="A" registration={register('amps', num)} error={err('amps')}
+              hint={values.supply === 'ac' ? `Running current at the outlet, from the label, at ${acVolts} V.` : `Running current from the label, at the bank's ${formatNumber(rig.nominalVolts, 1)} V.`} />
+            {values.supply === 'ac' ? (
+              <Field id={id('acVolts')} label="Outlet voltage" hint="120 V in North America, 230 V in most other places.">
+                <select id={id('acVolts')} className="field-input" aria-describedby={`${id('acVolts')}-hint`} {...register('acVolts', { setValueAs: (v) => Number(v) })}>
+                  {AC_VOLTS.map((v) => <option key={v} value={v}>{v} V AC</option>)}
+                </select>
+              </Field>
+            ) : null}
+          </>
+        ) : (
+          <NumberField id={id('watts')} label="Watts (each)" errorName="Watts" unit="W" registration={register('watts', num)} error={err('watts')} hint="Running draw from the label; AC watts for AC loads." />
+        )}
+        <p className="self-end text-sm sm:col-span-2" data-testid="draw-both" aria-live="polite">
+          {drawW !== null ? (
+            <>
+              <span className="font-bold tabular-nums">
+                {byAmps ? `= ${formatNumber(drawW, 1)} W` : `= ${formatNumber(wattsToAmps(drawW, values.supply, rig.nominalVolts, acVolts), 2)} A at ${formatNumber(volts, 1)} V`}
+              </span>
+              {values.supply === 'ac' ? <span className="text-slate-text"> · about {formatNumber(bankAmpsOfAc(drawW, rig.nominalVolts, inverterPct), 1)} A from the bank through the inverter</span> : null}
+              <span className="block text-slate-text">Saved as watts.</span>
+            </>
+          ) : null}
+        </p>
+
+        <fieldset className="sm:col-span-2">
+          <legend className="field-label">Where it sits</legend>
+          <div className="flex gap-2">
+            {(['cabin', 'outside'] as const).map((loc) => (
+              <label key={loc} className="flex min-h-[44px] flex-1 cursor-pointer items-center gap-2 rounded-xl border-2 border-sand-dark bg-white px-3 font-bold has-[:checked]:border-ember">
+                <input type="radio" value={loc} className="accent-ember" {...register('location')} /> {loc === 'cabin' ? 'In the cabin' : 'Outside'}
+              </label>
+            ))}
+          </div>
+          <p className="field-hint mt-1">A fridge in the cabin works against the cabin’s air (heated on cold nights); one in an outside bay against the outdoor air.</p>
+        </fieldset>
+        <NumberField id={id('surgeWatts')} label="Surge (each, optional)" errorName="Surge" unit="W" registration={register('surgeWatts', numOrNull)} error={err('surgeWatts')} className="sm:col-span-2"
+          hint="Its draw while starting or running flat out — a microwave, a compressor, a pump. Empty: its running watts. Checked against the inverter and the low-voltage cutoff." />
         <label className="flex items-start gap-2 rounded-xl bg-sand/50 p-3 sm:col-span-2">
           <input type="checkbox" className="mt-1.5 h-4 w-4 accent-ember" {...register('standby')} />
           <span>
@@ -193,7 +262,7 @@ export function LoadEditor({ idPrefix, initial, units, rig, title, intro, submit
             <span className="text-slate-text">at {formatNumber(rig.nominalVolts, 1)} V — an estimate before temperature response.</span>
           </>
         ) : (
-          <span className="text-slate-text">Enter the watts to see the daily estimate.</span>
+          <span className="text-slate-text">Enter the {byAmps ? 'amps' : 'watts'} to see the daily estimate.</span>
         )}
       </p>
       <div className="mt-3 flex flex-wrap gap-2">

@@ -15,6 +15,8 @@ import { blankLoad, loadToForm, type LoadFormOutput } from '../../domain/loads/l
 import { createLoad, deleteLoad, loadsCsvUrl, updateLoad } from './loads.api';
 import { loadKeys, loadsQuery } from './loads.queries';
 import { describeWindows } from '../../domain/loads/windows';
+import { bankAmpsOfAc, wattsToAmps } from '../../domain/loads/draw';
+import { DEFAULT_INVERTER_EFFICIENCY_PCT } from '../../domain/loads/energy';
 
 type SortKey = 'added' | 'name' | 'watts' | 'supply' | 'duty' | 'wh';
 const SORTS: { key: SortKey; label: string }[] = [
@@ -215,8 +217,16 @@ function LoadsTable({ rigId, units: unitsProp }: { rigId: string; units: Units }
                       {l.note ? <span className="block text-sm text-slate-text">{l.note}</span> : null}
                       {l.addedBy ? <span className="block text-xs text-slate-text">added by {l.addedBy.name}</span> : null}
                     </td>
-                    <td data-label="Draw" className={`${TD} text-right tabular-nums`}>{l.quantity !== 1 ? `${l.quantity} × ` : ''}{formatWatts(l.watts)}</td>
-                    <td data-label="Supply" className={TD}>{l.supply === 'ac' ? 'AC' : 'DC'}</td>
+                    <td data-label="Draw" className={`${TD} text-right tabular-nums`}>
+                      <span>{l.quantity !== 1 ? `${l.quantity} × ` : ''}{formatWatts(l.watts)}</span>
+                      <span className="block text-sm text-slate-text">
+                        {l.supply === 'ac'
+                          ? `≈ ${formatNumber(bankAmpsOfAc(l.watts, er.nominalVolts, er.inverter?.efficiencyPct ?? DEFAULT_INVERTER_EFFICIENCY_PCT), 1)} A from the bank`
+                          : `${formatNumber(wattsToAmps(l.watts, 'dc', er.nominalVolts, 120), 2)} A at ${formatNumber(er.nominalVolts, 1)} V`}
+                      </span>
+                      {l.surgeWatts ? <span className="block text-sm text-slate-text">surge {formatWatts(l.surgeWatts)}</span> : null}
+                    </td>
+                    <td data-label="Supply" className={TD}>{l.supply === 'ac' ? 'AC' : 'DC'}<span className="block text-sm text-slate-text">{l.location === 'outside' ? 'outside' : 'cabin'}</span></td>
                     <td data-label="When" className={TD}>{l.standby ? 'always' : describeWindows(l.windows)}{DAYS_LABEL[l.days] ? `, ${DAYS_LABEL[l.days]}` : ''}</td>
                     <td data-label="Duty" className={`${TD} text-right tabular-nums`}>{formatNumber(l.dutyPct)} %</td>
                     <td data-label="Temperature" className={`${TD} max-md:col-span-2 ${l.response === 'none' ? 'max-md:hidden' : ''}`}>{l.response === 'none' ? '—' : l.response === 'cooling' ? 'cooling' : `heating below ${formatTemp(l.setpointC, units)}`}</td>

@@ -12,7 +12,7 @@ import { asNumber, asNumberOrNull, errorAt, fieldId } from '../../components/ui/
 import { CHEMISTRY_LABELS, formatNumber, plural, rigSummary } from '../../lib/format';
 import { createRig, deleteRig, updateRig } from './rigs.api';
 import { rigKeys } from './rigs.queries';
-import { CHARGER_KINDS, emptyRig, newArray, newCharger, rigFormSchema, rigToForm, type RigFormOutput, type RigFormValues } from '../../domain/rigs/rig-form';
+import { BANK_LOCATION_CHOICES, CHARGER_KINDS, bankToSave, emptyRig, newArray, newCharger, newInverter, rigFormSchema, rigToForm, type RigFormOutput, type RigFormValues } from '../../domain/rigs/rig-form';
 import { COMPASS, CHEMISTRY_PRESETS, MOUNTINGS, applyMounting, maxChargeAmpsFor, mountingOf, nominalForChemistry, presetBank, seriesParallel, type Mounting } from '../../domain/rigs/presets';
 import { DeleteRow, FormProblemBox } from '../../components/ui/SaveProblems';
 
@@ -30,7 +30,7 @@ type Ctx = {
 const num = { setValueAs: asNumber };
 
 /** The fields a rig is saved with (the form also carries the crew it goes to). */
-const rigBody = (v: RigFormOutput) => ({ name: v.name, bank: v.bank, arrays: v.arrays, chargers: v.chargers, inverter: v.inverter });
+const rigBody = (v: RigFormOutput) => ({ name: v.name, bank: bankToSave(v.bank), arrays: v.arrays, chargers: v.chargers, inverter: v.inverter });
 const numOrNull = { setValueAs: asNumberOrNull };
 
 /** The power-system form: bank (with chemistry presets and a series/parallel helper), solar arrays, chargers, inverter. */
@@ -49,6 +49,8 @@ export function RigEditor({ rig }: RigEditorProps) {
   const ctx: Ctx = { register, control, errors, setValue };
 
   const chemistry = useWatch({ control, name: 'bank.chemistry' }) as Chemistry;
+  const bankLocation = useWatch({ control, name: 'bank.location' });
+  const selfHeating = useWatch({ control, name: 'bank.selfHeating' });
   const arrays = useFieldArray({ control, name: 'arrays' });
   const chargers = useFieldArray({ control, name: 'chargers' });
   const inverter = useWatch({ control, name: 'inverter' });
@@ -163,6 +165,28 @@ export function RigEditor({ rig }: RigEditorProps) {
           <NumberField id="bank-nominalVolts" label="Nominal voltage" unit="V" registration={register('bank.nominalVolts', num)} error={errorAt(errors, 'bank.nominalVolts')} hint="12.8 V for a LiFePO4 “12 V” bank; 12 V for lead-acid." />
         </div>
 
+        <fieldset>
+          <legend className="field-label">Where the bank sits</legend>
+          <div className="grid gap-2 sm:grid-cols-2">
+            {BANK_LOCATION_CHOICES.map((c) => (
+              <label key={c.value} className="flex cursor-pointer items-start gap-2 rounded-xl border-2 border-sand-dark bg-white px-3 py-2.5 has-[:checked]:border-ember has-[:checked]:bg-[#fbf1e6] has-[:focus-visible]:outline has-[:focus-visible]:outline-3 has-[:focus-visible]:outline-ember">
+                <input type="radio" value={c.value} className="mt-1.5 accent-ember" {...register('bank.location')} />
+                <span><span className="font-bold">{c.label}</span><br /><span className="field-hint">{c.hint}</span></span>
+              </label>
+            ))}
+          </div>
+          <p className="field-hint mt-1">Cold shrinks what a battery can deliver and a cold LiFePO4 takes no charge; the forecast follows the battery’s own temperature.</p>
+        </fieldset>
+        {chemistry === 'lifepo4' ? (
+          <label className="flex items-start gap-2">
+            <input type="checkbox" className="mt-1.5 h-4 w-4 accent-ember" {...register('bank.selfHeating')} />
+            <span><span className="font-bold">Self-heating LiFePO4</span><br /><span className="field-hint">It warms its cells before charging, so it takes charge below 0 °C.</span></span>
+          </label>
+        ) : null}
+        {chemistry === 'lifepo4' && bankLocation !== 'cabin' && !selfHeating ? (
+          <p className="caution text-sm">LiFePO4 must not be charged below freezing: outside in the cold, this bank refuses charge until it warms above 0 °C.</p>
+        ) : null}
+
         <SeriesParallelHelper chemistry={chemistry} onUse={(v, ah) => {
           setValue('bank.nominalVolts', v, { shouldDirty: true, shouldValidate: true });
           setValue('bank.capacityAh', ah, { shouldDirty: true, shouldValidate: true });
@@ -189,16 +213,7 @@ export function RigEditor({ rig }: RigEditorProps) {
           <div className="mt-3 grid gap-4 sm:grid-cols-2">
             <NumberField id="bank-initialSocPct" label="State of charge when a trip starts" unit="%" registration={register('bank.initialSocPct', num)} error={errorAt(errors, 'bank.initialSocPct')} />
             <NumberField id="bank-internalResistanceMilliohm" label="Internal resistance" unit="mΩ" registration={register('bank.internalResistanceMilliohm', num)} error={errorAt(errors, 'bank.internalResistanceMilliohm')} hint="Sets the voltage sag under load." />
-            <label className="flex items-start gap-2">
-              <input type="checkbox" className="mt-1.5 h-4 w-4 accent-ember" {...register('bank.insideHeatedSpace')} />
-              <span><span className="font-bold">Inside the heated living space</span><br /><span className="field-hint">The bank then stays near 18 °C instead of outdoor temperature.</span></span>
-            </label>
-            {chemistry === 'lifepo4' ? (
-              <label className="flex items-start gap-2">
-                <input type="checkbox" className="mt-1.5 h-4 w-4 accent-ember" {...register('bank.selfHeating')} />
-                <span><span className="font-bold">Self-heating LiFePO4</span><br /><span className="field-hint">It warms itself and takes charge below 0 °C.</span></span>
-              </label>
-            ) : null}
+            <NumberField id="bank-thermalHours" label="Battery’s thermal lag" unit="h" registration={register('bank.thermalHours', num)} error={errorAt(errors, 'bank.thermalHours')} hint="Hours the battery takes to follow the air around it: about 6 h for a 20–30 kg battery in a box (common practice)." />
           </div>
         </details>
       </section>
@@ -242,7 +257,7 @@ export function RigEditor({ rig }: RigEditorProps) {
             type="checkbox"
             className="h-4 w-4 accent-ember"
             checked={inverter != null}
-            onChange={(e) => setValue('inverter', e.target.checked ? { efficiencyPct: 90, idleWatts: 12, alwaysOn: false } : null, { shouldDirty: true })}
+            onChange={(e) => setValue('inverter', e.target.checked ? newInverter() : null, { shouldDirty: true })}
           />
           This rig has an inverter (for 120/230 V AC loads)
         </label>
@@ -250,6 +265,8 @@ export function RigEditor({ rig }: RigEditorProps) {
           <div className="grid gap-4 sm:grid-cols-3">
             <NumberField id="inverter-efficiencyPct" label="Efficiency" unit="%" registration={register('inverter.efficiencyPct', num)} error={errorAt(errors, 'inverter.efficiencyPct')} hint="Typical 85–92 %." />
             <NumberField id="inverter-idleWatts" label="Idle draw" unit="W" registration={register('inverter.idleWatts', num)} error={errorAt(errors, 'inverter.idleWatts')} hint="10 W left on all day is about 20 Ah." />
+            <NumberField id="inverter-continuousWatts" label="Continuous rating" unit="W" registration={register('inverter.continuousWatts', numOrNull)} error={errorAt(errors, 'inverter.continuousWatts')} hint="AC watts it delivers without stopping, from its label. Empty: not checked." />
+            <NumberField id="inverter-surgeWatts" label="Surge rating" unit="W" registration={register('inverter.surgeWatts', numOrNull)} error={errorAt(errors, 'inverter.surgeWatts')} hint="AC watts it holds for a moment, e.g. a compressor starting. Empty: not checked." />
             <label className="flex items-start gap-2 sm:pt-7">
               <input type="checkbox" className="mt-1.5 h-4 w-4 accent-ember" {...register('inverter.alwaysOn')} />
               <span><span className="font-bold">Left on all the time</span><br /><span className="field-hint">Otherwise it counts as on only in hours with AC loads.</span></span>
