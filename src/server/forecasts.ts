@@ -9,6 +9,7 @@ import { HttpError } from './errors';
 import { listLoads } from './loads';
 import { toRigDto } from './rigs';
 import { toTripDto } from './trips';
+import { bandFor, weatherForRun } from './trip-weather';
 
 /** Builds the engine plan of a trip from its rig and the rig's loads (as they are now). */
 export function assemblePlan(rig: RigDto, loads: LoadDto[], trip: TripDto): Plan {
@@ -75,7 +76,15 @@ export function unpackHourly(cols: Columns): HourlyRow[] {
 /** Runs the engine on the trip as it is now and saves plan and result; a plan the engine refuses is a 400. */
 export async function createForecast(
   db: Kysely<DB>,
-  input: { rig: RigDto; loads: LoadDto[]; trip: TripDto; userId: string; name?: string },
+  input: {
+    rig: RigDto;
+    loads: LoadDto[];
+    trip: TripDto;
+    userId: string;
+    name?: string;
+    /** Saved with the result: where each day's weather came from and the band ("how sure is this?"). */
+    extras?: (plan: ResolvedPlan, result: Forecast) => Promise<Record<string, unknown>>;
+  },
 ): Promise<ForecastDto> {
   const checked = validatePlan(assemblePlan(input.rig, input.loads, input.trip));
   if (!checked.ok) {
@@ -87,6 +96,7 @@ export async function createForecast(
   const createdAt = new Date().toISOString();
   const name = input.name?.trim() || `Forecast of ${formatStamp(createdAt)}`;
   const { hourly, ...rest } = result;
+  const extras = input.extras ? await input.extras(plan, result) : {};
   await db
     .insertInto('forecasts')
     .values({
@@ -97,7 +107,7 @@ export async function createForecast(
       name,
       plan: JSON.stringify(plan),
       summary: JSON.stringify(result.summary),
-      result: JSON.stringify({ ...rest, hourly: packHourly(hourly) }),
+      result: JSON.stringify({ ...rest, ...extras, hourly: packHourly(hourly) }),
       reserve_soc_pct: input.trip.reserveSocPct,
       created_by: input.userId,
       created_at: createdAt,
@@ -111,7 +121,17 @@ export async function createForecast(
 /** Forecasts a trip with its rig and the rig's loads as they are now, and saves the result. */
 export async function forecastTrip(db: Kysely<DB>, input: { trip: TripRow; rig: RigRow; canWrite: boolean; userId: string; name?: string }): Promise<ForecastDto> {
   const loads = await listLoads(db, input.rig.id);
-  return createForecast(db, { rig: toRigDto(input.rig, input.canWrite), loads, trip: toTripDto(input.trip, input.canWrite), userId: input.userId, name: input.name });
+  // Untyped days get the weather service's days (typed days win; a failed service leaves them assumed).
+  const typed = toTripDto(input.trip, input.canWrite);
+  const { trip, fill, sources } = await weatherForRun(db, typed);
+  return createForecast(db, {
+    rig: toRigDto(input.rig, input.canWrite),
+    loads,
+    trip,
+    userId: input.userId,
+    name: input.name,
+    extras: async (plan, result) => ({ weatherSources: sources, band: await bandFor(typed, fill, plan, result) }),
+  });
 }
 
 function formatStamp(iso: string): string {

@@ -1,8 +1,9 @@
 // The verdict: the forecast's answer in one sentence, before any chart (ux.md, "The forecast page").
 import type { Forecast, ResolvedPlan } from '../../engine';
 import { formatClock, formatDay, formatRowTime, formatWh, localParts, pct } from '../../lib/format';
+import { assumedDays, type ForecastWithWeather } from '../weather/band';
 
-export type VerdictStatus = 'makes-it' | 'below-reserve' | 'runs-out';
+export type VerdictStatus = 'makes-it' | 'below-reserve' | 'runs-out' | 'weather-assumed' | 'some-years-short';
 
 /** What the verdict says, in words, with the figures behind them. */
 export interface Verdict {
@@ -40,8 +41,38 @@ export function stopNameAt(forecast: Forecast, plan: ResolvedPlan, rowIndex: num
   return forecast.stops?.[row.stop]?.name ?? plan.stops[row.stop]?.name ?? '';
 }
 
-/** The forecast's answer in words: whether the bank lasts, and if not, when and where it runs out. */
+/**
+ * The forecast's answer in words: whether the bank lasts, and if not, when and where it runs out.
+ * Never a plain "Makes it" on assumed weather; with a band ("how sure is this?") it counts the
+ * years (or skies) the bank makes it in.
+ */
 export function verdict(forecast: Forecast, plan: ResolvedPlan, reserveSocPct?: number | null): Verdict {
+  const v = engineVerdict(forecast, plan, reserveSocPct);
+  const extra = forecast as ForecastWithWeather;
+  const band = extra.band ?? null;
+  if (band && v.status !== 'runs-out') {
+    const what = band.kind === 'years' ? `in ${band.madeIt} of the last ${band.total} years' weather` : `in ${band.madeIt} of ${band.total} sky cases`;
+    if (band.madeIt < band.total) {
+      v.status = 'some-years-short';
+      v.headline = `Makes it ${what} only — ${v.headline.replace(/^Makes it(, but [^—]*)? — /, '')}`;
+      v.detail = `${band.sentence} ${v.detail}`;
+    } else {
+      v.headline = `${v.headline.replace(/^Makes it/, `Makes it ${what}`)}`;
+    }
+  } else if (band && v.status === 'runs-out') {
+    v.detail = `${v.detail} ${band.sentence}`;
+  }
+  const assumed = assumedDays(extra.weatherSources);
+  if (assumed.length > 0 && v.status !== 'runs-out') {
+    const n = assumed.length;
+    v.status = 'weather-assumed';
+    v.headline = `Not sure yet — ${n === 1 ? '1 day has' : `${n} days have`} no real weather, ${v.headline.charAt(0).toLowerCase()}${v.headline.slice(1)} on typical skies`;
+    v.detail = `Those days use typical skies (4 oktas, 20 °C by day, 10 °C at night), not a forecast or past years. Type their skies on the trip, or use "Fill from the forecast" / "Use past years" there, then run the forecast again. ${v.detail}`;
+  }
+  return v;
+}
+
+function engineVerdict(forecast: Forecast, plan: ResolvedPlan, reserveSocPct?: number | null): Verdict {
   const s = forecast.summary;
   const reservePct = reserveOf(forecast, plan, reserveSocPct);
   const hoursShort = forecast.hourly.reduce((n, r) => n + (r.unmetWatts > 0 ? 1 : 0), 0);

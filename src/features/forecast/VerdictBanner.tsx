@@ -5,6 +5,8 @@ const LOOK: Record<VerdictStatus, { box: string; badge: string; mark: string; la
   'makes-it': { box: 'border-moss bg-[#eef5ef]', badge: 'bg-moss-deep text-white', mark: '✓', label: 'Makes it' },
   'below-reserve': { box: 'border-sun bg-[#fdf3dc]', badge: 'bg-[#7a5a12] text-white', mark: '!', label: 'Below reserve' },
   'runs-out': { box: 'border-ember bg-[#fbebe2]', badge: 'bg-alert text-white', mark: '✕', label: 'Runs out' },
+  'weather-assumed': { box: 'border-sun bg-[#fdf3dc]', badge: 'bg-[#7a5a12] text-white', mark: '?', label: 'Weather assumed' },
+  'some-years-short': { box: 'border-sun bg-[#fdf3dc]', badge: 'bg-[#7a5a12] text-white', mark: '!', label: 'Short in some years' },
 };
 
 export interface VerdictBannerProps {

@@ -6,6 +6,8 @@ import { Piscina } from 'piscina';
 import { HttpError } from '../errors';
 import type { MonitorLogOutcome, MonitorLogTask } from './monitor-task';
 import type { LogDetailTask, LogSeries, SweepTask, sweep } from './tasks';
+import type { Plan } from '../../engine';
+import type { RunOutcome } from '../../domain/weather/band';
 
 // The worker pool for CPU-heavy work (upgrade sweeps, reading monitor logs): the request thread only
 // hands the task over and waits, so /api/health and every other request keep answering.
@@ -89,4 +91,9 @@ export function monitorLogInPool(task: MonitorLogTask): Promise<MonitorLogOutcom
 /** A saved log's thinned series and what it tells, read and computed off the request thread. */
 export function logSeriesInPool(task: LogDetailTask): Promise<LogSeries> {
   return run('logSeries', task);
+}
+
+/** A trip re-run under each weather of its band, off the request thread. */
+export function weatherBandInPool(plans: Plan[]): Promise<RunOutcome[]> {
+  return run('weatherBand', plans);
 }

@@ -9,6 +9,8 @@ import { dailyAh, nightBaseline, nightTemperature, type BaselineResult, type Day
 import type { Sample } from '../../domain/monitor/parse';
 import { downsample, type SeriesPoint } from '../../domain/monitor/series';
 import { readMonitorLog, type MonitorLogTask, type MonitorLogOutcome } from './monitor-task';
+import { runBandPlans, type RunOutcome } from '../../domain/weather/band';
+import type { Plan } from '../../engine';
 
 export interface SweepTask {
   forecastId: string;
@@ -27,6 +29,11 @@ export function sweep(task: SweepTask): string {
   const started = performance.now();
   const result: SweepResult = runSweep(task);
   return JSON.stringify({ ...result, forecastId: task.forecastId, ms: Math.round((performance.now() - started) * 10) / 10 });
+}
+
+/** A trip re-run under each weather of its band ("how sure is this?"): one engine run per plan. */
+export function weatherBand(plans: Plan[]): RunOutcome[] {
+  return runBandPlans(plans);
 }
 
 /** Reads an uploaded monitor log's form, then decodes, detects and parses it within the caps. */

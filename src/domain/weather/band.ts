@@ -1,0 +1,165 @@
+// "How sure is this?": a trip re-run under other weather — each of the last ten years for a far
+// trip, skies two steps better and worse for a near one — drawn as a band around the trip's own
+// state of charge, with one plain sentence computed from the runs. The runs themselves happen in
+// the worker pool (runBandPlans); everything else here is pure and cheap.
+import { prepareTrip, simulatePrepared, validatePlan, type Forecast, type Plan } from '../../engine';
+import { localParts } from '../../lib/format';
+import type { DaySource, WeatherEntry } from './weather';
+
+/** Where each stop-day's weather came from, as a saved forecast keeps it. */
+export interface WeatherSources {
+  kind: 'near' | 'far';
+  status: 'ok' | 'unreachable';
+  message: string | null;
+  medianYear: number | null;
+  stops: { name: string; days: { date: string; source: DaySource }[] }[];
+}
+
+/** One re-run of the trip under other weather. */
+export interface BandRun {
+  /** "2019", or "two steps cloudier" / "as forecast" / "two steps clearer". */
+  label: string;
+  year: number | null;
+  /** True when the bank never reaches its floor or cutoff. */
+  ok: boolean;
+  minSocPct: number;
+  minSocAt: string;
+  firstCutoffAt: string | null;
+}
+
+/** The band a saved forecast keeps. */
+export interface Band {
+  kind: 'years' | 'skies';
+  runs: BandRun[];
+  /** Per hour row: the lowest and highest end-of-hour SOC over the runs, %. */
+  lowPct: number[];
+  highPct: number[];
+  /** How many runs keep the bank above its floor, of how many. */
+  madeIt: number;
+  total: number;
+  /** The label of the worst run (lowest SOC, earliest cutoff first). */
+  worst: string;
+  sentence: string;
+}
+
+/** A saved forecast with the weather it used and its band (both optional: older forecasts lack them). */
+export type ForecastWithWeather = Forecast & { weatherSources?: WeatherSources; band?: Band | null };
+
+/** Stop-days whose weather was assumed (nothing typed, nothing fetched). */
+export function assumedDays(sources: WeatherSources | undefined): { stop: string; date: string }[] {
+  if (!sources) return [];
+  return sources.stops.flatMap((s) => s.days.filter((d) => d.source === 'assumed').map((d) => ({ stop: s.name, date: d.date })));
+}
+
+// ---------- skies one step better or worse ----------
+
+/**
+ * Kasten & Czeplak (1980), Solar Energy 24(2):177–189: global irradiance under N oktas of cloud is
+ * clear-sky × (1 − 0.75·(N/8)^3.4). The ratio of two cloud covers moves an hour's measured or
+ * forecast irradiance to the other cover.
+ */
+export function cloudFactor(oktas: number): number {
+  const n = Math.min(8, Math.max(0, oktas));
+  return 1 - 0.75 * Math.pow(n / 8, 3.4);
+}
+
+/** A fetched day with its sky moved `steps` oktas (positive: cloudier); typed days stay as typed. */
+export function shiftSky(entry: WeatherEntry, steps: number): WeatherEntry {
+  if (entry.source === 'typed') return entry;
+  const hourly = entry.hourly.map((h) => {
+    const n = (h.cloudPct / 100) * 8;
+    const m = Math.min(8, Math.max(0, n + steps));
+    const ghi = Math.min(1500, Math.max(0, Math.round(h.ghiWm2 * (cloudFactor(m) / cloudFactor(n)))));
+    return { ...h, ghiWm2: ghi, cloudPct: Math.round((m / 8) * 100) };
+  });
+  return { ...entry, cloudOktas: Math.min(8, Math.max(0, entry.cloudOktas + steps)), hourly };
+}
+
+// ---------- running and reading ----------
+
+/** What the worker gives back per run: end-of-hour SOC and where the run is worst. */
+export interface RunOutcome {
+  socEndPct: number[];
+  minSocPct: number;
+  minSocRow: number;
+  firstCutoffRow: number | null;
+  error?: string;
+}
+
+/**
+ * Runs each plan through the engine (validated, prepared once each, simulated once): CPU-heavy,
+ * for the worker pool. A plan the engine refuses comes back with its message instead of hours.
+ */
+export function runBandPlans(plans: Plan[]): RunOutcome[] {
+  return plans.map((p) => {
+    const v = validatePlan(p);
+    if (!v.ok) return { socEndPct: [], minSocPct: NaN, minSocRow: 0, firstCutoffRow: null, error: v.envelope.error.message };
+    const sim = simulatePrepared(prepareTrip(v.plan));
+    return {
+      socEndPct: Array.from(sim.socEndPct, (x) => Math.round(x * 10) / 10),
+      minSocPct: sim.summary.minSocPct,
+      minSocRow: sim.summary.minSocRow,
+      firstCutoffRow: sim.summary.firstCutoffRow,
+    };
+  });
+}
+
+/**
+ * "night 2 at 03:00" or "day 3 at 15:00" for a row, counted from the trip's first local date
+ * (day 1; night 1 is the evening of day 1 and the small hours after it).
+ */
+export function whenInTrip(time: string, firstDate: string): string {
+  const p = localParts(time);
+  const f = localParts(`${firstDate}T00:00Z`);
+  if (!p || !f) return `at ${time}`;
+  const dayIndex = Math.round((Date.UTC(p.year, p.month - 1, p.day) - Date.UTC(f.year, f.month - 1, f.day)) / 86_400_000);
+  const clock = `${String(p.hour).padStart(2, '0')}:${String(p.minute).padStart(2, '0')}`;
+  if (p.hour >= 18) return `night ${dayIndex + 1} at ${clock}`;
+  if (p.hour < 6) return `night ${Math.max(1, dayIndex)} at ${clock}`;
+  return `day ${dayIndex + 1} at ${clock}`;
+}
+
+const pctWords = (v: number) => `${Math.round(v)} %`;
+
+/**
+ * The band and its sentence from the runs: every number in the sentence comes from the runs.
+ * `times` are the forecast's hour rows (the same grid for every run).
+ */
+export function buildBand(kind: Band['kind'], labels: { label: string; year: number | null }[], outcomes: RunOutcome[], times: string[]): Band | null {
+  const usable = outcomes.map((o, i) => ({ o, l: labels[i]! })).filter((x) => !x.o.error && x.o.socEndPct.length === times.length);
+  if (usable.length < 2 || times.length === 0) return null;
+  const runs: BandRun[] = usable.map(({ o, l }) => ({
+    label: l.label,
+    year: l.year,
+    ok: o.firstCutoffRow === null,
+    minSocPct: Math.round(o.minSocPct * 10) / 10,
+    minSocAt: times[o.minSocRow] ?? times[0]!,
+    firstCutoffAt: o.firstCutoffRow === null ? null : (times[o.firstCutoffRow] ?? null),
+  }));
+  const lowPct = times.map((_, r) => Math.min(...usable.map((x) => x.o.socEndPct[r]!)));
+  const highPct = times.map((_, r) => Math.max(...usable.map((x) => x.o.socEndPct[r]!)));
+  // Worst: a cutoff beats no cutoff, an earlier cutoff beats a later one, then the lowest SOC.
+  const worstIdx = usable.reduce((best, x, i) => {
+    const b = usable[best]!.o;
+    const o = x.o;
+    const oc = o.firstCutoffRow ?? Infinity;
+    const bc = b.firstCutoffRow ?? Infinity;
+    return oc < bc || (oc === bc && o.minSocPct < b.minSocPct) ? i : best;
+  }, 0);
+  const worst = runs[worstIdx]!;
+  const madeIt = runs.filter((r) => r.ok).length;
+  const total = runs.length;
+  const first = (localParts(times[0]!)?.date ?? times[0]!.slice(0, 10));
+  const worstWhat = worst.firstCutoffAt
+    ? `it reaches the floor on ${whenInTrip(worst.firstCutoffAt, first)}`
+    : `it gets down to ${pctWords(worst.minSocPct)} on ${whenInTrip(worst.minSocAt, first)}`;
+  let sentence: string;
+  if (kind === 'years') {
+    const count = madeIt === total ? `all ${total}` : `${madeIt}`;
+    sentence = `In ${count} of the last ${total} years' weather the bank stays above its floor; in the worst (${worst.label}) ${worstWhat}.`;
+  } else {
+    const count = madeIt === total ? `all ${total}` : `${madeIt} of ${total}`;
+    sentence = `With the forecast's skies and skies two steps clearer and cloudier, the bank stays above its floor in ${count} cases; with ${worst.label === 'as forecast' ? 'the forecast itself' : `skies ${worst.label}`} ${worstWhat}.`;
+  }
+  return { kind, runs, lowPct, highPct, madeIt, total, worst: worst.label, sentence };
+}
