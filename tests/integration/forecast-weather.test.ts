@@ -96,7 +96,8 @@ describe('a far trip with no typed weather', () => {
     const worst = band.runs.find((r) => r.label === band.worst)!;
     expect(band.sentence).toContain(`of the last 10 years' weather`);
     expect(band.sentence).toContain(`(${worst.label})`);
-    expect(band.sentence).toMatch(worst.firstCutoffAt ? /reaches the floor on (night|day) \d+ at \d\d:00/ : /gets down to \d+ % on (night|day) \d+ at \d\d:00/);
+    expect(band.sentence).toMatch(worst.firstCutoffAt ? /(reaches the floor|sags to the low-voltage cutoff) on (night|day) \d+ at \d\d:00/ : /gets down to \d+ % on (night|day) \d+ at \d\d:00/);
+    expect(band.sentence.startsWith(`In ${band.madeIt === 10 ? 'all 10' : band.madeIt} of the last 10`)).toBe(true);
     expect(band.runs.every((r) => r.minSocPct >= Math.min(...band.lowPct) - 0.11)).toBe(true);
   });
 });

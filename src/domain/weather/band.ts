@@ -2,7 +2,7 @@
 // trip, skies two steps better and worse for a near one — drawn as a band around the trip's own
 // state of charge, with one plain sentence computed from the runs. The runs themselves happen in
 // the worker pool (runBandPlans); everything else here is pure and cheap.
-import { prepareTrip, simulatePrepared, validatePlan, type Forecast, type Plan } from '../../engine';
+import { CUTOFF_VOLTS, prepareTrip, simulatePrepared, validatePlan, type Forecast, type Plan } from '../../engine';
 import { localParts } from '../../lib/format';
 import type { DaySource, WeatherEntry } from './weather';
 
@@ -25,6 +25,8 @@ export interface BandRun {
   minSocPct: number;
   minSocAt: string;
   firstCutoffAt: string | null;
+  /** Why the bank first disconnects, when it does. */
+  cutoffBy: 'floor' | 'volts' | null;
 }
 
 /** The band a saved forecast keeps. */
@@ -83,6 +85,8 @@ export interface RunOutcome {
   minSocPct: number;
   minSocRow: number;
   firstCutoffRow: number | null;
+  /** Why the bank first disconnects: its usable floor or its low-voltage cutoff. */
+  cutoffBy?: 'floor' | 'volts';
   error?: string;
 }
 
@@ -100,6 +104,7 @@ export function runBandPlans(plans: Plan[]): RunOutcome[] {
       minSocPct: sim.summary.minSocPct,
       minSocRow: sim.summary.minSocRow,
       firstCutoffRow: sim.summary.firstCutoffRow,
+      ...(sim.summary.firstCutoffRow === null ? {} : { cutoffBy: sim.cutoffEvent[sim.summary.firstCutoffRow] === CUTOFF_VOLTS ? ('volts' as const) : ('floor' as const) }),
     };
   });
 }
@@ -135,6 +140,7 @@ export function buildBand(kind: Band['kind'], labels: { label: string; year: num
     minSocPct: Math.round(o.minSocPct * 10) / 10,
     minSocAt: times[o.minSocRow] ?? times[0]!,
     firstCutoffAt: o.firstCutoffRow === null ? null : (times[o.firstCutoffRow] ?? null),
+    cutoffBy: o.firstCutoffRow === null ? null : (o.cutoffBy ?? 'floor'),
   }));
   const lowPct = times.map((_, r) => Math.min(...usable.map((x) => x.o.socEndPct[r]!)));
   const highPct = times.map((_, r) => Math.max(...usable.map((x) => x.o.socEndPct[r]!)));
@@ -151,15 +157,18 @@ export function buildBand(kind: Band['kind'], labels: { label: string; year: num
   const total = runs.length;
   const first = (localParts(times[0]!)?.date ?? times[0]!.slice(0, 10));
   const worstWhat = worst.firstCutoffAt
-    ? `it reaches the floor on ${whenInTrip(worst.firstCutoffAt, first)}`
+    ? worst.cutoffBy === 'volts'
+      ? `its voltage sags to the low-voltage cutoff on ${whenInTrip(worst.firstCutoffAt, first)}`
+      : `it reaches the floor on ${whenInTrip(worst.firstCutoffAt, first)}`
     : `it gets down to ${pctWords(worst.minSocPct)} on ${whenInTrip(worst.minSocAt, first)}`;
+  const anyVolts = runs.some((r) => r.cutoffBy === 'volts');
   let sentence: string;
   if (kind === 'years') {
     const count = madeIt === total ? `all ${total}` : `${madeIt}`;
-    sentence = `In ${count} of the last ${total} years' weather the bank stays above its floor; in the worst (${worst.label}) ${worstWhat}.`;
+    sentence = `In ${count} of the last ${total} years' weather the bank stays above its floor${anyVolts ? ' and its cutoff voltage' : ''}; in the worst (${worst.label}) ${worstWhat}.`;
   } else {
     const count = madeIt === total ? `all ${total}` : `${madeIt} of ${total}`;
-    sentence = `With the forecast's skies and skies two steps clearer and cloudier, the bank stays above its floor in ${count} cases; with ${worst.label === 'as forecast' ? 'the forecast itself' : `skies ${worst.label}`} ${worstWhat}.`;
+    sentence = `With the forecast's skies and skies two steps clearer and cloudier, the bank stays above its floor${anyVolts ? ' and its cutoff voltage' : ''} in ${count} cases; with ${worst.label === 'as forecast' ? 'the forecast itself' : `skies ${worst.label}`} ${worstWhat}.`;
   }
   return { kind, runs, lowPct, highPct, madeIt, total, worst: worst.label, sentence };
 }

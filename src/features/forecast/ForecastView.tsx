@@ -7,6 +7,7 @@ import HourlyTable from './HourlyTable';
 import SocChartOnDemand from './SocChartOnDemand';
 import SummaryCards from './SummaryCards';
 import VerdictBanner from './VerdictBanner';
+import WeatherPanel from './WeatherPanel';
 
 // The charts below the fold bring recharts: they load when the camper scrolls to them (or prints).
 const loadDaily = () => import('./DailyEnergyChart');
@@ -61,6 +62,8 @@ export default function ForecastView({ forecast, plan, reserveSocPct = null, for
         <h2 id="soc-heading" className="mb-1 text-xl">State of charge, hour by hour</h2>
         <SocChartOnDemand forecast={forecast} plan={plan} reserveSocPct={reserveSocPct} />
       </section>
+
+      <WeatherPanel forecast={forecast} plan={plan} />
 
       <section aria-labelledby="summary-heading" className="print:break-inside-avoid">
         <h2 id="summary-heading" className="mb-2 text-xl">The trip in numbers <span className="text-base font-semibold text-slate-text">(estimates)</span></h2>
