@@ -2,7 +2,7 @@
 // change, a generator that is not enough, the forecast's warnings. Pure.
 import type { Forecast } from '../../engine';
 import { formatDay, formatRowTime, localParts, pct } from '../../lib/format';
-import type { AdviceChange, AdviceWarning } from './advice';
+import type { AdviceChange, AdviceWarning, ColdFix } from './advice';
 import { CAUTIONS } from './cautions';
 
 /** What a change does to the forecast, as figures. */
@@ -96,4 +96,14 @@ export function warningsOf(forecast: Forecast): AdviceWarning[] {
     out.push({ code: 'voltage-cutoff', title: 'Low-voltage cutoff', message: `${firstVolt.message} (${formatRowTime(firstVolt.at)})` });
   }
   return out;
+}
+
+/** Which cold fixes alone make the trip, in one sentence (from the measured runs). */
+export function coldAloneText(baseFine: boolean, fixes: readonly Pick<ColdFix, 'short' | 'fixes'>[]): string {
+  if (baseFine) return 'The trip makes it as planned; each change below shows the margin it would add in the cold.';
+  const alone = fixes.filter((f) => f.fixes).map((f) => f.short);
+  if (alone.length === 0) return 'None of these alone makes the trip: combine them, add charging or use less.';
+  if (alone.length === 1) return `On its own, only ${alone[0]} makes the trip.`;
+  if (alone.length === fixes.length) return 'Any one of these alone makes the trip.';
+  return `On its own, each of these makes the trip: ${joinAnd(alone)}.`;
 }

@@ -18,7 +18,7 @@ import {
 } from '../../engine';
 import { formatClock, formatDay, formatLitres, formatRowTime, localParts, pct } from '../../lib/format';
 import { reserveOf } from '../forecasts/verdict';
-import { effectText, joinAnd, notEnough, warningsOf, type Effect } from './advice-text';
+import { coldAloneText, effectText, joinAnd, notEnough, warningsOf, type Effect } from './advice-text';
 import { CAUTIONS } from './cautions';
 import { at } from '../../lib/invariant';
 
@@ -64,6 +64,39 @@ export interface AdviceWarning {
   caution?: string;
 }
 
+/** The fixes that matter in the cold (Revision 2). */
+export type ColdFixKind = 'bank-cabin' | 'self-heating' | 'more-capacity' | 'more-solar' | 'setpoint';
+
+/** One cold-weather fix, measured by running the whole forecast again with only that change. */
+export interface ColdFix {
+  kind: ColdFixKind;
+  title: string;
+  /** The change as a noun phrase for the "alone" sentence ("the bank in the heated cabin"). */
+  short: string;
+  /** What it changes, in hours or % (from the engine run). */
+  effect: string;
+  /** The lowest usable charge before → after, and how the change was made. */
+  detail: string;
+  caution?: string;
+  /** True when this change alone keeps the whole trip above the floor and reserve. */
+  fixes: boolean;
+  score: number;
+  /** Lowest usable charge of the trip with the change, %. */
+  minUsablePct: number;
+  /** The changed plan's forecast: what the effect was measured on. */
+  forecast: Forecast;
+}
+
+/** The cold-weather fixes of a cold trip, and which one alone makes it. */
+export interface ColdAdvice {
+  /** Every fix that applies to this rig, most effective first. */
+  fixes: ColdFix[];
+  /** Which fixes alone make the trip, in one sentence. */
+  alone: string;
+  /** Lowest usable charge of the plan as given, %. */
+  baseMinUsablePct: number;
+}
+
 /** Everything the advice panel shows. */
 export interface Advice {
   /** The three loads that use the most, largest first. */
@@ -72,6 +105,8 @@ export interface Advice {
   totalWhPerDay: number;
   /** The two or three changes that matter most, most important first. */
   changes: AdviceChange[];
+  /** The cold-weather fixes, on a trip with a night at or below `COLD_TRIP_C` (null otherwise). */
+  cold: ColdAdvice | null;
   warnings: AdviceWarning[];
 }
 
@@ -459,6 +494,132 @@ function driveAdvice(plan: ResolvedPlan, base: Forecast, prepared: PreparedTrip,
 }
 
 // ---------------------------------------------------------------------------------------------
+// The cold (Revision 2): where the bank sits, self-heating, capacity, one more panel, the furnace
+
+/** A trip is cold when some hour's air is at or below this, °C (LiFePO4 cells near freezing: common practice). */
+export const COLD_TRIP_C = 5;
+/** Ah the capacity fix adds (one more 100 Ah battery in parallel). */
+export const EXTRA_AH = 100;
+/** Degrees the furnace fix lowers each heating load's setpoint by. */
+export const SETPOINT_STEP_C = 3;
+/** Largest panel the "+1 panel" fix assumes an array is made of, W (common practice: 100–200 W RV panels). */
+export const ASSUMED_MAX_PANEL_W = 200;
+
+/** The panel an array is assumed to be made of: its watts split into the fewest panels of at most 200 W. */
+export function assumedPanelWatts(ratedWatts: number): { panelWatts: number; panels: number } {
+  const panels = Math.max(1, Math.ceil(ratedWatts / ASSUMED_MAX_PANEL_W));
+  return { panelWatts: ratedWatts / panels, panels };
+}
+
+/** Whether a trip is cold enough for the cold fixes: some hour at or below `COLD_TRIP_C`, or charge refused in the cold. */
+export function isColdTrip(f: Forecast): boolean {
+  return f.summary.coldBlockedHours > 0 || f.hourly.some((r) => r.ambientC <= COLD_TRIP_C);
+}
+
+interface ColdChange {
+  kind: ColdFixKind;
+  title: string;
+  short: string;
+  how: string;
+  caution?: string;
+  plan: ResolvedPlan;
+}
+
+/** The cold fixes that apply to this rig, each as the whole plan with only that change. */
+export function coldChanges(plan: ResolvedPlan): ColdChange[] {
+  const out: ColdChange[] = [];
+  const bank = plan.bank;
+  const heating = plan.loads.filter((l) => l.response === 'heating');
+  if (bank.location !== 'cabin') {
+    out.push({
+      kind: 'bank-cabin',
+      title: 'Move the bank into the heated cabin',
+      short: 'the bank in the heated cabin',
+      how: heating.length > 0
+        ? 'the bank inside, where it follows the cabin’s air while the furnace has power'
+        : 'the bank inside (with no heating load in the plan the cabin follows the outdoor air)',
+      caution: [CAUTIONS.wiring, bank.chemistry === 'flooded' ? CAUTIONS.ventedBox : ''].filter(Boolean).join(' '),
+      plan: { ...plan, bank: { ...bank, location: 'cabin', insideHeatedSpace: true } },
+    });
+  }
+  if (bank.chemistry === 'lifepo4' && !bank.selfHeating) {
+    out.push({
+      kind: 'self-heating',
+      title: 'A self-heating LiFePO4 battery',
+      short: 'a self-heating battery',
+      how: 'a bank that warms its cells and takes charge below 0 °C (its heater’s own draw is not modelled)',
+      caution: CAUTIONS.cold,
+      plan: { ...plan, bank: { ...bank, selfHeating: true } },
+    });
+  }
+  const cap = bank.capacityAh + EXTRA_AH;
+  out.push({
+    kind: 'more-capacity',
+    title: `Add ${EXTRA_AH} Ah to the bank`,
+    short: `${EXTRA_AH} Ah more`,
+    how: `a ${Math.round(cap)} Ah bank of the same chemistry, its charge limit and resistance scaled with its size, starting at the same state of charge`,
+    caution: CAUTIONS.wiring,
+    plan: { ...plan, bank: { ...bank, capacityAh: cap, maxChargeAmps: (bank.maxChargeAmps * cap) / bank.capacityAh } },
+  });
+  const biggest = plan.arrays.reduce<number>((best, a, i) => (a.ratedWatts > (plan.arrays[best]?.ratedWatts ?? 0) ? i : best), 0);
+  const array = plan.arrays[biggest];
+  if (array && array.ratedWatts > 0) {
+    const { panelWatts, panels } = assumedPanelWatts(array.ratedWatts);
+    out.push({
+      kind: 'more-solar',
+      title: `Add one more ${Math.round(panelWatts)} W panel to ${array.name}`,
+      short: `one more ${Math.round(panelWatts)} W panel`,
+      how: `${array.name} at ${Math.round(array.ratedWatts + panelWatts)} W on the same mounting and controller (its ${Math.round(array.ratedWatts)} W read as ${panels} × ${Math.round(panelWatts)} W panels)`,
+      caution: CAUTIONS.wiring,
+      plan: { ...plan, arrays: plan.arrays.map((a, i) => (i === biggest ? { ...a, ratedWatts: a.ratedWatts + panelWatts } : a)) },
+    });
+  }
+  if (heating.length > 0) {
+    const names = joinAnd(heating.map((l) => l.name));
+    out.push({
+      kind: 'setpoint',
+      title: `Set the heating ${SETPOINT_STEP_C} °C lower`,
+      short: `heating ${SETPOINT_STEP_C} °C lower`,
+      how: `${names} at ${joinAnd([...new Set(heating.map((l) => `${Math.round(l.setpointC - SETPOINT_STEP_C)} °C`))])} instead of ${joinAnd([...new Set(heating.map((l) => `${Math.round(l.setpointC)} °C`))])}; a cabin bank then sits that much cooler too`,
+      plan: { ...plan, loads: plan.loads.map((l) => (l.response === 'heating' ? { ...l, setpointC: Math.max(-30, l.setpointC - SETPOINT_STEP_C) } : l)) },
+    });
+  }
+  return out;
+}
+
+/** The cold fixes of a cold trip, each measured by running the forecast again; null on a trip that is not cold. */
+export function coldAdvice(plan: ResolvedPlan, base: Forecast, reservePct: number): ColdAdvice | null {
+  if (!isColdTrip(base)) return null;
+  const fixes: ColdFix[] = [];
+  for (const c of coldChanges(plan)) {
+    let alt: Forecast;
+    try {
+      alt = runEngine(c.plan);
+    } catch {
+      continue; // a change the engine refuses is advice we cannot measure: left out
+    }
+    const e = measureEffect(base, alt, reservePct);
+    // The lowest usable charge compares like with like only when the changed plan keeps the bank
+    // connected: after a cutoff the furnace stops, the bank cools and strands charge either way.
+    const usable = alt.summary.firstCutoffAt === null ? `Lowest usable charge ${pct(base.summary.minUsablePct)} → ${pct(alt.summary.minUsablePct)}. ` : '';
+    fixes.push({
+      kind: c.kind,
+      title: c.title,
+      short: c.short,
+      effect: effectText(e),
+      detail: `${usable}Worked out by running the forecast again with ${c.how}.`,
+      ...(c.caution ? { caution: c.caution } : {}),
+      fixes: e.fixes,
+      score: e.score,
+      minUsablePct: alt.summary.minUsablePct,
+      forecast: alt,
+    });
+  }
+  fixes.sort((a, b) => Number(b.fixes) - Number(a.fixes) || b.score - a.score || b.minUsablePct - a.minUsablePct);
+  return { fixes, alone: coldAloneText(isFine(base, reservePct), fixes), baseMinUsablePct: base.summary.minUsablePct };
+}
+
+// ---------------------------------------------------------------------------------------------
 
 /** The advice for a forecast: biggest loads, the two or three changes that matter most, and warnings with their cautions. */
 export function advise(plan: ResolvedPlan, forecast: Forecast, reserveSocPct?: number | null): Advice {
@@ -483,6 +644,7 @@ export function advise(plan: ResolvedPlan, forecast: Forecast, reserveSocPct?: n
     topLoads: loads.slice(0, 3),
     totalWhPerDay,
     changes: candidates.slice(0, 3),
+    cold: coldAdvice(plan, forecast, reservePct),
     warnings: warningsOf(forecast),
   };
 }

@@ -72,6 +72,23 @@ function AdviceBody({ advice }: { advice: Advice }) {
         <p className="mt-3">No single change stands out for this plan.</p>
       )}
 
+      {advice.cold ? (
+        <div className="mt-5" data-testid="advice-cold">
+          <h3 className="text-base">In the cold</h3>
+          <p className="font-bold">{advice.cold.alone}</p>
+          <ol className="mt-2 space-y-3">
+            {advice.cold.fixes.map((c) => (
+              <li key={c.kind} className="rounded-xl border border-sand-dark bg-white/70 p-3" data-kind={c.kind} data-fixes={c.fixes ? 'yes' : 'no'}>
+                <p className="font-extrabold">{c.title}{c.fixes ? <span className="ml-2 rounded-full bg-moss/15 px-2 py-0.5 text-xs font-bold text-moss-deep">makes the trip alone</span> : null}</p>
+                <p className={c.fixes ? 'text-moss-deep' : 'text-dusk'}>{c.effect}</p>
+                <p className="text-sm text-slate-text">{c.detail}</p>
+                {c.caution ? <p className="caution mt-2 text-sm"><strong>Caution:</strong> {c.caution}</p> : null}
+              </li>
+            ))}
+          </ol>
+        </div>
+      ) : null}
+
       {advice.topLoads.length > 0 ? (
         <div className="mt-5">
           <h3 className="text-base">Where the energy goes</h3>
