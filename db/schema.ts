@@ -95,6 +95,10 @@ export interface LoadTable {
   days: 'all' | 'camp' | 'drive';
   response: 'none' | 'cooling' | 'heating';
   setpoint_c: number;
+  /** Where the load sits (engine revision 2): cooling loads follow that place's temperature. */
+  location: Generated<'cabin' | 'outside'>;
+  /** Watts of one unit while starting or running flat out, or null for its running watts. */
+  surge_watts: ColumnType<number | null, number | null | undefined, number | null>;
   note: string;
   standby: number;
   position: number;
@@ -213,6 +217,8 @@ export interface ForecastTable {
   reserve_soc_pct: number | null;
   created_by: string | null;
   created_at: string;
+  /** The engine revision that made the result; null for forecasts saved before it was recorded (revision 1). */
+  engine_revision: ColumnType<number | null, number | null | undefined, number | null>;
 }
 
 /** An uploaded battery-monitor CSV: the original file, the column mapping it was read with, its span. */

@@ -6,6 +6,7 @@ import * as crewsMail from './2026_12_01_0004_crews_mail';
 import * as proposals from './2026_12_01_0005_proposals';
 import * as logsCheckIns from './2026_12_01_0006_logs_checkins';
 import * as weatherCache from './2026_12_04_0007_weather_cache';
+import * as revision2Inputs from './2026_12_04_0009_revision2_inputs';
 
 /**
  * Every migration, in order. Listed statically (not read from the folder) so the same list runs
@@ -19,4 +20,5 @@ export const migrations: Record<string, Migration> = {
   '2026_12_01_0005_proposals': proposals,
   '2026_12_01_0006_logs_checkins': logsCheckIns,
   '2026_12_04_0007_weather_cache': weatherCache,
+  '2026_12_04_0009_revision2_inputs': revision2Inputs,
 };

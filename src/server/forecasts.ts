@@ -28,6 +28,8 @@ export function assemblePlan(rig: RigDto, loads: LoadDto[], trip: TripDto): Plan
       days: l.days,
       response: l.response,
       setpointC: l.setpointC,
+      location: l.location,
+      surgeWatts: l.surgeWatts,
     })),
     stops: trip.stops,
     drives: trip.drives,
@@ -42,6 +44,8 @@ export interface ForecastListItem {
   createdBy: { id: string; name: string } | null;
   summary: Forecast['summary'];
   reserveSocPct: number | null;
+  /** The engine revision that made it (forecasts saved before revisions were recorded are 1). */
+  engineRevision: number;
 }
 
 export interface ForecastDto extends ForecastListItem {
@@ -111,6 +115,7 @@ export async function createForecast(
       reserve_soc_pct: input.trip.reserveSocPct,
       created_by: input.userId,
       created_at: createdAt,
+      engine_revision: result.engineRevision,
     })
     .execute();
   const created = await getForecast(db, id);
@@ -148,6 +153,7 @@ const listColumns = [
   'forecasts.reserve_soc_pct',
   'forecasts.created_at',
   'forecasts.created_by',
+  'forecasts.engine_revision',
   'user.name as creator_name',
 ] as const;
 
@@ -163,7 +169,7 @@ export async function listForecasts(db: Kysely<DB>, tripId: string): Promise<For
   return rows.map(toListItem);
 }
 
-function toListItem(r: { id: string; trip_id: string; name: string; summary: string; reserve_soc_pct: number | null; created_at: string; created_by: string | null; creator_name: string | null }): ForecastListItem {
+function toListItem(r: { id: string; trip_id: string; name: string; summary: string; reserve_soc_pct: number | null; created_at: string; created_by: string | null; creator_name: string | null; engine_revision: number | null }): ForecastListItem {
   return {
     id: r.id,
     tripId: r.trip_id,
@@ -172,6 +178,7 @@ function toListItem(r: { id: string; trip_id: string; name: string; summary: str
     createdBy: r.created_by ? { id: r.created_by, name: r.creator_name ?? 'Former member' } : null,
     summary: JSON.parse(r.summary),
     reserveSocPct: r.reserve_soc_pct,
+    engineRevision: r.engine_revision ?? 1,
   };
 }
 
@@ -190,7 +197,8 @@ export async function getForecast(db: Kysely<DB>, id: string): Promise<(Forecast
     crewId: r.crew_id,
     rigId: r.rig_id,
     plan: JSON.parse(r.plan),
-    forecast: { ...stored, hourly: unpackHourly(stored.hourly) },
+    // A snapshot keeps the numbers it was saved with; one saved before revisions were recorded is revision 1.
+    forecast: { ...stored, engineRevision: r.engine_revision ?? 1, hourly: unpackHourly(stored.hourly) },
   };
 }
 

@@ -11,7 +11,7 @@ export type LoadValues = z.output<typeof loadInputSchema>;
 export type LoadChanges = z.output<typeof loadPatchSchema>;
 
 /** The load fields a camper edits, in the order the activity trail lists them. */
-const FIELDS = ['name', 'watts', 'quantity', 'supply', 'windows', 'dutyPct', 'days', 'response', 'setpointC', 'note', 'standby', 'position'] as const;
+const FIELDS = ['name', 'watts', 'quantity', 'supply', 'windows', 'dutyPct', 'days', 'response', 'setpointC', 'location', 'surgeWatts', 'note', 'standby', 'position'] as const;
 type Field = (typeof FIELDS)[number];
 
 type LoadWithAuthor = LoadRow & { added_by_name: string | null };
@@ -30,6 +30,8 @@ export function toLoadDto(row: LoadWithAuthor): LoadDto {
     days: row.days,
     response: row.response,
     setpointC: row.setpoint_c,
+    location: row.location,
+    surgeWatts: row.surge_watts,
     note: row.note,
     standby: row.standby === 1,
     position: row.position,
@@ -77,6 +79,8 @@ function columnsOf(v: Partial<LoadValues>) {
     ...(v.days !== undefined && { days: v.days }),
     ...(v.response !== undefined && { response: v.response }),
     ...(v.setpointC !== undefined && { setpoint_c: v.setpointC }),
+    ...(v.location !== undefined && { location: v.location }),
+    ...(v.surgeWatts !== undefined && { surge_watts: v.surgeWatts }),
     ...(v.note !== undefined && { note: lf(v.note) }),
     ...(v.standby !== undefined && { standby: v.standby ? 1 : 0 }),
     ...(v.position !== undefined && { position: v.position }),
@@ -133,6 +137,8 @@ async function insertLoads(db: Kysely<DB>, rigId: string, userId: string, values
       days: v.days,
       response: v.response,
       setpoint_c: v.setpointC,
+      location: v.location,
+      surge_watts: v.surgeWatts,
       note: lf(v.note),
       standby: v.standby ? 1 : 0,
       position: v.position ?? position++,

@@ -2,6 +2,12 @@
 // from forecast-engine.md: coulomb counting at the nominal voltage, Peukert exponent 1, full
 // capacity at or above 25 °C, charger watts = amps × nominal volts, sources serve the hour's loads
 // first, LiFePO4 charge efficiency 99 %, the generator's default fuel 0.6 L/h.
+// Revision 2 (where a test's figure moved, the arithmetic is beside it): loads are power at the
+// terminal volts, so the charge a load takes follows the LiFePO4 open-circuit table, Wh per 100 Ah
+// from full: to 99 % 13.5, to 90 % 134.0, to 70 % 399.8, to 40 % 795.5, to 20 % 1,056.8, to 14 %
+// 1,134.2, to 12 % 1,159.7 (trapezoids: 1 × 13.525, 9 × 13.39, 20 × 13.29, 30 × 13.19,
+// 20 × 13.065, 6 × 12.9, 2 × 12.74); chargers are current sources at their rated amps; the taper
+// (LiFePO4: acceptance 50 A × (100 − SOC)/5 above 95 %) is followed inside the hour.
 import { describe, expect, it } from 'vitest';
 import { forecast, validatePlan, type Plan, type ResolvedPlan, prepareTrip } from '../../src/engine';
 import { advise, ASSUMED_CONVERTER_AMPS, effectOf, loadUse } from '../../src/domain/advice/advice';
@@ -25,13 +31,18 @@ const warmNoSunStop = (over: Partial<NonNullable<Plan['stops']>[number]> = {}) =
 });
 
 describe('advise: generator hours', () => {
-  // 100 Ah LiFePO4, 12.8 V, floor 12 %, one 38.4 W (3 A) load, no panels, two nights from Thu 15:00.
-  // The bank loses 3 points an hour: at 19:00 Fri it has 13 % left, so it cuts off in the 20:00 hour.
-  // The last generator hours before that are Fri 08:00–20:00 (the stop's default window), where the
-  // bank is at 100 − 3 × 17 = 49 %. A 30 A converter/charger (384 W) serves the 38.4 W load and puts
-  // 27 A into the bank, 26.7 points an hour after the 99 % charge efficiency:
-  //   1 h → 75.7 %, then 26 hours × 3 points to the trip's end (11:00 Sat) → below the floor: cutoff;
-  //   2 h → full (100 %), then 25 hours × 3 points → 25 % at the end: no cutoff.
+  // 100 Ah LiFePO4, 12.8 V, floor 12 %, one 38.4 W load, no panels, two nights from Thu 15:00.
+  // Revision 2, by hand: the bank reaches the 12 % floor after 1,159.7 / 38.4 = 30.2 hours, in the
+  // 21:00 hour on Friday (first model: 3 points an hour at 12.8 V, 20:00).
+  // The last generator hours before that are Fri 08:00–20:00 (the stop's default window). By 08:00
+  // the load has taken 17 × 38.4 = 652.8 Wh: 399.8 to 70 %, then 253.0 Wh at 13.25 − 0.002·u V
+  // over u points → u = 19.15 → 50.9 %. A 30 A converter/charger (a current source) serves the
+  // load (38.4 / 13.2 ≈ 2.9 A) and puts ~27.1 A × 0.99 ≈ 26.8 points an hour into the bank:
+  //   1 h → 77.7 %, then 26 h × 38.4 = 998.4 Wh to the trip's end (11:00 Sat), more than the 862 Wh
+  //     between 77.7 % and the 12 % floor: cutoff;
+  //   2 h → 97.3 % after 0.73 h, then the taper: 100 − 2.7·e^(−9.9 × 0.27) = 99.8 % at 10:00; then
+  //     25 h × 38.4 = 960 Wh → 795.5 to 40 %, 167 Wh more at ~13.09 V = 12.8 points → 27 % at the
+  //     end: no cutoff.
   const plan = resolve({
     bank: { chemistry: 'lifepo4', nominalVolts: 12.8, capacityAh: 100, initialSocPct: 100, floorSocPct: 12, peukertExponent: 1 },
     loads: [{ name: 'Test load', watts: 38.4 }],
@@ -39,8 +50,8 @@ describe('advise: generator hours', () => {
   });
   const base = forecast(plan);
 
-  it('the plan as given runs out on Friday at 20:00', () => {
-    expect(base.summary.firstCutoffAt).toBe('2027-10-22T20:00-06:00');
+  it('the plan as given runs out on Friday at 21:00', () => {
+    expect(base.summary.firstCutoffAt).toBe('2027-10-22T21:00-06:00');
   });
 
   it('finds the smallest whole number of hours on the morning before the cutoff: 2 h on Fri 22 Oct from 08:00', () => {
@@ -49,8 +60,8 @@ describe('advise: generator hours', () => {
     expect(gen).toBeDefined();
     expect(gen!.title).toBe('Run a generator 2 h on Fri 22 Oct from 08:00');
     expect(gen!.fixes).toBe(true);
-    // 2 h × 0.6 L/h; lowest after the fix is the last hour: 100 − 25 × 3 = 25 %.
-    expect(gen!.effect).toContain('No cutoff — lowest 25 % on Sat 23 Oct, 10:00');
+    // 2 h × 0.6 L/h; lowest after the fix is the last hour: 27 % (worked out above).
+    expect(gen!.effect).toContain('No cutoff — lowest 27 % on Sat 23 Oct, 10:00');
     expect(gen!.effect).toContain('1.2 L');
     expect(gen!.detail).toContain(`${ASSUMED_CONVERTER_AMPS} A converter/charger`);
     expect(gen!.caution).toBe(CAUTIONS.generator);
@@ -58,8 +69,8 @@ describe('advise: generator hours', () => {
   });
 
   it('when no generator hours can hold the trip’s reserve, still says how to avoid the cutoff', () => {
-    // A 70 % reserve cannot hold: even full at 20:00 (the window's end) the bank loses 12 × 3 = 36
-    // points by 08:00. Avoiding the cutoff still takes the same 2 hours on Friday morning.
+    // A 70 % reserve cannot hold: even full at 20:00 (the window's end) the bank gives 12 × 38.4 =
+    // 460.8 Wh by 08:00, more than the 399.8 Wh from full to 70 % (revision 2: it ends near 65 %). Avoiding the cutoff still takes the same 2 hours on Friday morning.
     const advice = advise(plan, base, 70);
     const gen = advice.changes.find((c) => c.kind === 'generator');
     expect(gen!.title).toBe('Run a generator 2 h on Fri 22 Oct from 08:00');
@@ -69,7 +80,9 @@ describe('advise: generator hours', () => {
   });
 
   it('uses the rig’s own converter/charger when the plan has shore power: a 60 A one needs only 1 h', () => {
-    // 60 A × 12.8 V = 768 W: 57 A into the bank, 56.4 points in one hour → 100 % by 09:00 → same 25 % end.
+    // Revision 2: 60 A (a current source) − 2.9 A for the load = 57.1 A × 0.99 = 56.5 points an hour
+    // from 50.9 %: 97.3 % after 0.82 h, then the taper → 99.5 % by 09:00; 26 h × 38.4 = 998.4 Wh
+    // then leaves about 24 %, above the 12 % floor.
     const withShore = resolve({ ...plan, chargers: [{ kind: 'shore', amps: 60 }] });
     const advice = advise(withShore, forecast(withShore));
     const gen = advice.changes.find((c) => c.kind === 'generator');
@@ -78,7 +91,8 @@ describe('advise: generator hours', () => {
   });
 
   it('on a long trip, names a run for every morning that needs one, each carrying the bank to the next', () => {
-    // Ten nights of the same 3 points an hour: a day uses 72 points, so every morning from Fri 22
+    // Ten nights of the same load: a day takes 24 × 38.4 = 921.6 Wh, about 70 points (revision 2;
+    // first model 72), so every morning from Fri 22
     // to Sat 30 needs a run (Sun 31 ends at 11:00 with the bank still above the floor).
     const long = resolve({ ...plan, stops: [warmNoSunStop({ nights: 10 })] });
     const f = forecast(long);
@@ -103,8 +117,8 @@ describe('advise: generator hours', () => {
   });
 
   it('says when a generator alone cannot help: the bank runs out in the first night, before any allowed hours', () => {
-    // 128 W = 10 A = 10 points an hour from 15:00; generator hours end at 20:00 (the default window).
-    // Even full at 20:00 the bank runs 8.8 hours to the 12 % floor → cutoff before 05:00.
+    // 128 W ≈ 9.7 A ≈ 10 points an hour from 20:00; generator hours end at 20:00 (the default window).
+    // Even full at 20:00 the bank runs 1,159.7 / 128 = 9.1 hours to the 12 % floor → cutoff before 06:00.
     const heavy = resolve({ ...plan, loads: [{ name: 'Night heater fan', watts: 128, windows: [[20, 8]] }] });
     const f = forecast(heavy);
     expect(f.summary.firstCutoffAt).not.toBeNull();

@@ -51,6 +51,8 @@ describe('re-forecast from a check-in', () => {
     });
   });
 
+  // Revision 2: the battery's lagged temperature is not in the reading; the re-forecast takes the
+  // forecast's own at that hour and carries it between pieces, so the cold lockout falls on the same hours.
   it('continues the forecast from every hour of the trip', () => {
     full.hourly.forEach((row, k) => {
       const soc = socBefore(k);
@@ -98,8 +100,12 @@ describe('re-forecast from a check-in', () => {
   });
 
   it('the start SOC is the reading, and the outcome names the stop of a cutoff', () => {
-    const o = outcomeOf(run('2027-10-24T16:00-06:00', 20));
-    expect(o.startSocPct).toBe(20);
+    // Revision 2: the reading's hour (15:00 at Cinder Flat) has the battery at the forecast's 8.0 °C
+    // (it lags the air after the drive), so f = 1 − 0.008 × (25 − 8) = 0.864 and 13.6 points are
+    // stranded. A 20 % reading would be 6.4 % usable, under the 10 % floor: cut off at once (that
+    // case is the floor test above). 30 % is 16.4 % usable, so the bank runs on and cuts off later.
+    const o = outcomeOf(run('2027-10-24T16:00-06:00', 30));
+    expect(o.startSocPct).toBe(30);
     expect(o.cutoffStop).toBe('Cinder Flat');
     expect(Date.parse(o.firstCutoffAt!)).toBeGreaterThan(at('2027-10-24T16:00-06:00'));
   });

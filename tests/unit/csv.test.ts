@@ -3,7 +3,9 @@ import { describe, expect, it } from 'vitest';
 import { formatLoadsCsv, needsFormulaEscape, parseLoadsCsv, unescapeCell, type CsvLoad } from '../../src/domain/loads/loads-csv';
 import { parseWindows, windowsToCell } from '../../src/domain/loads/windows';
 
-const HEADER = 'name,watts,quantity,supply,windows,dutyPct,days,response,setpointC,standby,note';
+const HEADER = 'name,watts,quantity,supply,windows,dutyPct,days,response,setpointC,standby,note,location,surgeWatts';
+/** The header files had before engine revision 2 (no location, no surge watts): they still import. */
+const OLD_HEADER = 'name,watts,quantity,supply,windows,dutyPct,days,response,setpointC,standby,note';
 
 describe('parseWindows / windowsToCell (the one schedule reader, as the CSV uses it)', () => {
   it.each([
@@ -60,11 +62,29 @@ describe('formula escaping', () => {
 
 describe('parseLoadsCsv', () => {
   it('reads every column, filling the contract defaults for empty cells', () => {
-    const { rows, errors } = parseLoadsCsv(`${HEADER}\nFridge,45,,,,,,,,,\nFurnace blower,60,1,DC,0-24,100%,camp,Heating,19,Yes,under the bed\n`);
+    const { rows, errors } = parseLoadsCsv(`${HEADER}\nFridge,45,,,,,,,,,,,\nFurnace blower,60,1,DC,0-24,100%,camp,Heating,19,Yes,under the bed,Outside,240\n`);
     expect(errors).toEqual([]);
     expect(rows).toEqual([
-      { line: 2, load: { name: 'Fridge', watts: 45, quantity: 1, supply: 'dc', windows: [[0, 24]], dutyPct: 100, days: 'all', response: 'none', setpointC: 18, standby: false, note: '' } },
-      { line: 3, load: { name: 'Furnace blower', watts: 60, quantity: 1, supply: 'dc', windows: [[0, 24]], dutyPct: 100, days: 'camp', response: 'heating', setpointC: 19, standby: true, note: 'under the bed' } },
+      { line: 2, load: { name: 'Fridge', watts: 45, quantity: 1, supply: 'dc', windows: [[0, 24]], dutyPct: 100, days: 'all', response: 'none', setpointC: 18, location: 'cabin', surgeWatts: null, standby: false, note: '' } },
+      { line: 3, load: { name: 'Furnace blower', watts: 60, quantity: 1, supply: 'dc', windows: [[0, 24]], dutyPct: 100, days: 'camp', response: 'heating', setpointC: 19, location: 'outside', surgeWatts: 240, standby: true, note: 'under the bed' } },
+    ]);
+  });
+
+  it('still imports a file written before location and surge watts: the load sits in the cabin with no surge figure', () => {
+    const { rows, errors } = parseLoadsCsv(`${OLD_HEADER}\nFridge,45,1,dc,0-24,35,all,cooling,18,no,\n`);
+    expect(errors).toEqual([]);
+    expect(rows[0]?.load).toMatchObject({ name: 'Fridge', response: 'cooling', location: 'cabin', surgeWatts: null });
+  });
+
+  it('reads "surge watts" and "Location" headers, and names a bad place or surge by column', () => {
+    const ok = parseLoadsCsv('name,watts,Location,surge watts\nMicrowave,1200,cabin,1500\n');
+    expect(ok.errors).toEqual([]);
+    expect(ok.rows[0]?.load).toMatchObject({ location: 'cabin', surgeWatts: 1500 });
+    const bad = parseLoadsCsv('name,watts,location,surge_watts\nFridge,45,garage,lots\n');
+    expect(bad.rows).toEqual([]);
+    expect(bad.errors).toEqual([
+      { line: 2, column: 'location', message: '"garage" must be one of cabin, outside' },
+      { line: 2, column: 'surgeWatts', message: '"lots" is not a number' },
     ]);
   });
 
@@ -135,15 +155,15 @@ describe('parseLoadsCsv', () => {
 });
 
 describe('formatLoadsCsv', () => {
-  const load: CsvLoad = { name: 'LED lights', watts: 1.2, quantity: 6, supply: 'dc', windows: [[18, 23], [6, 8]], dutyPct: 100, days: 'all', response: 'none', setpointC: 18, standby: false, note: 'six, dimmable' };
+  const load: CsvLoad = { name: 'LED lights', watts: 1.2, quantity: 6, supply: 'dc', windows: [[18, 23], [6, 8]], dutyPct: 100, days: 'all', response: 'none', setpointC: 18, location: 'cabin', surgeWatts: null, standby: false, note: 'six, dimmable' };
 
   it('writes the header and one CRLF-ended line per load, quoting where needed', () => {
-    expect(formatLoadsCsv([load])).toBe(`${HEADER}\r\nLED lights,1.2,6,dc,18-23;6-8,100,all,none,18,no,"six, dimmable"\r\n`);
+    expect(formatLoadsCsv([load])).toBe(`${HEADER}\r\nLED lights,1.2,6,dc,18-23;6-8,100,all,none,18,no,"six, dimmable",cabin,\r\n`);
   });
 
   it('escapes formula-like text but not negative numbers', () => {
-    const out = formatLoadsCsv([{ ...load, name: '=cmd|calc', note: '@x', setpointC: -5 }]);
-    expect(out.split('\r\n')[1]).toBe("'=cmd|calc,1.2,6,dc,18-23;6-8,100,all,none,-5,no,'@x");
+    const out = formatLoadsCsv([{ ...load, name: '=cmd|calc', note: '@x', setpointC: -5, location: 'outside', surgeWatts: 80 }]);
+    expect(out.split('\r\n')[1]).toBe("'=cmd|calc,1.2,6,dc,18-23;6-8,100,all,none,-5,no,'@x,outside,80");
   });
 
   // Property: whatever a camper types, export then import gives back the same loads. Import reads
@@ -161,6 +181,8 @@ describe('formatLoadsCsv', () => {
       days: fc.constantFrom('all' as const, 'camp' as const, 'drive' as const),
       response: fc.constantFrom('none' as const, 'cooling' as const, 'heating' as const),
       setpointC: fc.double({ min: -30, max: 40, noNaN: true }).map((w) => (Object.is(w, -0) ? 0 : w)),
+      location: fc.constantFrom('cabin' as const, 'outside' as const),
+      surgeWatts: fc.option(fc.double({ min: 0, max: 100_000, noNaN: true, noDefaultInfinity: true }).map((w) => (Object.is(w, -0) ? 0 : w)), { nil: null }),
       standby: fc.boolean(),
       note: fc.string({ unit: 'binary', maxLength: 60 }).map((s) => s.trim()),
     });

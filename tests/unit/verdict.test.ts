@@ -2,6 +2,8 @@
 // rules (forecast-engine.md): coulomb counting at the nominal voltage, Peukert exponent 1 (no
 // rate effect), no cold-capacity loss at or above 25 °C, the floor served for the fraction of the
 // hour it lasts, reconnection only 5 points above the floor. No sun: no arrays at all.
+// Revision 2: loads are power at the terminal volts, so the charge they take follows the LiFePO4
+// open-circuit table (Wh per 100 Ah from full: to 99 % 13.5, to 90 % 134.0, to 70 % 399.8).
 import { describe, expect, it } from 'vitest';
 import { forecast, validatePlan, type Plan, type ResolvedPlan } from '../../src/engine';
 import { verdict } from '../../src/domain/forecasts/verdict';
@@ -44,12 +46,14 @@ describe('verdict', () => {
   });
 
   it('says "Makes it" with the lowest point and its local time when the bank lasts', () => {
-    // 12.8 W = 1 A → 1 %/h for the 20 hours from 15:00 to 11:00: lowest 80 % in the last row (10:00).
+    // 20 hours from 15:00 to 11:00 at 12.8 W = 256 Wh (first model: 1 A, 80 %). Revision 2, by hand:
+    // 134.0 Wh to 90 %, then 122.0 Wh at 13.33 − 0.002·u V over u points → u = 9.16 → 80.8 %:
+    // lowest 81 % in the last row (10:00).
     const plan = noSunPlan(12.8);
     const f = forecast(plan);
     const v = verdict(f, plan);
     expect(v.status).toBe('makes-it');
-    expect(v.headline).toBe('Makes it — lowest 80 % on Fri 22 Oct, 10:00');
+    expect(v.headline).toBe('Makes it — lowest 81 % on Fri 22 Oct, 10:00');
     expect(v.cutoffAt).toBeNull();
     expect(v.hoursShort).toBe(0);
   });
@@ -58,7 +62,8 @@ describe('verdict', () => {
     const plan = noSunPlan(12.8);
     const v = verdict(forecast(plan), plan, 85);
     expect(v.status).toBe('below-reserve');
-    expect(v.headline).toBe('Makes it, but dips below your 85 % reserve — lowest 80 % on Fri 22 Oct, 10:00');
+    // Lowest 80.8 % (worked out above), below the 85 % reserve.
+    expect(v.headline).toBe('Makes it, but dips below your 85 % reserve — lowest 81 % on Fri 22 Oct, 10:00');
     expect(v.reservePct).toBe(85);
   });
 

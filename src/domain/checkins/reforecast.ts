@@ -1,4 +1,4 @@
-import { forecast as runEngine, validatePlan, type DayRow, type Forecast, type HourlyRow, type ResolvedDrive, type ResolvedPlan, type ResolvedStop } from '../../engine';
+import { prepareTrip, simulatePrepared, thermalStep, toForecast, validatePlan, type DayRow, type Forecast, type HourlyRow, type PreparedTrip, type ResolvedDrive, type ResolvedPlan, type ResolvedStop, type SimResult } from '../../engine';
 import { planTimeline, dayNumber, HOUR_MS, isoDate, localToInstant, offsetMinutes } from '../../engine/light';
 import type { CheckInOutcome } from './checkins.schema';
 import { at } from '../../lib/invariant';
@@ -12,6 +12,11 @@ import { at } from '../../lib/invariant';
 // departure. On the morning a stop is left (before the next arrival or the trip's end) that stop
 // has less than a night left; then it runs as a one-night stop cut where it really ends, and the
 // rest of the trip runs on from there with the state of charge reached.
+//
+// Engine revision 2 gives the battery a temperature that lags its surroundings, and the cold
+// limits (lockout, stranded charge, lead-acid acceptance) use it. A reading says nothing about
+// it, so the re-forecast starts with the temperature the trip's own forecast has at that hour, and
+// each piece hands the next the temperature its last hour leads to (not the air's).
 
 export type ReforecastResult = { ok: true; forecast: Forecast; stopIndex: number } | { ok: false; path: 'at'; message: string };
 
@@ -49,10 +54,28 @@ function drivesWithin(plan: ResolvedPlan, stops: ResolvedStop[], arrivals: numbe
   return out;
 }
 
-function run(plan: ResolvedPlan): Forecast | string {
+interface Run {
+  forecast: Forecast;
+  prepared: PreparedTrip;
+  sim: SimResult;
+}
+
+function run(plan: ResolvedPlan): Run | string {
   const v = validatePlan(plan);
   if (!v.ok) return v.envelope.error.message;
-  return runEngine(v.plan);
+  const prepared = prepareTrip(v.plan);
+  const sim = simulatePrepared(prepared);
+  return { forecast: toForecast(prepared, sim), prepared, sim };
+}
+
+/** The battery's temperature at the start of row `k` of a run (k may be one past its last row). */
+function batteryCAt(r: Run, k: number): number | undefined {
+  if (k <= 0) return r.sim.batteryC[0];
+  if (k < r.sim.n) return r.sim.batteryC[k];
+  const last = k - 1;
+  const tb = r.sim.batteryC[last];
+  const around = r.sim.bank.location === 'cabin' ? r.sim.cabinC[last] : r.prepared.ambientC[last];
+  return tb === undefined || around === undefined ? undefined : thermalStep(tb, around, r.sim.bank.thermalHours);
 }
 
 /** Rows of `f` that start before `endMs`, with the summary and days read from those rows. */
@@ -93,7 +116,9 @@ function rebuild(base: Forecast, hourly: HourlyRow[], warnings: Forecast['warnin
     if (r.generatorOn) sum.gen++;
   });
   const last = hourly[hourly.length - 1];
+  const minVoltsRow = hourly.reduce<HourlyRow | undefined>((m, r) => (!m || r.minVolts < m.minVolts ? r : m), undefined);
   return {
+    engineRevision: base.engineRevision,
     hourly,
     days: [...days.values()],
     warnings,
@@ -112,6 +137,9 @@ function rebuild(base: Forecast, hourly: HourlyRow[], warnings: Forecast['warnin
       loadWh: sum.load,
       chargeWh: sum.charge,
       coldBlockedHours: warnings.filter((w) => w.code === 'cold-charge-blocked').length,
+      minVolts: minVoltsRow ? minVoltsRow.minVolts : base.summary.minVolts,
+      minVoltsAt: minVoltsRow ? minVoltsRow.time : base.summary.minVoltsAt,
+      minUsablePct: hourly.length ? Math.min(...hourly.map((r) => r.usablePct)) : base.summary.minUsablePct,
     },
   };
 }
@@ -132,7 +160,7 @@ function loadsForDay(plan: ResolvedPlan, driveDay: boolean): ResolvedPlan['loads
  * a drive that began the day before) keeps the original day's drive-day loads until midnight.
  * Each piece starts with the state of charge the one before ended with.
  */
-function span(plan: ResolvedPlan, fromMs: number, socPct: number, depth = 0): Forecast | string {
+function span(plan: ResolvedPlan, fromMs: number, socPct: number, batteryC: number | undefined, depth = 0): Forecast | string {
   const tl = planTimeline(plan.stops, plan.drives);
   const s = stopIndexAt(tl.arrivals, plan.stops.length, fromMs);
   const stop = at(plan.stops, s, 'stop');
@@ -140,7 +168,7 @@ function span(plan: ResolvedPlan, fromMs: number, socPct: number, depth = 0): Fo
   const local = fromMs + off * 60_000;
   const day = Math.floor(local / DAY);
   const hour = Math.floor((local - day * DAY) / HOUR_MS);
-  const bank = { ...plan.bank, initialSocPct: Math.max(0, Math.min(100, socPct)) };
+  const bank = { ...plan.bank, initialSocPct: Math.max(0, Math.min(100, socPct)), ...(batteryC !== undefined && { initialBatteryC: Math.max(-60, Math.min(80, batteryC)) }) };
   const rest = plan.stops.slice(s + 1);
   const [next] = rest;
   const isLast = next === undefined;
@@ -169,15 +197,16 @@ function span(plan: ResolvedPlan, fromMs: number, socPct: number, depth = 0): Fo
     cutAt = Math.min(cutAt, localToInstant(stop.timeZone, day + 1, 0));
     loads = loadsForDay(plan, wasDriveDay);
   }
-  const f = run({ ...plan, bank, loads, stops, drives: drivesWithin(plan, stops, arrivals, fromMs, Math.min(cutAt, tl.endMs)) });
-  if (typeof f === 'string') return f;
+  const r = run({ ...plan, bank, loads, stops, drives: drivesWithin(plan, stops, arrivals, fromMs, Math.min(cutAt, tl.endMs)) });
+  if (typeof r === 'string') return r;
+  const f = r.forecast;
   const mine = { ...f, hourly: f.hourly.map((r) => ({ ...r, stop: r.stop + s })), stops: plan.stops.map(({ name, timeZone }) => ({ name, timeZone })) };
   const runEnd = fromMs + mine.hourly.length * HOUR_MS;
   const part = runEnd > cutAt ? cut(mine, cutAt) : mine;
   if (cutAt >= tl.endMs) return part;
   if (depth > 4 * plan.stops.length + 8) return 'the trip could not be split into runs';
   const carried = part.hourly.at(-1)?.socPct ?? bank.initialSocPct;
-  const later = span(plan, cutAt, carried, depth + 1);
+  const later = span(plan, cutAt, carried, batteryCAt(r, part.hourly.length), depth + 1);
   if (typeof later === 'string') return later;
   return rebuild({ ...part, summary: { ...part.summary, startSocPct: bank.initialSocPct } }, [...part.hourly, ...later.hourly], [...part.warnings, ...later.warnings]);
 }
@@ -186,8 +215,9 @@ function span(plan: ResolvedPlan, fromMs: number, socPct: number, depth = 0): Fo
  * Re-forecasts the rest of the trip from a reading taken at `atMs` (ms since the epoch) with the
  * bank at `socPct`. The forecast starts at the start of the reading's local hour at the stop the
  * camper is at. A reading before the trip starts or after it ends is refused, naming `at`.
+ * `batteryC` is the battery's temperature then; without it, the plan's own forecast at that hour.
  */
-export function reforecastFrom(plan: ResolvedPlan, atMs: number, socPct: number): ReforecastResult {
+export function reforecastFrom(plan: ResolvedPlan, atMs: number, socPct: number, batteryC?: number): ReforecastResult {
   const tl = planTimeline(plan.stops, plan.drives);
   if (!(atMs >= tl.startMs)) return { ok: false, path: 'at', message: `is before the trip starts (${label(plan, tl.startMs)}): check in once you are at camp.` };
   if (atMs >= tl.endMs) return { ok: false, path: 'at', message: `is after the trip ends (${label(plan, tl.endMs - HOUR_MS)}).` };
@@ -196,9 +226,17 @@ export function reforecastFrom(plan: ResolvedPlan, atMs: number, socPct: number)
   const local = atMs + offsetMinutes(zone, atMs) * 60_000;
   const day = Math.floor(local / DAY);
   const startMs = Math.max(at(tl.arrivals, s, 'stop arrival'), localToInstant(zone, day, Math.floor((local - day * DAY) / HOUR_MS)));
-  const f = span(plan, startMs, socPct);
+  const f = span(plan, startMs, socPct, batteryC ?? forecastBatteryC(plan, startMs));
   if (typeof f === 'string') return { ok: false, path: 'at', message: `cannot start a forecast here: ${f}` };
   return { ok: true, forecast: f, stopIndex: s };
+}
+
+/** The battery's temperature the plan's own forecast has at the start of the hour at `startMs`. */
+function forecastBatteryC(plan: ResolvedPlan, startMs: number): number | undefined {
+  const r = run(plan);
+  if (typeof r === 'string') return undefined;
+  const k = Math.round((startMs - r.prepared.grid.startMs) / HOUR_MS);
+  return batteryCAt(r, k);
 }
 
 /** The figures a check-in keeps from its re-forecast. */

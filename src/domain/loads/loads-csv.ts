@@ -80,6 +80,8 @@ const READ: Record<LoadCsvColumn, (cell: string) => Cell> = {
   setpointC: (c) => parseNumber(c),
   standby: (c) => parseYesNo(c),
   note: (c) => ({ ok: true, value: c }),
+  location: (c) => parseChoice(c, ['cabin', 'outside']),
+  surgeWatts: (c) => parseNumber(c),
 };
 
 interface RawRecord {
@@ -189,6 +191,9 @@ export function formatLoadsCsv(loads: readonly CsvLoad[]): string {
     setpointC: l.setpointC,
     standby: l.standby ? 'yes' : 'no',
     note: l.note,
+    location: l.location,
+    // No surge figure: an empty cell, which reads back as none.
+    surgeWatts: l.surgeWatts ?? '',
   }));
   const escaped = data.map((row) =>
     LOAD_CSV_COLUMNS.map((c) => {

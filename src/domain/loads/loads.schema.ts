@@ -32,5 +32,5 @@ export interface LoadDto extends z.output<typeof loadSchema> {
   updatedAt: string;
 }
 
-/** CSV columns of a load list (import and export). */
-export const LOAD_CSV_COLUMNS = ['name', 'watts', 'quantity', 'supply', 'windows', 'dutyPct', 'days', 'response', 'setpointC', 'standby', 'note'] as const;
+/** CSV columns of a load list (import and export); `location` and `surgeWatts` (engine revision 2) are optional, so older files still import. */
+export const LOAD_CSV_COLUMNS = ['name', 'watts', 'quantity', 'supply', 'windows', 'dutyPct', 'days', 'response', 'setpointC', 'standby', 'note', 'location', 'surgeWatts'] as const;

@@ -89,6 +89,9 @@ export function bankFrom(old: ResolvedBank, c: BankCandidate): ResolvedBank {
       capacityAh: c.capacityAh,
       initialSocPct: old.initialSocPct,
       insideHeatedSpace: old.insideHeatedSpace,
+      // The new bank sits where the old one did, in a box that warms and cools alike.
+      location: old.location,
+      thermalHours: old.thermalHours,
       ...(same
         ? {
             nominalVolts: old.nominalVolts,
@@ -194,10 +197,14 @@ export function labelOf(c: Changes, plan: ResolvedPlan): string {
   return parts.join(' · ') || 'As it is';
 }
 
-/** Judges a simulation against the trip's reserve (else the bank's floor): passes with no cutoff and never below it. */
+/**
+ * Judges a simulation against the trip's reserve (else the bank's floor): passes with no cutoff and
+ * usable charge never below it (engine revision 2 judges the floor on usable charge; charge the
+ * cold strands is no reserve).
+ */
 export function outcomeOf(prepared: PreparedTrip, s: SimSummary, bank: ResolvedBank, reserveSocPct: number | null): Outcome {
   const reservePct = reserveSocPct ?? bank.floorSocPct;
-  const passes = s.firstCutoffRow === null && s.minSocPct >= reservePct - 1e-9;
+  const passes = s.firstCutoffRow === null && s.minUsablePct >= reservePct - 1e-9;
   return {
     passes,
     reservePct,

@@ -313,7 +313,7 @@ export function quickPlanToRigAndTrip(plan: Plan): { rig: RigInput; loads: LoadI
       position: i,
     })),
     trip: {
-      name: stop ? `${stop.name.slice(0, 80)}, ${stop.arrive}` : 'My trip',
+      name: stop ? `${(stop.name ?? 'Stop 1').slice(0, 80)}, ${stop.arrive}` : 'My trip',
       stops: plan.stops.map((s) => ({ ...s })),
       drives: (plan.drives ?? []).map((d) => ({ ...d })),
       reserveSocPct: null,
