@@ -61,7 +61,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('weather sources and the
     expect(await badges.first().textContent()).toBe('Past years');
     // The band's sentence counts the ten years and names the worst.
     const sentence = await page.getByTestId('band-sentence').textContent();
-    expect(sentence).toMatch(/^In (all 10|\d) of the last 10 years' weather the bank stays above its floor( and its cutoff voltage)?; in the worst \(\d{4}\) (it reaches the floor|its voltage sags to the low-voltage cutoff|it gets down to \d+ %) on (night|day) \d+ at \d\d:00\.$/);
+    expect(sentence).toMatch(/^In (all 10|none|\d) of the last 10 years' weather the bank stays above its floor( and its cutoff voltage)?; in the worst \(\d{4}\) (it reaches the floor|its voltage sags to the low-voltage cutoff|it gets down to \d+ %) on (night|day) \d+ at \d\d:00\.$/);
     expect(await page.getByTestId('band-chart').locator('polygon').count()).toBe(1);
     // The verdict counts the years, and is never a plain "Makes it" here.
     expect(await page.getByTestId('verdict-headline').textContent()).toMatch(/of the last 10 years' weather|^Runs out/);
@@ -84,5 +84,29 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('weather sources and the
     } finally {
       await context.setOffline(false);
     }
+  });
+
+  it('shows each day’s source on the itinerary and copies the past years into the typed weather once the camper confirms', async () => {
+    const tripUrl = page.url().replace(/\/forecasts\/[^/]+$/, '');
+    const tripId = tripUrl.split('/').pop()!;
+    await page.goto(tripUrl);
+    await hydrated(page);
+    const stop = page.getByTestId('stop-weather-0');
+    await stop.locator('[data-source="past-year"]').first().waitFor();
+    expect(await stop.locator('[data-source="past-year"]').count()).toBe(4);
+    await page.getByRole('button', { name: 'Use past years' }).click();
+    const confirm = page.getByRole('group', { name: 'Confirm copying the weather' });
+    expect(await confirm.textContent()).toMatch(/^Copy 4 days from the past years \(\d{4}\) into this stop’s typed weather\?/);
+    await shot(page, `trip-weather-${viewport}`);
+    // Cancel changes nothing.
+    await confirm.getByRole('button', { name: 'Cancel' }).click();
+    expect((await (await page.request.get(`${baseUrl()}/api/trips/${tripId}`)).json()).stops[0].weather).toEqual([]);
+    await page.getByRole('button', { name: 'Use past years' }).click();
+    await page.getByRole('button', { name: 'Copy 4 days' }).click();
+    await expect.poll(() => stop.locator('[data-source="typed"]').count(), { timeout: 10_000 }).toBe(4);
+    const trip = await (await page.request.get(`${baseUrl()}/api/trips/${tripId}`)).json();
+    expect(trip.stops[0].weather).toHaveLength(4);
+    for (const w of trip.stops[0].weather) expect(Object.keys(w).sort()).toEqual(['cloudOktas', 'date', 'highC', 'lowC']);
+    expect(await page.getByRole('button', { name: 'Use past years' }).count()).toBe(0);
   });
 });

@@ -164,10 +164,10 @@ export function buildBand(kind: Band['kind'], labels: { label: string; year: num
   const anyVolts = runs.some((r) => r.cutoffBy === 'volts');
   let sentence: string;
   if (kind === 'years') {
-    const count = madeIt === total ? `all ${total}` : `${madeIt}`;
+    const count = madeIt === total ? `all ${total}` : madeIt === 0 ? 'none' : `${madeIt}`;
     sentence = `In ${count} of the last ${total} years' weather the bank stays above its floor${anyVolts ? ' and its cutoff voltage' : ''}; in the worst (${worst.label}) ${worstWhat}.`;
   } else {
-    const count = madeIt === total ? `all ${total}` : `${madeIt} of ${total}`;
+    const count = madeIt === total ? `all ${total}` : madeIt === 0 ? `none of the ${total}` : `${madeIt} of ${total}`;
     sentence = `With the forecast's skies and skies two steps clearer and cloudier, the bank stays above its floor${anyVolts ? ' and its cutoff voltage' : ''} in ${count} cases; with ${worst.label === 'as forecast' ? 'the forecast itself' : `skies ${worst.label}`} ${worstWhat}.`;
   }
   return { kind, runs, lowPct, highPct, madeIt, total, worst: worst.label, sentence };

@@ -2,6 +2,7 @@ import type { Forecast, ResolvedPlan } from '../../engine';
 import type { Band, ForecastWithWeather, WeatherSources } from '../../domain/weather/band';
 import type { DaySource } from '../../domain/weather/weather';
 import { formatDay } from '../../lib/format';
+import { useWidth } from './useWidth';
 
 // Where each day's weather came from, and "How sure is this?" (the band), on the forecast page.
 
@@ -44,12 +45,14 @@ export function DaySources({ sources }: { sources: WeatherSources }) {
   );
 }
 
-const W = 640;
-const H = 200;
+/** The drawing's height in CSS px at any width (its width follows the card). */
+const H = 220;
 const PAD = { l: 34, r: 8, t: 8, b: 22 };
 
 /** The band as a drawing: lowest to highest run shaded, the trip's own line, the floor dashed. */
 export function BandChart({ band, forecast, floorPct }: { band: Band; forecast: Forecast; floorPct: number }) {
+  const { ref, width } = useWidth<HTMLElement>();
+  const W = width > 0 ? width : 640;
   const n = forecast.hourly.length;
   if (n < 2 || band.lowPct.length !== n) return null;
   const x = (i: number) => PAD.l + (i / (n - 1)) * (W - PAD.l - PAD.r);
@@ -61,8 +64,8 @@ export function BandChart({ band, forecast, floorPct }: { band: Band; forecast: 
   const lineName = band.kind === 'years' ? 'median year' : 'as forecast';
   const bandName = band.kind === 'years' ? `lowest to highest of ${band.total} years` : 'two steps cloudier to two steps clearer';
   return (
-    <figure>
-      <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full" role="img" aria-label={`State of charge: ${bandName}, and the ${lineName}`} data-testid="band-chart">
+    <figure ref={ref}>
+      <svg viewBox={`0 0 ${W} ${H}`} width="100%" height={H} className="block w-full" role="img" aria-label={`State of charge: ${bandName}, and the ${lineName}`} data-testid="band-chart">
         {[0, 25, 50, 75, 100].map((v) => (
           <g key={v}>
             <line x1={PAD.l} x2={W - PAD.r} y1={y(v)} y2={y(v)} stroke="#e3ddd0" strokeWidth="1" />

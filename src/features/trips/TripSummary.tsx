@@ -4,6 +4,7 @@ import { formatTemp, type Units } from '../../lib/units';
 import type { RigDto } from '../../domain/rigs/rigs.schema';
 import { SKY_CHOICES } from '../../domain/trips/sky';
 import type { TripDto } from '../../domain/trips/trips.schema';
+import { StopWeather } from './StopWeather';
 
 /** "Thu 21 Oct – Tue 26 Oct 2027 · 5 nights" for stops in travel order. */
 export function spanText(stops: readonly { arrive: string; nights: number }[]): string {
@@ -83,39 +84,49 @@ export function TripSummary({ trip, rigs, units, onEdit, editorLoading = false }
                 {coord(s.lat, 'N', 'S')}, {coord(s.lon, 'E', 'W')} · {s.timeZone} · {formatNumber(s.shadePct)} % shade · {s.hookup === 'shore' ? 'shore power' : 'no hookup (dry camping)'}
                 {hasGenerator ? ` · generator allowed ${formatHour(s.generatorHours[0])}–${formatHour(s.generatorHours[1])}` : ''}
               </p>
-              {s.weather.length > 0 ? (
-                <table className="mt-2 w-full max-w-md text-sm tabular-nums">
-                  <caption className="sr-only">Weather planned at {s.name}</caption>
-                  <thead className="text-left text-slate-text">
-                    <tr>
-                      <th scope="col" className="py-0.5 pr-2 font-semibold">Day</th>
-                      <th scope="col" className="py-0.5 pr-2 font-semibold">Sky</th>
-                      <th scope="col" className="py-0.5 pr-2 text-right font-semibold">High</th>
-                      <th scope="col" className="py-0.5 text-right font-semibold">Low</th>
-                    </tr>
-                  </thead>
-                  <tbody>
-                    {s.weather.map((w) => (
-                      <tr key={w.date} className="border-t border-sand">
-                        <th scope="row" className="py-0.5 pr-2 text-left font-semibold">{formatDate(w.date, false)}</th>
-                        <td className="py-0.5 pr-2">{skyLabel(w.cloudOktas)}</td>
-                        <td className="py-0.5 pr-2 text-right">{formatTemp(w.highC, units)}</td>
-                        <td className="py-0.5 text-right">{formatTemp(w.lowC, units)}</td>
-                      </tr>
-                    ))}
-                  </tbody>
-                </table>
-              ) : null}
-              {s.weather.length > 0 && s.weather.length < s.nights + 1 ? (
-                <p className="mt-1 text-sm text-slate-text">
-                  Days not listed take the weather of the nearest listed day.
-                </p>
-              ) : null}
-              {s.weather.length === 0 ? (
-                <p className="mt-1 text-sm text-slate-text">
-                  No weather entered: the forecast assumes {skyLabel(ASSUMED_WEATHER.cloudOktas).toLowerCase()} days, a high of {formatTemp(ASSUMED_WEATHER.highC, units)} and a low of {formatTemp(ASSUMED_WEATHER.lowC, units)}.
-                </p>
-              ) : null}
+              <StopWeather
+                trip={trip}
+                index={i}
+                units={units}
+                canEdit={Boolean(onEdit)}
+                fallback={
+                  <>
+                  {s.weather.length > 0 ? (
+                    <table className="mt-2 w-full max-w-md text-sm tabular-nums">
+                      <caption className="sr-only">Weather planned at {s.name}</caption>
+                      <thead className="text-left text-slate-text">
+                        <tr>
+                          <th scope="col" className="py-0.5 pr-2 font-semibold">Day</th>
+                          <th scope="col" className="py-0.5 pr-2 font-semibold">Sky</th>
+                          <th scope="col" className="py-0.5 pr-2 text-right font-semibold">High</th>
+                          <th scope="col" className="py-0.5 text-right font-semibold">Low</th>
+                        </tr>
+                      </thead>
+                      <tbody>
+                        {s.weather.map((w) => (
+                          <tr key={w.date} className="border-t border-sand">
+                            <th scope="row" className="py-0.5 pr-2 text-left font-semibold">{formatDate(w.date, false)}</th>
+                            <td className="py-0.5 pr-2">{skyLabel(w.cloudOktas)}</td>
+                            <td className="py-0.5 pr-2 text-right">{formatTemp(w.highC, units)}</td>
+                            <td className="py-0.5 text-right">{formatTemp(w.lowC, units)}</td>
+                          </tr>
+                        ))}
+                      </tbody>
+                    </table>
+                  ) : null}
+                  {s.weather.length > 0 && s.weather.length < s.nights + 1 ? (
+                    <p className="mt-1 text-sm text-slate-text">
+                      Days not listed take the weather of the nearest listed day.
+                    </p>
+                  ) : null}
+                  {s.weather.length === 0 ? (
+                    <p className="mt-1 text-sm text-slate-text">
+                      No weather entered: a forecast run fills these days from the weather service, and only if it cannot be reached assumes {skyLabel(ASSUMED_WEATHER.cloudOktas).toLowerCase()} days, a high of {formatTemp(ASSUMED_WEATHER.highC, units)} and a low of {formatTemp(ASSUMED_WEATHER.lowC, units)}.
+                    </p>
+                  ) : null}
+                  </>
+                }
+              />
             </li>
           ))}
         </ol>
