@@ -218,7 +218,7 @@ function LoadsTable({ rigId, units: unitsProp }: { rigId: string; units: Units }
                       {l.addedBy ? <span className="block text-xs text-slate-text">added by {l.addedBy.name}</span> : null}
                     </td>
                     <td data-label="Draw" className={`${TD} text-right tabular-nums`}>
-                      <span>{l.quantity !== 1 ? `${l.quantity} × ` : ''}{formatWatts(l.watts)}</span>
+                      <span>{l.quantity !== 1 ? `${l.quantity} × ` : ''}{formatNumber(l.watts, 1)} W</span>
                       <span className="block text-sm text-slate-text">
                         {l.supply === 'ac'
                           ? `≈ ${formatNumber(bankAmpsOfAc(l.watts, er.nominalVolts, er.inverter?.efficiencyPct ?? DEFAULT_INVERTER_EFFICIENCY_PCT), 1)} A from the bank`

@@ -265,12 +265,12 @@ export function RigEditor({ rig }: RigEditorProps) {
           <div className="grid gap-4 sm:grid-cols-3">
             <NumberField id="inverter-efficiencyPct" label="Efficiency" unit="%" registration={register('inverter.efficiencyPct', num)} error={errorAt(errors, 'inverter.efficiencyPct')} hint="Typical 85–92 %." />
             <NumberField id="inverter-idleWatts" label="Idle draw" unit="W" registration={register('inverter.idleWatts', num)} error={errorAt(errors, 'inverter.idleWatts')} hint="10 W left on all day is about 20 Ah." />
-            <NumberField id="inverter-continuousWatts" label="Continuous rating" unit="W" registration={register('inverter.continuousWatts', numOrNull)} error={errorAt(errors, 'inverter.continuousWatts')} hint="AC watts it delivers without stopping, from its label. Empty: not checked." />
-            <NumberField id="inverter-surgeWatts" label="Surge rating" unit="W" registration={register('inverter.surgeWatts', numOrNull)} error={errorAt(errors, 'inverter.surgeWatts')} hint="AC watts it holds for a moment, e.g. a compressor starting. Empty: not checked." />
             <label className="flex items-start gap-2 sm:pt-7">
               <input type="checkbox" className="mt-1.5 h-4 w-4 accent-ember" {...register('inverter.alwaysOn')} />
               <span><span className="font-bold">Left on all the time</span><br /><span className="field-hint">Otherwise it counts as on only in hours with AC loads.</span></span>
             </label>
+            <NumberField id="inverter-continuousWatts" label="Continuous rating" unit="W" registration={register('inverter.continuousWatts', numOrNull)} error={errorAt(errors, 'inverter.continuousWatts')} hint="AC watts it delivers without stopping, from its label. Empty: not checked." />
+            <NumberField id="inverter-surgeWatts" label="Surge rating" unit="W" registration={register('inverter.surgeWatts', numOrNull)} error={errorAt(errors, 'inverter.surgeWatts')} hint="AC watts it holds for a moment, e.g. a compressor starting. Empty: not checked." />
           </div>
         ) : (
           <p className="text-slate-text">No inverter: every load runs on 12 V DC.</p>
