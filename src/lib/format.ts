@@ -254,3 +254,12 @@ export function formatReadingTime(ms: number, timeZone: string, withYear = false
 export function formatBytes(n: number): string {
   return n >= 1024 * 1024 ? `${(n / 1024 / 1024).toFixed(1)} MB` : `${Math.max(1, Math.round(n / 1024))} KB`;
 }
+
+/** A typed number read back without thousands separators ("1200", "1,2" in de-DE), so it cannot be misread. */
+export function formatTypedReading(n: number, locale: string): string {
+  try {
+    return new Intl.NumberFormat(locale, { useGrouping: false, maximumFractionDigits: 6 }).format(n);
+  } catch {
+    return String(n);
+  }
+}

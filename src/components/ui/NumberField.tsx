@@ -1,5 +1,8 @@
+import { useState } from 'react';
 import type { UseFormRegisterReturn } from 'react-hook-form';
 import { Field, describedBy } from './Field';
+import { parseTypedNumber, userLocale } from './form';
+import { formatTypedReading } from '../../lib/format';
 
 interface NumberFieldProps {
   id: string;
@@ -16,12 +19,32 @@ interface NumberFieldProps {
 }
 
 /**
+ * What the typed text reads as, for the line beside the box: the number when its plain form differs from
+ * what was typed ("1,200" → "Reads as 1200 W"), or the question when it could be two numbers.
+ */
+export function typedReading(text: string, unit: string | undefined, locale: string): { reads?: string; ambiguous?: string } {
+  const typed = parseTypedNumber(text, locale);
+  const u = unit ? ` ${unit}` : '';
+  if (typed.kind === 'ambiguous') {
+    const [a, b] = typed.readings.map((n) => formatTypedReading(n, locale));
+    return { ambiguous: `Did you mean ${a} or ${b}? Type it as one of those.` };
+  }
+  if (typed.kind !== 'number') return {};
+  const plain = formatTypedReading(typed.value, locale);
+  return plain === text.trim() ? {} : { reads: `Reads as ${plain}${u}` };
+}
+
+/**
  * A number box: a text input with a decimal keypad on phones (so a mistyped value stays visible and
  * gets a message, where a browser number input would silently blank it), the unit inside the box.
+ * Typed numbers are read by the browser's locale; what the box reads as is shown beside it before saving.
  */
 export function NumberField({ id, label, registration, error, hint, unit, className, errorName, disabled, placeholder }: NumberFieldProps) {
+  const [text, setText] = useState<string | null>(null);
+  const reading = text === null ? {} : typedReading(text, unit, userLocale());
+  const shownError = reading.ambiguous ?? error;
   return (
-    <Field id={id} label={label} error={error} hint={hint} className={className} errorName={errorName}>
+    <Field id={id} label={label} error={shownError} hint={hint} className={className} errorName={errorName}>
       <div className="relative">
         <input
           id={id}
@@ -30,11 +53,16 @@ export function NumberField({ id, label, registration, error, hint, unit, classN
           className={`field-input tabular-nums ${unit ? 'pr-12' : ''}`}
           disabled={disabled}
           placeholder={placeholder}
-          {...describedBy(id, error, Boolean(hint))}
+          {...describedBy(id, shownError, Boolean(hint))}
           {...registration}
+          onChange={(e) => {
+            setText(e.target.value);
+            return registration.onChange(e);
+          }}
         />
         {unit ? <span aria-hidden="true" className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm font-semibold text-slate-text">{unit}</span> : null}
       </div>
+      {reading.reads && !shownError ? <p id={`${id}-reads`} className="field-hint mt-1" aria-live="polite">{reading.reads}</p> : null}
     </Field>
   );
 }

@@ -8,14 +8,99 @@ export function fieldId(path: string): string {
   return path.replace(/\./g, '-');
 }
 
+/** What a typed number reads as: nothing, a number, two possible numbers, or not a number. */
+export type TypedNumber =
+  | { kind: 'empty' }
+  | { kind: 'number'; value: number }
+  | { kind: 'ambiguous'; readings: [number, number] }
+  | { kind: 'invalid' };
+
+/** The browser's locale (its first preferred language); en-US where there is no browser. */
+export function userLocale(): string {
+  if (typeof navigator !== 'undefined') return navigator.languages?.[0] ?? navigator.language ?? 'en-US';
+  return 'en-US';
+}
+
+/** The locale's thousands and decimal separators, from Intl's own formatting of 1234567.5. */
+export function separatorsOf(locale: string): { group: string; decimal: string } {
+  let group = ',';
+  let decimal = '.';
+  try {
+    for (const part of new Intl.NumberFormat(locale).formatToParts(1234567.5)) {
+      if (part.type === 'group') group = part.value;
+      if (part.type === 'decimal') decimal = part.value;
+    }
+  } catch {
+    // an unknown locale tag: keep the defaults
+  }
+  // Spaces of every width (fr-FR uses a narrow no-break space) and apostrophes (de-CH) are read alike.
+  if (/^[\s\u00a0\u202f]$/.test(group)) group = ' ';
+  if (/^['\u2019]$/.test(group)) group = "'";
+  return { group, decimal: decimal === ',' ? ',' : '.' };
+}
+
+const GROUPED = /^\d{1,3}(\d{3})*$/; // runs joined below: first run 1–3 digits, every later run exactly 3
+
+function groupedValue(runs: string[]): number | undefined {
+  if (runs.length === 0 || !/^\d{1,3}$/.test(runs[0] ?? '') || runs.slice(1).some((r) => !/^\d{3}$/.test(r))) return undefined;
+  const joined = runs.join('');
+  return GROUPED.test(joined) ? Number(joined) : undefined;
+}
+
+/**
+ * Reads a typed number by the user's locale: "1,200" is 1200 in en-US and 1.2 in de-DE; "1 200" is 1200
+ * anywhere. A lone separator that is neither the locale's thousands nor its decimal sign and is followed by
+ * exactly three digits ("1.200" in fr-FR) could be either, so it is refused as ambiguous with both readings.
+ */
+export function parseTypedNumber(v: unknown, locale: string = userLocale()): TypedNumber {
+  if (typeof v === 'number') return Number.isFinite(v) ? { kind: 'number', value: v } : { kind: 'invalid' };
+  if (v === null || v === undefined) return { kind: 'empty' };
+  let s = String(v).trim().replace(/[\u2212\u2012\u2013]/g, '-');
+  if (s === '') return { kind: 'empty' };
+  let sign = 1;
+  if (s.startsWith('-') || s.startsWith('+')) {
+    sign = s.startsWith('-') ? -1 : 1;
+    s = s.slice(1).trim();
+  }
+  s = s.replace(/[\s\u00a0\u202f]+/g, ' ').replace(/\u2019/g, "'");
+  if (!/^[\d.,' ]+$/.test(s) || !/\d/.test(s)) return { kind: 'invalid' };
+  const { group, decimal } = separatorsOf(locale);
+  const seps = [...new Set(s.replace(/\d/g, ''))];
+  const signed = (n: number | undefined): TypedNumber => (n === undefined || !Number.isFinite(n) ? { kind: 'invalid' } : { kind: 'number', value: sign * n });
+  const withDecimal = (intRuns: string[], frac: string): number | undefined => {
+    if (!/^\d+$/.test(frac)) return undefined;
+    const whole = intRuns.length === 1 && intRuns[0] === '' ? 0 : groupedValue(intRuns);
+    return whole === undefined ? undefined : Number(`${whole}.${frac}`);
+  };
+  if (seps.length === 0) return signed(Number(s));
+  if (seps.length > 2) return { kind: 'invalid' };
+  const alwaysGroup = (c: string) => c === ' ' || c === "'";
+  if (seps.length === 2) {
+    // Both kinds: the last one is the decimal sign (once, and not a space), the other groups thousands.
+    const last = s.replace(/\d/g, '').slice(-1);
+    const other = seps.find((c) => c !== last) ?? '';
+    if (alwaysGroup(last) || s.split(last).length !== 2) return { kind: 'invalid' };
+    const [intPart = '', frac = ''] = s.split(last);
+    return signed(withDecimal(intPart.split(other), frac));
+  }
+  const c = seps[0] ?? '';
+  const runs = s.split(c);
+  if (alwaysGroup(c)) return signed(groupedValue(runs));
+  const once = runs.length === 2;
+  const asDecimal = once ? withDecimal([runs[0] ?? ''], runs[1] ?? '') : undefined;
+  const asGroup = groupedValue(runs);
+  if (c === decimal) return signed(once ? asDecimal : asGroup); // "1.200.000" can only be grouping
+  if (c === group) return signed(asGroup ?? asDecimal); // "1,5" in en-US cannot be grouping: a decimal from elsewhere
+  // Neither of the locale's signs (a dot or comma where the locale groups with spaces).
+  if (asGroup !== undefined && asDecimal !== undefined) return { kind: 'ambiguous', readings: [sign * asGroup, sign * asDecimal] };
+  return signed(asGroup ?? asDecimal);
+}
+
 function parseNumber(v: unknown): number | undefined {
-  if (typeof v === 'number') return v;
-  if (v === null || v === undefined) return undefined;
-  const s = String(v).trim().replace(/\u2212/g, '-');
-  if (s === '') return undefined;
-  // A comma decimal ("1,5") is read as a decimal point; anything else non-numeric stays NaN so zod names it.
-  const n = Number(/^-?\d+,\d+$/.test(s) ? s.replace(',', '.') : s);
-  return n;
+  const typed = parseTypedNumber(v);
+  if (typed.kind === 'empty') return undefined;
+  // Ambiguous or unreadable text stays NaN so zod refuses it; NumberField says why next to the box.
+  return typed.kind === 'number' ? typed.value : NaN;
 }
 
 /** For a required number: empty → undefined (zod says "must be a number"), text → NaN (same), else the number. */
