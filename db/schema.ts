@@ -165,6 +165,15 @@ export interface RigGrantTable {
   created_at: string;
 }
 
+/** A rig share not yet opened (any address); an installer's grant with the same id waits on it. */
+export interface RigShareInviteTable {
+  id: string;
+  rig_id: string;
+  email: string;
+  invited_by: string | null;
+  created_at: string;
+}
+
 /** The crew a user last switched to. */
 export interface ActiveCrewTable {
   user_id: string;
@@ -347,6 +356,7 @@ export interface DB {
   forecasts: ForecastTable;
   invitations: InvitationTable;
   rig_grants: RigGrantTable;
+  rig_share_invites: RigShareInviteTable;
   active_crews: ActiveCrewTable;
   outbox: OutboxTable;
   caught_mail: CaughtMailTable;

@@ -99,7 +99,7 @@ export async function heavyRun(p: {
     );
     await must(
       await fetch(`${url}/api/rigs/${p.rigId}/grants`, { method: 'POST', headers: owner, body: JSON.stringify({ email }) }),
-      201,
+      202,
       'grant',
     );
   }

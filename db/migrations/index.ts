@@ -6,6 +6,7 @@ import * as crewsMail from './2026_12_01_0004_crews_mail';
 import * as proposals from './2026_12_01_0005_proposals';
 import * as logsCheckIns from './2026_12_01_0006_logs_checkins';
 import * as weatherCache from './2026_12_04_0007_weather_cache';
+import * as rigShareInvites from './2026_12_04_0008_rig_share_invites';
 import * as revision2Inputs from './2026_12_04_0009_revision2_inputs';
 
 /**
@@ -20,5 +21,6 @@ export const migrations: Record<string, Migration> = {
   '2026_12_01_0005_proposals': proposals,
   '2026_12_01_0006_logs_checkins': logsCheckIns,
   '2026_12_04_0007_weather_cache': weatherCache,
+  '2026_12_04_0008_rig_share_invites': rigShareInvites,
   '2026_12_04_0009_revision2_inputs': revision2Inputs,
 };

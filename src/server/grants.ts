@@ -1,6 +1,6 @@
 import type { Kysely } from 'kysely';
 import type { DB } from '../../db/schema';
-import type { GrantDto, InstallerRigDto } from '../domain/crews/crews.schema';
+import type { GrantDto, InstallerRigDto, ShareInviteDto } from '../domain/crews/crews.schema';
 import { HttpError } from './errors';
 import { grantMail } from './mail';
 import { enqueueMail, kickOutbox } from './outbox';
@@ -32,49 +32,92 @@ function toDto(r: GrantSelect): GrantDto {
   return { id: r.id, rigId: r.rigId, installer: { id: r.installerId, name: r.installerName, email: r.installerEmail }, grantedBy: r.grantedBy, createdAt: r.createdAt };
 }
 
-/** The installers a rig is shared with, oldest first. */
+/** The installers a rig is shared with who have opened the share, oldest first. */
 export async function listGrants(db: Kysely<DB>, rigId: string): Promise<GrantDto[]> {
-  const rows = await selectGrants(db).where('rig_grants.rig_id', '=', rigId).orderBy('rig_grants.created_at').orderBy('rig_grants.id').execute();
+  const rows = await selectGrants(db)
+    .where('rig_grants.rig_id', '=', rigId)
+    .where(({ not, exists, selectFrom }) => not(exists(selectFrom('rig_share_invites').select('rig_share_invites.id').whereRef('rig_share_invites.id', '=', 'rig_grants.id'))))
+    .orderBy('rig_grants.created_at')
+    .orderBy('rig_grants.id')
+    .execute();
   return rows.map(toDto);
 }
 
+function selectShareInvites(db: Kysely<DB>) {
+  return db
+    .selectFrom('rig_share_invites')
+    .leftJoin('user as inviter', 'inviter.id', 'rig_share_invites.invited_by')
+    .select(['rig_share_invites.id as id', 'rig_share_invites.rig_id as rigId', 'rig_share_invites.email as email', 'inviter.name as invitedBy', 'rig_share_invites.created_at as createdAt']);
+}
+
+/** The addresses a rig was shared with that have not opened the share yet, oldest first. */
+export async function listShareInvites(db: Kysely<DB>, rigId: string): Promise<ShareInviteDto[]> {
+  return selectShareInvites(db).where('rig_share_invites.rig_id', '=', rigId).orderBy('rig_share_invites.created_at').orderBy('rig_share_invites.id').execute();
+}
+
+/** What every share answers, whoever the address belongs to. */
+export const SHARE_SENT_MESSAGE = 'If this address belongs to an installer account, they get an e-mail now, and the share shows as theirs once they open their rigs on Sunreckon. Until then it is listed as invited.';
+
 /**
- * Shares a rig with the installer account that has this e-mail, and queues the notice to them in
- * the same transaction. The address must belong to an installer account.
+ * Shares a rig with an e-mail address. The answer is the same whether the address belongs to an
+ * installer account, a camper account or no account: an "invited" row with the address as typed.
+ * Only for an installer account is a grant written (with the invite's id, so withdrawing one
+ * withdraws both) and the notice queued, in the same transaction. The invite row goes when the
+ * installer opens their list of shared rigs; until then the crew sees every share alike.
  */
-export async function createGrant(db: Kysely<DB>, p: { rigId: string; ownerId: string; email: string; origin: string }): Promise<GrantDto> {
-  const email = p.email.trim().toLowerCase();
-  const id = crypto.randomUUID();
-  await db.transaction().execute(async (trx) => {
+export async function createGrant(db: Kysely<DB>, p: { rigId: string; ownerId: string; email: string; origin: string }): Promise<ShareInviteDto> {
+  const typed = p.email.trim();
+  const email = typed.toLowerCase();
+  const id = await db.transaction().execute(async (trx) => {
     const installer = await trx.selectFrom('user').select(['id', 'name', 'kind']).where((eb) => eb(eb.fn('lower', ['email']), '=', email)).executeTakeFirst();
-    // A camper account and no account answer alike, so the form cannot tell who has an account here.
-    if (!installer || installer.kind !== 'installer') {
-      throw new HttpError('invalid_request', `There is no installer account with the e-mail ${email}. Ask your installer to create an installer account with it, then share the rig again. To share with a household member, invite them to the crew instead.`, [
-        { path: 'email', message: 'no installer account with this e-mail' },
-      ]);
+    const isInstaller = installer?.kind === 'installer';
+    const pending = await trx.selectFrom('rig_share_invites').select('id').where('rig_id', '=', p.rigId).where((eb) => eb(eb.fn('lower', ['email']), '=', email)).executeTakeFirst();
+    let shareId = pending?.id;
+    if (!shareId) {
+      if (isInstaller) {
+        // An opened share is already on the crew's list with this address, so saying so tells nothing new.
+        const existing = await trx.selectFrom('rig_grants').select('id').where('rig_id', '=', p.rigId).where('installer_id', '=', installer.id).executeTakeFirst();
+        if (existing) {
+          const current = toDto(await selectGrants(trx).where('rig_grants.id', '=', existing.id).executeTakeFirstOrThrow());
+          throw new HttpError('conflict', `This rig is already shared with ${typed}.`, [{ path: 'email', message: 'already has access to this rig' }], { current });
+        }
+      }
+      shareId = crypto.randomUUID();
+      const createdAt = nowIso();
+      await trx.insertInto('rig_share_invites').values({ id: shareId, rig_id: p.rigId, email: typed, invited_by: p.ownerId, created_at: createdAt }).execute();
+      if (isInstaller) await trx.insertInto('rig_grants').values({ id: shareId, rig_id: p.rigId, installer_id: installer.id, granted_by: p.ownerId, created_at: createdAt }).execute();
     }
-    const existing = await trx.selectFrom('rig_grants').select('id').where('rig_id', '=', p.rigId).where('installer_id', '=', installer.id).executeTakeFirst();
-    if (existing) {
-      const current = toDto(await selectGrants(trx).where('rig_grants.id', '=', existing.id).executeTakeFirstOrThrow());
-      throw new HttpError('conflict', `This rig is already shared with ${email}.`, [{ path: 'email', message: 'already has access to this rig' }], { current });
+    if (isInstaller) {
+      const rig = await trx.selectFrom('rigs').innerJoin('crews', 'crews.id', 'rigs.crew_id').select(['rigs.name as rigName', 'crews.name as crewName']).where('rigs.id', '=', p.rigId).executeTakeFirstOrThrow();
+      const owner = await trx.selectFrom('user').select('name').where('id', '=', p.ownerId).executeTakeFirstOrThrow();
+      await enqueueMail(trx, 'grant', email, grantMail({ installerName: installer.name, crewName: rig.crewName, rigName: rig.rigName, ownerName: owner.name, url: `${p.origin}/installer` }));
     }
-    await trx.insertInto('rig_grants').values({ id, rig_id: p.rigId, installer_id: installer.id, granted_by: p.ownerId, created_at: nowIso() }).execute();
-    const rig = await trx.selectFrom('rigs').innerJoin('crews', 'crews.id', 'rigs.crew_id').select(['rigs.name as rigName', 'crews.name as crewName']).where('rigs.id', '=', p.rigId).executeTakeFirstOrThrow();
-    const owner = await trx.selectFrom('user').select('name').where('id', '=', p.ownerId).executeTakeFirstOrThrow();
-    await enqueueMail(
-      trx,
-      'grant',
-      email,
-      grantMail({ installerName: installer.name, crewName: rig.crewName, rigName: rig.rigName, ownerName: owner.name, url: `${p.origin}/installer` }),
-    );
+    return shareId;
   });
   kickOutbox();
-  return toDto(await selectGrants(db).where('rig_grants.id', '=', id).executeTakeFirstOrThrow());
+  return selectShareInvites(db).where('rig_share_invites.id', '=', id).executeTakeFirstOrThrow();
+}
+
+/** The rig of a not yet opened share, or null when there is none with this id. */
+export async function shareInviteRig(db: Kysely<DB>, id: string): Promise<string | null> {
+  const row = await db.selectFrom('rig_share_invites').select('rig_id').where('id', '=', id).executeTakeFirst();
+  return row?.rig_id ?? null;
+}
+
+/** An installer opened their shared rigs: every share waiting on them counts as open. */
+export async function openShares(db: Kysely<DB>, installerId: string): Promise<void> {
+  await db
+    .deleteFrom('rig_share_invites')
+    .where('id', 'in', (eb) => eb.selectFrom('rig_grants').select('rig_grants.id').where('rig_grants.installer_id', '=', installerId))
+    .execute();
 }
 
 /** Takes an installer's access away. */
 export async function revokeGrant(db: Kysely<DB>, id: string): Promise<void> {
-  await db.deleteFrom('rig_grants').where('id', '=', id).execute();
+  await db.transaction().execute(async (trx) => {
+    await trx.deleteFrom('rig_share_invites').where('id', '=', id).execute();
+    await trx.deleteFrom('rig_grants').where('id', '=', id).execute();
+  });
 }
 
 /** The rigs shared with an installer, newest grant first, with enough to pick one. */

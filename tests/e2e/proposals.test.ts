@@ -51,7 +51,7 @@ describe('installer proposals in Chromium', () => {
     const f = await api(`/api/trips/${tripId}/forecasts`, { method: 'POST', session: owner, json: { name: 'Before the upgrade' } });
     forecastId = ((await f.json()) as { id: string }).id;
     installer = await signUp({ kind: 'installer', name: 'Wren Solar', password: PASSWORD });
-    expect((await api(`/api/rigs/${rig.id}/grants`, { method: 'POST', session: owner, json: { email: installer.email } })).status).toBe(201);
+    expect((await api(`/api/rigs/${rig.id}/grants`, { method: 'POST', session: owner, json: { email: installer.email } })).status).toBe(202);
   });
   afterAll(async () => {
     for (const b of browsers) await b.close();

@@ -174,7 +174,7 @@ export const ROUTES: RouteCase[] = [
   { method: 'GET', route: '/api/rigs/[id]/activity', url: (w) => `/api/rigs/${w.rig.id}/activity`, expect: RIG_CREW_READ },
   { method: 'GET', route: '/api/rigs/[id]/grants', url: (w) => `/api/rigs/${w.rig.id}/grants`, expect: RIG_CREW_READ },
   // Granting the installer without a grant: each actor on a rig of its own, so the grant cannot leak into other rows.
-  { method: 'POST', route: '/api/rigs/[id]/grants', url: (w) => `/api/rigs/${w.rig.id}/grants`, body: (w) => ({ email: w.cast.stranger.email }), expect: RIG_MANAGE(201), fresh: true },
+  { method: 'POST', route: '/api/rigs/[id]/grants', url: (w) => `/api/rigs/${w.rig.id}/grants`, body: (w) => ({ email: w.cast.stranger.email }), expect: RIG_MANAGE(202), fresh: true },
   { method: 'DELETE', route: '/api/grants/[id]', url: (w) => `/api/grants/${w.grant.id}`, expect: RIG_MANAGE(204), fresh: true },
 
   // Trips and saved forecasts

@@ -32,7 +32,7 @@ export async function makeWorld(cast: Cast, needs: 'member'[] = []): Promise<Wor
   const token = await inviteToken(owner, crewId, email, 'viewer');
   const crew = await ok<{ invitations: { id: string; email: string; version: number }[] }>(await api(`/api/crews/${crewId}`, { session: owner }), 200, 'crew');
   const inv = crew.invitations.find((i) => i.email === email)!;
-  const grant = await ok<{ id: string }>(await api(`/api/rigs/${rig.id}/grants`, { method: 'POST', session: owner, json: { email: cast.installer.email } }), 201, 'grant');
+  const grant = (await ok<{ invited: { id: string } }>(await api(`/api/rigs/${rig.id}/grants`, { method: 'POST', session: owner, json: { email: cast.installer.email } }), 202, 'grant')).invited;
   const propose = async () =>
     ok<{ id: string; version: number }>(
       await api('/api/proposals', { method: 'POST', session: cast.installer, json: { forecastId: forecast.id, changes: { bank: { chemistry: 'lifepo4', capacityAh: 300 } }, prices: TEST_PRICES } }),

@@ -63,7 +63,7 @@ describe('installer proposals', () => {
     forecastId = (await json<{ id: string }>(await api(`/api/trips/${trip.id}/forecasts`, { method: 'POST', session: owner, json: {} }), 201)).id;
     installer = await signUp({ kind: 'installer', name: 'Wren Solar' });
     stranger = await signUp({ kind: 'installer', name: 'Other Installer' });
-    grantId = (await json<{ id: string }>(await api(`/api/rigs/${rigId}/grants`, { method: 'POST', session: owner, json: { email: installer.email } }), 201)).id;
+    grantId = (await json<{ invited: { id: string } }>(await api(`/api/rigs/${rigId}/grants`, { method: 'POST', session: owner, json: { email: installer.email } }), 202)).invited.id;
   });
 
   const SWEEP = { candidates: { banks: [300, 400, 600, 800].map((capacityAh) => ({ chemistry: 'lifepo4', capacityAh })), panels: [{ watts: 200, mounting: 'flat' }] } };

@@ -55,7 +55,7 @@ describe('the trip page as the server sends it', () => {
   it('names the trip’s rig to an installer it was granted to, who is in none of its crews, and offers no editor', async () => {
     const installer = await signUp({ kind: 'installer', name: 'Page installer' });
     const g = await api(`/api/rigs/${rigId}/grants`, { method: 'POST', session: owner, json: { email: installer.email } });
-    expect(g.status).toBe(201);
+    expect(g.status).toBe(202);
     const html = await page(installer);
     expect(html).toContain('Mesa camp');
     expect(html).toContain(RIG_INPUT.name);

@@ -83,6 +83,15 @@ export interface GrantDto {
   createdAt: string;
 }
 
+/** A rig share not yet opened: the address as the owner typed it. */
+export interface ShareInviteDto {
+  id: string;
+  rigId: string;
+  email: string;
+  invitedBy: string | null;
+  createdAt: string;
+}
+
 export interface InstallerRigDto {
   grantId: string;
   rigId: string;

@@ -7,7 +7,7 @@ import { withQueryClient } from '../../components/ui/QueryProvider';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
 import { Field, describedBy } from '../../components/ui/Field';
 import { ApiError } from '../../lib/query-client';
-import { grantCreateSchema, type GrantCreateInput, type GrantDto } from '../../domain/crews/crews.schema';
+import { grantCreateSchema, type GrantCreateInput, type GrantDto, type ShareInviteDto } from '../../domain/crews/crews.schema';
 import { grantRig, revokeGrant } from './installer.api';
 import { grantKeys, rigGrantsQuery } from './installer.queries';
 
@@ -50,6 +50,44 @@ function GrantRow({ grant, canManage, onDone }: { grant: GrantDto; canManage: bo
   );
 }
 
+function InvitedRow({ invite, canManage, onDone }: { invite: ShareInviteDto; canManage: boolean; onDone: (t: string, tone?: 'ok' | 'alert') => void }) {
+  const qc = useQueryClient();
+  const withdraw = useMutation({
+    mutationFn: () => revokeGrant(invite.id),
+    onSuccess: () => {
+      onDone(`The share with ${invite.email} was withdrawn.`);
+      void qc.invalidateQueries({ queryKey: grantKeys.all });
+    },
+    onError: (e) => {
+      onDone((e as Error).message, 'alert');
+      void qc.invalidateQueries({ queryKey: grantKeys.all });
+    },
+  });
+  return (
+    <li className="flex flex-col gap-2 py-3 sm:flex-row sm:items-center sm:justify-between" data-invited={invite.email}>
+      <div className="min-w-0">
+        <p className="font-bold [overflow-wrap:anywhere]">Invited {invite.email}</p>
+        <p className="text-sm text-slate-text">
+          Since {format(new Date(invite.createdAt), 'd MMM yyyy')}
+          {invite.invitedBy ? <> · shared by {invite.invitedBy}</> : null} · shows as theirs once an installer with this e-mail opens it
+        </p>
+      </div>
+      {canManage ? (
+        <button
+          type="button"
+          className="btn btn-quiet text-alert"
+          disabled={withdraw.isPending}
+          onClick={() => {
+            if (window.confirm(`Withdraw the share with ${invite.email}? If an installer has this e-mail, they will no longer see this rig.`)) withdraw.mutate();
+          }}
+        >
+          {withdraw.isPending ? 'Withdrawing…' : 'Withdraw'}
+        </button>
+      ) : null}
+    </li>
+  );
+}
+
 function GrantForm({ rigId, onDone }: { rigId: string; onDone: (t: string) => void }) {
   const qc = useQueryClient();
   const [formError, setFormError] = useState<string | null>(null);
@@ -57,9 +95,9 @@ function GrantForm({ rigId, onDone }: { rigId: string; onDone: (t: string) => vo
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
     try {
-      const g = await grantRig(rigId, values);
+      const answer = await grantRig(rigId, values);
       reset();
-      onDone(`${g.installer.name} can now read this rig, its loads, trips and saved forecasts. They were told by e-mail.`);
+      onDone(answer.message);
       void qc.invalidateQueries({ queryKey: grantKeys.all });
     } catch (e) {
       const issue = e instanceof ApiError ? e.issues.find((i) => i.path === 'email') : undefined;
@@ -69,7 +107,7 @@ function GrantForm({ rigId, onDone }: { rigId: string; onDone: (t: string) => vo
   });
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Share with an installer" className="grid gap-3 sm:grid-cols-[1fr_auto] sm:items-start">
-      <Field id="grant-email" label="Installer’s e-mail" error={errors.email?.message} hint="The e-mail of their Sunreckon installer account.">
+      <Field id="grant-email" label="Installer’s e-mail" error={errors.email?.message} hint="The e-mail of their Sunreckon installer account. Every address is listed as invited until an installer with it opens the share.">
         <input id="grant-email" type="email" autoComplete="off" className="field-input" {...describedBy('grant-email', errors.email?.message, true)} {...register('email')} />
       </Field>
       <div className="sm:pt-[1.6rem]"><button type="submit" className="btn btn-primary w-full sm:w-auto" disabled={isSubmitting}>{isSubmitting ? 'Sharing…' : 'Share this rig'}</button></div>
@@ -101,20 +139,33 @@ function RigInstallers({ rigId }: { rigId: string }) {
       ) : grants.isError ? (
         <ErrorState error={grants.error} title="The installers could not be loaded." onRetry={() => void grants.refetch()} />
       ) : (
-        <GrantsBody rigId={rigId} grants={grants.data.grants} canManage={grants.data.canManage} onDone={onDone} />
+        <GrantsBody rigId={rigId} grants={grants.data.grants} invited={grants.data.invited} canManage={grants.data.canManage} onDone={onDone} />
       )}
     </section>
   );
 }
 
-function GrantsBody({ rigId, grants, canManage, onDone }: { rigId: string; grants: GrantDto[]; canManage: boolean; onDone: (t: string, tone?: 'ok' | 'alert') => void }) {
+function GrantsBody({
+  rigId,
+  grants,
+  invited,
+  canManage,
+  onDone,
+}: {
+  rigId: string;
+  grants: GrantDto[];
+  invited: ShareInviteDto[];
+  canManage: boolean;
+  onDone: (t: string, tone?: 'ok' | 'alert') => void;
+}) {
   return (
     <>
-      {grants.length === 0 ? (
+      {grants.length === 0 && invited.length === 0 ? (
         <div className="mt-4"><EmptyState title="Not shared with an installer">{canManage ? <p>Add your installer’s e-mail below to let them size an upgrade from your real loads and trips.</p> : null}</EmptyState></div>
       ) : (
         <ul className="mt-3 divide-y divide-sand-dark" aria-label="Installers with access">
           {grants.map((g) => <GrantRow key={g.id} grant={g} canManage={canManage} onDone={onDone} />)}
+          {invited.map((i) => <InvitedRow key={i.id} invite={i} canManage={canManage} onDone={onDone} />)}
         </ul>
       )}
       {canManage ? (

@@ -1,12 +1,15 @@
-import { grantAccess } from '../../../server/access';
+import { grantAccess, rigAccess } from '../../../server/access';
 import { db } from '../../../server/db';
-import { revokeGrant } from '../../../server/grants';
+import { revokeGrant, shareInviteRig } from '../../../server/grants';
 import { requireUser, route } from '../../../server/http';
 
-/** Takes an installer's access to a rig away (owners of the rig's crew). */
+/** Takes an installer's access to a rig away, or withdraws a share not yet opened (owners of the rig's crew). */
 export const DELETE = route(async (ctx) => {
   const user = requireUser(ctx);
-  const grant = await grantAccess(db, user, ctx.params.id!);
-  await revokeGrant(db, grant.id);
+  const id = ctx.params.id!;
+  const inviteRig = await shareInviteRig(db, id);
+  if (inviteRig) await rigAccess(db, user, inviteRig, 'manage');
+  else await grantAccess(db, user, id);
+  await revokeGrant(db, id);
   return new Response(null, { status: 204 });
 });
