@@ -247,11 +247,13 @@ export async function patchProposal(db: Kysely<DB>, row: ProposalRow, access: Ri
 
 /** The e-mail to a crew owner: who proposes what for which rig, the total, and the link. */
 export function proposalMail(p: { ownerName: string; installerName: string; rigName: string; title: string; total: string; url: string }): MailContent {
+  // Names and titles are the users' own words: never in the subject (one could pose as a notice
+  // from us), only in the body, quoted, where renderMail escapes them.
   return renderMail({
-    subject: `${p.installerName} sent a proposal for “${p.rigName}”`,
-    greeting: `Hello ${p.ownerName},`,
+    subject: 'An installer sent your crew an upgrade proposal on Sunreckon',
+    greeting: 'Hello,',
     intro: [
-      `${p.installerName} sent you an upgrade proposal for the rig “${p.rigName}”: “${p.title}”.`,
+      `An installer who signs as “${p.installerName}” sent you an upgrade proposal for your rig “${p.rigName}”. Its title, in the installer’s words: “${p.title}”.`,
       `It shows your saved forecast before and after the change, the parts (${p.total} in all), the cable and fuse sizes, and the cautions that go with them. Figures are estimates.`,
       'Open it in Sunreckon to accept or decline it, with a comment for your installer.',
     ],
@@ -263,11 +265,11 @@ export function proposalMail(p: { ownerName: string; installerName: string; rigN
 /** The e-mail to the installer when the crew answers. */
 export function decisionMail(p: { installerName: string; ownerName: string; rigName: string; title: string; decision: 'accepted' | 'declined'; comment: string; url: string }): MailContent {
   return renderMail({
-    subject: `${p.ownerName} ${p.decision} your proposal for “${p.rigName}”`,
-    greeting: `Hello ${p.installerName},`,
+    subject: `A crew ${p.decision} your proposal on Sunreckon`,
+    greeting: 'Hello,',
     intro: [
-      `${p.ownerName} ${p.decision} your proposal “${p.title}” for the rig “${p.rigName}”.`,
-      ...(p.comment ? [`Their comment: “${p.comment}”`] : []),
+      `A crew owner who signs as “${p.ownerName}” ${p.decision} your proposal “${p.title}” for the rig “${p.rigName}”.`,
+      ...(p.comment ? [`Their comment, in their words: “${p.comment}”`] : []),
     ],
     action: { label: 'Open the proposal', url: p.url },
   });

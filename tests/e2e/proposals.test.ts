@@ -121,7 +121,8 @@ describe('installer proposals in Chromium', () => {
   it('the owner opens the e-mailed link, reads before and after, and accepts with a comment (390 px)', async () => {
     const mails = await waitForMail(owner.email);
     const mail = mails.find((m) => m.subject.includes('proposal'))!;
-    expect(mail.subject).toBe('Wren Solar sent a proposal for “Test van”');
+    expect(mail.subject).toBe('An installer sent your crew an upgrade proposal on Sunreckon');
+    expect(mail.text_body).toContain('“Wren Solar”');
     const link = linkIn(mail, `${baseUrl()}/proposals/`);
     expect(link).toBe(proposalUrl);
 

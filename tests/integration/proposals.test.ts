@@ -194,7 +194,9 @@ describe('installer proposals', () => {
     proposal = await json<Proposal>(await api(url, { method: 'POST', session: installer, json: { version: proposal.version } }), 200);
     expect(proposal).toMatchObject({ status: 'sent', canEdit: false });
     const mail = await mailAbout(owner.email, /proposal/);
-    expect(mail.subject).toBe('Wren Solar sent a proposal for “Test van”');
+    // Names are the users' words: in the body, quoted; the subject is ours.
+    expect(mail.subject).toBe('An installer sent your crew an upgrade proposal on Sunreckon');
+    expect(mail.text_body).toContain('An installer who signs as “Wren Solar” sent you an upgrade proposal for your rig “Test van”.');
     expect(linkIn(mail, `${baseUrl()}/proposals/`)).toBe(`${baseUrl()}/proposals/${proposal.id}`);
     expect(mail.html_body).toContain('#FFFDF9');
     // Sent is final: no more edits, no second send, no delete.
@@ -219,7 +221,8 @@ describe('installer proposals', () => {
     const done = await json<Proposal>(await api(url, { method: 'POST', session: owner, json: answer }), 200);
     expect(done).toMatchObject({ status: 'accepted', canDecide: false, decision: { comment: 'Yes — before the October trip.', by: 'Inés' } });
     const mail = await mailAbout(installer.email, /your proposal/);
-    expect(mail.subject).toBe('Inés accepted your proposal for “Test van”');
+    expect(mail.subject).toBe('A crew accepted your proposal on Sunreckon');
+    expect(mail.text_body).toContain('A crew owner who signs as “Inés” accepted your proposal');
     expect(mail.text_body).toContain('Yes — before the October trip.');
     // Both sides see the status.
     const crewList = await json<{ id: string; status: string }[]>(await api('/api/proposals', { session: owner }), 200);
