@@ -1,8 +1,8 @@
 import type { Kysely } from 'kysely';
 import type { DB } from '../../db/schema';
-import type { Forecast, Plan, ResolvedPlan } from '../engine';
-import { buildBand, shiftSky, type Band, type WeatherSources } from '../domain/weather/band';
-import { mergeStop, type StopLike, type WeatherEntry } from '../domain/weather/weather';
+import type { Forecast, ResolvedPlan } from '../engine';
+import { buildBand, hasFetchedDays, skyPlans, yearPlans, type Band, type WeatherSources } from '../domain/weather/band';
+import type { StopLike } from '../domain/weather/weather';
 import type { TripDto } from '../domain/trips/trips.schema';
 import { env } from './env';
 import { fillTripWeather, type TripWeather } from './weather';
@@ -31,10 +31,6 @@ export async function weatherForRun(db: Kysely<DB>, trip: TripDto): Promise<{ tr
   return { trip: filled, fill, sources };
 }
 
-function withWeather(plan: ResolvedPlan, weather: WeatherEntry[][]): Plan {
-  return { ...plan, stops: plan.stops.map((s, i) => ({ ...s, weather: weather[i] ?? s.weather })) } as unknown as Plan;
-}
-
 /**
  * "How sure is this?": a far trip re-run once per past year, a near trip with skies two oktas
  * better and worse; the runs happen in the worker pool. Null when there is nothing to vary (every
@@ -44,24 +40,8 @@ export async function bandFor(typedTrip: TripDto, fill: TripWeather, plan: Resol
   // The camper's own stops (typed days only), not the filled ones.
   const stops = typedTrip.stops as unknown as StopLike[];
   const times = result.hourly.map((r) => r.time);
-  if (fill.kind === 'far' && fill.pastYears.length >= 2) {
-    const years = [...fill.pastYears].sort((a, b) => a.year - b.year);
-    const plans = years.map((y) => withWeather(plan, stops.map((_, i) => mergeStop(stops, i, [], y.stops[i] ?? []).weather)));
-    const outcomes = await weatherBandInPool(plans);
-    return buildBand('years', years.map((y) => ({ label: String(y.year), year: y.year })), outcomes, times);
-  }
-  const fetched = plan.stops.some((s) => (s.weather as WeatherEntry[]).some((w) => w.source === 'forecast' || w.source === 'past-year'));
-  if (!fetched) return null;
-  const shifted = (steps: number) => withWeather(plan, plan.stops.map((s) => (s.weather as WeatherEntry[]).map((w) => shiftSky(w, steps))));
-  const outcomes = await weatherBandInPool([shifted(2), plan as unknown as Plan, shifted(-2)]);
-  return buildBand(
-    'skies',
-    [
-      { label: 'two steps cloudier', year: null },
-      { label: 'as forecast', year: null },
-      { label: 'two steps clearer', year: null },
-    ],
-    outcomes,
-    times,
-  );
+  const runs = fill.kind === 'far' && fill.pastYears.length >= 2 ? yearPlans(plan, stops, fill.pastYears) : hasFetchedDays(plan) ? skyPlans(plan) : [];
+  if (runs.length === 0) return null;
+  const outcomes = await weatherBandInPool(runs.map((r) => r.plan));
+  return buildBand(fill.kind === 'far' && fill.pastYears.length >= 2 ? 'years' : 'skies', runs, outcomes, times);
 }

@@ -1,10 +1,11 @@
 // "How sure is this?": a trip re-run under other weather — each of the last ten years for a far
 // trip, skies two steps better and worse for a near one — drawn as a band around the trip's own
 // state of charge, with one plain sentence computed from the runs. The runs themselves happen in
-// the worker pool (runBandPlans); everything else here is pure and cheap.
-import { CUTOFF_VOLTS, prepareTrip, simulatePrepared, validatePlan, type Forecast, type Plan } from '../../engine';
+// the worker pool (band-run.ts); everything here is pure, cheap and free of the engine (the
+// forecast page's verdict reads it).
+import type { Forecast, ResolvedPlan } from '../../engine';
 import { localParts } from '../../lib/format';
-import type { DaySource, WeatherEntry } from './weather';
+import { mergeStop, type DaySource, type PastYear, type StopLike, type WeatherEntry } from './weather';
 
 /** Where each stop-day's weather came from, as a saved forecast keeps it. */
 export interface WeatherSources {
@@ -77,6 +78,51 @@ export function shiftSky(entry: WeatherEntry, steps: number): WeatherEntry {
   return { ...entry, cloudOktas: Math.min(8, Math.max(0, entry.cloudOktas + steps)), hourly };
 }
 
+// ---------- the plans of a band ----------
+
+const clamp = (v: number, lo: number, hi: number) => Math.min(hi, Math.max(lo, v));
+
+/** A day inside the engine schema's ranges (the service may report colder or hotter hours). */
+function inRange(w: WeatherEntry): WeatherEntry {
+  return {
+    ...w,
+    cloudOktas: clamp(w.cloudOktas, 0, 8),
+    highC: clamp(w.highC, -60, 60),
+    lowC: clamp(w.lowC, -60, 60),
+    hourly: w.hourly.map((h) => ({ hour: h.hour, ghiWm2: clamp(h.ghiWm2, 0, 1500), tempC: clamp(h.tempC, -60, 60), cloudPct: clamp(h.cloudPct, 0, 100) })),
+  };
+}
+
+/** The validated plan with other weather days of the same shape: still a valid, resolved plan. */
+function withWeather(plan: ResolvedPlan, weather: WeatherEntry[][]): ResolvedPlan {
+  return { ...plan, stops: plan.stops.map((s, i) => ({ ...s, weather: (weather[i] ?? (s.weather as WeatherEntry[])).map(inRange) })) } as ResolvedPlan;
+}
+
+/**
+ * One plan per past year, oldest first: the trip's plan with each stop's untyped days from that
+ * year. `stops` are the camper's own stops (their typed days win).
+ */
+export function yearPlans(plan: ResolvedPlan, stops: StopLike[], years: PastYear[]): { label: string; year: number; plan: ResolvedPlan }[] {
+  return [...years]
+    .sort((a, b) => a.year - b.year)
+    .map((y) => ({ label: String(y.year), year: y.year, plan: withWeather(plan, stops.map((_, i) => mergeStop(stops, i, [], y.stops[i] ?? []).weather)) }));
+}
+
+/** Cloudier, as planned, clearer: the plan with every fetched day's sky moved two oktas each way. */
+export function skyPlans(plan: ResolvedPlan): { label: string; year: null; plan: ResolvedPlan }[] {
+  const shifted = (steps: number) => withWeather(plan, plan.stops.map((s) => (s.weather as WeatherEntry[]).map((w) => shiftSky(w, steps))));
+  return [
+    { label: 'two steps cloudier', year: null, plan: shifted(2) },
+    { label: 'as forecast', year: null, plan },
+    { label: 'two steps clearer', year: null, plan: shifted(-2) },
+  ];
+}
+
+/** True when some day of the plan came from the weather service (so skies can be moved). */
+export function hasFetchedDays(plan: ResolvedPlan): boolean {
+  return plan.stops.some((s) => (s.weather as WeatherEntry[]).some((w) => w.source === 'forecast' || w.source === 'past-year'));
+}
+
 // ---------- running and reading ----------
 
 /** What the worker gives back per run: end-of-hour SOC and where the run is worst. */
@@ -90,24 +136,6 @@ export interface RunOutcome {
   error?: string;
 }
 
-/**
- * Runs each plan through the engine (validated, prepared once each, simulated once): CPU-heavy,
- * for the worker pool. A plan the engine refuses comes back with its message instead of hours.
- */
-export function runBandPlans(plans: Plan[]): RunOutcome[] {
-  return plans.map((p) => {
-    const v = validatePlan(p);
-    if (!v.ok) return { socEndPct: [], minSocPct: NaN, minSocRow: 0, firstCutoffRow: null, error: v.envelope.error.message };
-    const sim = simulatePrepared(prepareTrip(v.plan));
-    return {
-      socEndPct: Array.from(sim.socEndPct, (x) => Math.round(x * 10) / 10),
-      minSocPct: sim.summary.minSocPct,
-      minSocRow: sim.summary.minSocRow,
-      firstCutoffRow: sim.summary.firstCutoffRow,
-      ...(sim.summary.firstCutoffRow === null ? {} : { cutoffBy: sim.cutoffEvent[sim.summary.firstCutoffRow] === CUTOFF_VOLTS ? ('volts' as const) : ('floor' as const) }),
-    };
-  });
-}
 
 /**
  * "night 2 at 03:00" or "day 3 at 15:00" for a row, counted from the trip's first local date

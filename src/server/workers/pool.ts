@@ -6,7 +6,7 @@ import { Piscina } from 'piscina';
 import { HttpError } from '../errors';
 import type { MonitorLogOutcome, MonitorLogTask } from './monitor-task';
 import type { LogDetailTask, LogSeries, SweepTask, sweep } from './tasks';
-import type { Plan } from '../../engine';
+import type { ResolvedPlan } from '../../engine';
 import type { RunOutcome } from '../../domain/weather/band';
 
 // The worker pool for CPU-heavy work (upgrade sweeps, reading monitor logs): the request thread only
@@ -94,6 +94,6 @@ export function logSeriesInPool(task: LogDetailTask): Promise<LogSeries> {
 }
 
 /** A trip re-run under each weather of its band, off the request thread. */
-export function weatherBandInPool(plans: Plan[]): Promise<RunOutcome[]> {
+export function weatherBandInPool(plans: ResolvedPlan[]): Promise<RunOutcome[]> {
   return run('weatherBand', plans);
 }

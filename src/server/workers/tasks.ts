@@ -9,8 +9,8 @@ import { dailyAh, nightBaseline, nightTemperature, type BaselineResult, type Day
 import type { Sample } from '../../domain/monitor/parse';
 import { downsample, type SeriesPoint } from '../../domain/monitor/series';
 import { readMonitorLog, type MonitorLogTask, type MonitorLogOutcome } from './monitor-task';
-import { runBandPlans, type RunOutcome } from '../../domain/weather/band';
-import type { Plan } from '../../engine';
+import { runBandPlans } from '../../domain/weather/band-run';
+import type { RunOutcome } from '../../domain/weather/band';
 
 export interface SweepTask {
   forecastId: string;
@@ -32,7 +32,7 @@ export function sweep(task: SweepTask): string {
 }
 
 /** A trip re-run under each weather of its band ("how sure is this?"): one engine run per plan. */
-export function weatherBand(plans: Plan[]): RunOutcome[] {
+export function weatherBand(plans: ResolvedPlan[]): RunOutcome[] {
   return runBandPlans(plans);
 }
 

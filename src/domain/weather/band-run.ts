@@ -1,0 +1,26 @@
+// The band's engine runs, for the worker pool (kept apart from band.ts so pages that only read a
+// band do not load the engine).
+import { CUTOFF_VOLTS, prepareTrip, simulatePrepared, type ResolvedPlan } from '../../engine';
+import type { RunOutcome } from './band';
+
+/**
+ * Runs each plan through the engine (prepared once each, simulated once): CPU-heavy, for the
+ * worker pool. The plans are the trip's validated plan with other weather days of the same shape
+ * (band.ts keeps every hour inside the schema's ranges), so they are not validated again.
+ */
+export function runBandPlans(plans: ResolvedPlan[]): RunOutcome[] {
+  return plans.map((p) => {
+    try {
+      const sim = simulatePrepared(prepareTrip(p));
+      return {
+        socEndPct: Array.from(sim.socEndPct, (x) => Math.round(x * 10) / 10),
+        minSocPct: sim.summary.minSocPct,
+        minSocRow: sim.summary.minSocRow,
+        firstCutoffRow: sim.summary.firstCutoffRow,
+        ...(sim.summary.firstCutoffRow === null ? {} : { cutoffBy: sim.cutoffEvent[sim.summary.firstCutoffRow] === CUTOFF_VOLTS ? ('volts' as const) : ('floor' as const) }),
+      };
+    } catch (err) {
+      return { socEndPct: [], minSocPct: NaN, minSocRow: 0, firstCutoffRow: null, error: String(err) };
+    }
+  });
+}
