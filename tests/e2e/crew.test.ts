@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { api, baseUrl, signUp, uniqueEmail, type Session } from '../helpers/api';
-import { hydrated, launch, shot, type ViewportName } from '../helpers/browser';
+import { hydrated, launch, shot, signOut, type ViewportName } from '../helpers/browser';
 import { activeCrew, makeRig, member } from '../helpers/crew';
 
 const PASSWORD = 'dusk-and-ember-27';
@@ -151,7 +151,7 @@ describe('installer and crew pages at both widths (Chromium)', () => {
       expect(await page.locator('section[aria-labelledby="installers-h"] [role="status"]').textContent()).toBe(asCamper);
       expect(await page.locator('#grant-email-error').count()).toBe(0);
       await shot(page, `rig-installers-${viewport}`);
-      await page.getByRole('button', { name: 'Sign out' }).click();
+      await signOut(page);
       await page.waitForURL(baseUrl() + '/');
 
       await signIn(page, installer.email, '/installer');
@@ -165,7 +165,7 @@ describe('installer and crew pages at both widths (Chromium)', () => {
       expect(await page.getByRole('link', { name: 'Installers', exact: true }).count()).toBe(0);
       expect(await page.getByRole('link', { name: 'Activity', exact: true }).count()).toBe(0);
       await shot(page, `rig-installer-${viewport}`);
-      await page.getByRole('button', { name: 'Sign out' }).click();
+      await signOut(page);
       await page.waitForURL(baseUrl() + '/');
 
       // The owner revokes; the installer's list is empty again.

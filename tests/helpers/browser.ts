@@ -18,6 +18,8 @@ export type ViewportName = keyof typeof VIEWPORTS;
 export interface LaunchOptions {
   /** The browser's clock zone (IANA), e.g. a phone at camp; the machine's zone when absent. */
   timezoneId?: string;
+  /** The browser's language and number format, e.g. 'de-DE'; Chromium's default when absent. */
+  locale?: string;
 }
 
 /** Launches Debian's Chromium with a fresh profile (so a fresh service worker); fails loudly (never skips) when it is missing. */
@@ -34,6 +36,7 @@ export async function launch(viewport: ViewportName = 'desktop', options: Launch
     headless: true,
     viewport: VIEWPORTS[viewport],
     ...(options.timezoneId ? { timezoneId: options.timezoneId } : {}),
+    ...(options.locale ? { locale: options.locale } : {}),
     args: CHROMIUM_FLAGS,
   });
   const page = context.pages()[0] ?? (await context.newPage());
@@ -69,4 +72,10 @@ export async function shot(page: Page, name: string): Promise<string> {
   const file = path.join(SCREENSHOTS, `${name}.png`);
   await page.screenshot({ path: file, fullPage: true });
   return file;
+}
+
+/** Signs out the way a camper does: opens the account menu in the header and presses Sign out. */
+export async function signOut(page: Page): Promise<void> {
+  await page.locator('#account-menu > summary').click();
+  await page.getByRole('button', { name: 'Sign out' }).click();
 }
