@@ -1,12 +1,12 @@
 import type { Kysely } from 'kysely';
 import type { DB } from '../db/schema';
-import { demoPlan } from '../src/engine';
+import { demoPlan, ENGINE_REVISION } from '../src/engine';
 import { rigInputSchema } from '../src/domain/rigs/rigs.schema';
 import { loadInputSchema } from '../src/domain/loads/loads.schema';
 import { tripInputSchema } from '../src/domain/trips/trips.schema';
-import { createRig } from '../src/server/rigs';
+import { createRig, toRigDto } from '../src/server/rigs';
 import { createLoad, listLoads } from '../src/server/loads';
-import { createTrip } from '../src/server/trips';
+import { createTrip, toTripDto } from '../src/server/trips';
 import { createForecast } from '../src/server/forecasts';
 
 // The Reyes-Okafor crew's two invented rigs (product.md, "Demo scenario") and the same five-night
@@ -31,10 +31,27 @@ const trailerLoads = [
   { name: 'Parasitic draw', watts: 14, standby: true, note: 'LP/CO detector, radio memory, control panel (~1.1 A).' },
 ];
 
-/** Seeds the demo rigs, loads, trips and one saved forecast each, unless the crew has rigs already. */
+const DEMO_TRIPS = ['High desert loop, late October', 'High desert loop with the trailer'];
+
+/**
+ * A demo database seeded before the engine's current revision keeps its old snapshots (they are
+ * never recomputed) and gets one new saved forecast per demo trip from today's engine, so the
+ * demo opens on current numbers.
+ */
+async function reforecastDemoTrips(db: Kysely<DB>, ids: { crewId: string; ownerId: string }): Promise<void> {
+  const trips = await db.selectFrom('trips').selectAll().where('crew_id', '=', ids.crewId).where('name', 'in', DEMO_TRIPS).execute();
+  for (const trip of trips) {
+    const current = await db.selectFrom('forecasts').select('id').where('trip_id', '=', trip.id).where('engine_revision', '>=', ENGINE_REVISION).executeTakeFirst();
+    if (current) continue;
+    const rig = await db.selectFrom('rigs').selectAll().where('id', '=', trip.rig_id).executeTakeFirstOrThrow();
+    await createForecast(db, { rig: toRigDto(rig, true), loads: await listLoads(db, rig.id), trip: toTripDto(trip, true), userId: ids.ownerId, name: `First look (engine revision ${ENGINE_REVISION})` });
+  }
+}
+
+/** Seeds the demo rigs, loads, trips and one saved forecast each; a crew that has rigs already only gets forecasts from the current engine revision. */
 export async function seedDemoRigs(db: Kysely<DB>, ids: { crewId: string; ownerId: string; memberId: string }): Promise<void> {
   const existing = await db.selectFrom('rigs').select('id').where('crew_id', '=', ids.crewId).executeTakeFirst();
-  if (existing) return;
+  if (existing) return reforecastDemoTrips(db, ids);
   const plan = demoPlan();
 
   const van = await createRig(db, ids.ownerId, ids.crewId, rigInputSchema.parse({ name: 'Camper van (6.1 m)', bank: plan.bank, arrays: plan.arrays, chargers: plan.chargers, inverter: plan.inverter }));
@@ -46,8 +63,8 @@ export async function seedDemoRigs(db: Kysely<DB>, ids: { crewId: string; ownerI
   for (const load of trailerLoads) await createLoad(db, trailerRig.id, ids.ownerId, loadInputSchema.parse(load));
 
   for (const [rig, name] of [
-    [van, 'High desert loop, late October'],
-    [trailerRig, 'High desert loop with the trailer'],
+    [van, DEMO_TRIPS[0]!],
+    [trailerRig, DEMO_TRIPS[1]!],
   ] as const) {
     const trip = await createTrip(db, ids.ownerId, { id: rig.id, crew_id: ids.crewId }, tripInputSchema.parse({ rigId: rig.id, name, stops: plan.stops, drives: plan.drives, reserveSocPct: rig === van ? 20 : 50 }));
     await createForecast(db, { rig, loads: await listLoads(db, rig.id), trip, userId: ids.ownerId, name: 'First look' });

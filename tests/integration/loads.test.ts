@@ -291,6 +291,49 @@ describe('POST /api/rigs/:id/loads/import', () => {
   });
 });
 
+describe('revision 2 load fields: location and surge watts', () => {
+  it('saves a load’s place and surge, reads them back, changes them, and defaults an old-style load to the cabin with no surge', async () => {
+    const rig = await createRig(owner);
+    const res = await api(`/api/rigs/${rig.id}/loads`, { method: 'POST', session: owner, json: { ...fridge, location: 'outside', surgeWatts: 150 } });
+    expect(res.status).toBe(201);
+    const load = await res.json();
+    expect(load).toMatchObject({ location: 'outside', surgeWatts: 150 });
+    expect(dbGet<{ location: string; surge_watts: number | null }>('select location, surge_watts from loads where id = ?', load.id)).toEqual({ location: 'outside', surge_watts: 150 });
+
+    const patched = await api(`/api/loads/${load.id}`, { method: 'PATCH', session: owner, json: { version: load.version, location: 'cabin', surgeWatts: null } });
+    expect(patched.status).toBe(200);
+    expect(await patched.json()).toMatchObject({ location: 'cabin', surgeWatts: null, watts: 45 });
+    // The activity trail names the changed fields.
+    const changed = activity(rig.id).find((a) => a.action === 'changed');
+    expect(JSON.parse(changed!.changes)).toMatchObject({ location: ['outside', 'cabin'], surgeWatts: [150, null] });
+
+    const plain = await createLoad(owner, rig.id, { name: 'Lamp', watts: 5 });
+    expect(plain).toMatchObject({ location: 'cabin', surgeWatts: null });
+  });
+
+  it('refuses a place that is not cabin or outside and a negative surge, naming the field', async () => {
+    const rig = await createRig(owner);
+    const res = await api(`/api/rigs/${rig.id}/loads`, { method: 'POST', session: owner, json: { ...fridge, location: 'roof', surgeWatts: -5 } });
+    expect(res.status).toBe(400);
+    const body = await res.json();
+    expect(body.issues.map((i: { path: string }) => i.path).sort()).toEqual(['location', 'surgeWatts']);
+  });
+
+  it('imports a CSV with the place and surge columns, and one without them (cabin, no surge)', async () => {
+    const rig = await createRig(owner);
+    const res = await csvImport(rig.id, 'name,watts,response,location,surge watts\nLocker fridge,50,cooling,outside,180\nMicrowave,1200,none,,1500\n', owner);
+    expect(res.status).toBe(201);
+    const old = await csvImport(rig.id, 'name,watts,quantity,supply,windows,dutyPct,days,response,setpointC,standby,note\nCPAP,25,1,dc,22-6,100,all,none,18,no,\n', owner);
+    expect(old.status).toBe(201);
+    const loads = await (await api(`/api/rigs/${rig.id}/loads`, { session: owner })).json();
+    expect(loads.map((l: { name: string; location: string; surgeWatts: number | null }) => [l.name, l.location, l.surgeWatts])).toEqual([
+      ['Locker fridge', 'outside', 180],
+      ['Microwave', 'cabin', 1500],
+      ['CPAP', 'cabin', null],
+    ]);
+  });
+});
+
 describe('GET /api/rigs/:id/loads.csv', () => {
   it('downloads the loads as CSV with the import columns', async () => {
     const rig = await createRig(owner, { name: 'Señora Van' });
@@ -301,8 +344,8 @@ describe('GET /api/rigs/:id/loads.csv', () => {
     expect(res.headers.get('content-disposition')).toBe('attachment; filename="senora-van-loads.csv"');
     const text = await res.text();
     const lines = text.replace(/^\uFEFF/, '').split('\r\n');
-    expect(lines[0]).toBe('name,watts,quantity,supply,windows,dutyPct,days,response,setpointC,standby,note');
-    expect(lines[1]).toBe('Compressor fridge,45,1,dc,0-24,40,all,cooling,18,no,"hums, a bit"');
+    expect(lines[0]).toBe('name,watts,quantity,supply,windows,dutyPct,days,response,setpointC,standby,note,location,surgeWatts');
+    expect(lines[1]).toBe('Compressor fridge,45,1,dc,0-24,40,all,cooling,18,no,"hums, a bit",cabin,');
   });
 
   it('escapes formula-like cells with an apostrophe, and leaves negative numbers alone', async () => {
@@ -311,8 +354,8 @@ describe('GET /api/rigs/:id/loads.csv', () => {
     await createLoad(owner, rig.id, { name: '+1 lamp', watts: 5, response: 'heating', setpointC: -5, note: '-oops' });
     const text = (await (await api(`/api/rigs/${rig.id}/loads.csv`, { session: owner })).text()).replace(/^\uFEFF/, '');
     const [, first, second] = text.split('\r\n');
-    expect(first).toBe(`"'=HYPERLINK(""http://x.test"",""fridge"")",45,1,dc,0-24,100,all,none,18,no,'@SUM(A1)`);
-    expect(second).toBe(`'+1 lamp,5,1,dc,0-24,100,all,heating,-5,no,'-oops`);
+    expect(first).toBe(`"'=HYPERLINK(""http://x.test"",""fridge"")",45,1,dc,0-24,100,all,none,18,no,'@SUM(A1),cabin,`);
+    expect(second).toBe(`'+1 lamp,5,1,dc,0-24,100,all,heating,-5,no,'-oops,cabin,`);
   });
 
   it('round-trips: export, then import into another rig, gives the same loads', async () => {
@@ -320,6 +363,7 @@ describe('GET /api/rigs/:id/loads.csv', () => {
     await createLoad(owner, from.id, { ...fridge, note: 'line one\nline two', windows: [[22, 6]] });
     await createLoad(owner, from.id, { name: '=cmd|calc', watts: 0.35, quantity: 3, supply: 'ac', windows: [], dutyPct: 12.5, days: 'drive', response: 'heating', setpointC: -2.5, standby: true, note: "'quoted, \"really\"" });
     await createLoad(owner, from.id, { name: 'Søren’s CPAP', watts: 78, windows: [[22, 24], [0, 6]] });
+    await createLoad(owner, from.id, { name: 'Locker fridge', watts: 50, dutyPct: 35, response: 'cooling', location: 'outside', surgeWatts: 180 });
     const csv = await (await api(`/api/rigs/${from.id}/loads.csv`, { session: owner })).text();
     const to = await createRig(owner);
     const res = await csvImport(to.id, csv, owner);

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { buildQuickPlan, type QuickPlanForm } from '../../src/features/quick-plan/quick-plan';
+import { validatePlan } from '../../src/engine';
 import { api, openTestDb, signUp } from '../helpers/api';
 import { at } from '../../src/lib/invariant';
 
@@ -41,9 +42,17 @@ describe('POST /api/quick-plan/keep', () => {
     const trip = await (await api(`/api/trips/${tripId}`, { session: s })).json();
     expect(trip.rigId).toBe(rigId);
     expect(trip.stops[0]?.name).toBe(at(plan.stops, 0, 'stop').name);
-    // The kept plan forecasts exactly as the preview did.
+    // The kept rig, loads and trip are the quick plan's: a saved run forecasts them as the preview
+    // does. (A saved run fills the untyped second and third days from the weather service, so the
+    // preview is of the plan the run saved; its bank, panels, loads and typed day are the quick plan's.)
     const saved = await (await api(`/api/trips/${tripId}/forecasts`, { method: 'POST', session: s })).json();
-    const preview = await (await api('/api/forecasts/preview', { method: 'POST', json: plan })).json();
+    const resolved = validatePlan(plan);
+    if (!resolved.ok) throw new Error('the quick plan is valid');
+    expect(saved.plan.bank).toEqual(resolved.plan.bank);
+    expect(saved.plan.arrays).toEqual(resolved.plan.arrays);
+    expect(saved.plan.loads).toEqual(resolved.plan.loads);
+    expect(saved.plan.stops[0].weather[0]).toMatchObject({ date: '2027-05-10', cloudOktas: 2, highC: 24, lowC: 8 });
+    const preview = await (await api('/api/forecasts/preview', { method: 'POST', json: saved.plan })).json();
     expect(saved.forecast.summary).toEqual(preview.summary);
   });
 

@@ -81,7 +81,8 @@ describe('POST /api/trips', () => {
     expect((await overlap.json()).issues).toEqual([{ path: 'stops.1.arrive', message: expect.stringContaining('overlaps') }]);
     const outside = await api('/api/trips', { method: 'POST', session: owner, json: { ...trip(), drives: [{ date: '2027-11-10', startHour: 9, hours: 4 }] } });
     expect(outside.status).toBe(400);
-    expect((await outside.json()).issues).toEqual([{ path: 'drives.0.date', message: expect.stringContaining('outside the trip') }]);
+    // Engine revision 2 words the rule as where a drive may start (at or after the first arrival, before the end).
+    expect((await outside.json()).issues).toEqual([{ path: 'drives.0.date', message: expect.stringContaining('must start inside the trip') }]);
     const weather = await api('/api/trips', { method: 'POST', session: owner, json: { ...trip(), stops: [{ ...stops[0], weather: [{ date: '2027-10-21', cloudOktas: 2, highC: -5, lowC: 3 }] }, stops[1]] } });
     expect((await weather.json()).issues).toEqual([{ path: 'stops.0.weather.0.highC', message: expect.any(String) }]);
   });
@@ -150,7 +151,10 @@ describe('PATCH /api/trips/:id', () => {
 
   it('checks the itinerary as it would be after the change', async () => {
     const t = await createTrip(owner, trip());
-    const res = await api(`/api/trips/${t.id}`, { method: 'PATCH', session: owner, json: { version: 1, stops: [stops[0]] } });
+    // Revision 2 lets a drive start on the last morning (before 11:00), so keeping only the first
+    // stop (3 nights: the trip ends 24 Oct, 11:00) would still hold the 09:00 drive on the 24th.
+    // With 2 nights the trip ends on the 23rd and the drive on the 24th falls outside it.
+    const res = await api(`/api/trips/${t.id}`, { method: 'PATCH', session: owner, json: { version: 1, stops: [{ ...stops[0], nights: 2 }] } });
     expect(res.status).toBe(400);
     expect((await res.json()).issues).toEqual([{ path: 'drives.0.date', message: expect.any(String) }]);
     expect(dbGet('select version from trips where id = ?', t.id)).toEqual({ version: 1 });

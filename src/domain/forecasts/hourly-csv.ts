@@ -3,9 +3,11 @@
 import type { Forecast, HourlyRow } from '../../engine';
 import { needsFormulaEscape } from '../csv-cells';
 
-export const CSV_COLUMNS: (keyof HourlyRow)[] = ['time', 'socPct', 'volts', 'solarWatts', 'chargeWatts', 'loadWatts', 'unmetWatts', 'curtailedWatts', 'ambientC', 'batteryC', 'sunAltitudeDeg', 'poaWm2', 'driving', 'generatorOn', 'disconnected'];
+// usablePct and minVolts came with engine revision 2; a snapshot saved before has none (empty cells).
+export const CSV_COLUMNS: (keyof HourlyRow)[] = ['time', 'socPct', 'usablePct', 'volts', 'minVolts', 'solarWatts', 'chargeWatts', 'loadWatts', 'unmetWatts', 'curtailedWatts', 'ambientC', 'batteryC', 'sunAltitudeDeg', 'poaWm2', 'driving', 'generatorOn', 'disconnected'];
 
 function cell(v: unknown): string {
+  if (v === undefined || v === null) return '';
   const s = String(v);
   // The loads export's rule: a leading = + - @ TAB CR gets an apostrophe unless the whole cell is a plain number ("-2+3" is a formula).
   const safe = needsFormulaEscape(s) ? `'${s}` : s;

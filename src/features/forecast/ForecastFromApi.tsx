@@ -1,4 +1,6 @@
+import { useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
+import { runTripForecast } from '../trip-forecasts/trip-forecasts.api';
 import { ApiError } from '../../lib/query-client';
 import ForecastView from './ForecastView';
 import { forecastQueries } from './forecast.queries';
@@ -13,6 +15,10 @@ export interface ForecastFromApiProps {
   showMeta?: boolean;
   /** The forecast as the page read it on the server: rendered at once, no loading state. */
   initial?: SavedForecast;
+  /** The engine's revision now (the page passes it, so this island does not load the engine). */
+  currentEngineRevision?: number;
+  /** Whether the user may run the trip's forecast again (not a viewer or an installer). */
+  canRun?: boolean;
 }
 
 /** A saved forecast loaded by id, with loading and error states — never a blank chart. */
@@ -24,7 +30,44 @@ export default function ForecastFromApi(props: ForecastFromApiProps) {
   );
 }
 
-function Loaded({ id, showMeta = true, initial }: ForecastFromApiProps) {
+/**
+ * An old snapshot says which engine revision made it and offers to run the trip's current plan
+ * again (a new saved forecast); the old one keeps its numbers.
+ */
+function OlderRevision({ saved, current, canRun }: { saved: SavedForecast; current: number; canRun: boolean }) {
+  const [state, setState] = useState<{ busy: boolean; error: string | null }>({ busy: false, error: null });
+  const made = saved.forecast.engineRevision ?? saved.engineRevision ?? 1;
+  const run = async () => {
+    setState({ busy: true, error: null });
+    try {
+      const created = await runTripForecast(saved.tripId);
+      window.location.assign(`/trips/${encodeURIComponent(saved.tripId)}/forecasts/${encodeURIComponent(created.id)}`);
+    } catch (e) {
+      setState({ busy: false, error: e instanceof Error ? e.message : 'The forecast could not be run again.' });
+    }
+  };
+  return (
+    <div className="caution no-print" role="note" data-testid="engine-revision-note">
+      <p className="font-bold">Made by forecast engine revision {made}; the engine is now at revision {current}.</p>
+      <p className="mt-1 text-sm">
+        This snapshot keeps the numbers it was saved with. Revision {current} is more careful in the cold: charge the cold locks away is not counted as usable, a fridge in a heated cabin follows the cabin, and surges can trip a low-voltage cutoff — so a cold trip may come out worse.
+        {canRun ? ' Run it again to forecast the trip’s current rig, loads and stops with today’s engine; this one stays as it is.' : ' Someone who can edit the trip can run it again.'}
+      </p>
+      {canRun ? (
+        <button type="button" className="btn btn-primary mt-3" onClick={() => void run()} disabled={state.busy} data-testid="run-again">
+          {state.busy ? 'Running…' : 'Run again'}
+        </button>
+      ) : null}
+      {state.error ? (
+        <p role="alert" className="mt-2 text-sm font-bold text-alert">
+          {state.error}
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+function Loaded({ id, showMeta = true, initial, currentEngineRevision, canRun = false }: ForecastFromApiProps) {
   const q = useQuery({ ...forecastQueries.detail(id), initialData: initial });
   const slow = useDelayed(q.isPending);
 
@@ -67,6 +110,9 @@ function Loaded({ id, showMeta = true, initial }: ForecastFromApiProps) {
           <span className="font-bold text-dusk">{f.name}</span> · saved {f.createdAt.slice(0, 10)}
           {f.createdBy ? ` by ${f.createdBy.name}` : ''} · a snapshot: later changes to the rig or loads do not change it.
         </p>
+      ) : null}
+      {currentEngineRevision !== undefined && (f.forecast.engineRevision ?? f.engineRevision ?? 1) < currentEngineRevision ? (
+        <OlderRevision saved={f} current={currentEngineRevision} canRun={canRun} />
       ) : null}
       <ForecastView forecast={f.forecast} plan={f.plan} reserveSocPct={f.reserveSocPct} forecastId={f.id} name={f.name} />
     </div>

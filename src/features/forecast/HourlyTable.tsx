@@ -13,13 +13,15 @@ export default function HourlyTable({ forecast, plan, open = false }: { forecast
       </summary>
       <div className="mt-2 max-h-[32rem] overflow-auto rounded-xl border border-sand-dark bg-white" tabIndex={0} role="region" aria-label="Hour-by-hour table">
         <table className="w-full border-collapse text-sm tabular-nums" data-testid="hourly-table">
-          <caption className="sr-only">State of charge, volts and power for every hour of the trip, in each stop’s local time. Watts are hour averages; state of charge and volts are at the hour’s end.</caption>
+          <caption className="sr-only">State of charge, usable charge, volts and power for every hour of the trip, in each stop’s local time. Watts are hour averages; state of charge, usable charge and volts are at the hour’s end; lowest volts is the hour’s lowest, surges included.</caption>
           <thead className="sticky top-0 bg-sand text-left">
             <tr>
               <th scope="col" className="px-2 py-1.5">Local time</th>
               <th scope="col" className="px-2 py-1.5">Stop</th>
               <th scope="col" className="px-2 py-1.5 text-right">SOC %</th>
+              <th scope="col" className="px-2 py-1.5 text-right" title="Charge the loads can still draw: the cold strands some of it">Usable %</th>
               <th scope="col" className="px-2 py-1.5 text-right">Volts</th>
+              <th scope="col" className="px-2 py-1.5 text-right" title="The hour’s lowest terminal voltage, surges included">Lowest V</th>
               <th scope="col" className="px-2 py-1.5 text-right">Solar W</th>
               <th scope="col" className="px-2 py-1.5 text-right">Charging W</th>
               <th scope="col" className="px-2 py-1.5 text-right">Loads W</th>
@@ -36,7 +38,10 @@ export default function HourlyTable({ forecast, plan, open = false }: { forecast
                   <th scope="row" className="whitespace-nowrap px-2 py-1 text-left font-semibold">{formatRowTimeWithZone(r.time, stop?.timeZone)}</th>
                   <td className="whitespace-nowrap px-2 py-1">{stop?.name}{r.driving ? ' (driving)' : ''}{r.generatorOn ? ' (generator)' : ''}</td>
                   <td className="px-2 py-1 text-right">{r.socPct.toFixed(1)}</td>
+                  {/* Snapshots saved before engine revision 2 carry no usable charge or lowest volts. */}
+                  <td className="px-2 py-1 text-right">{r.usablePct === undefined ? '–' : r.usablePct.toFixed(1)}</td>
                   <td className="px-2 py-1 text-right">{r.volts.toFixed(2)}</td>
+                  <td className="px-2 py-1 text-right">{r.minVolts === undefined ? '–' : r.minVolts.toFixed(2)}</td>
                   <td className="px-2 py-1 text-right">{r.solarWatts}</td>
                   <td className="px-2 py-1 text-right">{r.chargeWatts}</td>
                   <td className="px-2 py-1 text-right">{r.loadWatts}</td>

@@ -1,7 +1,7 @@
 import { useMemo } from 'react';
 import { CartesianGrid, ComposedChart, Line, ReferenceArea, ReferenceDot, ReferenceLine, Tooltip, XAxis, YAxis } from 'recharts';
 import type { Forecast, ResolvedPlan } from '../../engine';
-import { COLORS, cutoffX, dayTicks, nightBands, socSeries, socSummaryText, stopSegments } from './chart-data';
+import { COLORS, cutoffX, dayTicks, nightBands, socSeries, socSummaryText, stopSegments, usableSeries, voltageMarks } from './chart-data';
 import { formatClock, formatRowTimeWithZone } from '../../lib/format';
 import { reserveOf } from '../../domain/forecasts/verdict';
 import { SOC_PLOT, SocKey, SocSketchPlot } from './SocSketch';
@@ -34,6 +34,8 @@ interface Point {
   row?: number;
   soc2?: number;
   row2?: number;
+  /** Usable charge at the hour's end (engine revision 2), when the cold strands some. */
+  usable?: number;
 }
 
 // The sketch's plot box: recharts adds its 30 px x axis under the bottom margin.
@@ -49,11 +51,14 @@ export default function SocChart({ forecast, plan, reserveSocPct, name, compare,
   const data = useMemo<Point[]>(() => {
     const a = socSeries(forecast);
     const b = compare ? socSeries(compare.forecast) : [];
+    const u = compare ? null : usableSeries(forecast);
     const out: Point[] = [];
     for (let x = 0; x <= n; x++) {
       const p: Point = { x };
       const pa = a[x];
       const pb = b[x];
+      const pu = u?.[x - 1];
+      if (pu) p.usable = pu.soc;
       if (pa) {
         p.soc = pa.soc;
         p.row = pa.row;
@@ -73,6 +78,8 @@ export default function SocChart({ forecast, plan, reserveSocPct, name, compare,
   const tickLabel = useMemo(() => new Map(ticks.map((t) => [t.x, t.label])), [ticks]);
   const cx = cutoffX(forecast);
   const cx2 = compare ? cutoffX(compare.forecast) : null;
+  const hasUsable = !compare && usableSeries(forecast) !== null;
+  const marks = useMemo(() => (compare ? [] : voltageMarks(forecast)), [forecast, compare]);
   const summary = useMemo(() => {
     const main = socSummaryText(forecast, plan, reserveSocPct);
     if (!compare) return main;
@@ -172,6 +179,12 @@ export default function SocChart({ forecast, plan, reserveSocPct, name, compare,
                 connectNulls={false}
               />
             ) : null}
+ {hasUsable ? (
+              <Line dataKey="usable" name="Usable in the cold" className="usable-line" stroke={COLORS.usable} strokeWidth={2} strokeDasharray="5 4" dot={false} activeDot={false} isAnimationActive={false} connectNulls={false} />
+            ) : null}
+            {marks.map((m) => (
+              <ReferenceArea key={`v${m.x}`} x1={m.x} x2={m.x + 1} y1={0} y2={12} fill={COLORS.cutoffText} fillOpacity={0.85} stroke="none" ifOverflow="hidden" className="voltage-mark" />
+            ))}
             <Line dataKey="soc" name={name ?? 'State of charge'} className="soc-line" stroke={COLORS.soc} strokeWidth={2.5} dot={false} activeDot={{ r: 4 }} isAnimationActive={false} connectNulls={false} />
             {cx !== null ? (
               <ReferenceLine
@@ -203,7 +216,7 @@ export default function SocChart({ forecast, plan, reserveSocPct, name, compare,
           <SocSketchPlot forecast={forecast} plan={plan} reserveSocPct={reserveSocPct} height={height} label={summary} />
         )}
       </div>
-      <SocKey compareName={compare?.name} name={name} narrow={narrow} hasCutoff={cx !== null || cx2 !== null} />
+      <SocKey compareName={compare?.name} name={name} narrow={narrow} hasCutoff={cx !== null || cx2 !== null} hasUsable={hasUsable} markKinds={marks.map((m) => m.kind)} />
       <figcaption className={showSummary ? 'mt-2 text-sm text-slate-text' : 'sr-only'} data-testid="soc-summary">
         {summary}
       </figcaption>
@@ -253,8 +266,20 @@ function SocTooltip({ active, payload, forecast, plan, compare, name }: TooltipP
                 <dd className="text-right font-bold">{row2.socPct.toFixed(1)} %</dd>
               </>
             ) : null}
+            {row.usablePct !== undefined && row.socPct - row.usablePct >= 0.05 ? (
+              <>
+                <dt>Usable in the cold</dt>
+                <dd className="text-right">{row.usablePct.toFixed(1)} %</dd>
+              </>
+            ) : null}
             <dt>Volts</dt>
             <dd className="text-right">{row.volts.toFixed(2)} V</dd>
+            {row.minVolts !== undefined ? (
+              <>
+                <dt>Lowest volts</dt>
+                <dd className="text-right">{row.minVolts.toFixed(2)} V</dd>
+              </>
+            ) : null}
             <dt>Solar</dt>
             <dd className="text-right">{row.solarWatts} W</dd>
             <dt>Charging</dt>

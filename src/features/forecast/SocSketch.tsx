@@ -1,5 +1,5 @@
 import type { Forecast, ResolvedPlan } from '../../engine';
-import { COLORS, cutoffX, dayTicks, nightBands, socSeries, socSummaryText, stopSegments } from './chart-data';
+import { COLORS, cutoffX, dayTicks, nightBands, socSeries, socSummaryText, stopSegments, usableSeries, voltageMarks, VOLTAGE_MARK_WORDS, type VoltageCutoffKind } from './chart-data';
 import { formatClock } from '../../lib/format';
 import { reserveOf } from '../../domain/forecasts/verdict';
 
@@ -45,7 +45,7 @@ export default function SocSketch({ forecast: f, plan, reserveSocPct, height = 2
         ))}
       </div>
       <SocSketchPlot forecast={f} plan={plan} reserveSocPct={reserveSocPct} height={height} label={summary} />
-      <SocKey hasCutoff={cx !== null} />
+      <SocKey hasCutoff={cx !== null} hasUsable={usableSeries(f) !== null} markKinds={voltageMarks(f).map((m) => m.kind)} />
       <figcaption className={showSummary ? 'mt-2 text-sm text-slate-text' : 'sr-only'} data-testid="soc-summary">
         {summary}
       </figcaption>
@@ -69,6 +69,9 @@ export function SocSketchPlot({ forecast: f, plan, reserveSocPct, height, label 
   const days = dayTicks(f, 6);
   const cx = cutoffX(f);
   const cutoffSoc = cx !== null ? f.hourly[cx]?.socPct ?? reserve : null;
+  const usable = usableSeries(f);
+  const usableLine = usable?.map((p, i) => `${i ? 'L' : 'M'}${p.x.toFixed(2)},${y(p.soc).toFixed(2)}`).join(' ');
+  const marks = voltageMarks(f);
 
   return (
     <div className="relative" style={{ height }}>
@@ -90,9 +93,19 @@ export function SocSketchPlot({ forecast: f, plan, reserveSocPct, height, label 
           {stops.slice(1).map((s) => (
             <line key={`s${s.x1}`} x1={s.x1} x2={s.x1} y1="0" y2="100" stroke={COLORS.loads} strokeOpacity="0.6" strokeDasharray="2 3" vectorEffect="non-scaling-stroke" />
           ))}
+          {usableLine ? (
+            <g className="usable-line" data-testid="usable-line">
+              <path d={usableLine} fill="none" stroke={COLORS.usable} strokeWidth="2" strokeDasharray="5 4" strokeLinejoin="round" vectorEffect="non-scaling-stroke" />
+            </g>
+          ) : null}
           <g className="soc-line">
             <path d={line} fill="none" stroke={COLORS.soc} strokeWidth="2.5" strokeLinejoin="round" vectorEffect="non-scaling-stroke" />
           </g>
+          {marks.map((m) => (
+            <rect key={`v${m.x}`} data-testid="voltage-mark" data-kind={m.kind} x={m.x} y="88" width="1" height="12" fill={COLORS.cutoffText} fillOpacity="0.85">
+              <title>{`${VOLTAGE_MARK_WORDS[m.kind]}, ${formatClock(m.time)}`}</title>
+            </rect>
+          ))}
           {cx !== null ? <line data-testid="cutoff-marker" x1={cx} x2={cx} y1="0" y2="100" stroke={COLORS.cutoff} strokeWidth="2" vectorEffect="non-scaling-stroke" /> : null}
           <line x1="0" x2={n} y1="100" y2="100" stroke={COLORS.axis} strokeWidth="1" vectorEffect="non-scaling-stroke" />
           <line x1="0" x2="0" y1="0" y2="100" stroke={COLORS.axis} strokeWidth="1" vectorEffect="non-scaling-stroke" />
@@ -124,7 +137,8 @@ export function SocSketchPlot({ forecast: f, plan, reserveSocPct, height, label 
 }
 
 /** The chart's key (one line or a second dashed line when comparing). */
-export function SocKey({ hasCutoff, compareName, name, narrow = false }: { hasCutoff: boolean; compareName?: string; name?: string; narrow?: boolean }) {
+export function SocKey({ hasCutoff, compareName, name, narrow = false, hasUsable = false, markKinds = [] }: { hasCutoff: boolean; compareName?: string; name?: string; narrow?: boolean; hasUsable?: boolean; markKinds?: VoltageCutoffKind[] }) {
+  const kinds = [...new Set(markKinds)];
   return (
     <ul className={`mt-2 flex flex-wrap gap-x-4 gap-y-1 text-xs text-slate-text ${narrow ? '' : 'sm:text-sm'}`} aria-label="Chart key">
       <li className="flex items-center gap-1.5">
@@ -145,10 +159,22 @@ export function SocKey({ hasCutoff, compareName, name, narrow = false }: { hasCu
         <span aria-hidden="true" className="inline-block h-3 w-5 rounded-sm" style={{ background: 'rgba(47,62,85,0.12)' }} />
         Night
       </li>
+      {hasUsable ? (
+        <li className="flex items-center gap-1.5">
+          <svg width="22" height="8" aria-hidden="true"><line x1="0" y1="4" x2="22" y2="4" stroke={COLORS.usable} strokeWidth="2" strokeDasharray="5 4" /></svg>
+          Usable in the cold
+        </li>
+      ) : null}
       {hasCutoff ? (
         <li className="flex items-center gap-1.5">
           <span aria-hidden="true" className="inline-block h-3 w-0.5" style={{ background: COLORS.cutoff }} />
           Cutoff
+        </li>
+      ) : null}
+      {kinds.length > 0 ? (
+        <li className="flex items-center gap-1.5">
+          <span aria-hidden="true" className="inline-block h-3 w-1.5" style={{ background: COLORS.cutoffText }} />
+          {kinds.map((k) => VOLTAGE_MARK_WORDS[k]).join(', ').replace(/^./, (c) => c.toUpperCase())}
         </li>
       ) : null}
     </ul>

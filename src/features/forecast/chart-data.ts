@@ -13,6 +13,7 @@ export const COLORS = {
   reserveEdge: '#8A7552',
   cutoff: '#D9642E',
   cutoffText: '#A4341B',
+  usable: '#55708F',
   loads: '#55708F',
   solar: '#F2B73F',
   charging: '#4F7F58',
@@ -34,6 +35,50 @@ export function socSeries(f: Forecast): SocPoint[] {
   f.hourly.forEach((r, i) => out.push({ x: i + 1, soc: r.socPct, row: i }));
   return out;
 }
+
+/**
+ * Usable charge (engine revision 2) under the SOC line, at each hour's end, when the cold strands
+ * at least a point of charge somewhere in the trip; null otherwise (and for snapshots made before
+ * revision 2, which carry no usable charge), so a warm trip's chart stays one line.
+ */
+export function usableSeries(f: Forecast): SocPoint[] | null {
+  let stranded = false;
+  for (const r of f.hourly) {
+    if (r.usablePct === undefined) return null;
+    if (r.socPct - r.usablePct >= 1) stranded = true;
+  }
+  if (!stranded) return null;
+  return f.hourly.map((r, i) => ({ x: i + 1, soc: r.usablePct, row: i }));
+}
+
+export type VoltageCutoffKind = 'voltage' | 'surge' | 'collapse';
+
+/** A voltage, surge or collapse cutoff: marked at the start of its hour (`x` = row index). */
+export interface VoltageMark {
+  x: number;
+  kind: VoltageCutoffKind;
+  time: string;
+}
+
+const MARK_KIND: Record<string, VoltageCutoffKind> = { 'voltage-cutoff': 'voltage', 'surge-cutoff': 'surge', 'voltage-collapse': 'collapse' };
+const MARK_RANK: Record<VoltageCutoffKind, number> = { voltage: 0, surge: 1, collapse: 2 };
+
+/** Hours in which the bank's volts cut it off (plain, by a surge, or by collapsing), one mark per hour, the most specific kind. */
+export function voltageMarks(f: Forecast): VoltageMark[] {
+  const byRow = new Map<number, VoltageMark>();
+  const rowOf = new Map(f.hourly.map((r, i) => [r.time, i]));
+  for (const w of f.warnings) {
+    const kind = MARK_KIND[w.code];
+    const x = rowOf.get(w.at);
+    if (!kind || x === undefined) continue;
+    const had = byRow.get(x);
+    if (!had || MARK_RANK[kind] > MARK_RANK[had.kind]) byRow.set(x, { x, kind, time: w.at });
+  }
+  return [...byRow.values()].sort((a, b) => a.x - b.x);
+}
+
+/** Words for a voltage mark, as the key and the summary say them. */
+export const VOLTAGE_MARK_WORDS: Record<VoltageCutoffKind, string> = { voltage: 'low-voltage cutoff', surge: 'surge cutoff', collapse: 'voltage collapse' };
 
 /** Dark hours (sun at or below the horizon at the hour's midpoint), merged into bands [x1, x2]. */
 export function nightBands(f: Forecast): { x1: number; x2: number }[] {
@@ -88,12 +133,16 @@ export function socSummaryText(f: Forecast, plan: ResolvedPlan, reserveSocPct?: 
   const first = f.hourly[0];
   const last = f.hourly[f.hourly.length - 1];
   const span = first && last ? `from ${formatRowTime(first.time)} to ${formatRowTime(last.time)}` : '';
+  const usable = usableSeries(f);
+  const marks = voltageMarks(f);
   const parts = [
     `State of charge ${span}: starts at ${pct(s.startSocPct)}, lowest ${pct(s.minSocPct)} on ${formatRowTime(s.minSocAt)}, ends at ${pct(s.endSocPct)}.`,
+    ...(usable && s.minUsablePct !== undefined ? [`The cold strands some charge: usable charge is lowest at ${pct(s.minUsablePct)}.`] : []),
     `Reserve band up to ${pct(reserve)}.`,
     s.firstCutoffAt
       ? `First cutoff on ${formatRowTime(s.firstCutoffAt)} at ${stopNameAt(f, plan, Math.max(0, f.hourly.findIndex((r) => r.time === s.firstCutoffAt)))}.`
       : 'No cutoff.',
+    ...marks.map((m) => `A ${VOLTAGE_MARK_WORDS[m.kind]} on ${formatRowTime(m.time)}.`),
   ];
   return parts.join(' ');
 }

@@ -12,6 +12,8 @@ export interface SavedForecast {
   plan: ResolvedPlan;
   forecast: Forecast;
   reserveSocPct: number | null;
+  /** The engine revision that made it; snapshots saved before revisions were recorded are 1. */
+  engineRevision?: number;
 }
 
 /** Loads one saved forecast. */
