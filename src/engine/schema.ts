@@ -50,11 +50,11 @@ function int(min: number, max: number) {
 }
 
 const dateString = z
-  .string({ error: 'must be a date (YYYY-MM-DD)' })
+  .string({ error: 'must be a date, such as 2027-10-21' })
   .refine((s) => {
     const c = parseIsoDate(s);
     return c !== null && c.y >= 1950 && c.y <= 2150;
-  }, { error: 'must be a real date YYYY-MM-DD between 1950 and 2150' });
+  }, { error: 'must be a real calendar date, such as 2027-10-21' });
 
 const name = z.string({ error: 'must be text' }).trim().min(1, { error: 'must not be empty' }).max(100, { error: 'must be at most 100 characters' });
 
@@ -175,8 +175,8 @@ export const stopSchema = z.object({
   name: name.optional(),
   lat: num(-90, 90),
   lon: num(-180, 180),
-  timeZone: z.string({ error: 'must be an IANA time zone such as America/Denver' }).refine(isValidTimeZone, {
-    error: 'must be an IANA time zone such as America/Denver',
+  timeZone: z.string({ error: 'must be a time zone we know, such as America/Denver' }).refine(isValidTimeZone, {
+    error: 'must be a time zone we know, such as America/Denver',
   }),
   arrive: dateString,
   nights: int(1, LIMITS.maxDays),

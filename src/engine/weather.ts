@@ -86,7 +86,7 @@ export function resolveStopWeather(entries: WeatherEntry[], ownedDays: number[])
 
 /** Plain-English text for the fallback warning. */
 export function assumedMessage(stopName: string, day: number): string {
-  return `No weather given for ${stopName} on ${isoDate(day)}: assumed ${ASSUMED_WEATHER.cloudOktas} oktas of cloud, a high of ${ASSUMED_WEATHER.highC} °C and a low of ${ASSUMED_WEATHER.lowC} °C.`;
+  return `No weather given for ${stopName} on ${isoDate(day)}: assumed partly cloudy skies (${ASSUMED_WEATHER.cloudOktas} oktas), a high of ${ASSUMED_WEATHER.highC} °C and a low of ${ASSUMED_WEATHER.lowC} °C.`;
 }
 
 /** Plain-English text for the ignored-days warning. */

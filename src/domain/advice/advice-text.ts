@@ -87,7 +87,7 @@ export function warningsOf(forecast: Forecast): AdviceWarning[] {
     out.push({
       code: 'weather-assumed',
       title: 'Weather assumed',
-      message: `No weather was given for ${dates.join(', ')}: the forecast assumes 4 oktas of cloud, a high of 20 °C and a low of 10 °C. Add the expected weather for a truer answer.`,
+      message: `No weather was given for ${dates.join(', ')}: the forecast assumes partly cloudy skies (4 oktas), a high of 20 °C and a low of 10 °C. Add the expected weather for a truer answer.`,
     });
   }
   for (const w of byCode.get('weather-ignored') ?? []) out.push({ code: w.code, title: 'Weather not used', message: w.message });

@@ -40,7 +40,7 @@ export const mappingSchema = z
       { error: 'The log needs a time column: choose which column holds the time of each reading.' },
     ),
     /** IANA zone of times written without an offset; also the zone of "night" for the baseline. */
-    timeZone: z.string({ error: 'must be an IANA time zone such as America/Denver' }).refine(isValidTimeZone, { error: 'must be an IANA time zone such as America/Denver' }),
+    timeZone: z.string({ error: 'must be a time zone we know, such as America/Denver' }).refine(isValidTimeZone, { error: 'must be a time zone we know, such as America/Denver' }),
     voltage: z.object({ column, unit: z.enum(['V', 'mV'], { error: 'must be V or mV' }) }).nullable().default(null),
     current: z
       .object({

@@ -11,7 +11,7 @@ export const SOURCE_WORDS: Record<DaySource, { label: string; title: string; loo
   typed: { label: 'Typed', title: 'The sky you typed for this day', look: 'bg-[#e6eef7] text-[#23456b] border-[#9db5d3]' },
   forecast: { label: 'Forecast', title: "The weather service's forecast for this day", look: 'bg-[#eef5ef] text-[#2f5b3a] border-[#9cc3a5]' },
   'past-year': { label: 'Past years', title: 'The same date in the median of the last ten years', look: 'bg-[#f3eefa] text-[#4d3a6e] border-[#bfaed8]' },
-  assumed: { label: 'Assumed', title: 'Nothing known: typical skies (4 oktas, 20 °C by day, 10 °C at night)', look: 'bg-[#fdf3dc] text-[#6b4e0e] border-[#e0bd6a]' },
+  assumed: { label: 'Assumed', title: 'Nothing known: typical skies (partly cloudy, 4 oktas; 20 °C by day, 10 °C at night)', look: 'bg-[#fdf3dc] text-[#6b4e0e] border-[#e0bd6a]' },
 };
 
 /** A day's source as a small badge with words (never colour alone). */

@@ -401,7 +401,7 @@ function StopWeather({ index: i, ctx }: { index: number; ctx: Ctx }) {
                   }}
                 >
                   <option value="">— (nearest day)</option>
-                  {w && !skyKnown ? <option value={String(w.cloudOktas)}>{formatNumber(w.cloudOktas as number, 1)} oktas</option> : null}
+                  {w && !skyKnown ? <option value={String(w.cloudOktas)}>{[...SKY_CHOICES].sort((a, b) => Math.abs(a.oktas - (w.cloudOktas as number)) - Math.abs(b.oktas - (w.cloudOktas as number)))[0]?.label ?? 'Cloud'} ({formatNumber(w.cloudOktas as number, 1)} oktas)</option> : null}
                   {SKY_CHOICES.map((s) => <option key={s.oktas} value={String(s.oktas)}>{s.label}</option>)}
                 </select>
               </div>

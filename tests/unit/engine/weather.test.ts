@@ -36,7 +36,7 @@ describe('warnings in the forecast', () => {
     const f = run(basePlan({ stop: { weather: [] } }));
     const assumed = f.warnings.filter((x) => x.code === 'weather-assumed');
     expect(assumed.map((x) => x.at)).toEqual(['2027-06-10T15:00-07:00', '2027-06-11T00:00-07:00', '2027-06-12T00:00-07:00']);
-    expect(assumed[0]!.message).toBe('No weather given for Test camp on 2027-06-10: assumed 4 oktas of cloud, a high of 20 °C and a low of 10 °C.');
+    expect(assumed[0]!.message).toBe('No weather given for Test camp on 2027-06-10: assumed partly cloudy skies (4 oktas), a high of 20 °C and a low of 10 °C.');
     expect(f.hourly.find((h) => h.time === '2027-06-11T04:00-07:00')?.ambientC).toBe(10);
   });
 
