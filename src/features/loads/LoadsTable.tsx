@@ -31,7 +31,7 @@ const SORTS: { key: SortKey; label: string }[] = [
 const DAYS_LABEL = { all: '', camp: 'camp days', drive: 'drive days' } as const;
 
 // One table, stacked into cards below md: each cell shows its column name before it.
-const TD = 'whitespace-nowrap px-3 py-2 align-top max-md:whitespace-normal max-md:flex max-md:flex-col max-md:p-0 max-md:text-left max-md:before:text-xs max-md:before:font-bold max-md:before:uppercase max-md:before:tracking-wide max-md:before:text-slate-text max-md:before:content-[attr(data-label)]';
+const TD = 'px-3 py-2 align-top max-md:flex max-md:flex-col max-md:p-0 max-md:text-left max-md:before:text-xs max-md:before:font-bold max-md:before:uppercase max-md:before:tracking-wide max-md:before:text-slate-text max-md:before:content-[attr(data-label)]';
 
 /** The Loads section of a rig: the crew's shared load table with daily estimates, catalogue and CSV import/export. */
 function LoadsTable({ rigId, units: unitsProp }: { rigId: string; units: Units }) {
@@ -104,7 +104,7 @@ function LoadsTable({ rigId, units: unitsProp }: { rigId: string; units: Units }
 
   const header = (k: SortKey, label: string, className = '') => (
     <th scope="col" aria-sort={sort.key === k ? (sort.dir === 'asc' ? 'ascending' : 'descending') : undefined} className={`px-3 py-2 ${className}`}>
-      <button type="button" onClick={() => toggleSort(k)} className="inline-flex items-center gap-1 font-extrabold hover:text-ember-deep">
+      <button type="button" onClick={() => toggleSort(k)} className="inline-flex items-center gap-1 whitespace-nowrap font-extrabold hover:text-ember-deep">
         {label}
         <span aria-hidden="true" className="text-xs">{sort.key === k ? (sort.dir === 'asc' ? '▲' : '▼') : '↕'}</span>
       </button>
@@ -167,7 +167,7 @@ function LoadsTable({ rigId, units: unitsProp }: { rigId: string; units: Units }
               ])}
             </select>
           </div>
-          <div className="md:overflow-x-auto md:rounded-[14px] md:bg-card md:shadow-soft">
+          <div id="loads-table-box" className="md:overflow-x-auto md:rounded-[14px] md:bg-card md:shadow-soft">
           <table className="w-full max-md:block" aria-label="Loads">
             <thead className="max-md:hidden">
               <tr className="border-b-2 border-sand-dark bg-sand/60 text-left text-sm">
@@ -211,14 +211,14 @@ function LoadsTable({ rigId, units: unitsProp }: { rigId: string; units: Units }
                   </tr>
                 ) : (
                   <tr key={l.id} className="border-b border-sand-dark last:border-0 max-md:grid max-md:grid-cols-2 max-md:gap-x-4 max-md:gap-y-2 max-md:rounded-[14px] max-md:border-0 max-md:bg-card max-md:p-4 max-md:shadow-soft" data-load-row={l.name}>
-                    <td className="px-3 py-2 align-top max-md:col-span-2 max-md:block max-md:p-0 md:min-w-56">
+                    <td className="px-3 py-2 align-top max-md:col-span-2 max-md:block max-md:p-0 md:min-w-40">
                       <span className="font-bold">{l.name}</span>
                       {l.standby ? <span className="ml-2 rounded-full bg-sand-dark px-2 py-0.5 text-xs font-bold">standby</span> : null}
                       {l.note ? <span className="block text-sm text-slate-text">{l.note}</span> : null}
                       {l.addedBy ? <span className="block text-xs text-slate-text">added by {l.addedBy.name}</span> : null}
                     </td>
-                    <td data-label="Draw" className={`${TD} text-right tabular-nums`}>
-                      <span>{l.quantity !== 1 ? `${l.quantity} × ` : ''}{formatNumber(l.watts, 1)} W</span>
+                    <td data-label="Draw" className={`${TD} text-right tabular-nums md:min-w-40`}>
+                      <span className="md:whitespace-nowrap">{l.quantity !== 1 ? `${l.quantity} × ` : ''}{formatNumber(l.watts, 1)} W</span>
                       <span className="block text-sm text-slate-text">
                         {l.supply === 'ac'
                           ? `≈ ${formatNumber(bankAmpsOfAc(l.watts, er.nominalVolts, er.inverter?.efficiencyPct ?? DEFAULT_INVERTER_EFFICIENCY_PCT), 1)} A from the bank`
@@ -227,11 +227,11 @@ function LoadsTable({ rigId, units: unitsProp }: { rigId: string; units: Units }
                       {l.surgeWatts ? <span className="block text-sm text-slate-text">surge {formatWatts(l.surgeWatts)}</span> : null}
                     </td>
                     <td data-label="Supply" className={TD}>{l.supply === 'ac' ? 'AC' : 'DC'}<span className="block text-sm text-slate-text">{l.location === 'outside' ? 'outside' : 'cabin'}</span></td>
-                    <td data-label="When" className={TD}>{l.standby ? 'always' : describeWindows(l.windows)}{DAYS_LABEL[l.days] ? `, ${DAYS_LABEL[l.days]}` : ''}</td>
-                    <td data-label="Duty" className={`${TD} text-right tabular-nums`}>{formatNumber(l.dutyPct)} %</td>
+                    <td data-label="When" className={`${TD} md:min-w-36`}>{l.standby ? 'always' : describeWindows(l.windows)}{DAYS_LABEL[l.days] ? `, ${DAYS_LABEL[l.days]}` : ''}</td>
+                    <td data-label="Duty" className={`${TD} text-right tabular-nums md:whitespace-nowrap`}>{formatNumber(l.dutyPct)} %</td>
                     <td data-label="Temperature" className={`${TD} max-md:col-span-2 ${l.response === 'none' ? 'max-md:hidden' : ''}`}>{l.response === 'none' ? '—' : l.response === 'cooling' ? 'cooling' : `heating below ${formatTemp(l.setpointC, units)}`}</td>
-                    <td data-label="Wh/day" className={`${TD} text-right font-bold tabular-nums`}>{formatWh(wh)}</td>
-                    <td data-label="Ah/day" className={`${TD} text-right tabular-nums`}>{formatAh(whToAh(wh, er.nominalVolts))}</td>
+                    <td data-label="Wh/day" className={`${TD} text-right font-bold tabular-nums md:whitespace-nowrap`}>{formatWh(wh)}</td>
+                    <td data-label="Ah/day" className={`${TD} text-right tabular-nums md:whitespace-nowrap`}>{formatAh(whToAh(wh, er.nominalVolts))}</td>
                     <td className="px-3 py-2 align-top max-md:col-span-2 max-md:block max-md:p-0">
                       {rowMessage?.id === l.id ? <p role="alert" className="mb-2 text-sm font-semibold text-alert">{rowMessage.text}</p> : null}
                       {!canEdit ? null : confirmDelete === l.id ? (
@@ -240,7 +240,7 @@ function LoadsTable({ rigId, units: unitsProp }: { rigId: string; units: Units }
                           <button type="button" className="btn btn-quiet min-h-[36px] px-3 py-1 text-sm" onClick={() => { setConfirmDelete(null); setRowMessage(null); }}>Keep</button>
                         </span>
                       ) : (
-                        <span className="flex justify-end gap-2">
+                        <span className="flex flex-wrap justify-end gap-2">
                           <button type="button" className="btn btn-quiet min-h-[36px] px-3 py-1 text-sm" onClick={() => { setEditing(l.id); setStatus(null); }} aria-label={`Edit ${l.name}`}>Edit</button>
                           <button type="button" className="btn btn-quiet min-h-[36px] px-3 py-1 text-sm" onClick={() => setConfirmDelete(l.id)} aria-label={`Delete ${l.name}`}>Delete</button>
                         </span>
