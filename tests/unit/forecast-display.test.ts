@@ -2,7 +2,7 @@
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { demoPlan, forecast, validatePlan } from '../../src/engine';
-import { cutoffX, dayTicks, daysSummaryText, nightBands, socSeries, socSummaryText, stopSegments } from '../../src/features/forecast/chart-data';
+import { cutoffX, dayTicks, daysSummaryText, nightBands, socSeries, socSummaryText, stopSegments, usableSeries, voltageMarks } from '../../src/features/forecast/chart-data';
 import { CSV_COLUMNS, forecastCsv } from '../../src/domain/forecasts/hourly-csv';
 import { formatDay, formatOffset, formatRowTime, formatRowTimeWithZone, instantOf, localParts } from '../../src/lib/format';
 import { at } from '../../src/lib/invariant';
@@ -98,5 +98,50 @@ describe('forecastCsv', () => {
     const evil = { ...demo, stops: [{ name: '=HYPERLINK("x")', timeZone: 'America/Denver' }, at(demo.stops, 1, 'stop')] };
     const first = Papa.parse<string[]>(forecastCsv(evil).trim()).data[1]?.[0];
     expect(first?.startsWith("'")).toBe(true);
+  });
+});
+
+describe('revision 2 chart marks: usable charge and voltage cutoffs', () => {
+  const plan = (over: { lowC: number; highC: number; microwave: boolean }) => {
+    const v = validatePlan({
+      bank: { chemistry: 'agm', capacityAh: 100, initialSocPct: 100, cutoffVolts: 11.5 },
+      inverter: { efficiencyPct: 90, idleWatts: 10 },
+      loads: [{ name: 'Lamp', watts: 10 }, ...(over.microwave ? [{ name: 'Microwave', watts: 1200, supply: 'ac' as const, windows: [[18, 19]] as [number, number][], dutyPct: 10, surgeWatts: 1500 }] : [])],
+      stops: [{ name: 'Camp', lat: 40, lon: -105, timeZone: 'America/Denver', arrive: '2027-01-10', nights: 1, weather: [{ date: '2027-01-10', cloudOktas: 8, highC: over.highC, lowC: over.lowC }] }],
+    });
+    if (!v.ok) throw new Error(JSON.stringify(v.envelope));
+    return v.plan;
+  };
+
+  it('draws no usable line on a warm trip (nothing stranded) and one under SOC on a cold one', () => {
+    // At 30 °C f = 1: usable = SOC. At −10 °C an AGM's f = 1 − 0.012 × 35 = 0.58 once the battery
+    // has cooled: 42 points stranded, far more than the 1-point threshold.
+    expect(usableSeries(forecast(plan({ lowC: 30, highC: 30, microwave: false })))).toBeNull();
+    const cold = forecast(plan({ lowC: -10, highC: -10, microwave: false }));
+    const u = usableSeries(cold);
+    expect(u).not.toBeNull();
+    u!.forEach((p, i) => expect(p.soc).toBeLessThanOrEqual(at(cold.hourly, i, 'hour').socPct));
+    expect(socSummaryText(cold, plan({ lowC: -10, highC: -10, microwave: false }))).toContain('usable charge is lowest at');
+  });
+
+  it('marks each hour with a voltage, surge or collapse warning once, with its kind, and says so in the summary', () => {
+    // A full 100 Ah AGM (12 mΩ) at 20 °C: the microwave's 1,500 W surge through a 90 % inverter is
+    // 1,667 W, I = (12.8 − √(12.8² − 4 × 0.012 × 1,667)) / 0.024 = (12.8 − 9.16) / 0.024 ≈ 152 A, a 1.8 V sag to ~11.0 V,
+    // under the 11.5 V cutoff in the 18:00 hour (hand calculation).
+    const p = plan({ lowC: 20, highC: 20, microwave: true });
+    const f = forecast(p);
+    const codes = new Set(['voltage-cutoff', 'surge-cutoff', 'voltage-collapse']);
+    const warned = f.warnings.filter((w) => codes.has(w.code));
+    expect(warned.length).toBeGreaterThan(0);
+    const marks = voltageMarks(f);
+    expect(new Set(marks.map((m) => m.time))).toEqual(new Set(warned.map((w) => w.at)));
+    for (const m of marks) {
+      expect(at(f.hourly, m.x, 'hour').time).toBe(m.time);
+      const kinds = warned.filter((w) => w.at === m.time).map((w) => w.code);
+      expect(m.kind).toBe(kinds.includes('voltage-collapse') ? 'collapse' : kinds.includes('surge-cutoff') ? 'surge' : 'voltage');
+    }
+    expect(socSummaryText(f, p)).toMatch(/A (low-voltage cutoff|surge cutoff|voltage collapse) on /);
+    // A trip without such warnings has no marks.
+    expect(voltageMarks(forecast(plan({ lowC: 20, highC: 20, microwave: false })))).toEqual([]);
   });
 });
