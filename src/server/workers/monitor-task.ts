@@ -8,7 +8,7 @@ import { mappingSchema, type ColumnMapping } from '../../domain/monitor/monitor.
 import type { BankLimits, Sample } from '../../domain/monitor/parse';
 import { HttpError, type ErrorCode } from '../errors';
 import { zodIssues } from '../http';
-import { decodeCsvBytes, readMultipart, type MultipartRules } from '../upload';
+import { decodeCsvBytes, multipartInPlace, type MultipartRules } from '../upload';
 
 /** The longest line a monitor log may have (a real export's lines are well under 200 characters). */
 export const MAX_LINE_CHARS = 4096;
@@ -172,12 +172,8 @@ export function unpack(p: PackedSamples): Sample[] {
  */
 export async function readMonitorLog(task: MonitorLogTask): Promise<MonitorLogOutcome> {
   try {
-    const request = new Request('http://upload.invalid/', {
-      method: 'POST',
-      headers: { 'content-type': task.contentType },
-      body: task.body as BodyInit,
-    });
-    const upload = await readMultipart(request, UPLOAD_RULES);
+    // The body moved here from the request thread; the file is a view into it, never copied.
+    const upload = multipartInPlace(task.body, task.contentType, UPLOAD_RULES);
     if (!ALLOWED_EXTENSIONS.test(upload.fileName) && /\.[a-z0-9]{1,5}$/i.test(upload.fileName)) {
       return refuse(
         `"${upload.fileName.slice(0, 80)}" is not a CSV. Export the monitor's log as CSV (.csv or .txt) and upload that.`,
