@@ -188,7 +188,6 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
 
   // ---- loads: masks and constant parts once ----
   const masks = plan.loads.map((l) => windowMask(l.windows));
-  const loadWatts = plan.loads.map((l) => l.watts * l.quantity);
   const fixedDuty = plan.loads.map((l) => (l.response === 'none' ? dutyAt(l, 0) : -1));
   const nLoads = plan.loads.length;
   const heatingIdx: number[] = [];
