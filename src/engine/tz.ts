@@ -107,7 +107,7 @@ const OFFSET_RE = /GMT(?:([+-])(\d{1,2})(?::?(\d{2}))?)?/;
 
 /** True when the platform knows this IANA zone name. */
 export function isValidTimeZone(timeZone: string): boolean {
-  if (typeof timeZone !== 'string' || !/^[A-Za-z][A-Za-z0-9_+\-]*(\/[A-Za-z0-9_+\-]+)*$/.test(timeZone)) return false;
+  if (typeof timeZone !== 'string' || !/^[A-Za-z][A-Za-z0-9_+-]*(\/[A-Za-z0-9_+-]+)*$/.test(timeZone)) return false;
   try {
     formatterFor(timeZone);
     return true;
