@@ -15,7 +15,7 @@ interface Saved {
   id: string;
   plan: { stops: { weather: { date: string; source?: string; hourly?: { hour: number; ghiWm2?: number }[]; cloudOktas: number }[] }[] };
   forecast: {
-    hourly: { time: string; socPct: number }[];
+    hourly: { time: string; socPct: number; usablePct: number }[];
     summary: { firstCutoffAt: string | null; minSocPct: number };
     weatherSources?: { kind: string; status: string; message: string | null; medianYear: number | null; stops: { name: string; days: { date: string; source: string }[] }[] };
     band?: { kind: string; runs: { label: string; year: number | null; ok: boolean; minSocPct: number; firstCutoffAt: string | null }[]; lowPct: number[]; highPct: number[]; madeIt: number; total: number; worst: string; sentence: string } | null;
@@ -86,10 +86,10 @@ describe('a far trip with no typed weather', () => {
     expect(band.total).toBe(10);
     expect(band.runs.map((r) => r.year)).toContain(src.medianYear);
     expect(band.lowPct.length).toBe(saved.forecast.hourly.length);
-    // The median year's line lies inside the band, hour by hour.
+    // The median year's usable charge lies inside the band, hour by hour.
     saved.forecast.hourly.forEach((r, i) => {
-      expect(band.lowPct[i]!).toBeLessThanOrEqual(r.socPct + 0.11);
-      expect(band.highPct[i]!).toBeGreaterThanOrEqual(r.socPct - 0.11);
+      expect(band.lowPct[i]!).toBeLessThanOrEqual(r.usablePct + 0.11);
+      expect(band.highPct[i]!).toBeGreaterThanOrEqual(r.usablePct - 0.11);
     });
     expect(band.madeIt).toBe(band.runs.filter((r) => r.ok).length);
     // The sentence carries the counted years and the worst year found in the runs.

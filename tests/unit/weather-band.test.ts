@@ -98,10 +98,10 @@ describe('the verdict with weather sources and a band', () => {
 
   it('is never a plain "Makes it" when a day is assumed, and says how to fix it', () => {
     const plan = easyPlan();
-    const f = forecast(plan) as ForecastWithWeather;
+    const f: ForecastWithWeather = forecast(plan);
     expect(verdict(f, plan).status).toBe('makes-it');
-    expect(verdict({ ...f, weatherSources: sources('typed') }, plan).status).toBe('makes-it');
-    const v = verdict({ ...f, weatherSources: sources('assumed') }, plan);
+    expect(verdict({ ...f, weatherSources: sources('typed') } as ForecastWithWeather, plan).status).toBe('makes-it');
+    const v = verdict({ ...f, weatherSources: sources('assumed') } as ForecastWithWeather, plan);
     expect(v.status).toBe('weather-assumed');
     expect(v.headline).toMatch(/^Not sure yet — 1 day has no real weather, makes it — lowest/);
     expect(v.detail).toContain('"Fill from the forecast" / "Use past years"');

@@ -12,10 +12,14 @@ export function runBandPlans(plans: ResolvedPlan[]): RunOutcome[] {
   return plans.map((p) => {
     try {
       const sim = simulatePrepared(prepareTrip(p));
+      // Usable charge (Revision 2): the floor and the cutoff are judged on it, so the band shows it.
+      const usable = Array.from(sim.usablePct, (x) => Math.round(x * 10) / 10);
+      let minRow = 0;
+      for (let r = 1; r < usable.length; r++) if (usable[r]! < usable[minRow]!) minRow = r;
       return {
-        socEndPct: Array.from(sim.socEndPct, (x) => Math.round(x * 10) / 10),
-        minSocPct: sim.summary.minSocPct,
-        minSocRow: sim.summary.minSocRow,
+        socEndPct: usable,
+        minSocPct: usable[minRow] ?? NaN,
+        minSocRow: minRow,
         firstCutoffRow: sim.summary.firstCutoffRow,
         ...(sim.summary.firstCutoffRow === null ? {} : { cutoffBy: sim.cutoffEvent[sim.summary.firstCutoffRow] === CUTOFF_VOLTS ? ('volts' as const) : ('floor' as const) }),
       };

@@ -34,7 +34,7 @@ export interface BandRun {
 export interface Band {
   kind: 'years' | 'skies';
   runs: BandRun[];
-  /** Per hour row: the lowest and highest end-of-hour SOC over the runs, %. */
+  /** Per hour row: the lowest and highest end-of-hour usable charge over the runs, % of rated. */
   lowPct: number[];
   highPct: number[];
   /** How many runs keep the bank above its floor, of how many. */
@@ -125,7 +125,7 @@ export function hasFetchedDays(plan: ResolvedPlan): boolean {
 
 // ---------- running and reading ----------
 
-/** What the worker gives back per run: end-of-hour SOC and where the run is worst. */
+/** What the worker gives back per run: end-of-hour usable charge (% of rated; the floor is judged on it) and where the run is lowest. */
 export interface RunOutcome {
   socEndPct: number[];
   minSocPct: number;

@@ -59,13 +59,13 @@ export function BandChart({ band, forecast, floorPct }: { band: Band; forecast: 
   const y = (v: number) => PAD.t + (1 - v / 100) * (H - PAD.t - PAD.b);
   const upper = band.highPct.map((v, i) => `${x(i).toFixed(1)},${y(v).toFixed(1)}`).join(' ');
   const lower = band.lowPct.map((v, i) => `${x(n - 1 - i).toFixed(1)},${y(band.lowPct[n - 1 - i]!).toFixed(1)}`).join(' ');
-  const line = forecast.hourly.map((r, i) => `${x(i).toFixed(1)},${y(r.socPct).toFixed(1)}`).join(' ');
+  const line = forecast.hourly.map((r, i) => `${x(i).toFixed(1)},${y(r.usablePct ?? r.socPct).toFixed(1)}`).join(' ');
   const days = forecast.hourly.map((r, i) => ({ i, t: r.time })).filter((r) => r.t.slice(11, 13) === '00');
   const lineName = band.kind === 'years' ? 'median year' : 'as forecast';
   const bandName = band.kind === 'years' ? `lowest to highest of ${band.total} years` : 'two steps cloudier to two steps clearer';
   return (
     <figure ref={ref}>
-      <svg viewBox={`0 0 ${W} ${H}`} width="100%" height={H} className="block w-full" role="img" aria-label={`State of charge: ${bandName}, and the ${lineName}`} data-testid="band-chart">
+      <svg viewBox={`0 0 ${W} ${H}`} width="100%" height={H} className="block w-full" role="img" aria-label={`Usable charge: ${bandName}, and the ${lineName}`} data-testid="band-chart">
         {[0, 25, 50, 75, 100].map((v) => (
           <g key={v}>
             <line x1={PAD.l} x2={W - PAD.r} y1={y(v)} y2={y(v)} stroke="#e3ddd0" strokeWidth="1" />
@@ -104,6 +104,7 @@ export default function WeatherPanel({ forecast, plan }: { forecast: Forecast; p
       {band ? (
         <>
           <p className="text-lg" data-testid="band-sentence">{band.sentence}</p>
+          <p className="text-sm text-dusk">Usable charge hour by hour (the floor is judged on it; cold leaves part of the bank out of reach).</p>
           <BandChart band={band} forecast={forecast} floorPct={floorPct} />
         </>
       ) : (
