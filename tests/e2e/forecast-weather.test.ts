@@ -69,6 +69,26 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('weather sources and the
     await shot(page, `forecast-weather-${viewport}`);
   });
 
+  it('compares two saved forecasts with both bands', async () => {
+    const forecastUrl = page.url();
+    const tripUrl = forecastUrl.replace(/\/forecasts\/[^/]+$/, '');
+    const tripId = tripUrl.split('/').pop()!;
+    const first = forecastUrl.split('/').pop()!;
+    const second = await page.request.post(`${baseUrl()}/api/trips/${tripId}/forecasts`, { headers: { origin: baseUrl() }, data: { name: 'Second look' } });
+    expect(second.status()).toBe(201);
+    const secondId = (await second.json()).id as string;
+    await page.goto(`${tripUrl}/compare?a=${first}&b=${secondId}`);
+    await hydrated(page);
+    const bands = page.getByTestId('compare-bands');
+    await bands.waitFor();
+    expect(await bands.getByTestId('band-chart').count()).toBe(2);
+    expect(await bands.textContent()).toMatch(/of the last 10 years' weather.*of the last 10 years' weather/);
+    await shot(page, `compare-bands-${viewport}`);
+    // The newest forecast is the one kept on the phone for use without signal (next test).
+    await page.goto(`${tripUrl}/forecasts/${secondId}`);
+    await hydrated(page);
+  });
+
   it('still shows the day sources and the band offline, from the copy saved on the phone', async () => {
     const url = page.url();
     await page.goto(url.replace(/\/forecasts\/[^/]+$/, ''));

@@ -3,6 +3,8 @@ import { PRINT_CHARTS } from './ForecastView';
 import SocChart from './SocChart';
 import { formatRowTime, formatWh, pct } from '../../lib/format';
 import { verdict } from '../../domain/forecasts/verdict';
+import type { ForecastWithWeather } from '../../domain/weather/band';
+import { BandChart } from './WeatherPanel';
 
 /** One side of a comparison. */
 export interface CompareSide {
@@ -26,7 +28,31 @@ const rows = (reserve: number | null): { label: string; value: (s: CompareSide) 
   { label: 'Solar curtailed', value: (s) => formatWh(s.forecast.summary.curtailedWh) },
   { label: 'Generator', value: (s) => `${s.forecast.summary.generatorHours} h · ${s.forecast.summary.generatorLitres} L` },
   { label: 'At the end', value: (s) => pct(s.forecast.summary.endSocPct) },
+  { label: 'How sure is this?', value: (s) => (s.forecast as ForecastWithWeather).band?.sentence ?? 'No band saved' },
 ];
+
+/** Each side's band ("how sure is this?"), when either has one. */
+function Bands({ a, b }: { a: CompareSide; b: CompareSide }) {
+  const sides = [a, b].filter((s) => (s.forecast as ForecastWithWeather).band);
+  if (sides.length === 0) return null;
+  return (
+    <section aria-labelledby="compare-bands" className="card p-3 sm:p-5" data-testid="compare-bands">
+      <h2 id="compare-bands" className="mb-2 text-xl">How sure is each?</h2>
+      <div className="grid gap-4 lg:grid-cols-2">
+        {sides.map((s) => {
+          const band = (s.forecast as ForecastWithWeather).band!;
+          return (
+            <div key={s.name}>
+              <h3 className="text-lg">{s.name}</h3>
+              <p className="mb-1 text-sm">{band.sentence}</p>
+              <BandChart band={band} forecast={s.forecast} floorPct={s.forecast.summary.floorSocPct ?? s.plan.bank.floorSocPct} />
+            </div>
+          );
+        })}
+      </div>
+    </section>
+  );
+}
 
 /** Two forecasts: SOC lines overlaid (the second ember dashed) and their summaries side by side. */
 export default function CompareView({ a, b, reserveSocPct = null }: CompareViewProps) {
@@ -63,6 +89,7 @@ export default function CompareView({ a, b, reserveSocPct = null }: CompareViewP
           </tbody>
         </table>
       </section>
+      <Bands a={a} b={b} />
     </div>
   );
 }
