@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { demoPlan, forecast, validatePlan } from '../../src/engine';
 import { verdict } from '../../src/domain/forecasts/verdict';
-import { buildQuickPlan, QUICK_PLAN_STORAGE_KEY, type QuickPlanForm } from '../../src/features/quick-plan/quick-plan';
+import { buildQuickPlan, QUICK_PLAN_STORAGE_KEY, type QuickPlanForm } from '../../src/domain/quick-plan/quick-plan';
 import { uniqueEmail, baseUrl } from '../helpers/api';
 import { hydrated, launch, shot, VIEWPORTS, type ViewportName } from '../helpers/browser';
 

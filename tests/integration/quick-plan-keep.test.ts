@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { buildQuickPlan, type QuickPlanForm } from '../../src/features/quick-plan/quick-plan';
+import { buildQuickPlan, type QuickPlanForm } from '../../src/domain/quick-plan/quick-plan';
 import { validatePlan } from '../../src/engine';
 import { api, openTestDb, signUp } from '../helpers/api';
 import { at } from '../../src/lib/invariant';

@@ -14,7 +14,7 @@ import {
   QUICK_PLAN_STORAGE_KEY,
   toCelsius,
   type QuickPlanForm,
-} from '../../src/features/quick-plan/quick-plan';
+} from '../../src/domain/quick-plan/quick-plan';
 import { toPlace } from '../../src/features/quick-plan/quick-plan.api';
 
 const values = (over: Partial<QuickPlanForm> = {}): QuickPlanForm => ({ ...defaultQuickPlan('2027-10-14'), ...over });

@@ -1,6 +1,6 @@
 import { useEffect, useState } from 'react';
 import { apiFetch } from '../../lib/query-client';
-import { QUICK_PLAN_STORAGE_KEY, readStoredQuickPlan } from '../quick-plan/quick-plan';
+import { QUICK_PLAN_STORAGE_KEY, readStoredQuickPlan } from '../../domain/quick-plan/quick-plan';
 import { ErrorState, LoadingState } from '../../components/ui/States';
 
 type State = { kind: 'saving' } | { kind: 'none' } | { kind: 'error'; error: unknown };

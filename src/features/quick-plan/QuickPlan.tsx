@@ -27,8 +27,8 @@ import {
   SKY_CHOICES,
   toCelsius,
   type QuickPlanForm,
-} from './quick-plan';
-import { lookupTimeZone, searchPlaces, type Place } from './quick-plan.api';
+} from '../../domain/quick-plan/quick-plan';
+import { lookupTimeZone, searchPlaces, type PlaceChoice } from './quick-plan.api';
 import { IslandQueryProvider } from '../../components/ui/QueryProvider';
 
 export interface QuickPlanProps {
@@ -302,7 +302,7 @@ type SearchState = 'idle' | 'searching' | 'done' | 'unavailable';
 function PlaceFields({ register, setValue, getValues, errors, start }: FormApi) {
   const id = useId();
   const [query, setQuery] = useState('');
-  const [places, setPlaces] = useState<Place[]>([]);
+  const [places, setPlaces] = useState<PlaceChoice[]>([]);
   const [search, setSearch] = useState<SearchState>('idle');
   const [zoneNote, setZoneNote] = useState<string | null>(null);
   const [zones, setZones] = useState<string[]>(() => {
@@ -343,7 +343,7 @@ function PlaceFields({ register, setValue, getValues, errors, start }: FormApi) 
     setValue('timeZone', tz, { shouldValidate: true });
   };
 
-  const pick = async (p: Place) => {
+  const pick = async (p: PlaceChoice) => {
     setValue('placeName', p.where ? `${p.name}, ${p.where}`.slice(0, 100) : p.name, { shouldValidate: true });
     setValue('lat', Math.round(p.lat * 1000) / 1000, { shouldValidate: true });
     setValue('lon', Math.round(p.lon * 1000) / 1000, { shouldValidate: true });

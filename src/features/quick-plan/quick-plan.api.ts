@@ -3,8 +3,8 @@
 import { apiFetch } from '../../lib/query-client';
 import type { Place as FoundPlace } from '../../server/places';
 
-/** A place found by the search, as the quick plan shows it. */
-export interface Place {
+/** A found place as the quick plan offers it (a view of the server's Place: region and country in one line). */
+export interface PlaceChoice {
   name: string;
   /** Region and country, for telling same-named places apart. */
   where: string;
@@ -14,13 +14,13 @@ export interface Place {
 }
 
 /** A found place for the quick plan. Numeric region codes ("06") mean nothing to a camper and are left out. */
-export function toPlace(p: FoundPlace): Place {
+export function toPlace(p: FoundPlace): PlaceChoice {
   const where = [p.adminCode, p.country].filter((x) => x && !/^\d+$/.test(x)).join(', ');
   return { name: p.name, where, lat: p.lat, lon: p.lon, timeZone: p.timeZone };
 }
 
 /** Searches places by name (`GET /api/places?q=`). */
-export async function searchPlaces(q: string, signal?: AbortSignal): Promise<Place[]> {
+export async function searchPlaces(q: string, signal?: AbortSignal): Promise<PlaceChoice[]> {
   const list = await apiFetch<FoundPlace[]>(`/api/places?q=${encodeURIComponent(q)}`, { signal });
   return list.map(toPlace).slice(0, 8);
 }

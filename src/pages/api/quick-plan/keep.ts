@@ -1,5 +1,5 @@
 import { validatePlan, type Plan } from '../../../engine';
-import { quickPlanToRigAndTrip } from '../../../features/quick-plan/quick-plan';
+import { quickPlanToRigAndTrip } from '../../../domain/quick-plan/quick-plan';
 import { crewForNewRig } from '../../../server/access';
 import { db } from '../../../server/db';
 import { json, readJson, requireUser, route } from '../../../server/http';
