@@ -1,8 +1,8 @@
 // Messages a camper reads say things in plain words: no "IANA", no date format codes or year ranges,
 // and cloud cover in oktas only beside a plain sky name.
 import { describe, expect, it } from 'vitest';
-import { stopSchema } from '../../src/engine/schema';
-import { assumedMessage } from '../../src/engine/weather';
+import { stopSchema } from '../../../src/engine/schema';
+import { assumedMessage } from '../../../src/engine/weather';
 
 const STOP = { name: 'Mesa camp', lat: 36.1, lon: -111.5, timeZone: 'America/Phoenix', arrive: '2027-10-20', nights: 2 };
 
