@@ -169,7 +169,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('landing and quick plan 
     const file = await download.path();
     const text = readFileSync(file, 'utf8');
     const lines = text.trim().split(/\r?\n/);
-    expect(lines[0]).toBe('stop,time,socPct,volts,solarWatts,chargeWatts,loadWatts,unmetWatts,curtailedWatts,ambientC,batteryC,sunAltitudeDeg,poaWm2,driving,generatorOn,disconnected');
+    expect(lines[0]).toBe('stop,time,socPct,usablePct,volts,minVolts,solarWatts,chargeWatts,loadWatts,unmetWatts,curtailedWatts,ambientC,batteryC,sunAltitudeDeg,poaWm2,driving,generatorOn,disconnected');
     // 15:00 on the arrival day to 11:00 after the third night.
     expect(lines.length).toBe(1 + 3 * 24 - 4);
     expect(lines[1]?.startsWith('Test camp,2027-10-21T15:00-06:00,')).toBe(true);

@@ -59,7 +59,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     expect(await page.getByLabel('Low-voltage cutoff').inputValue()).toBe('10.5');
     expect(await page.getByLabel('Nominal voltage').inputValue()).toBe('12');
     await page.getByLabel('LiFePO4', { exact: true }).check();
-    expect(await page.getByLabel('Peukert exponent').inputValue()).toBe('1.05');
+    expect(await page.getByLabel('Peukert exponent').inputValue()).toBe('1.02'); // LiFePO4 Peukert default of the engine's revision 2 (forecast-engine.md, "Revision 2")
     expect(await page.getByLabel('Usable floor').inputValue()).toBe('10');
     expect(await page.getByLabel('Low-voltage cutoff').inputValue()).toBe('10');
     expect(await page.getByLabel('Nominal voltage').inputValue()).toBe('12.8');
@@ -96,7 +96,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     await page.getByText('300 Ah LiFePO4 · 400 W solar').waitFor();
 
     const saved = await (await page.request.get(`${baseUrl()}/api/rigs/${rigId}`)).json();
-    expect(saved.bank).toMatchObject({ chemistry: 'lifepo4', capacityAh: 300, nominalVolts: 12.8, floorSocPct: 10, cutoffVolts: 10, maxChargeAmps: 150, peukertExponent: 1.05 });
+    expect(saved.bank).toMatchObject({ chemistry: 'lifepo4', capacityAh: 300, nominalVolts: 12.8, floorSocPct: 10, cutoffVolts: 10, maxChargeAmps: 150, peukertExponent: 1.02 });
     expect(saved.arrays).toMatchObject([{ ratedWatts: 400, tiltDeg: 0, aim: 'fixed', controller: 'mppt' }]);
     expect(saved.chargers).toMatchObject([{ kind: 'alternator', amps: 30 }]);
     expect(saved.inverter).toMatchObject({ efficiencyPct: 90, idleWatts: 12 });
@@ -211,7 +211,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     await shot(page, `load-conflict-${viewport}`);
     await notice.getByRole('button', { name: 'Take theirs' }).click();
     await page.getByText('Showing the other version of Furnace blower.').waitFor();
-    await expect(page.locator('tr[data-load-row="Furnace blower"] td[data-label="Draw"]').textContent()).resolves.toBe('90 W');
+    await expect(page.locator('tr[data-load-row="Furnace blower"] td[data-label="Draw"]').textContent()).resolves.toBe('90 W7.03 A at 12.8 V'); // 90 W ÷ 12.8 V = 7.03 A
     const saved = (await (await page.request.get(`${baseUrl()}/api/rigs/${rigId}/loads`)).json()).find((l: { id: string }) => l.id === furnace.id);
     expect(saved).toMatchObject({ watts: 90, dutyPct: 80, version: furnace.version + 1 });
   });
@@ -282,13 +282,15 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     expect(text).toContain('1. Mesa camp');
     expect(text).toContain('2. Juniper flat');
     expect(text).toContain('Thu 21 Oct 2027 from 15:00 · 3 nights · leave Sun 24 Oct');
-    expect(text).toMatch(/Thu 21 OctClear18 °C−2 °C/);
-    expect(text).toMatch(/Fri 22 OctMostly cloudy18 °C1 °C/);
+    expect(text).toMatch(/Thu 21 OctTypedClear, 18 °C \/ −2 °C/);
+    expect(text).toMatch(/Fri 22 OctTypedMostly cloudy, 18 °C \/ 1 °C/);
     expect(text).toContain('Sun 24 Oct 2027 from 09:00, 4 hours');
     expect(text).toContain('Keep at least 25 % state of charge');
-    // Mesa camp has weather for two of its four days; Juniper flat has none (the engine's fallback, forecast-engine.md).
-    expect(text).toContain('Days not listed take the weather of the nearest listed day.');
-    expect(text).toContain('No weather entered: the forecast assumes partly cloudy days, a high of 20 °C and a low of 10 °C.');
+    // Mesa camp has weather typed for two of its four days; the others, and all of Juniper flat, come from the
+    // weather service's past years (far trip), each day saying so.
+    expect(text).toMatch(/Sat 23 OctPast years/);
+    expect(text).toMatch(/Mon 25 OctPast years/);
+    expect(text).not.toContain('Assumed');
     expect(text).not.toMatch(/NaN|undefined/);
     expect(await page.locator('#stops-0-name').count()).toBe(0);
 
@@ -319,7 +321,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     await page.locator('#drives-0-date').fill('2027-10-26');
     await page.locator('#drives-0-startHour').selectOption('12');
     await page.getByRole('button', { name: 'Save trip' }).click();
-    await expect(page.locator('#drives-0-date-error').textContent()).resolves.toMatch(/^The drive falls outside the trip/);
+    await expect(page.locator('#drives-0-date-error').textContent()).resolves.toMatch(/^The drive must start inside the trip/);
     const unchanged = await (await page.request.get(`${baseUrl()}/api/trips/${tripId}`)).json();
     expect(unchanged.drives).toEqual([{ date: '2027-10-24', startHour: 9, hours: 4 }]);
   });
@@ -353,7 +355,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     await page.getByText('Saved. Temperatures show in °F.').waitFor();
     await page.goto(`${baseUrl()}/trips/${tripId}`);
     await hydrated(page);
-    expect(await page.getByTestId('trip-summary').textContent()).toMatch(/Thu 21 OctClear64 °F28 °F/);
+    expect(await page.getByTestId('trip-summary').textContent()).toMatch(/Thu 21 OctTypedClear, 64 °F \/ 28 °F/);
     await page.getByRole('button', { name: 'Edit the itinerary' }).click();
     const high = page.locator('#stops-0-weather-0-highC');
     await high.waitFor();
