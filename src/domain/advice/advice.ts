@@ -16,10 +16,11 @@ import {
   type ResolvedCharger,
   type ResolvedPlan,
 } from '../../engine';
-import { formatClock, formatDay, formatLitres, formatRowTime, localParts, pct } from '../../lib/format';
+import { formatDay, formatLitres, formatRowTime, localParts, pct } from '../../lib/format';
 import { reserveOf } from '../forecasts/verdict';
 import { coldAloneText, effectText, joinAnd, notEnough, warningsOf, type Effect } from './advice-text';
 import { CAUTIONS } from './cautions';
+import { DEFAULT_GENERATOR_MARGIN_PTS, DEFAULT_GENERATOR_STOP_PCT, GENERATOR_MARGIN_STEP_PTS, generatorRule, generatorRuleText, type GeneratorRule } from './generator-rule';
 import { at } from '../../lib/invariant';
 
 
@@ -202,16 +203,11 @@ function generatorCharger(plan: ResolvedPlan): { amps: number; fuel: number; sou
   return { amps: ASSUMED_CONVERTER_AMPS, fuel: ASSUMED_FUEL_LPH, source: `a typical ${ASSUMED_CONVERTER_AMPS} A converter/charger (assumed: the plan names none)` };
 }
 
-/** Runs the plan with a generator allowed only in the given rows, started whenever the bank is below full. */
-function withForcedGenerator(prepared: PreparedTrip, rows: number[], amps: number, fuel: number): Forecast {
-  const mask = new Uint8Array(prepared.n);
-  for (const r of rows) mask[r] = 1;
-  const forced: ResolvedCharger = { kind: 'generator', amps, startSocPct: 99.9, stopSocPct: 100, fuelLitresPerHour: fuel };
-  const chargers = [...prepared.plan.chargers.filter((c) => c.kind !== 'generator'), forced];
-  // The prepared trip's generator mask says where the plan's generator may run; narrowing it to
-  // chosen rows runs "N hours on that morning" through the engine's own battery loop.
-  const narrowed: PreparedTrip = { ...prepared, generatorAllowed: mask };
-  return toForecast(narrowed, simulatePrepared(narrowed, { chargers }));
+/** Runs the plan with a generator in its allowed hours under the one generator rule (start and stop levels). */
+function withRuleGenerator(prepared: PreparedTrip, rule: GeneratorRule, amps: number, fuel: number): Forecast {
+  const gen: ResolvedCharger = { kind: 'generator', amps, startSocPct: rule.startSocPct, stopSocPct: rule.stopSocPct, fuelLitresPerHour: fuel };
+  const chargers = [...prepared.plan.chargers.filter((c) => c.kind !== 'generator'), gen];
+  return toForecast(prepared, simulatePrepared(prepared, { chargers }));
 }
 
 /** Rows of each local day where the plan allows a generator (its stop's hours, no hookup, not driving), by day. */
@@ -227,6 +223,12 @@ function generatorWindows(prepared: PreparedTrip, beforeRow: number): number[][]
   return [...days.values()];
 }
 
+/**
+ * Generator advice under the one rule the sweep uses too (generator-rule.ts): the generator runs in
+ * the plan's allowed hours, starting below the line + a margin and stopping at the stated level.
+ * The default margin first; when that is not enough, larger margins in 10-point steps, and the
+ * smallest that keeps the trip above its reserve (else at least above the floor) is the advice.
+ */
 function generatorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: number): AdviceChange | null {
   const plan = prepared.plan;
   const problem = firstProblemRow(base, reservePct);
@@ -241,10 +243,7 @@ function generatorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: num
     };
   }
 
-  // A plan with its own generator: the lever is when it starts (its start level), not whether it runs.
   const own = plan.chargers.find((c) => c.kind === 'generator');
-  if (own) return ownGeneratorAdvice(prepared, base, reservePct, own);
-
   const { amps, fuel, source } = generatorCharger(plan);
   if (generatorWindows(prepared, problem).length === 0) {
     return {
@@ -258,158 +257,37 @@ function generatorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: num
     };
   }
 
-  // Aim for the reserve; if no generator hours can hold it, at least avoid the cutoff.
   const floor = base.summary.floorSocPct;
-  let plan1 = greedyRuns(prepared, base, reservePct, amps, fuel);
-  let belowReserve = false;
-  if (!plan1 && reservePct > floor) {
-    plan1 = greedyRuns(prepared, base, floor, amps, fuel);
-    belowReserve = plan1 !== null;
-  }
-  if (plan1) {
-    const { runs, current } = plan1;
-    const e = effectOf(base, current, reservePct);
-    const list = runs.map((r) => `${r.hours} h on ${formatDay(localParts(r.startTime)?.date ?? '')} from ${formatClock(r.startTime)}`);
-    const total = runs.reduce((s, r) => s + r.hours, 0);
-    const ran = current.summary.generatorHours;
-    const target = belowReserve ? floor : reservePct;
-    const hoursEach = runs.map((r) => r.hours);
-    const lo = Math.min(...hoursEach);
-    const hi = Math.max(...hoursEach);
-    const title =
-      runs.length <= 3
-        ? `Run a generator ${joinAnd(list)}`
-        : `Run a generator on ${runs.length} mornings, ${lo === hi ? `${lo} h` : `${lo}–${hi} h`} each`;
-    return {
-      kind: 'generator',
-      title,
-      effect: `${e.text} About ${formatLitres(current.summary.generatorLitres)} of fuel${ran < total ? ` (it runs ${ran} h: the bank is full sooner)` : ''}.${current.summary.minSocPct < target + 5 ? ' That leaves little margin: an extra hour gives room for error.' : ''}`,
-      detail: `${runs.length > 3 ? `${list.join('; ')}. ` : ''}Through ${source}; worked out by running the forecast again with the generator on for those hours${runs.length > 1 ? ' (one morning is not enough)' : ''}.${belowReserve ? ` No generator hours keep the bank above your ${pct(reservePct)} reserve: it falls below it where no generator may run.` : ''}`,
-      caution: CAUTIONS.generator,
-      fixes: !belowReserve,
-      score: e.score + 100 - total,
-    };
-  }
-
-  // Trouble on many mornings (a long trip): the same hours every morning.
-  const days = generatorWindows(prepared, prepared.n);
-  const longest = Math.max(...days.map((w) => w.length));
+  const stopSocPct = own ? Math.max(own.stopSocPct, DEFAULT_GENERATOR_STOP_PCT) : DEFAULT_GENERATOR_STOP_PCT;
+  let last: { rule: GeneratorRule; alt: Forecast } | null = null;
   for (const target of reservePct > floor ? [reservePct, floor] : [floor]) {
-    for (let h = 1; h <= longest; h++) {
-      const alt = withForcedGenerator(prepared, days.flatMap((w) => w.slice(0, h)), amps, fuel);
+    for (let margin = DEFAULT_GENERATOR_MARGIN_PTS; target + margin < stopSocPct; margin += GENERATOR_MARGIN_STEP_PTS) {
+      const rule = generatorRule({ floorSocPct: target, marginPts: margin, stopSocPct });
+      const alt = withRuleGenerator(prepared, rule, amps, fuel);
+      last = { rule, alt };
       if (!isFine(alt, target)) continue;
       const e = effectOf(base, alt, reservePct);
       const under = target < reservePct;
+      const lineName = target > floor ? 'reserve' : 'floor';
+      const first = alt.hourly.find((r) => r.generatorOn);
+      const start = Math.round(rule.startSocPct * 10) / 10;
+      const title = own
+        ? `Start the generator below ${start} % instead of ${Math.round(own.startSocPct)} %`
+        : `Run a generator whenever the charge falls below ${start} %`;
       return {
         kind: 'generator',
-        title: `Run a generator ${h} h a day from ${formatClock(at(prepared.grid.time, at(at(days, days.length - 1, 'generator day'), 0, 'generator hour'), 'hour of the trip'))}`,
-        effect: `${e.text} It would run about ${alt.summary.generatorHours} h in all (${formatLitres(alt.summary.generatorLitres)} of fuel).`,
-        detail: `Through ${source}; worked out by running the forecast again with the generator on for those hours.${under ? ` No generator hours keep the bank above your ${pct(reservePct)} reserve.` : ''}`,
+        title,
+        effect: `${e.text} It would run about ${alt.summary.generatorHours} h in all (${formatLitres(alt.summary.generatorLitres)} of fuel)${first ? `, first on ${formatRowTime(first.time)}` : ''}.`,
+        detail: `The generator ${generatorRuleText(rule, lineName)}, in the allowed generator hours at each camp without hookup${margin > DEFAULT_GENERATOR_MARGIN_PTS ? ` (${DEFAULT_GENERATOR_MARGIN_PTS} points above the ${lineName} is not enough: the bank runs low where no generator may run)` : ''}. Through ${source}; worked out by running the forecast again with it.${under ? ` No generator hours keep the bank above your ${pct(reservePct)} reserve: it falls below it where no generator may run.` : ''}`,
         caution: CAUTIONS.generator,
         fixes: !under,
-        score: e.score + 50 - h,
+        score: e.score + 100 - alt.summary.generatorHours,
       };
     }
   }
-
-  const alt = withForcedGenerator(prepared, days.flat(), amps, fuel);
-  const e = effectOf(base, alt, reservePct);
-  return notEnough(e, `Through ${source}, in every allowed generator hour.`);
-}
-
-interface Run {
-  rows: number[];
-  hours: number;
-  startTime: string;
-}
-
-/**
- * Greedy and measured: fixes the first trouble (cutoff, or a dip below `target`) with the fewest
- * whole hours on the last allowed morning before it (or the one before that), then the next
- * trouble, until the whole trip stays at or above `target`. Null when that cannot be done.
- */
-function greedyRuns(prepared: PreparedTrip, base: Forecast, target: number, amps: number, fuel: number): { runs: Run[]; current: Forecast } | null {
-  const runs = new Map<number, Run>();
-  const forcedRows = () => [...runs.values()].flatMap((r) => r.rows.slice(0, r.hours));
-  let current = base;
-  // A budget of engine runs keeps long trips quick; they fall back to "every morning".
-  let budget = 60;
-  for (let step = 0; step < 12 && budget > 0 && !isFine(current, target); step++) {
-    const p = firstProblemRow(current, target);
-    const windows = generatorWindows(prepared, p);
-    let fixed = false;
-    for (let back = 1; back <= Math.min(2, windows.length) && !fixed; back++) {
-      const rows = at(windows, windows.length - back, 'generator window');
-      const firstRow = at(rows, 0, 'generator hour');
-      const day = at(prepared.grid.localDay, firstRow, 'hour of the trip');
-      const startTime = at(prepared.grid.time, firstRow, 'hour of the trip');
-      const had = runs.get(day)?.hours ?? 0;
-      // A run should carry the bank to the next allowed generator hours (or the trip's end);
-      // failing that, the smallest run that at least moves the trouble later.
-      const next = nextWindowStart(prepared, at(rows, rows.length - 1, 'generator hour'));
-      let progress: { hours: number; alt: Forecast } | null = null;
-      for (let h = had + 1; h <= rows.length && budget > 0; h++) {
-        budget--;
-        runs.set(day, { rows, hours: h, startTime });
-        const alt = withForcedGenerator(prepared, forcedRows(), amps, fuel);
-        const p2 = firstProblemRow(alt, target);
-        if (p2 < 0 || (next >= 0 && p2 > next)) {
-          current = alt;
-          fixed = true;
-          break;
-        }
-        if (p2 > p && !progress) progress = { hours: h, alt };
-      }
-      if (!fixed && progress) {
-        runs.set(day, { rows, hours: progress.hours, startTime });
-        current = progress.alt;
-        fixed = true;
-      }
-      if (!fixed) {
-        if (had > 0) runs.set(day, { rows, hours: had, startTime });
-        else runs.delete(day);
-      }
-    }
-    if (!fixed) break;
-  }
-  if (runs.size === 0 || !isFine(current, target)) return null;
-  return { runs: [...runs.values()].sort((a, b) => at(a.rows, 0, 'generator hour') - at(b.rows, 0, 'generator hour')), current };
-}
-
-/** First row after `row` on a later local day where the plan allows a generator; −1 when none. */
-function nextWindowStart(prepared: PreparedTrip, row: number): number {
-  const day = prepared.grid.localDay[row];
-  for (let r = row + 1; r < prepared.n; r++) {
-    if (prepared.generatorAllowed[r] === 1 && prepared.grid.localDay[r] !== day) return r;
-  }
-  return -1;
-}
-
-function ownGeneratorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: number, own: ResolvedCharger): AdviceChange | null {
-  const plan = prepared.plan;
-  const withStart = (start: number) => {
-    const stop = Math.max(own.stopSocPct, Math.min(100, start + 20));
-    const chargers = plan.chargers.map((c) => (c.kind === 'generator' ? { ...c, startSocPct: start, stopSocPct: stop } : c));
-    return { stop, alt: toForecast(prepared, simulatePrepared(prepared, { chargers })) };
-  };
-  for (let start = Math.ceil((own.startSocPct + 1) / 5) * 5; start <= 95; start += 5) {
-    const { stop, alt } = withStart(start);
-    if (!isFine(alt, reservePct)) continue;
-    const e = effectOf(base, alt, reservePct);
-    const first = alt.hourly.find((r) => r.generatorOn);
-    return {
-      kind: 'generator',
-      title: `Start the generator below ${start} % instead of ${Math.round(own.startSocPct)} %`,
-      effect: `${e.text} It would run about ${alt.summary.generatorHours} h in all (${formatLitres(alt.summary.generatorLitres)} of fuel)${first ? `, first on ${formatRowTime(first.time)}` : ''}.`,
-      detail: `Same generator hours at each stop; it stops at ${stop} %. Worked out by running the forecast again.`,
-      caution: CAUTIONS.generator,
-      fixes: true,
-      score: e.score,
-    };
-  }
-  if (own.startSocPct >= 95) return null;
-  const e = effectOf(base, withStart(95).alt, reservePct);
-  return notEnough(e, 'With the rig’s generator starting below 95 %, in its allowed hours.', 'Even starting the generator below 95 %');
+  if (!last) return null;
+  const e = effectOf(base, last.alt, reservePct);
+  return notEnough(e, `Through ${source}: it ${generatorRuleText(last.rule, 'floor')}, in every allowed generator hour.`, `Even starting the generator below ${Math.round(last.rule.startSocPct)} %`);
 }
 
 // ---------------------------------------------------------------------------------------------
