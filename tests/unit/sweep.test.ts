@@ -74,10 +74,18 @@ describe('the sweep on a no-sun trip: the cheapest passing option is the arithme
     expect(result.base.passes).toBe(false);
   });
 
-  it('tries every combination and ranks them by cost', () => {
+  it('tries every combination and ranks them by cost; panels alone change nothing under a sun that never rises, and come last', () => {
     expect(result.combinations).toBe(countCombinations(candidates));
     expect(result.options).toHaveLength(13 * 3 - 1);
-    for (let i = 1; i < result.options.length; i++) expect(result.options[i]!.total).toBeGreaterThanOrEqual(result.options[i - 1]!.total);
+    expect(result.ranking).toBe('cost');
+    const useful = result.options.filter((o) => !o.changesNothing && o.noBetterThan === null);
+    const nothing = result.options.filter((o) => o.changesNothing);
+    expect(nothing.map((o) => o.key).sort()).toEqual(['b0.p1.d0.g0', 'b0.p2.d0.g0']);
+    expect(result.options.slice(-2).every((o) => o.changesNothing)).toBe(true);
+    // A bank with panels is no better than the same bank alone, which costs less.
+    for (const o of result.options.filter((x) => x.changes.bank && x.changes.panel)) expect(o.noBetterThan, o.label).toBe(o.key.replace(/\.p\d/, '.p0'));
+    expect(useful.map((o) => o.key)).toEqual(result.options.slice(0, useful.length).map((o) => o.key));
+    for (let i = 1; i < useful.length; i++) expect(useful[i]!.total).toBeGreaterThanOrEqual(useful[i - 1]!.total);
     // The plan plus one preparation per new geometry (flat and tilted).
     expect(result.prepared).toBe(3);
   });
@@ -147,7 +155,7 @@ describe('the sweep on a sunny trip (the demo van)', () => {
   it('matches a full forecast of the plan the option makes (prepare once + simulate = forecast of the changed plan)', () => {
     for (const key of ['b1.p0.d0.g0', 'b0.p3.d0.g0', 'b2.p1.d1.g1', 'b0.p0.d0.g1', 'b1.p2.d1.g0']) {
       const o = result.options.find((x) => x.key === key)!;
-      const after = forecastAfter(plan, o.changes).forecast.summary;
+      const after = forecastAfter(plan, o.changes, 50).forecast.summary;
       expect(after.minSocPct, key).toBe(Math.round(o.minSocPct * 10) / 10);
       expect(after.solarWh, key).toBe(Math.round(o.solarWh));
       expect(after.generatorHours, key).toBe(o.generatorHours);

@@ -20,7 +20,7 @@ import { formatDay, formatLitres, formatRowTime, localParts, pct } from '../../l
 import { reserveOf } from '../forecasts/verdict';
 import { coldAloneText, effectText, joinAnd, notEnough, warningsOf, type Effect } from './advice-text';
 import { CAUTIONS } from './cautions';
-import { DEFAULT_GENERATOR_MARGIN_PTS, DEFAULT_GENERATOR_STOP_PCT, GENERATOR_MARGIN_STEP_PTS, generatorRule, generatorRuleText, type GeneratorRule } from './generator-rule';
+import { DEFAULT_GENERATOR_MARGIN_PTS, DEFAULT_GENERATOR_STOP_PCT, GENERATOR_MARGIN_STEP_PTS, generatorRule, generatorRuleText, worstStrandedPts, type GeneratorRule } from './generator-rule';
 import { at } from '../../lib/invariant';
 
 
@@ -259,10 +259,11 @@ function generatorAdvice(prepared: PreparedTrip, base: Forecast, reservePct: num
 
   const floor = base.summary.floorSocPct;
   const stopSocPct = own ? Math.max(own.stopSocPct, DEFAULT_GENERATOR_STOP_PCT) : DEFAULT_GENERATOR_STOP_PCT;
+  const strandedPts = worstStrandedPts(base.hourly);
   let last: { rule: GeneratorRule; alt: Forecast } | null = null;
   for (const target of reservePct > floor ? [reservePct, floor] : [floor]) {
-    for (let margin = DEFAULT_GENERATOR_MARGIN_PTS; target + margin < stopSocPct; margin += GENERATOR_MARGIN_STEP_PTS) {
-      const rule = generatorRule({ floorSocPct: target, marginPts: margin, stopSocPct });
+    for (let margin = DEFAULT_GENERATOR_MARGIN_PTS; margin === DEFAULT_GENERATOR_MARGIN_PTS || target + margin + strandedPts < stopSocPct; margin += GENERATOR_MARGIN_STEP_PTS) {
+      const rule = generatorRule({ floorSocPct: target, marginPts: margin, stopSocPct, strandedPts });
       const alt = withRuleGenerator(prepared, rule, amps, fuel);
       last = { rule, alt };
       if (!isFine(alt, target)) continue;

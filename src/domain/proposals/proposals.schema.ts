@@ -54,10 +54,12 @@ export const priceListPutSchema = priceListSchema.extend({
   version: z.number({ error: 'Send the version you read (0 for a first save).' }).int({ error: 'must be a whole number' }).min(0, { error: 'must be at least 0' }),
 });
 
-/** A bank to try instead of the rig's: its chemistry's defaults apply. */
+/** A bank to try instead of the rig's: its chemistry's defaults apply, its floor too unless the installer sets one. */
 export const bankCandidateSchema = z.object({
   chemistry: z.enum(CHEMISTRIES, { error: 'must be one of lifepo4, agm, flooded, gel' }),
   capacityAh: num(1, 20_000),
+  /** The lowest charge this bank may be run to, %: the chemistry's default floor when not given. */
+  floorSocPct: num(0, 95).optional(),
 });
 export type BankCandidate = z.output<typeof bankCandidateSchema>;
 
@@ -86,6 +88,14 @@ export const candidatesSchema = z
     generatorStartHour: int(0, 23).default(8),
     /** Converter/charger amps of a generator added to a rig without one (common practice: 30 A). */
     generatorAmps: num(1, 300).default(30),
+    /** The generator starts this many points above the line (the trip's reserve, else the bank's floor). */
+    generatorMarginPts: num(0, 90).default(10),
+    /** The generator stops at this charge, %. */
+    generatorStopPct: num(10, 100).default(90),
+    /** The rig's stated payload (what it may still carry), kg, for the weight check. */
+    payloadKg: num(1, 20_000).nullable().default(null),
+    /** The rig's stated room for batteries, litres, for the space check. */
+    batterySpaceL: num(1, 5_000).nullable().default(null),
   })
   .superRefine((c, ctx) => {
     const n = countCombinations(c);
@@ -120,6 +130,8 @@ export const changesSchema = z
     generatorHours: int(1, 24).nullable().default(null),
     generatorStartHour: int(0, 23).default(8),
     generatorAmps: num(1, 300).default(30),
+    generatorMarginPts: num(0, 90).default(10),
+    generatorStopPct: num(10, 100).default(90),
   })
   .superRefine((c, ctx) => {
     if (!c.bank && !c.panel && c.dcdcAmps === null && c.generatorHours === null) ctx.addIssue({ code: 'custom', path: [], message: 'name at least one change: a bank, panels, a DC-DC charger or generator hours' });
