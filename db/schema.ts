@@ -322,6 +322,10 @@ export interface ProposalTable {
   after_plan: string;
   after_result: string;
   decision_comment: string | null;
+  /** JSON: the business document's fields (src/domain/proposals/document.schema.ts); '{}' before migration 0011. */
+  document: Generated<string>;
+  /** The name the crew owner typed to accept. */
+  accepted_name: string | null;
   decided_by: string | null;
   decided_at: string | null;
   sent_at: string | null;

@@ -2,7 +2,7 @@ import type { Kysely } from 'kysely';
 import type { DB } from '../../db/schema';
 import type { GrantDto, InstallerRigDto, ShareInviteDto } from '../domain/crews/crews.schema';
 import { HttpError } from './errors';
-import { grantMail } from './mail';
+import { grantMail, renderMail, type MailContent } from './mail';
 import { enqueueMail, kickOutbox } from './outbox';
 import { nowIso } from './versions';
 
@@ -56,7 +56,29 @@ export async function listShareInvites(db: Kysely<DB>, rigId: string): Promise<S
 }
 
 /** What every share answers, whoever the address belongs to. */
-export const SHARE_SENT_MESSAGE = 'If this address belongs to an installer account, they get an e-mail now, and the share shows as theirs once they open their rigs on Sunreckon. Until then it is listed as invited.';
+export const SHARE_SENT_MESSAGE =
+  'If this address belongs to an installer account, they get an e-mail now, and the share shows as theirs once they open their rigs on Sunreckon. If it has no account yet, the e-mail invites them to create an installer account, and the share follows. Until then it is listed as invited.';
+
+/** The link an invited address follows: create an installer account, then open the share. */
+export function shareSignUpUrl(origin: string, shareId: string): string {
+  return `${origin}/sign-up?as=installer&next=${encodeURIComponent(`/installer?share=${shareId}`)}`;
+}
+
+/** The e-mail to an address with no account: a crew wants to share a rig; create an installer account to read it. */
+export function shareSignUpMail(p: { ownerName: string; rigName: string; crewName: string; url: string }): MailContent {
+  // Names are the users' own words: quoted in the body (escaped by renderMail), never in the subject.
+  return renderMail({
+    subject: 'A crew wants to share a rig with you on Sunreckon',
+    greeting: 'Hello,',
+    intro: [
+      `A crew owner who signs as “${p.ownerName}” wants to share their rig “${p.rigName}” with you as their installer: its power system, loads, trips and saved forecasts, so you can prepare an upgrade proposal.`,
+      `The crew’s name, in its members’ own words: “${p.crewName}”.`,
+      'Sunreckon has no account for this address yet. Create an installer account with this same address through the link below, and the rig is shared with you as soon as you do.',
+    ],
+    action: { label: 'Create an installer account', url: p.url },
+    outro: ['If you do not know this crew, ignore this e-mail: nothing is shared until you create the account through this link.'],
+  });
+}
 
 /**
  * Shares a rig with an e-mail address. The answer is the same whether the address belongs to an
@@ -87,6 +109,12 @@ export async function createGrant(db: Kysely<DB>, p: { rigId: string; ownerId: s
       await trx.insertInto('rig_share_invites').values({ id: shareId, rig_id: p.rigId, email: typed, invited_by: p.ownerId, created_at: createdAt }).execute();
       if (isInstaller) await trx.insertInto('rig_grants').values({ id: shareId, rig_id: p.rigId, installer_id: installer.id, granted_by: p.ownerId, created_at: createdAt }).execute();
     }
+    if (!installer) {
+      // No account at this address: invite it to create an installer account; the share follows (claimShare).
+      const rig = await trx.selectFrom('rigs').innerJoin('crews', 'crews.id', 'rigs.crew_id').select(['rigs.name as rigName', 'crews.name as crewName']).where('rigs.id', '=', p.rigId).executeTakeFirstOrThrow();
+      const owner = await trx.selectFrom('user').select('name').where('id', '=', p.ownerId).executeTakeFirstOrThrow();
+      await enqueueMail(trx, 'grant', typed, shareSignUpMail({ ownerName: owner.name, rigName: rig.rigName, crewName: rig.crewName, url: shareSignUpUrl(p.origin, shareId) }));
+    }
     if (isInstaller) {
       const rig = await trx.selectFrom('rigs').innerJoin('crews', 'crews.id', 'rigs.crew_id').select(['rigs.name as rigName', 'crews.name as crewName']).where('rigs.id', '=', p.rigId).executeTakeFirstOrThrow();
       const owner = await trx.selectFrom('user').select('name').where('id', '=', p.ownerId).executeTakeFirstOrThrow();
@@ -102,6 +130,23 @@ export async function createGrant(db: Kysely<DB>, p: { rigId: string; ownerId: s
 export async function shareInviteRig(db: Kysely<DB>, id: string): Promise<string | null> {
   const row = await db.selectFrom('rig_share_invites').select('rig_id').where('id', '=', id).executeTakeFirst();
   return row?.rig_id ?? null;
+}
+
+/**
+ * An installer followed a share link (the e-mail to an address that had no account): when the share
+ * still waits, was sent to this installer's own address, and has no grant yet, the grant follows.
+ * The link's id proves the mailbox; the address must match too. Anything else changes nothing.
+ */
+export async function claimShare(db: Kysely<DB>, installer: { id: string; email: string; kind?: string }, shareId: string): Promise<boolean> {
+  if (installer.kind !== 'installer') return false;
+  return db.transaction().execute(async (trx) => {
+    const invite = await trx.selectFrom('rig_share_invites').select(['id', 'rig_id', 'email', 'invited_by']).where('id', '=', shareId).executeTakeFirst();
+    if (!invite || invite.email.trim().toLowerCase() !== installer.email.trim().toLowerCase()) return false;
+    const taken = await trx.selectFrom('rig_grants').select('id').where((eb) => eb.or([eb('id', '=', invite.id), eb.and([eb('rig_id', '=', invite.rig_id), eb('installer_id', '=', installer.id)])])).executeTakeFirst();
+    if (taken) return false;
+    await trx.insertInto('rig_grants').values({ id: invite.id, rig_id: invite.rig_id, installer_id: installer.id, granted_by: invite.invited_by, created_at: nowIso() }).execute();
+    return true;
+  });
 }
 
 /** An installer opened their shared rigs: every share waiting on them counts as open. */

@@ -1,6 +1,7 @@
 import type { Kysely } from 'kysely';
 import type { DB } from '../../db/schema';
 import { priceListSchema, type PriceList } from '../domain/proposals/proposals.schema';
+import { NO_WIRING_PRICES } from '../domain/proposals/document.schema';
 import { HttpError } from './errors';
 import { conflict, nowIso } from './versions';
 
@@ -26,6 +27,7 @@ function emptyList(): PriceListDto {
     dcdcInstall: 0,
     generator: 0,
     generatorPerHour: 0,
+    wiring: { ...NO_WIRING_PRICES },
     version: 0,
     saved: false,
     updatedAt: null,

@@ -2,7 +2,10 @@ import type { Kysely } from 'kysely';
 import type { DB, ProposalRow } from '../../db/schema';
 import type { Forecast, ForecastSummary, ResolvedPlan } from '../engine';
 import type { ProposalDto, ProposalListItem, CableRow, Changes, Part, PriceList, ProposalPatchInput } from '../domain/proposals/proposals.schema';
-import { checkCables, defaultCables, lineAmount, partsTotal, proposalCautions, type CheckedCable } from '../domain/proposals/proposals';
+import { checkCables, defaultCables, lineAmount, proposalCautions, type CheckedCable } from '../domain/proposals/proposals';
+import { preferredSizes } from '../domain/proposals/cable';
+import { documentTotals, quoteNumber, readDocument, startingDocument, wiringLines } from '../domain/proposals/document';
+import type { ProposalDocument } from '../domain/proposals/document.schema';
 import { formatMoney } from '../lib/format';
 import type { SweepRequestValues } from '../domain/proposals/proposals.schema';
 import { forecastAfter, labelOf, oneOffItems, type CostItem } from '../domain/proposals/sweep';
@@ -57,7 +60,7 @@ function runningLines(after: Forecast, prices: PriceList): CostItem[] {
 /** Creates a draft from a saved forecast and one option: the after plan is forecast in full, parts priced from the list. */
 export async function createProposal(
   db: Kysely<DB>,
-  p: { forecast: ForecastDto & { crewId: string }; access: RigGrant; installer: { id: string; name: string }; changes: Changes; prices: PriceList; title?: string },
+  p: { forecast: ForecastDto & { crewId: string }; access: RigGrant; installer: { id: string; name: string; units?: unknown }; changes: Changes; prices: PriceList; title?: string },
 ): Promise<ProposalDto> {
   const before = p.forecast;
   let after: { plan: ResolvedPlan; forecast: Forecast };
@@ -70,9 +73,15 @@ export async function createProposal(
     throw e;
   }
   const parts: Part[] = oneOffItems(before.plan, p.changes, p.prices).map((i) => ({ name: i.name, quantity: i.quantity, unit: i.unit, unitPrice: i.unitPrice }));
-  const cables = checkCables(defaultCables(after.plan, p.changes), after.plan);
+  const units = p.installer.units === 'metric' || p.installer.units === 'imperial' ? p.installer.units : null;
+  const cables = checkCables(defaultCables(after.plan, p.changes, preferredSizes(p.prices.currency, units)), after.plan);
   const id = crypto.randomUUID();
   const now = nowIso();
+  // The installer types company, contact and terms once: a new draft starts from their last document, with the next quote number.
+  const mine = await db.selectFrom('proposals').select(['document', 'created_at']).where('installer_id', '=', p.installer.id).orderBy('created_at', 'desc').orderBy('id').execute();
+  const year = Number(now.slice(0, 4));
+  const sequence = mine.filter((r) => r.created_at.startsWith(String(year))).length + 1;
+  const document = startingDocument({ previous: mine[0] ? readDocument(mine[0].document) : {}, quote: quoteNumber(year, sequence), wiringPrices: p.prices.wiring });
   const label = labelOf(p.changes, before.plan);
   await db
     .insertInto('proposals')
@@ -91,6 +100,7 @@ export async function createProposal(
       running: JSON.stringify(runningLines(after.forecast, p.prices)),
       cables: JSON.stringify(cables),
       cautions: JSON.stringify(proposalCautions(after.plan, p.changes)),
+      document: JSON.stringify(document),
       reserve_soc_pct: before.reserveSocPct,
       summary: JSON.stringify({ before: brief(before.forecast.summary), after: brief(after.forecast.summary) }),
       before_plan: JSON.stringify(before.plan),
@@ -121,6 +131,8 @@ function listQuery(db: Kysely<DB>) {
       'proposals.installer_name',
       'proposals.currency',
       'proposals.parts',
+      'proposals.cables',
+      'proposals.document',
       'proposals.changes',
       'proposals.summary',
       'proposals.before_plan',
@@ -134,11 +146,18 @@ function listQuery(db: Kysely<DB>) {
     ]);
 }
 
-type ListRow = Pick<ProposalRow, 'id' | 'title' | 'status' | 'version' | 'rig_id' | 'trip_id' | 'installer_name' | 'currency' | 'parts' | 'changes' | 'summary' | 'before_plan' | 'created_at' | 'updated_at' | 'sent_at' | 'decided_at'> & {
+type ListRow = Pick<ProposalRow, 'id' | 'title' | 'status' | 'version' | 'rig_id' | 'trip_id' | 'installer_name' | 'currency' | 'parts' | 'cables' | 'document' | 'changes' | 'summary' | 'before_plan' | 'created_at' | 'updated_at' | 'sent_at' | 'decided_at'> & {
   rig_name: string;
   crew_name: string;
   trip_name: string | null;
 };
+
+/** The document's sums: parts, the cable check's wiring at the document's prices, labour, removals and tax. */
+function totalsOf(r: Pick<ProposalRow, 'parts' | 'cables' | 'document'>) {
+  const doc = readDocument(r.document);
+  const wiring = wiringLines(JSON.parse(r.cables) as CheckedCable[], doc.wiringPrices);
+  return { doc, wiring, totals: documentTotals(JSON.parse(r.parts) as Part[], wiring, doc) };
+}
 
 function toListItem(r: ListRow): ProposalListItem {
   const summary = JSON.parse(r.summary) as { before: Brief; after: Brief };
@@ -155,7 +174,7 @@ function toListItem(r: ListRow): ProposalListItem {
     tripName: r.trip_name,
     installerName: r.installer_name,
     currency: r.currency,
-    total: partsTotal(JSON.parse(r.parts) as Part[]),
+    total: totalsOf(r).totals.total,
     label: labelOf(JSON.parse(r.changes) as Changes, plan),
     before: summary.before,
     after: summary.after,
@@ -191,19 +210,23 @@ export async function toDto(db: Kysely<DB>, row: ProposalRow, access: Pick<RigGr
   const decider = row.decided_by ? await db.selectFrom('user').select('name').where('id', '=', row.decided_by).executeTakeFirst() : undefined;
   const list = toListItem(item);
   const parts = (JSON.parse(row.parts) as Part[]).map((p) => ({ ...p, amount: lineAmount(p) }));
+  const { doc, wiring, totals } = totalsOf(row);
   return {
     ...list,
     forecastId: row.forecast_id,
     notes: row.notes,
     changes: JSON.parse(row.changes) as Changes,
     parts,
+    document: doc,
+    wiring,
+    totals,
     running: JSON.parse(row.running) as CostItem[],
     cables: JSON.parse(row.cables) as CheckedCable[],
     cautions: JSON.parse(row.cautions) as string[],
     reserveSocPct: row.reserve_soc_pct,
     before: { ...list.before, plan: JSON.parse(row.before_plan) as ResolvedPlan, forecast: unpackForecast(row.before_result) },
     after: { ...list.after, plan: JSON.parse(row.after_plan) as ResolvedPlan, forecast: unpackForecast(row.after_result) },
-    decision: row.decided_at ? { comment: row.decision_comment ?? '', by: decider?.name ?? null, at: row.decided_at } : null,
+    decision: row.decided_at ? { comment: row.decision_comment ?? '', by: decider?.name ?? null, at: row.decided_at, name: row.accepted_name } : null,
     canEdit: access.role === 'installer' && row.installer_id === userId && row.status === 'draft',
     canDecide: access.role === 'owner' && row.status === 'sent',
     mine: access.role === 'installer',
@@ -221,7 +244,7 @@ async function staleOr(db: Kysely<DB>, id: string, access: Pick<RigGrant, 'role'
 }
 
 /** Edits a draft's title, notes, currency, parts or cable runs (checks rerun here, never trusted from the client). */
-export async function patchProposal(db: Kysely<DB>, row: ProposalRow, access: RigGrant, userId: string, input: ProposalPatchInput & { parts?: Part[]; cables?: CableRow[] }): Promise<ProposalDto> {
+export async function patchProposal(db: Kysely<DB>, row: ProposalRow, access: RigGrant, userId: string, input: ProposalPatchInput & { parts?: Part[]; cables?: CableRow[]; document?: ProposalDocument }): Promise<ProposalDto> {
   if (row.status !== 'draft') {
     throw new HttpError('conflict', 'This proposal was sent to the crew, so it can no longer be changed.', [], { current: await toDto(db, row, access, userId) });
   }
@@ -234,6 +257,7 @@ export async function patchProposal(db: Kysely<DB>, row: ProposalRow, access: Ri
       ...(input.currency !== undefined ? { currency: input.currency } : {}),
       ...(input.parts !== undefined ? { parts: JSON.stringify(input.parts) } : {}),
       ...(input.cables !== undefined ? { cables: JSON.stringify(checkCables(input.cables, after)) } : {}),
+      ...(input.document !== undefined ? { document: JSON.stringify(input.document) } : {}),
       version: row.version + 1,
       updated_at: nowIso(),
     })
@@ -275,11 +299,26 @@ export function decisionMail(p: { installerName: string; ownerName: string; rigN
   });
 }
 
+/**
+ * Why a draft cannot be sent yet, or null: it needs at least one part, labour line or old part to
+ * take out — an empty proposal would reach the crew with nothing to do and a total of 0.
+ */
+export function sendProblem(row: Pick<ProposalRow, 'parts' | 'document'>): string | null {
+  const parts = JSON.parse(row.parts) as Part[];
+  const doc = readDocument(row.document);
+  if (parts.length + doc.labour.length + doc.removals.length === 0) {
+    return 'Add at least one part or labour line before sending: the crew would get a proposal with nothing to do and a total of 0.';
+  }
+  return null;
+}
+
 /** Sends a draft to the crew: status sent, and an e-mail to each owner through the outbox in the same transaction. */
 export async function sendProposal(db: Kysely<DB>, row: ProposalRow, access: RigGrant, userId: string, version: number, origin: string): Promise<ProposalDto> {
   if (row.status !== 'draft') {
     throw new HttpError('conflict', 'This proposal was already sent.', [], { current: await toDto(db, row, access, userId) });
   }
+  const problem = sendProblem(row);
+  if (problem) throw new HttpError('invalid_request', problem, [{ path: 'parts', message: problem }]);
   let stale = false;
   await db.transaction().execute(async (trx) => {
     const now = nowIso();
@@ -302,7 +341,7 @@ export async function sendProposal(db: Kysely<DB>, row: ProposalRow, access: Rig
       .where('crew_members.role', '=', 'owner')
       .execute();
     const rig = await trx.selectFrom('rigs').select('name').where('id', '=', row.rig_id).executeTakeFirstOrThrow();
-    const total = formatMoney(partsTotal(JSON.parse(row.parts) as Part[]), row.currency);
+    const total = formatMoney(totalsOf(row).totals.total, row.currency);
     for (const o of owners) {
       await enqueueMail(trx, 'proposal', o.email, proposalMail({ ownerName: o.name, installerName: row.installer_name, rigName: rig.name, title: row.title, total, url: `${origin}/proposals/${row.id}` }));
     }
@@ -318,7 +357,7 @@ export async function decideProposal(
   row: ProposalRow,
   access: RigGrant,
   user: Actor & { name: string },
-  input: { version: number; decision: 'accepted' | 'declined'; comment: string },
+  input: { version: number; decision: 'accepted' | 'declined'; comment: string; name: string },
   origin: string,
 ): Promise<ProposalDto> {
   if (row.status !== 'sent') {
@@ -329,7 +368,7 @@ export async function decideProposal(
     const now = nowIso();
     const res = await trx
       .updateTable('proposals')
-      .set({ status: input.decision, decision_comment: input.comment, decided_by: user.id, decided_at: now, version: row.version + 1, updated_at: now })
+      .set({ status: input.decision, decision_comment: input.comment, accepted_name: input.decision === 'accepted' ? input.name : null, decided_by: user.id, decided_at: now, version: row.version + 1, updated_at: now })
       .where('id', '=', row.id)
       .where('version', '=', input.version)
       .where('status', '=', 'sent')

@@ -211,7 +211,7 @@ describe('installer proposals', () => {
     const ownerView = await json<Proposal>(await api(`/api/proposals/${proposal.id}`, { session: owner }), 200);
     expect(ownerView.canDecide).toBe(true);
     const url = `/api/proposals/${proposal.id}/decision`;
-    const answer = { decision: 'accepted', comment: 'Yes — before the October trip.', version: proposal.version };
+    const answer = { decision: 'accepted', comment: 'Yes — before the October trip.', name: 'Inés Ortega', version: proposal.version };
     expect((await api(url, { method: 'POST', session: editor, json: answer })).status).toBe(403);
     expect((await api(url, { method: 'POST', session: installer, json: answer })).status).toBe(403);
     expect((await api(url, { method: 'POST', session: stranger, json: answer })).status).toBe(404);

@@ -80,7 +80,7 @@ describe('voltage drop, round trip (check-values.md §10a worked cases, COMPUTED
   });
 
   it('takes the percentage of the 12 V class for a 12.8 V LiFePO4 bank (§10a gives 3.88 % of 12.8 V for the first case; we use 12 V: 4.13 %)', () => {
-    const r = checkCable({ label: 'x', source: { kind: 'current', amps: 20 }, oneWayM: 10 * FT, circuit: 'critical', nominalVolts: 12.8, table: 'abyc-105c', chosenAwg: '10' });
+    const r = checkCable({ label: 'x', source: { kind: 'current', amps: 20 }, oneWayM: 10 * FT, circuit: 'critical', nominalVolts: 12.8, table: 'abyc-105c', chosenAwg: '10', method: 'nec-75c' });
     expect(r.systemVolts).toBe(12);
     expect(r.chosen!.dropPct).toBeCloseTo(4.13, 2);
     expect((r.chosen!.dropV / 12.8) * 100).toBeCloseTo(3.875, 3); // §10a rounds this to 3.88 %
@@ -99,7 +99,7 @@ describe('ABYC E-11 limits and sizing formula (check-values.md §10b, VERIFIED s
   });
 
   it('with the 75 °C resistance of Table 8 the same run needs 10 AWG: 12 AWG drops 3.47 %, above 3 % (our method is the stricter one)', () => {
-    const r = checkCable({ label: 'Bilge blower', source: { kind: 'current', amps: 10 }, oneWayM: 10.5 * FT, circuit: 'critical', nominalVolts: 12, table: 'abyc-105c', chosenAwg: '12' });
+    const r = checkCable({ label: 'Bilge blower', source: { kind: 'current', amps: 10 }, oneWayM: 10.5 * FT, circuit: 'critical', nominalVolts: 12, table: 'abyc-105c', chosenAwg: '12', method: 'nec-75c' });
     expect(r.chosen!.dropPct).toBeCloseTo(3.465, 3);
     expect(r.chosen!.dropOk).toBe(false);
     expect(r.byDrop).toBe('10');
@@ -107,7 +107,7 @@ describe('ABYC E-11 limits and sizing formula (check-values.md §10b, VERIFIED s
   });
 
   it('uses 3 % for critical circuits and 10 % for the rest', () => {
-    const base: CableInput = { label: 'Lights', source: { kind: 'current', amps: 10 }, oneWayM: 25 * FT, circuit: 'non-critical', nominalVolts: 12, table: 'abyc-105c', chosenAwg: '12' };
+    const base: CableInput = { label: 'Lights', source: { kind: 'current', amps: 10 }, oneWayM: 25 * FT, circuit: 'non-critical', nominalVolts: 12, table: 'abyc-105c', chosenAwg: '12', method: 'nec-75c' };
     // 12 AWG, 10 A, 25 ft: 8.25 % (§10a) — passes 10 %, fails 3 %.
     expect(checkCable(base).chosen!.dropOk).toBe(true);
     expect(checkCable({ ...base, circuit: 'critical' }).chosen!.dropOk).toBe(false);
@@ -152,7 +152,7 @@ describe('fuses: ≥ 125 % of the continuous current, next NEC 240.6(A) standard
 
 describe('checkCable: the smallest gauge that passes the drop and carries the fuse', () => {
   it('a 40 A DC-DC charger 2 m from the bank: 50 A fuse, 6 AWG by drop and fuse', () => {
-    const r = checkCable({ label: 'DC-DC charger to bank', source: { kind: 'charger', amps: 40 }, oneWayM: 2, circuit: 'critical', nominalVolts: 12.8, table: 'abyc-105c', chosenAwg: null });
+    const r = checkCable({ label: 'DC-DC charger to bank', source: { kind: 'charger', amps: 40 }, oneWayM: 2, circuit: 'critical', nominalVolts: 12.8, table: 'abyc-105c', chosenAwg: null, method: 'nec-75c' });
     expect(r.fuseA).toBe(50);
     // 40 A × R × 2 × 6.56 ft / 1000 ≤ 0.36 V → R ≤ 0.686 Ω/kft → 6 AWG (0.491).
     expect(r.byDrop).toBe('6');
@@ -164,7 +164,7 @@ describe('checkCable: the smallest gauge that passes the drop and carries the fu
   it('a 2000 W inverter at 90 % and 10.5 V draws 211.6 A: 300 A fuse; 1 AWG passes the drop, 2/0 carries the fuse (105 °C table); NEC 310.16 has no single conductor', () => {
     const amps = inverterCurrent(2000, 90, 10.5);
     expect(amps).toBeCloseTo(211.64, 2);
-    const input: CableInput = { label: 'Main feed to inverter', source: { kind: 'inverter', watts: 2000, efficiencyPct: 90, lowestVolts: 10.5 }, oneWayM: 1.5, circuit: 'critical', nominalVolts: 12.8, table: 'abyc-105c', chosenAwg: null };
+    const input: CableInput = { label: 'Main feed to inverter', source: { kind: 'inverter', watts: 2000, efficiencyPct: 90, lowestVolts: 10.5 }, oneWayM: 1.5, circuit: 'critical', nominalVolts: 12.8, table: 'abyc-105c', chosenAwg: null, method: 'nec-75c' };
     const r = checkCable(input);
     expect(r.fuseA).toBe(300);
     expect(r.byFuse).toBe('2/0'); // 330 A ≥ 300 A
@@ -177,9 +177,9 @@ describe('checkCable: the smallest gauge that passes the drop and carries the fu
   });
 
   it('names a chosen gauge that is too small, and why', () => {
-    const r = checkCable({ label: 'Solar to bank', source: { kind: 'current', amps: 30 }, oneWayM: 3, circuit: 'critical', nominalVolts: 12, table: 'abyc-105c', chosenAwg: '10' });
+    const r = checkCable({ label: 'Solar to bank', source: { kind: 'current', amps: 30 }, oneWayM: 3, circuit: 'critical', nominalVolts: 12, table: 'abyc-105c', chosenAwg: '10', method: 'nec-75c' });
     expect(r.chosen!.ok).toBe(false);
-    expect(r.notes.some((n) => n.startsWith('10 AWG drops'))).toBe(true);
+    expect(r.notes.some((n) => n.startsWith('10 AWG loses'))).toBe(true);
     expect(r.suggested!.ok).toBe(true);
   });
 });

@@ -3,8 +3,16 @@
 // figure is an estimate and is shown with the cautions below.
 //
 // Sources (flags as in ../shared/reference/check-values.md):
-// - Resistance: NEC (NFPA 70) Chapter 9, Table 8, uncoated stranded copper, DC at 75 °C, Ω/1000 ft.
-//   VERIFIED (secondary), check-values.md §10a. 3, 1 and 3/0 AWG from the notes under that table.
+// - Resistance, two methods the installer chooses between (DROP_METHODS):
+//   · "abyc-20c": the circular-mil formula ABYC E-11 sizes with (R = K·L/CM), with K for annealed
+//     copper at 20 °C: 10.371 Ω·cmil/ft, COMPUTED from the IACS resistivity 1/58 Ω·mm²/m
+//     (1.7241 × 10⁻⁸ Ω·m; FROM MEMORY) — ABYC's printed K = 10.75 is copper near 29 °C (COMPUTED).
+//     Metric sizes: IEC 60228 class 5 (flexible) plain copper, maximum Ω/km at 20 °C. VERIFIED
+//     (secondary): mycableengineering.com "IEC 60228 DC resistance", uecables.com IEC 60228 table.
+//   · "nec-75c": NEC (NFPA 70) Chapter 9, Table 8, uncoated stranded copper, DC at 75 °C, Ω/1000 ft.
+//     VERIFIED (secondary), check-values.md §10a. 3, 1 and 3/0 AWG from the notes under that table.
+//     Metric sizes: the IEC 60228 value × (1 + 0.00393 × 55) (copper α at 20 °C, FROM MEMORY;
+//     check-values.md §10a's temperature note).
 // - Drop limits: ABYC E-11 — 3 % for main feeders and circuits where drop must be kept to a
 //   minimum (we count charging and main battery feeds among them, as installers do), 10 % where
 //   drop is not critical. VERIFIED (secondary), check-values.md §10b; trade-notes.md "Installer practice".
@@ -55,6 +63,108 @@ export const NEC_TABLE_8: readonly Gauge[] = [
 
 /** The AWG sizes we size with, smallest first. */
 export const AWG_SIZES = NEC_TABLE_8.map((g) => g.awg);
+
+/** IEC 60228 class 5 (flexible) plain copper, maximum DC resistance at 20 °C, Ω/km (VERIFIED secondary, see the header). */
+export const IEC_60228_CLASS5: readonly { mm2: number; ohmPerKm: number }[] = [
+  { mm2: 6, ohmPerKm: 3.3 },
+  { mm2: 10, ohmPerKm: 1.91 },
+  { mm2: 16, ohmPerKm: 1.21 },
+  { mm2: 25, ohmPerKm: 0.78 },
+  { mm2: 35, ohmPerKm: 0.554 },
+  { mm2: 50, ohmPerKm: 0.386 },
+  { mm2: 70, ohmPerKm: 0.272 },
+  { mm2: 95, ohmPerKm: 0.206 },
+];
+
+/** Metric sizes as size ids ("25 mm²"), smallest first. */
+export const METRIC_SIZES = IEC_60228_CLASS5.map((c) => `${c.mm2} mm²`);
+
+/** The two families of conductor sizes. */
+export const SIZE_SYSTEMS = ['awg', 'metric'] as const;
+export type SizeSystem = (typeof SIZE_SYSTEMS)[number];
+
+/** How the voltage drop is worked out: resistance method and the conductor temperature it assumes. */
+export const DROP_METHODS = ['abyc-20c', 'nec-75c'] as const;
+export type DropMethod = (typeof DROP_METHODS)[number];
+
+/** Each method in words, for beside the figure. */
+export const DROP_METHOD_NAMES: Record<DropMethod, string> = {
+  'abyc-20c': 'circular-mil formula as ABYC E-11 uses it, copper at 20 °C (IEC 60228 for mm² sizes)',
+  'nec-75c': 'NEC Chapter 9 Table 8, stranded copper at 75 °C',
+};
+
+/** Short form: method and temperature. */
+export const DROP_METHOD_SHORT: Record<DropMethod, string> = { 'abyc-20c': 'ABYC-style, 20 °C', 'nec-75c': 'NEC Table 8, 75 °C' };
+
+/** Annealed copper at 20 °C in Ω·cmil/ft: 1.7241e-8 Ω·m ÷ 5.067075e-10 m² per cmil × 0.3048 m per ft (COMPUTED). */
+export const COPPER_K_20C = (1.7241e-8 / 5.067075e-10) * 0.3048;
+
+/** ABYC E-11's printed K for copper, Ω·cmil/ft (check-values.md §10b). */
+export const ABYC_K = 10.75;
+
+/** Copper's temperature coefficient at 20 °C, per °C (FROM MEMORY). */
+export const COPPER_ALPHA_20C = 0.00393;
+
+const M_PER_FT = 0.3048;
+
+/** One conductor size of either family: its area and its resistance under each method, Ω per metre. */
+export interface Conductor {
+  /** "6" (AWG) or "25 mm²". */
+  id: string;
+  /** "6 AWG" or "25 mm²". */
+  label: string;
+  system: SizeSystem;
+  cmil: number;
+  mm2: number;
+  ohmPerM: Record<DropMethod, number>;
+  /** The AWG size whose ampacity it takes: its own, or for mm² the largest AWG not bigger in area (COMPUTED, conservative). */
+  ampacityAwg: string;
+}
+
+const MM2_PER_CMIL = 5.067075e-4;
+
+/** Every size we check with, AWG first then metric, each family smallest first. */
+export const CONDUCTORS: readonly Conductor[] = [
+  ...NEC_TABLE_8.map(
+    (g): Conductor => ({
+      id: g.awg,
+      label: `${g.awg} AWG`,
+      system: 'awg',
+      cmil: g.cmil,
+      mm2: g.cmil * MM2_PER_CMIL,
+      ohmPerM: { 'abyc-20c': COPPER_K_20C / g.cmil / M_PER_FT, 'nec-75c': g.ohmPerKft / 1000 / M_PER_FT },
+      ampacityAwg: g.awg,
+    }),
+  ),
+  ...IEC_60228_CLASS5.map((c): Conductor => {
+    const cmil = c.mm2 / MM2_PER_CMIL;
+    const below = [...NEC_TABLE_8].reverse().find((g) => g.cmil <= cmil) ?? NEC_TABLE_8[0]!;
+    return {
+      id: `${c.mm2} mm²`,
+      label: `${c.mm2} mm²`,
+      system: 'metric',
+      cmil,
+      mm2: c.mm2,
+      ohmPerM: { 'abyc-20c': c.ohmPerKm / 1000, 'nec-75c': (c.ohmPerKm / 1000) * (1 + COPPER_ALPHA_20C * 55) },
+      ampacityAwg: below.awg,
+    };
+  }),
+];
+
+/** Every size id, AWG then metric. */
+export const SIZE_IDS = CONDUCTORS.map((c) => c.id);
+
+/** A size by id, or undefined. */
+export function conductor(id: string): Conductor | undefined {
+  return CONDUCTORS.find((c) => c.id === id);
+}
+
+/** Metric first when the price list is in a currency of a metric country or the user prefers metric; otherwise AWG. */
+export function preferredSizes(currency: string, units: 'metric' | 'imperial' | null): SizeSystem {
+  if (units === 'metric') return 'metric';
+  if (units === 'imperial') return 'awg';
+  return ['USD', 'CAD'].includes(currency.toUpperCase()) ? 'awg' : 'metric';
+}
 
 /** Ampacity tables a check may use. */
 export const AMPACITY_TABLES = ['abyc-105c', 'abyc-105c-engine', 'nec-310.16-75c'] as const;
@@ -131,6 +241,11 @@ export function voltageDrop(currentA: number, ohmPerKft: number, oneWayFt: numbe
   return (currentA * ohmPerKft * 2 * oneWayFt) / 1000;
 }
 
+/** Volts lost over a run of one conductor under a method: I · R(Ω/m) · 2 · one-way metres. */
+export function runDrop(currentA: number, c: Conductor, method: DropMethod, oneWayM: number): number {
+  return currentA * c.ohmPerM[method] * 2 * oneWayM;
+}
+
 /** ABYC E-11's sizing formula: circular mils needed, CM = K·I·L/E with K = 10.75 and L the round trip in ft. */
 export function abycCircularMils(currentA: number, roundTripFt: number, allowedDropV: number): number {
   return (10.75 * currentA * roundTripFt) / allowedDropV;
@@ -178,13 +293,22 @@ export interface CableInput {
   /** The bank's nominal volts: drop % is of its 12/24/48 V class. */
   nominalVolts: number;
   table: AmpacityTable;
-  /** A gauge the installer chose, checked as well; null to take the suggestion. */
+  /** A size the installer chose ("6" AWG or "25 mm²"), checked as well; null to take the suggestion. */
   chosenAwg: string | null;
+  /** Resistance method and temperature (default: ABYC-style at 20 °C, the method the drop limits come from). */
+  method?: DropMethod;
+  /** Which sizes to suggest from (default AWG). */
+  sizes?: SizeSystem;
+  /** Why the run carries this current, in words (e.g. the chargers' sum). */
+  basis?: string;
 }
 
 /** How one gauge does on a run. */
 export interface GaugeCheck {
+  /** The size id: "6" (AWG) or "25 mm²". */
   awg: string;
+  /** "6 AWG (13.3 mm²)" or "25 mm² (≈ 4 AWG)". */
+  label: string;
   mm2: number;
   dropV: number;
   dropPct: number;
@@ -206,6 +330,10 @@ export interface CableResult {
   circuit: CircuitClass;
   limitPct: number;
   table: AmpacityTable;
+  method: DropMethod;
+  sizes: SizeSystem;
+  /** Why the run carries this current, or null when the installer gave it. */
+  basis: string | null;
   /** Fuse or breaker rating, A (≥ 125 % of the current, next standard size); null above 600 A. */
   fuseA: number | null;
   /** Smallest gauge that passes the drop limit alone. */
@@ -227,40 +355,51 @@ export function currentOf(source: CableSource): number {
   return source.amps;
 }
 
-function checkGauge(g: Gauge, currentA: number, oneWayFt: number, sysV: number, limitPct: number, fuseA: number | null, table: AmpacityTable): GaugeCheck {
-  const dropV = voltageDrop(currentA, g.ohmPerKft, oneWayFt);
-  const dropPct = (dropV / sysV) * 100;
-  const maxFuseA = maxProtection(g.awg, table);
-  const dropOk = dropPct <= limitPct + 1e-9;
-  const fuseOk = fuseA !== null && fuseA <= maxFuseA;
-  return { awg: g.awg, mm2: cmilToMm2(g.cmil), dropV, dropPct, ampacityA: ampacity(g.awg, table), maxFuseA, dropOk, fuseOk, ok: dropOk && fuseOk };
+function sizeLabel(c: Conductor): string {
+  if (c.system === 'awg') return `${c.label} (${c.mm2.toFixed(1)} mm²)`;
+  return `${c.label} (ampacity as ${c.ampacityAwg} AWG)`;
 }
 
-/** Checks one run: drop with each Table 8 gauge, the fuse, the smallest gauge that passes both, and the installer's gauge. */
+function checkSize(c: Conductor, currentA: number, oneWayM: number, sysV: number, limitPct: number, fuseA: number | null, table: AmpacityTable, method: DropMethod): GaugeCheck {
+  const dropV = runDrop(currentA, c, method, oneWayM);
+  const dropPct = (dropV / sysV) * 100;
+  const maxFuseA = maxProtection(c.ampacityAwg, table);
+  const dropOk = dropPct <= limitPct + 1e-9;
+  const fuseOk = fuseA !== null && fuseA <= maxFuseA;
+  return { awg: c.id, label: sizeLabel(c), mm2: c.mm2, dropV, dropPct, ampacityA: ampacity(c.ampacityAwg, table), maxFuseA, dropOk, fuseOk, ok: dropOk && fuseOk };
+}
+
+/** Checks one run: drop with each size of the family, the fuse, the smallest size that passes both, and the installer's size. */
 export function checkCable(input: CableInput): CableResult {
+  const method = input.method ?? 'abyc-20c';
+  const sizes = input.sizes ?? 'awg';
   const currentA = currentOf(input.source);
   const oneWayFt = input.oneWayM * FT_PER_M;
   const sysV = systemVolts(input.nominalVolts);
   const limitPct = DROP_LIMIT_PCT[input.circuit];
   const fuseA = fuseFor(currentA);
-  const checks = NEC_TABLE_8.map((g) => checkGauge(g, currentA, oneWayFt, sysV, limitPct, fuseA, input.table));
+  const family = CONDUCTORS.filter((c) => c.system === sizes);
+  const checks = family.map((c) => checkSize(c, currentA, input.oneWayM, sysV, limitPct, fuseA, input.table, method));
   const suggested = checks.find((c) => c.ok) ?? null;
   const byDrop = checks.find((c) => c.dropOk)?.awg ?? null;
   const byFuse = checks.find((c) => c.fuseOk)?.awg ?? null;
-  const chosen = input.chosenAwg ? (checks.find((c) => c.awg === input.chosenAwg) ?? null) : null;
+  const chosenSize = input.chosenAwg ? conductor(input.chosenAwg) : undefined;
+  const chosen = chosenSize ? checkSize(chosenSize, currentA, input.oneWayM, sysV, limitPct, fuseA, input.table, method) : null;
+  const largest = family[family.length - 1]!.label;
 
   const notes: string[] = [];
   if (fuseA === null) notes.push(`125 % of ${currentA.toFixed(0)} A is above the largest fuse we size (600 A): split the load or raise the system voltage.`);
   if (!suggested) {
     notes.push(
       byDrop === null
-        ? `Even 4/0 AWG drops more than ${limitPct} % over this length: shorten the run, use parallel conductors, or raise the system voltage.`
-        : 'No single conductor up to 4/0 AWG can carry the fuse this current needs: use parallel conductors or a higher system voltage.',
+        ? `Even ${largest} loses more than ${limitPct} % over this length: shorten the run, use parallel conductors, or raise the system voltage.`
+        : `No single cable up to ${largest} can carry the fuse this current needs: use parallel conductors or a higher system voltage.`,
     );
   }
   if (chosen && !chosen.ok) {
-    if (!chosen.dropOk) notes.push(`${chosen.awg} AWG drops ${chosen.dropPct.toFixed(1)} % — more than the ${limitPct} % limit.`);
-    if (!chosen.fuseOk && fuseA !== null) notes.push(`${chosen.awg} AWG may be protected at ${chosen.maxFuseA} A at most, below the ${fuseA} A fuse this current needs.`);
+    const name = chosenSize!.label;
+    if (!chosen.dropOk) notes.push(`${name} loses ${chosen.dropPct.toFixed(1)} % — more than the ${limitPct} % limit.`);
+    if (!chosen.fuseOk && fuseA !== null) notes.push(`${name} may be protected at ${chosen.maxFuseA} A at most, below the ${fuseA} A fuse this current needs.`);
   }
   return {
     label: input.label,
@@ -271,6 +410,9 @@ export function checkCable(input: CableInput): CableResult {
     circuit: input.circuit,
     limitPct,
     table: input.table,
+    method,
+    sizes,
+    basis: input.basis ?? null,
     fuseA,
     byDrop,
     byFuse,

@@ -2,7 +2,8 @@
 // forms. Every number has bounds and a message that reads after the field's name.
 import { z } from 'zod';
 import { CHEMISTRIES } from '../../engine';
-import { AMPACITY_TABLES, AWG_SIZES } from './cable';
+import { AMPACITY_TABLES, DROP_METHODS, SIZE_IDS, SIZE_SYSTEMS } from './cable';
+import { documentPatchSchema, NO_WIRING_PRICES, wiringPricesSchema, type ProposalDocument, type DocumentTotals, type WiringLine } from './document.schema';
 import type { Forecast, ForecastSummary, ResolvedPlan } from '../../engine';
 import type { CheckedCable } from './proposals';
 import type { CostItem } from './sweep';
@@ -13,7 +14,17 @@ function num(min: number, max: number) {
 function int(min: number, max: number) {
   return num(min, max).int({ error: 'must be a whole number' });
 }
-const money = num(0, 1_000_000);
+/** A price in plain words: "A price can't be negative." */
+const money = z
+  .number({ error: 'A price must be a number, such as 120.50.' })
+  .min(0, { error: "A price can't be negative." })
+  .max(1_000_000, { error: "A price can't be more than 1,000,000." });
+/** A number with one plain sentence for every way it can be wrong. */
+function plain(what: string, min: number, max: number, unit = '') {
+  const u = unit ? ` ${unit}` : '';
+  const msg = `${what} must be a number from ${min.toLocaleString('en-US')} to ${max.toLocaleString('en-US')}${u}.`;
+  return z.number({ error: msg }).min(min, { error: msg }).max(max, { error: msg });
+}
 const text = (max: number) => z.string({ error: 'must be text' }).trim().max(max, { error: `must be at most ${max} characters` });
 
 /** An ISO 4217 code: three capital letters. */
@@ -45,6 +56,8 @@ export const priceListSchema = z.object({
   generator: money,
   /** Running a generator (fuel and wear), per hour. */
   generatorPerHour: money,
+  /** Cable, fuses and bus bars a proposal's cable check adds (0 until set). */
+  wiring: wiringPricesSchema.default(NO_WIRING_PRICES),
 });
 export type PriceList = z.output<typeof priceListSchema>;
 export type PriceListInput = z.input<typeof priceListSchema>;
@@ -80,10 +93,16 @@ export const MAX_COMBINATIONS = 1000;
 /** What the sweep tries: each list adds options to one dimension; "no change" is always tried too. */
 export const candidatesSchema = z
   .object({
-    banks: z.array(bankCandidateSchema).max(12, { error: 'at most 12 banks' }).default([]),
-    panels: z.array(panelCandidateSchema).max(10, { error: 'at most 10 panel options' }).default([]),
-    dcdcAmps: z.array(num(1, 200)).max(6, { error: 'at most 6 DC-DC charger sizes' }).default([]),
-    generatorHours: z.array(int(1, 24)).max(6, { error: 'at most 6 generator options' }).default([]),
+    banks: z.array(bankCandidateSchema).max(12, { error: 'Try at most 12 banks in one sweep.' }).default([]),
+    panels: z.array(panelCandidateSchema).max(10, { error: 'Try at most 10 panel options in one sweep.' }).default([]),
+    dcdcAmps: z
+      .array(plain('Each DC-DC charger size', 1, 200, 'A (numbers such as 30, 50)'), { error: 'List DC-DC charger sizes as numbers of amps, such as 30, 50.' })
+      .max(6, { error: 'Try at most 6 DC-DC charger sizes in one sweep.' })
+      .default([]),
+    generatorHours: z
+      .array(plain('Each generator run', 1, 24, 'hours a day').int({ error: 'Generator runs are whole hours a day, such as 2, 4.' }))
+      .max(6, { error: 'Try at most 6 generator options in one sweep.' })
+      .default([]),
     /** Generator windows start at this local hour. */
     generatorStartHour: int(0, 23).default(8),
     /** Converter/charger amps of a generator added to a rig without one (common practice: 30 A). */
@@ -99,8 +118,8 @@ export const candidatesSchema = z
   })
   .superRefine((c, ctx) => {
     const n = countCombinations(c);
-    if (n === 0) ctx.addIssue({ code: 'custom', path: [], message: 'add at least one bank, panel, DC-DC charger or generator option to try' });
-    if (n > MAX_COMBINATIONS) ctx.addIssue({ code: 'custom', path: [], message: `make ${n} combinations; at most ${MAX_COMBINATIONS} — remove some options` });
+    if (n === 0) ctx.addIssue({ code: 'custom', path: [], message: 'Add at least one bank, panel, DC-DC charger or generator option to try.' });
+    if (n > MAX_COMBINATIONS) ctx.addIssue({ code: 'custom', path: [], message: `These options make ${n} combinations; one sweep tries at most ${MAX_COMBINATIONS}. Remove some options.` });
     c.generatorHours.forEach((h, i) => {
       if (c.generatorStartHour + h > 24) ctx.addIssue({ code: 'custom', path: ['generatorHours', i], message: `runs past midnight from ${c.generatorStartHour}:00; start earlier or run fewer hours` });
     });
@@ -142,31 +161,45 @@ export type ChangesInput = z.input<typeof changesSchema>;
 
 /** A line of the parts list. */
 export const partSchema = z.object({
-  name: text(120).min(1, { error: 'must not be empty' }),
-  quantity: num(0.001, 100_000),
-  unit: text(20).default(''),
+  name: z.string({ error: 'Name the part.' }).trim().min(1, { error: 'Name the part.' }).max(120, { error: "A part's name can be at most 120 characters." }),
+  quantity: z
+    .number({ error: 'A quantity must be a number, such as 2.' })
+    .gt(0, { error: 'A quantity must be more than 0.' })
+    .max(100_000, { error: "A quantity can't be more than 100,000." }),
+  unit: z.string({ error: 'A unit must be text, such as m or pcs.' }).trim().max(20, { error: 'A unit can be at most 20 characters, such as m or pcs.' }).default(''),
   unitPrice: money,
 });
 export type Part = z.output<typeof partSchema>;
 
-const awgField = z.enum(AWG_SIZES as [string, ...string[]], { error: `must be one of ${AWG_SIZES.join(', ')} (AWG)` });
+const sizeField = z.enum(SIZE_IDS as [string, ...string[]], { error: 'Choose a cable size from the list (AWG or mm²).' });
 
 /** A cable run to check. */
 export const cableRowSchema = z.object({
-  label: text(120).min(1, { error: 'must not be empty' }),
+  label: z.string({ error: 'Name the run.' }).trim().min(1, { error: 'Name the run, such as “Bank to inverter”.' }).max(120, { error: "A run's name can be at most 120 characters." }),
   source: z.discriminatedUnion(
     'kind',
     [
-      z.object({ kind: z.literal('charger'), amps: num(0.1, 1000) }),
-      z.object({ kind: z.literal('inverter'), watts: num(1, 20_000), efficiencyPct: num(50, 100), lowestVolts: num(5, 60) }),
-      z.object({ kind: z.literal('current'), amps: num(0.1, 1000) }),
+      z.object({ kind: z.literal('charger'), amps: plain("The charger's current", 0.1, 1000, 'A') }),
+      z.object({
+        kind: z.literal('inverter'),
+        watts: plain("The inverter's continuous watts", 1, 20_000, 'W'),
+        efficiencyPct: plain("The inverter's efficiency", 50, 100, '%'),
+        lowestVolts: plain('The lowest bank voltage', 5, 60, 'V'),
+      }),
+      z.object({ kind: z.literal('current'), amps: plain('The current', 0.1, 1000, 'A') }),
     ],
-    { error: 'must be a charger (amps), an inverter (watts, efficiency, lowest volts) or a current (amps)' },
+    { error: 'Say where the current comes from: a charger, an inverter or a known current.' },
   ),
-  oneWayM: num(0.05, 100),
-  circuit: z.enum(['critical', 'non-critical'], { error: 'must be critical or non-critical' }),
-  table: z.enum(AMPACITY_TABLES, { error: `must be one of ${AMPACITY_TABLES.join(', ')}` }).default('abyc-105c'),
-  chosenAwg: awgField.nullable().default(null),
+  oneWayM: plain("A run's one-way length", 0.05, 100, 'm'),
+  circuit: z.enum(['critical', 'non-critical'], { error: 'Choose critical or not critical for the run.' }),
+  table: z.enum(AMPACITY_TABLES, { error: 'Choose an ampacity table from the list.' }).default('abyc-105c'),
+  chosenAwg: sizeField.nullable().default(null),
+  /** Resistance method and its temperature. */
+  method: z.enum(DROP_METHODS, { error: 'Choose how the drop is worked out: ABYC-style at 20 °C or NEC Table 8 at 75 °C.' }).default('abyc-20c'),
+  /** Which sizes to suggest from. */
+  sizes: z.enum(SIZE_SYSTEMS, { error: 'Choose AWG or metric (mm²) sizes.' }).default('awg'),
+  /** Why the run carries its current (filled for the runs we suggest). */
+  basis: z.string().trim().max(300, { error: 'The note on the current can be at most 300 characters.' }).optional(),
 });
 export type CableRow = z.output<typeof cableRowSchema>;
 export type CableRowInput = z.input<typeof cableRowSchema>;
@@ -185,11 +218,12 @@ const versionField = z.number({ error: 'Send the version you read.' }).int({ err
 /** Editing a draft: any of its own fields, with the version read. */
 export const proposalPatchSchema = z.object({
   version: versionField,
-  title: text(120).min(1, { error: 'must not be empty' }).optional(),
-  notes: text(5000).optional(),
+  title: z.string({ error: 'Give the proposal a title.' }).trim().min(1, { error: 'Give the proposal a title.' }).max(120, { error: 'A title can be at most 120 characters.' }).optional(),
+  notes: z.string({ error: 'Notes must be text.' }).trim().max(5000, { error: 'Notes can be at most 5,000 characters.' }).optional(),
   currency: currencyField.optional(),
-  parts: z.array(partSchema).max(60, { error: 'at most 60 parts' }).optional(),
-  cables: z.array(cableRowSchema).max(20, { error: 'at most 20 cable runs' }).optional(),
+  parts: z.array(partSchema).max(60, { error: 'A proposal can list at most 60 parts.' }).optional(),
+  cables: z.array(cableRowSchema).max(20, { error: 'A proposal can check at most 20 cable runs.' }).optional(),
+  document: documentPatchSchema.optional(),
 });
 export type ProposalPatchInput = z.input<typeof proposalPatchSchema>;
 
@@ -199,8 +233,12 @@ export const proposalSendSchema = z.object({ version: versionField });
 /** The crew owner's answer. */
 export const decisionSchema = z.object({
   version: versionField,
-  decision: z.enum(['accepted', 'declined'], { error: 'must be accepted or declined' }),
-  comment: text(2000).default(''),
+  decision: z.enum(['accepted', 'declined'], { error: 'Choose accept or decline.' }),
+  comment: z.string({ error: 'A comment must be text.' }).trim().max(2000, { error: 'A comment can be at most 2,000 characters.' }).default(''),
+  /** The name the owner types to accept (recorded with the time). */
+  name: z.string({ error: 'Type your name to accept.' }).trim().max(120, { error: 'A name can be at most 120 characters.' }).default(''),
+}).superRefine((d, ctx) => {
+  if (d.decision === 'accepted' && !d.name) ctx.addIssue({ code: 'custom', path: ['name'], message: 'Type your name to accept: it is recorded with the time, as a signature.' });
 });
 export type DecisionInput = z.input<typeof decisionSchema>;
 
@@ -243,13 +281,18 @@ export interface ProposalDto extends ProposalListItem {
   notes: string;
   changes: Changes;
   parts: (Part & { amount: number })[];
+  /** The business document: company, contact, quote number, dates, labour, removals, tax, terms. */
+  document: ProposalDocument;
+  /** Cables, fuses and bus bars from the cable check, at the price list's prices. */
+  wiring: WiringLine[];
+  totals: DocumentTotals;
   running: CostItem[];
   cables: CheckedCable[];
   cautions: string[];
   reserveSocPct: number | null;
   before: ProposalSide & ProposalListItem['before'];
   after: ProposalSide & ProposalListItem['after'];
-  decision: { comment: string; by: string | null; at: string } | null;
+  decision: { comment: string; by: string | null; at: string; name: string | null } | null;
   /** The caller is its installer and it is still a draft. */
   canEdit: boolean;
   /** The caller is an owner of the rig's crew and it waits for an answer. */

@@ -15,7 +15,7 @@ export default function SignInForm({ next }: { next?: string }) {
 
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);
-    const { error } = await authClient.signIn.email({ email: values.email, password: values.password });
+    const { data, error } = await authClient.signIn.email({ email: values.email, password: values.password });
     if (error) {
       setFormError(
         error.status === 429
@@ -26,7 +26,9 @@ export default function SignInForm({ next }: { next?: string }) {
       );
       return;
     }
-    window.location.assign(safeNext(next));
+    // Installers land on their own page (rigs shared with them, their proposals), campers on their trips.
+    const kind = (data?.user as { kind?: string } | undefined)?.kind;
+    window.location.assign(safeNext(next, kind === 'installer' ? '/installer' : '/trips'));
   });
 
   return (

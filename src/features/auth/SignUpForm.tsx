@@ -6,11 +6,11 @@ import { authClient, safeNext } from '../../lib/auth-client';
 import { Field, describedBy } from '../../components/ui/Field';
 
 /** Account creation; asks whether the person camps or installs. */
-export default function SignUpForm({ next, onSignedUp }: { next?: string; onSignedUp?: () => Promise<void> | void }) {
+export default function SignUpForm({ next, onSignedUp, kind = 'camper' }: { next?: string; onSignedUp?: () => Promise<void> | void; kind?: 'camper' | 'installer' }) {
   const [formError, setFormError] = useState<string | null>(null);
   const { register, handleSubmit, formState: { errors, isSubmitting } } = useForm<SignUpInput>({
     resolver: zodResolver(signUpSchema),
-    defaultValues: { name: '', email: '', password: '', kind: 'camper' },
+    defaultValues: { name: '', email: '', password: '', kind },
   });
 
   const onSubmit = handleSubmit(async (values) => {

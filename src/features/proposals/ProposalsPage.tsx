@@ -11,7 +11,7 @@ import { proposalQueries } from './proposals.queries';
 const outcome = (s: ProposalListItem['before']) => (s.firstCutoffAt ? `runs out ${formatRowTime(s.firstCutoffAt)}` : `lowest ${Math.round(s.minSocPct)} %`);
 
 /** /proposals: an installer's proposals and price list, or the proposals sent to the user's crews. */
-function ProposalsPage({ installer }: { installer: boolean }) {
+function ProposalsPage({ installer, showPrices = true }: { installer: boolean; showPrices?: boolean }) {
   const q = useQuery(proposalQueries.list());
   return (
     <div className="space-y-8">
@@ -49,7 +49,7 @@ function ProposalsPage({ installer }: { installer: boolean }) {
           </ul>
         ) : null}
       </section>
-      {installer ? (
+      {installer && showPrices ? (
         <section aria-labelledby="prices-heading" id="price-list" className="card p-4 sm:p-5">
           <h2 id="prices-heading" className="mb-1 text-xl">Your price list</h2>
           <p className="mb-4 text-slate-text">Sweeps rank upgrade options by these prices, and a new proposal’s parts list starts from them.</p>

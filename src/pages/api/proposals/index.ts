@@ -18,5 +18,5 @@ export const POST = route(async (ctx) => {
   const body = parseWith(proposalCreateSchema, await readJson(ctx.request, 64 * 1024));
   const { forecast, access } = await forecastForInstaller(db, user, body.forecastId, 'forecastId');
   const prices = body.prices ?? (await savedPricesOrThrow(db, user.id));
-  return json(await createProposal(db, { forecast, access, installer: { id: user.id, name: user.name }, changes: body.changes, prices, title: body.title }), 201);
+  return json(await createProposal(db, { forecast, access, installer: { id: user.id, name: user.name, units: (user as { units?: unknown }).units }, changes: body.changes, prices, title: body.title }), 201);
 });
