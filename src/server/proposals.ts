@@ -65,7 +65,7 @@ export async function createProposal(
   const before = p.forecast;
   let after: { plan: ResolvedPlan; forecast: Forecast };
   try {
-    after = forecastAfter(before.plan, p.changes);
+    after = forecastAfter(before.plan, p.changes, before.reserveSocPct);
   } catch (e) {
     // A change the engine refuses (a bank out of its limits) is the request's fault: name the field.
     const envelope = (e as { envelope?: { issues?: Issue[]; error?: { message?: string } } }).envelope;

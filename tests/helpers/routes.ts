@@ -209,6 +209,13 @@ export const ROUTES: RouteCase[] = [
     body: () => ({ candidates: { banks: [{ chemistry: 'lifepo4', capacityAh: 300 }], panels: [{ watts: 200, mounting: 'flat' }] }, prices: TEST_PRICES }),
     expect: INSTALLER_WORK(200),
   },
+  {
+    method: 'POST',
+    route: '/api/forecasts/[id]/after-plan',
+    url: (w) => `/api/forecasts/${w.forecast.id}/after-plan`,
+    body: () => ({ bank: { chemistry: 'lifepo4', capacityAh: 300, floorSocPct: 10 }, arrays: [], dcdcAmps: 0, shoreAmps: 0, generator: null }),
+    expect: INSTALLER_WORK(200),
+  },
   { method: 'GET', route: '/api/price-list', url: () => '/api/price-list', expect: INSTALLER_ACCOUNT(200) },
   // Each installer saves once in the matrix, so version 0 (a first save) is the current one.
   { method: 'PUT', route: '/api/price-list', url: () => '/api/price-list', body: () => ({ ...TEST_PRICES, version: 0 }), expect: INSTALLER_ACCOUNT(200) },

@@ -2,6 +2,7 @@
 import { apiFetch } from '../../lib/query-client';
 import type { ProposalDto, ProposalListItem, CandidatesInput, ChangesInput, DecisionInput, PriceList, ProposalPatchInput } from '../../domain/proposals/proposals.schema';
 import type { SweepResult } from '../../domain/proposals/sweep';
+import type { HandPlanInput, HandPlanResult } from '../../domain/proposals/sweep-edit';
 
 const enc = encodeURIComponent;
 
@@ -19,6 +20,9 @@ export const savePriceList = (input: PriceList & { version: number }) => apiFetc
 /** Runs the upgrade sweep on a saved forecast with the installer's saved prices. */
 export const runSweep = (forecastId: string, candidates: CandidatesInput, signal?: AbortSignal) =>
   apiFetch<SweepResponse>(`/api/forecasts/${enc(forecastId)}/sweep`, { method: 'POST', json: { candidates }, signal });
+
+/** Runs an after-plan edited by hand against a saved forecast's trip. */
+export const runAfterPlan = (forecastId: string, edit: HandPlanInput) => apiFetch<HandPlanResult>(`/api/forecasts/${enc(forecastId)}/after-plan`, { method: 'POST', json: edit });
 
 /** A draft proposal from a saved forecast and one option. */
 export const createProposal = (forecastId: string, changes: ChangesInput) => apiFetch<ProposalDto>('/api/proposals', { method: 'POST', json: { forecastId, changes } });

@@ -5,7 +5,7 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 import { Piscina } from 'piscina';
 import { HttpError } from '../errors';
 import type { MonitorLogOutcome, MonitorLogTask } from './monitor-task';
-import type { LogDetailTask, LogSeries, SweepTask, sweep } from './tasks';
+import type { HandPlanTask, LogDetailTask, LogSeries, SweepTask, handPlan, sweep } from './tasks';
 import type { ResolvedPlan } from '../../engine';
 import type { RunOutcome } from '../../domain/weather/band';
 
@@ -77,6 +77,11 @@ async function run<T>(name: string, task: unknown, transferList?: ArrayBuffer[])
 /** An upgrade sweep, off the request thread: the answer's JSON text. */
 export function sweepInPool(task: SweepTask): Promise<ReturnType<typeof sweep>> {
   return run('sweep', task);
+}
+
+/** A hand-edited after-plan run against a saved forecast's trip, off the request thread. */
+export function handPlanInPool(task: HandPlanTask): Promise<ReturnType<typeof handPlan>> {
+  return run('handPlan', task);
 }
 
 /**

@@ -2,7 +2,8 @@
 // sweep, reading a monitor log). Pure: no database, no environment, no clock. The build bundles this
 // file on its own into <build>/server/workers/tasks.mjs (astro.config.mjs), which the pool runs.
 import { runSweep, type SweepResult } from '../../domain/proposals/sweep';
-import type { ResolvedPlan } from '../../engine';
+import { runHandPlan, type HandPlan, type HandPlanResult } from '../../domain/proposals/sweep-edit';
+import { PlanValidationError, type ResolvedPlan } from '../../engine';
 import type { Candidates, PriceList } from '../../domain/proposals/proposals.schema';
 import Database from 'better-sqlite3';
 import { dailyAh, nightBaseline, nightTemperature, type BaselineResult, type DayAh } from '../../domain/monitor/baseline';
@@ -29,6 +30,22 @@ export function sweep(task: SweepTask): string {
   const started = performance.now();
   const result: SweepResult = runSweep(task);
   return JSON.stringify({ ...result, forecastId: task.forecastId, ms: Math.round((performance.now() - started) * 10) / 10 });
+}
+
+export interface HandPlanTask {
+  plan: ResolvedPlan;
+  reserveSocPct: number | null;
+  edit: HandPlan;
+}
+
+/** A hand-edited after-plan run against the saved forecast's trip, judged as a sweep option; the engine's refusal comes back as its issues. */
+export function handPlan(task: HandPlanTask): { ok: true; result: HandPlanResult } | { ok: false; message: string; issues: { path: string; message: string }[] } {
+  try {
+    return { ok: true, result: runHandPlan(task) };
+  } catch (e) {
+    if (e instanceof PlanValidationError) return { ok: false, message: e.envelope.error.message, issues: e.envelope.issues };
+    throw e;
+  }
 }
 
 /** A trip re-run under each weather of its band ("how sure is this?"): one engine run per plan. */
