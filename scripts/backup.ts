@@ -44,6 +44,20 @@ function argValue(name: string): string | undefined {
 }
 
 if (import.meta.url === `file://${process.argv[1]}` || process.argv[1]?.endsWith('scripts/backup.ts')) {
+  if (/^postgres(ql)?:\/\//.test(process.env.DATABASE_URL ?? '')) {
+    // On PostgreSQL the database server owns the data; its own tools back it up consistently.
+    console.log(
+      [
+        'DATABASE_URL points at PostgreSQL: this script only copies the embedded SQLite file, so it backs up nothing here.',
+        'Back up PostgreSQL with its own tools, e.g. a consistent logical dump while the app runs:',
+        '  pg_dump --format=custom --file=sunreckon-$(date -u +%Y%m%dT%H%M%SZ).dump "$DATABASE_URL"',
+        'and restore into an empty database with:',
+        '  pg_restore --no-owner --dbname="$DATABASE_URL" sunreckon-<time>.dump',
+        "(or your provider's snapshots / continuous archiving). Test a restore before you rely on it.",
+      ].join('\n'),
+    );
+    process.exit(2);
+  }
   const source = process.env.DATABASE_PATH || DEFAULT_DATABASE_PATH;
   const outDir = argValue('--out') ?? process.env.BACKUP_DIR ?? 'db/backups';
   const started = Date.now();

@@ -1,4 +1,5 @@
 import { sql, type Kysely } from 'kysely';
+import { columnTypes } from './types';
 
 // Crew membership gets a version (roles are editable), plus invitations, installer grants on one
 // rig, each user's chosen crew, and the outbox every e-mail passes through. The dev mail catcher's
@@ -8,19 +9,23 @@ import { sql, type Kysely } from 'kysely';
  * The local SMTP catcher's table (development, demo and tests). Exported so the catcher, which may
  * start before the migrations have run, creates exactly this table.
  */
-export const CAUGHT_MAIL_TABLE = sql`
+export function caughtMailTable(db: Kysely<any>) {
+  const ty = columnTypes(db);
+  return sql`
   create table if not exists caught_mail (
-    id integer primary key autoincrement,
+    id ${sql.raw(ty.pg ? 'bigint generated always as identity primary key' : 'integer primary key autoincrement')},
     message_id text,
     from_address text not null,
     to_address text not null,
     subject text not null,
     text_body text not null,
     html_body text not null,
-    received_at text not null
+    received_at ${sql.raw(ty.time)} not null
   )`;
+}
 
 export async function up(db: Kysely<any>): Promise<void> {
+  const ty = columnTypes(db);
   await db.schema.alterTable('crew_members').addColumn('version', 'integer', (c) => c.notNull().defaultTo(1)).execute();
 
   await db.schema
@@ -32,13 +37,13 @@ export async function up(db: Kysely<any>): Promise<void> {
     // Only a SHA-256 of the link's token is kept: a copy of the database cannot be used to join a crew.
     .addColumn('token_hash', 'text', (c) => c.notNull().unique())
     .addColumn('invited_by', 'text', (c) => c.references('user.id').onDelete('set null'))
-    .addColumn('expires_at', 'text', (c) => c.notNull())
-    .addColumn('accepted_at', 'text')
+    .addColumn('expires_at', ty.time, (c) => c.notNull())
+    .addColumn('accepted_at', ty.time)
     .addColumn('accepted_by', 'text', (c) => c.references('user.id').onDelete('set null'))
-    .addColumn('revoked_at', 'text')
+    .addColumn('revoked_at', ty.time)
     .addColumn('version', 'integer', (c) => c.notNull().defaultTo(1))
-    .addColumn('created_at', 'text', (c) => c.notNull())
-    .addColumn('updated_at', 'text', (c) => c.notNull())
+    .addColumn('created_at', ty.time, (c) => c.notNull())
+    .addColumn('updated_at', ty.time, (c) => c.notNull())
     .execute();
   await db.schema.createIndex('invitations_crew_idx').on('invitations').columns(['crew_id', 'email']).execute();
 
@@ -48,7 +53,7 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn('rig_id', 'text', (c) => c.notNull().references('rigs.id').onDelete('cascade'))
     .addColumn('installer_id', 'text', (c) => c.notNull().references('user.id').onDelete('cascade'))
     .addColumn('granted_by', 'text', (c) => c.references('user.id').onDelete('set null'))
-    .addColumn('created_at', 'text', (c) => c.notNull())
+    .addColumn('created_at', ty.time, (c) => c.notNull())
     .addUniqueConstraint('rig_grants_rig_installer_uq', ['rig_id', 'installer_id'])
     .execute();
   await db.schema.createIndex('rig_grants_installer_idx').on('rig_grants').column('installer_id').execute();
@@ -57,7 +62,7 @@ export async function up(db: Kysely<any>): Promise<void> {
     .createTable('active_crews')
     .addColumn('user_id', 'text', (c) => c.primaryKey().references('user.id').onDelete('cascade'))
     .addColumn('crew_id', 'text', (c) => c.notNull().references('crews.id').onDelete('cascade'))
-    .addColumn('updated_at', 'text', (c) => c.notNull())
+    .addColumn('updated_at', ty.time, (c) => c.notNull())
     .execute();
 
   await db.schema
@@ -71,15 +76,15 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn('status', 'text', (c) => c.notNull().defaultTo('queued').check(sql`status in ('queued', 'sending', 'sent')`))
     .addColumn('attempts', 'integer', (c) => c.notNull().defaultTo(0))
     .addColumn('last_error', 'text')
-    .addColumn('next_attempt_at', 'text', (c) => c.notNull())
-    .addColumn('locked_until', 'text')
+    .addColumn('next_attempt_at', ty.time, (c) => c.notNull())
+    .addColumn('locked_until', ty.time)
     .addColumn('message_id', 'text')
-    .addColumn('created_at', 'text', (c) => c.notNull())
-    .addColumn('sent_at', 'text')
+    .addColumn('created_at', ty.time, (c) => c.notNull())
+    .addColumn('sent_at', ty.time)
     .execute();
   await db.schema.createIndex('outbox_due_idx').on('outbox').columns(['status', 'next_attempt_at']).execute();
 
-  await CAUGHT_MAIL_TABLE.execute(db);
+  await caughtMailTable(db).execute(db);
 }
 
 export async function down(db: Kysely<any>): Promise<void> {

@@ -1,6 +1,6 @@
 import { betterAuth } from 'better-auth';
 import { APIError } from 'better-auth/api';
-import { db } from './db';
+import { database, db } from './db';
 import { PASSWORD_MAX, PASSWORD_MIN } from '../domain/accounts/accounts.schema';
 import { env } from './env';
 import { personName } from './auth-input';
@@ -17,7 +17,7 @@ export type AccountKind = (typeof ACCOUNT_KINDS)[number];
 
 /** better-auth over our Kysely instance: e-mail and password accounts with a camper/installer kind. */
 export const auth = betterAuth({
-  database: { db, type: 'sqlite' },
+  database: { db: database.authDb, type: database.kind },
   secret: env.authSecret,
   // Production names its one URL; elsewhere any loopback host and port is accepted (dev, demo, tests on free ports).
   baseURL: env.authUrl ?? { allowedHosts: ['localhost:*', '127.0.0.1:*', 'localhost', '127.0.0.1'], protocol: 'http', fallback: 'http://localhost:4321' },
@@ -54,7 +54,8 @@ export const auth = betterAuth({
     enabled: env.AUTH_RATE_LIMIT > 0,
     window: 60,
     max: Math.max(env.AUTH_RATE_LIMIT * 10, 100),
-    storage: 'memory',
+    // In memory for one process; in the shared database when several instances run on PostgreSQL.
+    storage: database.kind === 'postgres' ? 'database' : 'memory',
     customRules: {
       '/sign-in/email': { window: 60, max: env.AUTH_RATE_LIMIT },
       '/sign-up/email': { window: 60, max: env.AUTH_RATE_LIMIT },

@@ -8,6 +8,14 @@ import { DEFAULT_DATABASE_PATH } from '../../db/client';
 const schema = z.object({
   NODE_ENV: z.string().default('development'),
   DATABASE_PATH: z.string().min(1).default(DEFAULT_DATABASE_PATH),
+  /** A postgres:// URL puts the data in PostgreSQL (several instances over one database); unset: SQLite at DATABASE_PATH. */
+  DATABASE_URL: z
+    .string()
+    .regex(/^postgres(ql)?:\/\//, 'must be a postgres:// URL (leave it unset for the embedded SQLite file)')
+    .optional()
+    .or(z.literal('').transform(() => undefined)),
+  /** Connections per instance in the PostgreSQL pool. */
+  DATABASE_POOL_MAX: z.coerce.number().int().min(1).max(200).default(10),
   BETTER_AUTH_SECRET: z.string().min(32).optional(),
   BETTER_AUTH_URL: z.string().url().optional(),
   PREVIEW_RATE_LIMIT: z.coerce.number().int().min(0).default(30),

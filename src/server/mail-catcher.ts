@@ -2,8 +2,8 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { simpleParser, type AddressObject } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
-import { createDb, DEFAULT_DATABASE_PATH } from '../../db/client';
-import { CAUGHT_MAIL_TABLE } from '../../db/migrations/2026_12_01_0004_crews_mail';
+import { DEFAULT_DATABASE_PATH, isPostgresUrl, openDatabase } from '../../db/client';
+import { caughtMailTable } from '../../db/migrations/2026_12_01_0004_crews_mail';
 
 // The local mail catcher for development, the demo and the tests: a real SMTP server on loopback
 // that accepts every message and stores it in the `caught_mail` table of the app's SQLite file,
@@ -22,11 +22,15 @@ function addresses(a: AddressObject | AddressObject[] | undefined): string {
   return (Array.isArray(a) ? a : [a]).flatMap((x) => x.value.map((v) => v.address ?? '')).filter(Boolean).join(', ');
 }
 
-/** Starts the catcher on 127.0.0.1 (port 0 picks a free one) writing into the SQLite file at `dbPath`. */
-export async function startMailCatcher(opts: { dbPath: string; port?: number; quiet?: boolean }): Promise<MailCatcher> {
-  const { db, sqlite } = createDb(opts.dbPath);
+/**
+ * Starts the catcher on 127.0.0.1 (port 0 picks a free one) writing into the app's database: the
+ * PostgreSQL one at `databaseUrl` (or a postgres:// URL given as `dbPath`), else the SQLite file at `dbPath`.
+ */
+export async function startMailCatcher(opts: { dbPath: string; databaseUrl?: string; port?: number; quiet?: boolean }): Promise<MailCatcher> {
+  const store = openDatabase({ url: isPostgresUrl(opts.dbPath) ? opts.dbPath : opts.databaseUrl, path: opts.dbPath, poolMax: 2 });
+  const db = store.db;
   // The migration's own definition: the catcher may start before the app's migrations run.
-  await CAUGHT_MAIL_TABLE.execute(db);
+  await caughtMailTable(db).execute(db);
 
   const server = new SMTPServer({
     // Loopback only, no accounts, no TLS: a sink for development mail.
@@ -75,8 +79,7 @@ export async function startMailCatcher(opts: { dbPath: string; port?: number; qu
     stop: () =>
       new Promise<void>((resolve) => {
         server.close(() => {
-          sqlite.close();
-          resolve();
+          void store.close().then(() => resolve());
         });
       }),
   };
@@ -86,7 +89,7 @@ export async function startMailCatcher(opts: { dbPath: string; port?: number; qu
 const isMain = process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url);
 if (isMain) {
   const port = Number(process.argv[2] ?? 2525);
-  startMailCatcher({ dbPath: process.env.DATABASE_PATH || DEFAULT_DATABASE_PATH, port })
+  startMailCatcher({ dbPath: process.env.DATABASE_PATH || DEFAULT_DATABASE_PATH, databaseUrl: process.env.DATABASE_URL, port })
     .then((c) => console.log(`Mail catcher listening: SMTP_URL=${c.url}  (messages at /dev/mail)`))
     .catch((err) => {
       console.error('The mail catcher could not start:', err);

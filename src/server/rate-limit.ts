@@ -1,9 +1,21 @@
-import { RateLimiterMemory, RateLimiterRes } from 'rate-limiter-flexible';
+import { RateLimiterMemory, RateLimiterPostgres, RateLimiterRes, type RateLimiterAbstract } from 'rate-limiter-flexible';
 import type { APIContext } from 'astro';
+import { database } from './db';
 import { env } from './env';
 import { HttpError } from './errors';
 
-const limiters = new Map<string, RateLimiterMemory>();
+/**
+ * A limiter counting in this process's memory (one instance on SQLite), or in the shared
+ * PostgreSQL table `rate_limits` (migration 0018) so that several instances count together.
+ */
+function makeLimiter(opts: { points: number; duration: number; keyPrefix: string }): RateLimiterAbstract {
+  if (database.pool) {
+    return new RateLimiterPostgres({ ...opts, storeClient: database.pool, storeType: 'pool', tableName: 'rate_limits', tableCreated: true, clearExpiredByTimeout: true });
+  }
+  return new RateLimiterMemory(opts);
+}
+
+const limiters = new Map<string, RateLimiterAbstract>();
 
 /**
  * The key a client's requests are counted under. Astro's clientAddress takes the first
@@ -34,7 +46,7 @@ export async function limit(ctx: APIContext, name: string, perMinute: number): P
   const id = `${name}:${perMinute}`;
   let limiter = limiters.get(id);
   if (!limiter) {
-    limiter = new RateLimiterMemory({ points: perMinute, duration: 60, keyPrefix: name });
+    limiter = makeLimiter({ points: perMinute, duration: 60, keyPrefix: name });
     limiters.set(id, limiter);
   }
   try {
@@ -46,7 +58,7 @@ export async function limit(ctx: APIContext, name: string, perMinute: number): P
   }
 }
 
-const keyedLimiters = new Map<string, RateLimiterMemory>();
+const keyedLimiters = new Map<string, RateLimiterAbstract>();
 
 /**
  * Counts one action against `points` per `seconds` for `key` (a crew, an address, a user) under
@@ -57,7 +69,7 @@ export async function limitKey(name: string, key: string, points: number, second
   const id = `${name}:${points}:${seconds}`;
   let limiter = keyedLimiters.get(id);
   if (!limiter) {
-    limiter = new RateLimiterMemory({ points, duration: seconds, keyPrefix: id });
+    limiter = makeLimiter({ points, duration: seconds, keyPrefix: id });
     keyedLimiters.set(id, limiter);
   }
   try {
