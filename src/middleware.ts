@@ -7,6 +7,17 @@ import { errorResponse } from './server/http';
 const PUBLIC_PAGES = new Set(['/', '/sign-in', '/sign-up', '/reset-password', '/about']);
 const PUBLIC_API = [/^\/api\/auth\//, /^\/api\/health$/, /^\/api\/forecasts\/preview$/, /^\/api\/places$/, /^\/api\/timezone$/];
 
+/**
+ * An address holding the NUL character (%00) is refused before any route reads it: no id, place or
+ * token of ours contains it, and the database could not compare it.
+ */
+const noNul = defineMiddleware(async (ctx, next) => {
+  if (/%00/i.test(ctx.url.pathname + ctx.url.search)) {
+    return errorResponse('invalid_request', 'This address holds an invisible NUL character (%00); remove it.', [{ path: '(url)', message: 'contains %00' }]);
+  }
+  return next();
+});
+
 /** Resolves the session once per request and puts it on Astro.locals. */
 const session = defineMiddleware(async (ctx, next) => {
   ctx.locals.user = null;
@@ -91,4 +102,4 @@ const headers = defineMiddleware(async (_ctx, next) => {
   return res;
 });
 
-export const onRequest = sequence(headers, sameOrigin, session, guard);
+export const onRequest = sequence(headers, noNul, sameOrigin, session, guard);

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { HttpError } from './errors';
-import { zodIssues } from './http';
+import { nulError, nulPath, zodIssues } from './http';
 
 /** Largest body any /api/auth/* endpoint reads (sign-up, sign-in, profile and password changes are all small). */
 export const AUTH_BODY_MAX_BYTES = 64 * 1024;
@@ -31,8 +31,21 @@ const RULES: Record<string, z.ZodType> = {
  * to pass on (names trimmed). Any bad value is a 400 in the app's envelope, naming the field.
  */
 export function checkAuthBody(pathname: string, body: Uint8Array): Uint8Array {
+  if (body.byteLength > 0 && body.includes(0x00)) throw nulError('(body)');
   const schema = RULES[pathname.replace(/\/+$/, '')];
-  if (!schema || body.byteLength === 0) return body;
+  if (!schema || body.byteLength === 0) {
+    // Any endpoint: a NUL character in a field (an e-mail, a password) is refused here, not by the database.
+    if (body.byteLength > 0 && /\\u0000/i.test(new TextDecoder().decode(body))) {
+      let at = '(body)';
+      try {
+        at = nulPath(JSON.parse(new TextDecoder().decode(body))) ?? at;
+      } catch {
+        // not JSON: better-auth answers that itself
+      }
+      throw nulError(at);
+    }
+    return body;
+  }
   let data: unknown;
   try {
     data = JSON.parse(new TextDecoder().decode(body));
@@ -44,6 +57,8 @@ export function checkAuthBody(pathname: string, body: Uint8Array): Uint8Array {
   if (typeof data !== 'object' || data === null || Array.isArray(data)) {
     throw new HttpError('invalid_request', 'Send a JSON object.', [{ path: '(body)', message: 'expected an object' }]);
   }
+  const nul = nulPath(data);
+  if (nul) throw nulError(nul);
   const r = schema.safeParse(data);
   if (!r.success) throw new HttpError('invalid_request', 'Some fields need fixing.', zodIssues(r.error));
   return new TextEncoder().encode(JSON.stringify({ ...(data as object), ...(r.data as object) }));

@@ -28,6 +28,35 @@ export function zodIssues(error: z.ZodError, prefix = ''): Issue[] {
   }));
 }
 
+/**
+ * Where a JSON value holds the NUL character (U+0000) in a string or key, as a field path, or null.
+ * Text columns cannot store it (PostgreSQL refuses it outright), and no field of ours needs it.
+ */
+export function nulPath(value: unknown, path = ''): string | null {
+  if (typeof value === 'string') return value.includes('\u0000') ? path || '(body)' : null;
+  if (Array.isArray(value)) {
+    for (let i = 0; i < value.length; i++) {
+      const at = nulPath(value[i], path ? `${path}.${i}` : String(i));
+      if (at) return at;
+    }
+    return null;
+  }
+  if (value && typeof value === 'object') {
+    for (const [k, v] of Object.entries(value)) {
+      const here = path ? `${path}.${k}` : k;
+      if (k.includes('\u0000')) return here;
+      const at = nulPath(v, here);
+      if (at) return at;
+    }
+  }
+  return null;
+}
+
+/** A 400 naming the field that holds the NUL character. */
+export function nulError(path: string): HttpError {
+  return new HttpError('invalid_request', 'Some fields need fixing.', [{ path, message: 'contains an invisible NUL character (U+0000); remove it' }]);
+}
+
 /** Reads a JSON body (content type and size checked) as unknown; throws HttpError on bad input. */
 export async function readJson(request: Request, maxBytes = 256 * 1024, invalidCode: ErrorCode = 'invalid_request'): Promise<unknown> {
   const type = request.headers.get('content-type') ?? '';
@@ -39,11 +68,15 @@ export async function readJson(request: Request, maxBytes = 256 * 1024, invalidC
   const buf = await readLimited(request, maxBytes);
   const text = new TextDecoder().decode(buf);
   if (!text.trim()) throw new HttpError(invalidCode, 'The body is empty; send a JSON object.', [{ path: '(body)', message: 'empty body' }]);
+  let data: unknown;
   try {
-    return JSON.parse(text);
+    data = JSON.parse(text);
   } catch (e) {
     throw new HttpError(invalidCode, 'The body is not valid JSON.', [{ path: '(body)', message: (e as Error).message.slice(0, 200) }]);
   }
+  const nul = nulPath(data);
+  if (nul) throw nulError(nul);
+  return data;
 }
 
 /**
