@@ -11,6 +11,22 @@ export default defineConfig({
         test: {
           name: 'integration',
           include: ['tests/integration/**/*.test.ts'],
+          // *.pg.test.ts: what only holds on PostgreSQL (run by integration-pg below).
+          exclude: ['tests/integration/**/*.pg.test.ts'],
+          globalSetup: ['tests/helpers/server-setup.ts'],
+          fileParallelism: false,
+          testTimeout: 30_000,
+          hookTimeout: 120_000,
+        },
+      },
+      {
+        // The integration suite again, on PostgreSQL (npm run test:integration:pg starts a throw-away
+        // cluster and sets TEST_POSTGRES_URL). Left out: the tests of the SQLite file itself
+        // (its backup copy, WAL mode and lock waits, kill -9 during writes).
+        test: {
+          name: 'integration-pg',
+          include: ['tests/integration/**/*.test.ts'],
+          exclude: ['tests/integration/backup.test.ts', 'tests/integration/durability.test.ts'],
           globalSetup: ['tests/helpers/server-setup.ts'],
           fileParallelism: false,
           testTimeout: 30_000,

@@ -1,5 +1,5 @@
 import { inject } from 'vitest';
-import Database from 'better-sqlite3';
+import { openTestDb as openDb, type TestDb } from './test-db';
 
 /** Base URL of the server started by the global setup. */
 export const baseUrl = () => inject('baseUrl');
@@ -45,6 +45,6 @@ export async function api(path: string, init: RequestInit & { session?: Session;
 }
 
 /** A read-only handle on the test database, for asserting what was stored. */
-export function openTestDb(): Database.Database {
-  return new Database(inject('dbPath'), { readonly: true, fileMustExist: true });
+export function openTestDb(): TestDb {
+  return openDb();
 }

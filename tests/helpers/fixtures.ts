@@ -1,5 +1,4 @@
-import Database from 'better-sqlite3';
-import { inject } from 'vitest';
+import { openTestDb, type TestDb } from './test-db';
 import { api, type Session } from './api';
 
 // Shared data for the rig, load and trip suites. The demo rig is the invented camper van of
@@ -28,8 +27,8 @@ export async function createLoad(session: Session, rigId: string, load: Record<s
 }
 
 /** A read-write handle on the test database, for set-ups the API cannot make yet (crew roles). */
-function writeDb(): Database.Database {
-  return new Database(inject('dbPath'), { fileMustExist: true });
+function writeDb(): TestDb {
+  return openTestDb({ write: true });
 }
 
 /** The user's personal crew. */
@@ -54,7 +53,7 @@ export function addMember(crewId: string, userId: string, role: 'owner' | 'edito
 
 /** One row of the test database, read with plain SQL. */
 export function dbGet<T = Record<string, unknown>>(query: string, ...params: unknown[]): T | undefined {
-  const db = new Database(inject('dbPath'), { readonly: true, fileMustExist: true });
+  const db = openTestDb();
   try {
     return db.prepare(query).get(...params) as T | undefined;
   } finally {
@@ -64,7 +63,7 @@ export function dbGet<T = Record<string, unknown>>(query: string, ...params: unk
 
 /** Rows of the test database, read with plain SQL. */
 export function dbAll<T = Record<string, unknown>>(query: string, ...params: unknown[]): T[] {
-  const db = new Database(inject('dbPath'), { readonly: true, fileMustExist: true });
+  const db = openTestDb();
   try {
     return db.prepare(query).all(...params) as T[];
   } finally {

@@ -1,4 +1,4 @@
-import Database from 'better-sqlite3';
+import { openTestDb } from './test-db';
 import type { Selectable } from 'kysely';
 import { inject } from 'vitest';
 import type { CaughtMailTable } from '../../db/schema';
@@ -8,7 +8,7 @@ export type Caught = Selectable<CaughtMailTable>;
 
 /** Every message the real SMTP catcher stored for an address (in the given database, else the shared test one). */
 export function caughtFor(to: string, dbPath = inject('dbPath')): Caught[] {
-  const db = new Database(dbPath, { readonly: true, fileMustExist: true });
+  const db = openTestDb({ where: dbPath });
   try {
     return db.prepare('select * from caught_mail where lower(to_address) = lower(?) order by id').all(to) as Caught[];
   } finally {
@@ -37,7 +37,7 @@ export function linkIn(mail: Caught, prefix: string): string {
 
 /** Reads outbox rows for an address straight from the database. */
 export function outboxFor(to: string, dbPath = inject('dbPath')): { id: string; status: string; attempts: number; last_error: string | null; next_attempt_at: string; kind: string }[] {
-  const db = new Database(dbPath, { readonly: true, fileMustExist: true });
+  const db = openTestDb({ where: dbPath });
   try {
     return db.prepare('select id, status, attempts, last_error, next_attempt_at, kind from outbox where to_address = ? order by created_at').all(to) as never;
   } finally {

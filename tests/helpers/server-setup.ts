@@ -4,7 +4,7 @@ import path from 'node:path';
 import type { TestProject } from 'vitest/node';
 import { startMailCatcher } from '../../src/server/mail-catcher';
 import { startFakeWeather } from '../../scripts/fakes/weather';
-import { buildOnce, cleanup, startServer } from './server';
+import { buildOnce, cleanup, freshTestDatabase, startServer } from './server';
 
 declare module 'vitest' {
   export interface ProvidedContext {
@@ -24,7 +24,8 @@ declare module 'vitest' {
 export default async function setup(project: TestProject) {
   buildOnce();
   const dir = mkdtempSync(path.join(tmpdir(), 'sunreckon-test-'));
-  const dbPath = path.join(dir, 'test.sqlite');
+  // A SQLite file, or a fresh PostgreSQL database's URL when the suite runs on PostgreSQL.
+  const dbPath = await freshTestDatabase(dir);
   const catcher = await startMailCatcher({ dbPath, quiet: true });
   const weather = await startFakeWeather({ quiet: true });
   const server = await startServer({ SMTP_URL: catcher.url, WEATHER_FORECAST_URL: weather.forecastUrl, WEATHER_ARCHIVE_URL: weather.archiveUrl }, { dir, dbPath }).catch(async (err: unknown) => {
@@ -37,6 +38,8 @@ export default async function setup(project: TestProject) {
   project.provide('smtpUrl', catcher.url);
   project.provide('weatherUrl', weather.url);
   return async () => {
+    // SUNRECKON_TEST_LOGS=1 prints the shared server's output (its errors behind a 500) at the end.
+    if (process.env.SUNRECKON_TEST_LOGS === '1') console.log(server.logs());
     await server.stop();
     await catcher.stop();
     await weather.stop();

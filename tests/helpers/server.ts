@@ -4,6 +4,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import pg from 'pg';
 
 export const ROOT = path.resolve(import.meta.dirname, '../..');
 
@@ -41,14 +42,36 @@ export interface RunningServer {
   logs(): string;
 }
 
-/** Starts the built server on a throw-away SQLite file (migrated first) and waits for /api/health. */
+/**
+ * When the suite runs on PostgreSQL (TEST_POSTGRES_URL names a throw-away cluster's admin
+ * database, see scripts/pg-cluster.sh), a fresh empty database for one server; its URL then
+ * stands where a SQLite file's path stands elsewhere (RunningServer.dbPath, inject('dbPath')).
+ */
+export async function freshTestDatabase(dir: string): Promise<string> {
+  const admin = process.env.TEST_POSTGRES_URL;
+  if (!admin) return path.join(dir, 'test.sqlite');
+  const name = `sunreckon_t_${randomBytes(6).toString('hex')}`;
+  const client = new pg.Client({ connectionString: admin });
+  await client.connect();
+  try {
+    await client.query(`create database ${name}`);
+  } finally {
+    await client.end();
+  }
+  const url = new URL(admin);
+  url.pathname = `/${name}`;
+  return url.toString();
+}
+
+/** Starts the built server on a throw-away database (migrated first) and waits for /api/health. */
 export async function startServer(extraEnv: Record<string, string> = {}, reuse?: { dir: string; dbPath: string }): Promise<RunningServer> {
   const dir = reuse?.dir ?? mkdtempSync(path.join(tmpdir(), 'sunreckon-test-'));
-  const dbPath = reuse?.dbPath ?? path.join(dir, 'test.sqlite');
+  const dbPath = reuse?.dbPath ?? (await freshTestDatabase(dir));
+  const onPostgres = /^postgres(ql)?:\/\//.test(dbPath);
   const port = await freePort();
   const env = {
     ...process.env,
-    DATABASE_PATH: dbPath,
+    ...(onPostgres ? { DATABASE_URL: dbPath } : { DATABASE_PATH: dbPath }),
     HOST: '127.0.0.1',
     PORT: String(port),
     BETTER_AUTH_SECRET: 'test-secret-test-secret-test-secret-0001',
@@ -111,7 +134,7 @@ export async function startDemoServer(): Promise<{ server: RunningServer; shutdo
   if (process.env.SUNRECKON_PREBUILT !== '1') console.log(`Building into ${DIST} …`);
   buildOnce();
   const server = await startServer({ BETTER_AUTH_SECRET: randomBytes(24).toString('hex') });
-  execFileSync('npx', ['tsx', 'scripts/seed.ts'], { cwd: ROOT, env: { ...process.env, DATABASE_PATH: server.dbPath }, stdio: 'pipe' });
+  execFileSync('npx', ['tsx', 'scripts/seed.ts'], { cwd: ROOT, env: { ...process.env, ...(/^postgres/.test(server.dbPath) ? { DATABASE_URL: server.dbPath } : { DATABASE_PATH: server.dbPath }) }, stdio: 'pipe' });
   const shutdown = async (code: number): Promise<never> => {
     await server.stop();
     cleanup(server.dir);

@@ -1,7 +1,6 @@
 import { createHash } from 'node:crypto';
-import Database from 'better-sqlite3';
+import { openTestDb, type TestDb } from '../helpers/test-db';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { inject } from 'vitest';
 import { api, signUp, uniqueEmail, type Session } from '../helpers/api';
 import { activeCrew, inviteToken, makeLoad, makeRig, member } from '../helpers/crew';
 import { waitForMail } from '../helpers/mail';
@@ -14,8 +13,8 @@ async function crew(s: Session, id: string): Promise<Crew> {
   return (await res.json()) as Crew;
 }
 
-function writeDb(): Database.Database {
-  return new Database(inject('dbPath'));
+function writeDb(): TestDb {
+  return openTestDb({ write: true });
 }
 
 async function accept(s: Session, token: string) {

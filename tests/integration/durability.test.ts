@@ -1,8 +1,7 @@
 import Database from 'better-sqlite3';
-import { afterAll, describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, inject, it } from 'vitest';
 import { openSqlite } from '../../db/client';
 import { startMailCatcher, type MailCatcher } from '../../src/server/mail-catcher';
-import { openTestDb } from '../helpers/api';
 import { caughtFor, outboxFor, waitForMail, waitForSent } from '../helpers/mail';
 import { cleanup, freePort, startServer, type RunningServer } from '../helpers/server';
 
@@ -44,7 +43,7 @@ describe('SQLite settings', () => {
   });
 
   it('the running server’s database file is in WAL mode', () => {
-    const db = openTestDb();
+    const db = new Database(inject('dbPath'), { readonly: true, fileMustExist: true });
     try {
       expect(db.pragma('journal_mode', { simple: true })).toBe('wal');
     } finally {

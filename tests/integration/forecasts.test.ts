@@ -1,5 +1,5 @@
-import Database from 'better-sqlite3';
-import { beforeAll, describe, expect, inject, it } from 'vitest';
+import { openTestDb as openDb } from '../helpers/test-db';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { demoPlan } from '../../src/engine';
 import { api, openTestDb, signUp, type Session } from '../helpers/api';
 
@@ -137,7 +137,7 @@ describe('saved forecasts', () => {
     // A revision 1 row as it was stored: no engine_revision column value, no engineRevision in the
     // result, and hourly columns without usablePct / minVolts / cabinC.
     const [newest] = await (await api(`/api/trips/${setup.tripId}/forecasts`, { session: owner })).json();
-    const db = new Database(inject('dbPath'), { fileMustExist: true });
+    const db = openDb({ write: true });
     const oldId = crypto.randomUUID();
     try {
       const src = db.prepare('select * from forecasts where id = ?').get(newest.id) as Record<string, unknown>;

@@ -1,7 +1,7 @@
 import { readdirSync } from 'node:fs';
 import { request } from 'node:http';
 import path from 'node:path';
-import Database from 'better-sqlite3';
+import { openTestDb as openDb } from '../helpers/test-db';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { api, baseUrl, openTestDb, signUp, uniqueEmail } from '../helpers/api';
 import { makeRig, makeTrip, RIG_INPUT, TRIP_INPUT } from '../helpers/crew';
@@ -250,7 +250,7 @@ describe('mail, share, sweep and proxy limits (INVITE_CREW_HOURLY=3, INVITE_ADDR
     };
   }
   const outbox = (to: string) => {
-    const db = new Database(server.dbPath, { readonly: true });
+    const db = openDb({ where: server.dbPath });
     try {
       return (db.prepare('select count(*) as n from outbox where to_address = ?').get(to) as { n: number }).n;
     } finally {

@@ -1,6 +1,5 @@
-import Database from 'better-sqlite3';
+import { openTestDb } from '../helpers/test-db';
 import { describe, expect, it } from 'vitest';
-import { inject } from 'vitest';
 import { api, baseUrl, signUp, uniqueEmail } from '../helpers/api';
 import { caughtFor, linkIn, outboxFor, waitForMail, waitForSent } from '../helpers/mail';
 import { cleanup, startServer } from '../helpers/server';
@@ -29,7 +28,7 @@ describe('password reset by e-mail (better-auth flow, real SMTP catcher)', () =>
     expect(await waitForSent(email)).toMatchObject([{ status: 'sent', attempts: 1, last_error: null, kind: 'password-reset' }]);
 
     // The token is stored hashed, never as sent.
-    const db = new Database(inject('dbPath'), { readonly: true });
+    const db = openTestDb();
     const plain = db.prepare('select count(*) as n from verification where identifier like ?').get(`%${token}%`) as { n: number };
     db.close();
     expect(plain.n).toBe(0);
@@ -56,7 +55,7 @@ describe('password reset by e-mail (better-auth flow, real SMTP catcher)', () =>
     await requestReset(email);
     const [mail] = await waitForMail(email);
     const token = tokenOf(linkIn(mail!, `${baseUrl()}/reset-password?token=`));
-    const db = new Database(inject('dbPath'));
+    const db = openTestDb({ write: true });
     db.prepare('update verification set expiresAt = ? where value = ?').run(new Date(Date.now() - 60_000).toISOString(), s.userId);
     db.close();
     const res = await api('/api/auth/reset-password', { method: 'POST', json: { newPassword: 'new-password-2', token } });

@@ -1,4 +1,4 @@
-import Database from 'better-sqlite3';
+import { isPostgres, openTestDb, type TestDb } from '../helpers/test-db';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { api, baseUrl, signUp, type Session } from '../helpers/api';
 import { createRig, dbAll, dbGet } from '../helpers/fixtures';
@@ -207,13 +207,20 @@ describe('one transaction', () => {
   // and the readings inserted before it must all be rolled back.
   const six = truth({ days: 6 });
   const failAt = at(six, 1500, 'synthetic reading').t;
-  let rw: Database.Database;
+  let rw: TestDb;
+  const onPostgres = isPostgres(inject('dbPath'));
+  const dropTrigger = onPostgres ? 'drop trigger if exists fail_one_reading on monitor_samples' : 'drop trigger if exists fail_one_reading';
   beforeAll(() => {
-    rw = new Database(inject('dbPath'), { fileMustExist: true });
-    rw.exec(`create trigger fail_one_reading before insert on monitor_samples when new.t = ${failAt} begin select raise(abort, 'injected fault'); end;`);
+    rw = openTestDb({ write: true });
+    rw.exec(
+      onPostgres
+        ? `create function fail_one_reading() returns trigger language plpgsql as $$ begin if new.t = ${failAt} then raise exception 'injected fault'; end if; return new; end $$;
+           create trigger fail_one_reading before insert on monitor_samples for each row execute function fail_one_reading();`
+        : `create trigger fail_one_reading before insert on monitor_samples when new.t = ${failAt} begin select raise(abort, 'injected fault'); end;`,
+    );
   });
   afterAll(() => {
-    rw.exec('drop trigger if exists fail_one_reading');
+    rw.exec(dropTrigger);
     rw.close();
   });
 
@@ -224,7 +231,7 @@ describe('one transaction', () => {
     expect(res.status).toBe(500);
     expect((await res.json()).error.message).toMatch(/Your data was not changed/);
     expect([logCount(), sampleCount()]).toEqual(before);
-    rw.exec('drop trigger fail_one_reading');
+    rw.exec(dropTrigger);
     const again = await upload({ text, mapping: { ...MAPPING, temperature: { column: 4, unit: 'C' } } });
     expect(again.status).toBe(201);
     expect(logCount()).toBe(before[0] + 1);

@@ -1,4 +1,4 @@
-import Database from 'better-sqlite3';
+import { openTestDb } from '../helpers/test-db';
 import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
 import { api, signUp, type Session } from '../helpers/api';
 import { makeRig } from '../helpers/crew';
@@ -64,8 +64,7 @@ async function fill(tripId: string): Promise<Fill> {
 }
 
 function ageCache(hours: number): void {
-  const db = new Database(inject('dbPath'));
-  db.pragma('busy_timeout = 5000');
+  const db = openTestDb({ write: true });
   db.prepare('update weather_cache set fetched_at = ?').run(new Date(Date.now() - hours * 3_600_000).toISOString());
   db.close();
 }
