@@ -110,7 +110,8 @@ describe('installer proposals in Chromium', () => {
     await editor.locator('[id^="edit-parts-"][id$="-unitPrice"]').last().fill('89.50');
     await editor.getByRole('button', { name: 'Save draft' }).click();
     await page.getByText('Draft saved; the cable checks are updated.').waitFor();
-    expect(await page.getByTestId('suggested-gauge').first().textContent()).toMatch(/AWG \(\d+(\.\d)? mm²\)/);
+    expect(await page.getByTestId('run-size').first().textContent()).toMatch(/^\d+(\/0)? AWG$/);
+    expect(await page.getByTestId('run-method').first().textContent()).toBe('ABYC-style, 20 °C');
     expect(await page.getByTestId('cautions').textContent()).toMatch(/18 cm \(7 in\) of the battery positive/);
     await shot(page, 'proposal-draft-desktop');
     await editor.getByRole('button', { name: 'Send to the crew' }).click();
@@ -143,8 +144,12 @@ describe('installer proposals in Chromium', () => {
 
     await page.getByLabel('Comment for Wren Solar (optional)').fill('Yes — before the October trip, please.');
     await page.getByRole('button', { name: 'Accept the proposal' }).click();
+    // Accepting records a typed name, like a signature.
+    await page.getByText('Type your name to accept: it is recorded with the time, as a signature.').waitFor();
+    await page.getByLabel('Your name, to accept').fill('Inés Reyes');
+    await page.getByRole('button', { name: 'Accept the proposal' }).click();
     await page.getByTestId('decision').waitFor();
-    expect(await page.getByTestId('decision').textContent()).toMatch(/Accepted by Inés on .*Yes — before the October trip/s);
+    expect(await page.getByTestId('decision').textContent()).toMatch(/Accepted by Inés Reyes on .* UTC.*Yes — before the October trip/s);
     await shot(page, 'proposal-accepted-phone');
 
     await page.goto(`${baseUrl()}/proposals`);

@@ -78,10 +78,11 @@ describe('metric sizes (IEC 60228 class 5)', () => {
     expect(conductor('6 mm²')!.ampacityAwg).toBe('10');
   });
 
-  it('offers metric first for a euro price list or a user who prefers metric, AWG for dollars', () => {
-    expect(preferredSizes('EUR', null)).toBe('metric');
-    expect(preferredSizes('USD', null)).toBe('awg');
-    expect(preferredSizes('USD', 'metric')).toBe('metric');
+  it('offers metric first for a euro or pound price list, AWG for US and Canadian dollars or a user who set imperial units', () => {
+    expect(preferredSizes('EUR', 'metric')).toBe('metric');
+    expect(preferredSizes('gbp', null)).toBe('metric');
+    expect(preferredSizes('USD', 'metric')).toBe('awg');
+    expect(preferredSizes('CAD', null)).toBe('awg');
     expect(preferredSizes('EUR', 'imperial')).toBe('awg');
   });
 });

@@ -159,9 +159,13 @@ export function conductor(id: string): Conductor | undefined {
   return CONDUCTORS.find((c) => c.id === id);
 }
 
-/** Metric first when the price list is in a currency of a metric country or the user prefers metric; otherwise AWG. */
+/**
+ * Which sizes a new proposal suggests from: metric (mm²) when the price list is in a currency of a
+ * metric market, AWG for US and Canadian dollars, where cable is sold by gauge; a user who set
+ * imperial units gets AWG. (Every account starts in metric units, so that setting alone cannot say
+ * a US installer prefers mm²; each run can be switched.)
+ */
 export function preferredSizes(currency: string, units: 'metric' | 'imperial' | null): SizeSystem {
-  if (units === 'metric') return 'metric';
   if (units === 'imperial') return 'awg';
   return ['USD', 'CAD'].includes(currency.toUpperCase()) ? 'awg' : 'metric';
 }

@@ -106,6 +106,12 @@ function Form({ dto, onSaved }: { dto: PriceListDto; onSaved?: (dto: PriceListDt
         {money('generator', 'Generator with converter/charger', 'Only when the rig has none.')}
         {money('generatorPerHour', 'Generator running, per hour', 'Fuel and wear; priced from the forecast’s generator hours.')}
       </fieldset>
+      <fieldset className="grid gap-4 sm:grid-cols-2">
+        <legend className="mb-2 text-lg font-extrabold">Wiring from the cable check</legend>
+        {money('wiring.cablePerMm2M', 'Cable, per metre and per mm²', 'A 25 mm² cable costs 25 × this per metre; each run is priced out and back.')}
+        {money('wiring.fuse', 'Fuse or breaker with holder, each')}
+        {money('wiring.busBars', 'Bus bars, a positive and negative pair')}
+      </fieldset>
       <div className="flex flex-wrap items-center gap-3">
         <button type="submit" className="btn btn-primary" disabled={save.isPending || (dto.saved && !isDirty)}>
           {save.isPending ? 'Saving…' : dto.saved ? 'Save price list' : 'Save my price list'}

@@ -4,20 +4,26 @@ import { ConflictNotice } from '../../components/ui/ConflictNotice';
 import { withQueryClient } from '../../components/ui/QueryProvider';
 import { ErrorState, LoadingState } from '../../components/ui/States';
 import { asNumber } from '../../components/ui/form';
-import { formatDate, formatMoney } from '../../lib/format';
+import { formatDate, formatMoney, formatNumber } from '../../lib/format';
 import { ApiError, isConflict, type ApiIssue } from '../../lib/query-client';
 import { fromDisplayLength, lengthUnit, toDisplayLength, type Units } from '../../lib/units';
-import { AMPACITY_TABLES, AMPACITY_TABLE_NAMES, AWG_SIZES, type AmpacityTable } from '../../domain/proposals/cable';
+import { AMPACITY_TABLES, AMPACITY_TABLE_NAMES, AWG_SIZES, DROP_METHODS, DROP_METHOD_SHORT, METRIC_SIZES, type AmpacityTable, type DropMethod, type SizeSystem } from '../../domain/proposals/cable';
 import { type ProposalDto, proposalPatchSchema, type CableRowInput } from '../../domain/proposals/proposals.schema';
-import { lineAmount, partsTotal } from '../../domain/proposals/proposals';
+import { lineAmount } from '../../domain/proposals/proposals';
+import { documentTotals, wiringLines } from '../../domain/proposals/document';
+import type { ProposalDocument } from '../../domain/proposals/document.schema';
 import CompareView from '../forecast/CompareView';
-import { CableList, Cautions, PartsTable } from './ProposalTables';
+import { Cautions, DocumentHead, PartsTable, quoteDate } from './ProposalTables';
 import { decideProposal, deleteProposal, patchProposal, sendProposal } from './proposals.api';
 import { proposalKeys, proposalQueries } from './proposals.queries';
 import { STATUS_LOOK } from './status';
 
 
 const day = (iso: string | null) => (iso ? formatDate(iso.slice(0, 10)) : '');
+/** A stored UTC time as "Fri 4 Dec 2026, 18:20 UTC". */
+const dayTime = (iso: string) => `${formatDate(iso.slice(0, 10))}, ${iso.slice(11, 16)} UTC`;
+const outcome = (s: { minSocPct: number; firstCutoffAt: string | null; unmetWh: number }) =>
+  s.firstCutoffAt ? `runs out, ${formatNumber(s.unmetWh)} Wh short` : `lowest ${formatNumber(s.minSocPct)} %, no cutoff`;
 
 /** One proposal: before/after forecasts, parts, cables, cautions; the installer edits and sends a draft, the crew's owner answers. */
 function ProposalView({ id, units }: { id: string; units: Units }) {
@@ -30,18 +36,14 @@ function ProposalView({ id, units }: { id: string; units: Units }) {
 function Loaded({ p, units }: { p: ProposalDto; units: Units }) {
   const s = STATUS_LOOK[p.status];
   return (
-    <article className="space-y-6" data-testid="proposal" data-status={p.status}>
-      <header className="space-y-2">
-        <p className="hidden text-sm font-bold uppercase tracking-wide text-ember-deep print:block">Sunreckon · Upgrade proposal</p>
+    <article className="proposal-doc space-y-6" data-testid="proposal" data-status={p.status}>
+      <header className="space-y-3">
+        <p className="hidden text-sm font-bold uppercase tracking-wide text-ember-deep print:block">Upgrade proposal{p.document.quoteNumber ? ` · ${p.document.quoteNumber}` : ''}</p>
         <div className="flex flex-wrap items-start justify-between gap-3">
-          <h1 className="text-2xl sm:text-3xl">{p.title}</h1>
-          <span className={`rounded-full px-3 py-1 text-sm font-bold ${s.cls}`} data-testid="proposal-status">{s.label}</span>
+          <h1 className="text-2xl sm:text-3xl print:text-xl">{p.title}</h1>
+          <span className={`rounded-full px-3 py-1 text-sm font-bold print:hidden ${s.cls}`} data-testid="proposal-status">{s.label}</span>
         </div>
-        <p className="text-slate-text">
-          For the rig <strong className="text-dusk">{p.rigName}</strong> of {p.crewName}
-          {p.tripName ? <> · trip “{p.tripName}”</> : null} · from <strong className="text-dusk" data-testid="installer-name">{p.installerName}</strong>
-          {p.sentAt ? ` · sent ${day(p.sentAt)}` : ` · drafted ${day(p.createdAt)}`}
-        </p>
+        <DocumentHead p={p} />
         <div className="no-print flex flex-wrap gap-2">
           <button type="button" className="btn btn-quiet" onClick={() => window.print()}>Print</button>
           {p.mine && p.forecastId && p.tripId ? <a className="btn btn-quiet" href={`/trips/${encodeURIComponent(p.tripId)}/forecasts/${encodeURIComponent(p.forecastId)}`}>Open the saved forecast</a> : null}
@@ -50,7 +52,10 @@ function Loaded({ p, units }: { p: ProposalDto; units: Units }) {
 
       {p.decision ? (
         <section className={`rounded-[14px] border-l-[6px] p-4 ${p.status === 'accepted' ? 'border-moss bg-[#eef5ef]' : 'border-ember bg-[#fbebe2]'}`} data-testid="decision">
-          <p className="font-extrabold">{p.status === 'accepted' ? 'Accepted' : 'Declined'}{p.decision.by ? ` by ${p.decision.by}` : ''} on {day(p.decision.at)}</p>
+          <p className="font-extrabold">
+            {p.status === 'accepted' ? `Accepted by ${p.decision.name ?? p.decision.by ?? 'the crew'}` : `Declined${p.decision.by ? ` by ${p.decision.by}` : ''}`} on {dayTime(p.decision.at)}
+          </p>
+          {p.status === 'accepted' && p.decision.by && p.decision.name && p.decision.name !== p.decision.by ? <p className="text-sm">Signed in as {p.decision.by}.</p> : null}
           {p.decision.comment ? <p className="mt-1 whitespace-pre-line">“{p.decision.comment}”</p> : null}
         </section>
       ) : null}
@@ -58,26 +63,42 @@ function Loaded({ p, units }: { p: ProposalDto; units: Units }) {
       {p.status === 'sent' && !p.canDecide && !p.mine ? <p className="caution no-print">The crew’s owner accepts or declines this proposal.</p> : null}
       {p.status === 'sent' && p.mine ? <p className="caution no-print">Sent to the crew’s owners by e-mail; their answer shows here.</p> : null}
 
-      <section aria-labelledby="what-heading" className="card p-4 sm:p-5">
+      <section aria-labelledby="what-heading" className="card p-4 sm:p-5 print:break-inside-avoid print:p-0 print:shadow-none">
         <h2 id="what-heading" className="text-xl">What changes</h2>
         <p className="mt-1 text-lg font-bold">{p.label}</p>
+        <dl className="mt-2 grid grid-cols-[auto_1fr] gap-x-3 text-sm" data-testid="before-after">
+          <dt className="text-slate-text">Before</dt>
+          <dd>{outcome(p.before)}</dd>
+          <dt className="text-slate-text">After</dt>
+          <dd className="font-bold">{outcome(p.after)}</dd>
+        </dl>
         {p.notes ? <p className="mt-2 whitespace-pre-line" data-testid="notes">{p.notes}</p> : null}
       </section>
 
-      <CompareView a={{ name: 'Before', forecast: p.before.forecast, plan: p.before.plan }} b={{ name: 'After', forecast: p.after.forecast, plan: p.after.plan }} reserveSocPct={p.reserveSocPct} />
+      <div className="print:hidden">
+        <CompareView a={{ name: 'Before', forecast: p.before.forecast, plan: p.before.plan }} b={{ name: 'After', forecast: p.after.forecast, plan: p.after.plan }} reserveSocPct={p.reserveSocPct} />
+      </div>
 
       {p.canEdit ? <DraftEditor p={p} units={units} /> : null}
 
-      <section aria-labelledby="parts-heading" className={`card p-4 sm:p-5 print:block print:break-inside-avoid ${p.canEdit ? 'hidden' : ''}`}>
-        <h2 id="parts-heading" className="mb-2 text-xl">Parts and cost</h2>
-        <PartsTable p={p} />
+      <section aria-labelledby="parts-heading" className="card p-4 sm:p-5 print:p-0 print:shadow-none">
+        <h2 id="parts-heading" className="mb-2 text-xl">{p.canEdit ? 'The quote as last saved' : 'Quote'}</h2>
+        <PartsTable p={p} units={units} />
       </section>
-      <section aria-labelledby="cables-heading" className="card p-4 sm:p-5">
-        <h2 id="cables-heading" className="mb-2 text-xl">Cables and fuses <span className="text-base font-semibold text-slate-text">(estimates{p.canEdit ? ', as last saved' : ''})</span></h2>
-        <CableList cables={p.cables} units={units} />
-      </section>
+      {p.document.terms ? (
+        <section aria-labelledby="terms-heading" className="print:break-inside-avoid">
+          <h2 id="terms-heading" className="mb-1 text-xl">Terms</h2>
+          <p className="whitespace-pre-line text-sm" data-testid="terms">{p.document.terms}</p>
+        </section>
+      ) : null}
       <Cautions items={p.cautions} />
-      <p className="hidden text-sm text-slate-text print:block">Prepared with Sunreckon by {p.installerName}. Figures are estimates from the forecast model; local codes and a qualified electrician decide.</p>
+      {p.status !== 'accepted' ? (
+        <section className="hidden print:block print:break-inside-avoid" aria-label="Acceptance">
+          <p className="text-sm">Accepted on behalf of {p.crewName}:</p>
+          <p className="mt-6 grid grid-cols-2 gap-8 text-sm"><span className="border-t border-dusk pt-1">Name and signature</span><span className="border-t border-dusk pt-1">Date</span></p>
+        </section>
+      ) : null}
+      <p className="hidden text-xs text-slate-text print:block">Prepared with Sunreckon by {p.document.company || p.installerName}, {formatDate(quoteDate(p))}. Figures are estimates from the forecast model; local codes and a qualified electrician decide.</p>
     </article>
   );
 }
@@ -85,8 +106,10 @@ function Loaded({ p, units }: { p: ProposalDto; units: Units }) {
 function DecisionForm({ p }: { p: ProposalDto }) {
   const qc = useQueryClient();
   const [comment, setComment] = useState('');
+  const [name, setName] = useState('');
+  const [nameError, setNameError] = useState<string | null>(null);
   const decide = useMutation({
-    mutationFn: (decision: 'accepted' | 'declined') => decideProposal(p.id, { decision, comment, version: p.version }),
+    mutationFn: (decision: 'accepted' | 'declined') => decideProposal(p.id, { decision, comment, name, version: p.version }),
     onSuccess: (dto) => {
       qc.setQueryData(proposalKeys.detail(p.id), dto);
       void qc.invalidateQueries({ queryKey: proposalKeys.list() });
@@ -100,12 +123,17 @@ function DecisionForm({ p }: { p: ProposalDto }) {
       <h2 className="text-xl">Your answer</h2>
       <p className="text-slate-text">Accepting tells {p.installerName} to go ahead; nothing is ordered until you two agree the details.</p>
       <div>
+        <label htmlFor="decision-name" className="field-label">Your name, to accept</label>
+        <input id="decision-name" className="field-input max-w-sm" maxLength={120} autoComplete="name" value={name} aria-invalid={nameError ? true : undefined} aria-describedby="decision-name-hint" onChange={(e) => { setName(e.target.value); setNameError(null); }} />
+        <p id="decision-name-hint" className={nameError ? 'field-error' : 'field-hint mt-1'} role={nameError ? 'alert' : undefined}>{nameError ?? 'Recorded with the date and time as your acceptance.'}</p>
+      </div>
+      <div>
         <label htmlFor="decision-comment" className="field-label">Comment for {p.installerName} (optional)</label>
         <textarea id="decision-comment" className="field-input min-h-[5rem]" maxLength={2000} value={comment} onChange={(e) => setComment(e.target.value)} />
       </div>
       {decide.isError ? <p role="alert" className="field-error">{isConflict(decide.error) ? 'This proposal changed or was already answered; it is shown as it is now.' : decide.error.message}</p> : null}
       <div className="flex flex-wrap gap-2">
-        <button type="button" className="btn btn-primary" disabled={decide.isPending} onClick={() => decide.mutate('accepted')}>{decide.isPending && decide.variables === 'accepted' ? 'Accepting…' : 'Accept the proposal'}</button>
+        <button type="button" className="btn btn-primary" disabled={decide.isPending} onClick={() => { if (!name.trim()) { setNameError('Type your name to accept: it is recorded with the time, as a signature.'); return; } decide.mutate('accepted'); }}>{decide.isPending && decide.variables === 'accepted' ? 'Accepting…' : 'Accept the proposal'}</button>
         <button type="button" className="btn btn-quiet" disabled={decide.isPending} onClick={() => decide.mutate('declined')}>{decide.isPending && decide.variables === 'declined' ? 'Declining…' : 'Decline'}</button>
       </div>
     </form>
@@ -129,6 +157,42 @@ interface CableDraft {
   circuit: 'critical' | 'non-critical';
   table: AmpacityTable;
   chosenAwg: string;
+  method: DropMethod;
+  sizes: SizeSystem;
+  basis: string;
+}
+interface DocDraft {
+  company: string;
+  contactName: string;
+  phone: string;
+  email: string;
+  address: string;
+  licence: string;
+  quoteNumber: string;
+  validDays: string;
+  taxRatePct: string;
+  terms: string;
+  labour: { name: string; hours: string; rate: string }[];
+  removals: { name: string; kind: 'removal' | 'trade-in'; amount: string }[];
+  wiring: { cablePerMm2M: string; fuse: string; busBars: string };
+}
+
+function docDraft(d: ProposalDocument): DocDraft {
+  return {
+    company: d.company,
+    contactName: d.contactName,
+    phone: d.phone,
+    email: d.email,
+    address: d.address,
+    licence: d.licence,
+    quoteNumber: d.quoteNumber,
+    validDays: String(d.validDays),
+    taxRatePct: String(d.taxRatePct),
+    terms: d.terms,
+    labour: d.labour.map((l) => ({ name: l.name, hours: String(l.hours), rate: String(l.rate) })),
+    removals: d.removals.map((r) => ({ name: r.name, kind: r.kind, amount: String(r.amount) })),
+    wiring: { cablePerMm2M: String(d.wiringPrices.cablePerMm2M), fuse: String(d.wiringPrices.fuse), busBars: String(d.wiringPrices.busBars) },
+  };
 }
 
 function draftsOf(p: ProposalDto, units: Units) {
@@ -147,7 +211,11 @@ function draftsOf(p: ProposalDto, units: Units) {
       circuit: c.circuit,
       table: c.table ?? 'abyc-105c',
       chosenAwg: c.chosenAwg ?? '',
+      method: c.method ?? 'nec-75c',
+      sizes: c.sizes ?? 'awg',
+      basis: c.basis ?? '',
     })),
+    doc: docDraft(p.document),
   };
 }
 
@@ -156,7 +224,26 @@ const n = (s: string) => asNumber(s) ?? NaN;
 function toCableInput(c: CableDraft, units: Units): CableRowInput {
   const source = c.kind === 'inverter' ? { kind: 'inverter' as const, watts: n(c.watts), efficiencyPct: n(c.efficiencyPct), lowestVolts: n(c.lowestVolts) } : { kind: c.kind, amps: n(c.amps) };
   const len = n(c.oneWay);
-  return { label: c.label, source, oneWayM: Number.isFinite(len) ? fromDisplayLength(len, units) : NaN, circuit: c.circuit, table: c.table, chosenAwg: c.chosenAwg || null };
+  return { label: c.label, source, oneWayM: Number.isFinite(len) ? fromDisplayLength(len, units) : NaN, circuit: c.circuit, table: c.table, chosenAwg: c.chosenAwg || null, method: c.method, sizes: c.sizes, ...(c.basis ? { basis: c.basis } : {}) };
+}
+
+function toDocument(d: DocDraft, issuedOn: string | null) {
+  return {
+    company: d.company,
+    contactName: d.contactName,
+    phone: d.phone,
+    email: d.email,
+    address: d.address,
+    licence: d.licence,
+    quoteNumber: d.quoteNumber,
+    issuedOn,
+    validDays: n(d.validDays),
+    taxRatePct: n(d.taxRatePct),
+    terms: d.terms,
+    labour: d.labour.map((l) => ({ name: l.name, hours: n(l.hours), rate: n(l.rate) })),
+    removals: d.removals.map((r) => ({ name: r.name, kind: r.kind, amount: n(r.amount) })),
+    wiringPrices: { cablePerMm2M: n(d.wiring.cablePerMm2M), fuse: n(d.wiring.fuse), busBars: n(d.wiring.busBars) },
+  };
 }
 
 function DraftEditor({ p, units }: { p: ProposalDto; units: Units }) {
@@ -177,6 +264,7 @@ function DraftEditor({ p, units }: { p: ProposalDto; units: Units }) {
     notes: d.notes,
     parts: d.parts.map((x) => ({ name: x.name, quantity: n(x.quantity), unit: x.unit, unitPrice: n(x.unitPrice) })),
     cables: d.cables.map((c) => toCableInput(c, units)),
+    document: toDocument(d.doc, p.document.issuedOn),
   });
   const apply = (dto: ProposalDto) => {
     qc.setQueryData(proposalKeys.detail(p.id), dto);
@@ -209,7 +297,15 @@ function DraftEditor({ p, units }: { p: ProposalDto; units: Units }) {
     save.mutate(p.version);
   };
   const err = (path: string) => issues.find((i) => i.path === path || i.path.startsWith(path + '.'))?.message;
-  const total = partsTotal(d.parts.map((x) => ({ quantity: n(x.quantity) || 0, unitPrice: n(x.unitPrice) || 0 })));
+  const z = (x: string) => n(x) || 0;
+  const liveWiring = wiringLines(p.cables, { cablePerMm2M: z(d.doc.wiring.cablePerMm2M), fuse: z(d.doc.wiring.fuse), busBars: z(d.doc.wiring.busBars) });
+  const total = documentTotals(
+    d.parts.map((x) => ({ quantity: z(x.quantity), unitPrice: z(x.unitPrice) })),
+    liveWiring,
+    { labour: d.doc.labour.map((l) => ({ name: l.name, hours: z(l.hours), rate: z(l.rate) })), removals: d.doc.removals.map((r) => ({ name: r.name, kind: r.kind, amount: z(r.amount) })), taxRatePct: z(d.doc.taxRatePct) },
+  ).total;
+  const setDoc = (patch: Partial<DocDraft>) => edit({ ...d, doc: { ...d.doc, ...patch } });
+  const nothingToSend = p.parts.length + p.document.labour.length + p.document.removals.length === 0;
   const money = (x: number) => formatMoney(x, p.currency);
   const setPart = (i: number, k: keyof PartDraft, v: string) => edit({ ...d, parts: d.parts.map((x, j) => (j === i ? { ...x, [k]: v } : x)) });
   const setCable = (i: number, k: keyof CableDraft, v: string) => edit({ ...d, cables: d.cables.map((x, j) => (j === i ? { ...x, [k]: v } : x)) });
@@ -237,12 +333,25 @@ function DraftEditor({ p, units }: { p: ProposalDto; units: Units }) {
       <div>
         <label htmlFor="edit-title" className="field-label">Title</label>
         <input id="edit-title" className="field-input" maxLength={120} value={d.title} aria-invalid={err('title') ? true : undefined} onChange={(e) => edit({ ...d, title: e.target.value })} />
-        {err('title') ? <p className="field-error" role="alert">Title {err('title')}</p> : null}
+        {err('title') ? <p className="field-error" role="alert">{err('title')}</p> : null}
       </div>
       <div>
         <label htmlFor="edit-notes" className="field-label">Notes for the crew</label>
         <textarea id="edit-notes" className="field-input min-h-[6rem]" maxLength={5000} value={d.notes} placeholder="Where the parts go, what stays, when you could fit them…" onChange={(e) => edit({ ...d, notes: e.target.value })} />
       </div>
+
+      <fieldset className="grid gap-2 sm:grid-cols-2" data-testid="document-fields">
+        <legend className="mb-1 text-lg font-extrabold">Your details on the quote</legend>
+        <Text id="doc-company" label="Company" value={d.doc.company} error={err('document.company')} onChange={(v) => setDoc({ company: v })} />
+        <Text id="doc-contactName" label="Contact name" value={d.doc.contactName} error={err('document.contactName')} onChange={(v) => setDoc({ contactName: v })} />
+        <Text id="doc-phone" label="Phone" value={d.doc.phone} error={err('document.phone')} onChange={(v) => setDoc({ phone: v })} />
+        <Text id="doc-email" label="E-mail" value={d.doc.email} error={err('document.email')} onChange={(v) => setDoc({ email: v })} />
+        <Text id="doc-address" label="Address" value={d.doc.address} error={err('document.address')} onChange={(v) => setDoc({ address: v })} />
+        <Text id="doc-licence" label="Licence or registration no. (optional)" value={d.doc.licence} error={err('document.licence')} onChange={(v) => setDoc({ licence: v })} />
+        <Text id="doc-quoteNumber" label="Quote no." value={d.doc.quoteNumber} error={err('document.quoteNumber')} onChange={(v) => setDoc({ quoteNumber: v })} />
+        <Text id="doc-validDays" label="Valid for (days)" value={d.doc.validDays} error={err('document.validDays')} onChange={(v) => setDoc({ validDays: v })} numeric />
+        <p className="field-hint sm:col-span-2">Kept for your next proposal, so you type them once.</p>
+      </fieldset>
 
       <fieldset>
         <legend className="text-lg font-extrabold">Parts ({p.currency})</legend>
@@ -269,14 +378,69 @@ function DraftEditor({ p, units }: { p: ProposalDto; units: Units }) {
                 <span className="font-bold tabular-nums">{money(lineAmount({ quantity: n(x.quantity) || 0, unitPrice: n(x.unitPrice) || 0 }))}</span>
                 <button type="button" className="btn btn-quiet text-sm" aria-label={`Remove part ${x.name || i + 1}`} onClick={() => edit({ ...d, parts: d.parts.filter((_, j) => j !== i) })}>Remove</button>
               </div>
-              {err(`parts.${i}`) ? <p className="field-error col-span-2 sm:col-span-5" role="alert">{issues.filter((m) => m.path.startsWith(`parts.${i}.`)).map((m) => `${m.path.split('.').pop()}: ${m.message}`).join('; ')}</p> : null}
+              {err(`parts.${i}`) ? <p className="field-error col-span-2 sm:col-span-5" role="alert">{issues.filter((m) => m.path.startsWith(`parts.${i}.`)).map((m) => m.message).join(' ')}</p> : null}
             </li>
           ))}
         </ul>
         <div className="mt-2 flex flex-wrap items-center justify-between gap-2">
           <button type="button" className="btn btn-quiet text-sm" onClick={() => edit({ ...d, parts: [...d.parts, { name: '', quantity: '1', unit: '', unitPrice: '0' }] })}>+ Add a part</button>
-          <p className="text-lg font-extrabold tabular-nums">Total {money(total)}</p>
+          <p className="text-lg font-extrabold tabular-nums">Total with tax {money(total)}</p>
         </div>
+      </fieldset>
+
+      <fieldset data-testid="labour-fields">
+        <legend className="text-lg font-extrabold">Labour</legend>
+        <ul className="mt-2 space-y-2">
+          {d.doc.labour.map((l, i) => (
+            <li key={i} className="grid grid-cols-2 gap-2 rounded-xl border border-sand-dark bg-white p-3 sm:grid-cols-[1fr_6rem_8rem_auto] sm:items-end">
+              <div className="col-span-2 sm:col-span-1"><Text id={`edit-labour-${i}-name`} label="Work" value={l.name} onChange={(v) => setDoc({ labour: d.doc.labour.map((x, j) => (j === i ? { ...x, name: v } : x)) })} /></div>
+              <Text id={`edit-labour-${i}-hours`} label="Hours" value={l.hours} numeric onChange={(v) => setDoc({ labour: d.doc.labour.map((x, j) => (j === i ? { ...x, hours: v } : x)) })} />
+              <Text id={`edit-labour-${i}-rate`} label="Rate per hour" value={l.rate} numeric onChange={(v) => setDoc({ labour: d.doc.labour.map((x, j) => (j === i ? { ...x, rate: v } : x)) })} />
+              <button type="button" className="btn btn-quiet text-sm" aria-label={`Remove labour ${l.name || i + 1}`} onClick={() => setDoc({ labour: d.doc.labour.filter((_, j) => j !== i) })}>Remove</button>
+              {err(`document.labour.${i}`) ? <p className="field-error col-span-2 sm:col-span-4" role="alert">{issues.filter((m) => m.path.startsWith(`document.labour.${i}.`)).map((m) => m.message).join(' ')}</p> : null}
+            </li>
+          ))}
+        </ul>
+        <button type="button" className="btn btn-quiet mt-2 text-sm" onClick={() => setDoc({ labour: [...d.doc.labour, { name: '', hours: '1', rate: '0' }] })}>+ Add labour</button>
+      </fieldset>
+
+      <fieldset data-testid="removal-fields">
+        <legend className="text-lg font-extrabold">Old parts: removal or trade-in</legend>
+        <ul className="mt-2 space-y-2">
+          {d.doc.removals.map((r, i) => (
+            <li key={i} className="grid grid-cols-2 gap-2 rounded-xl border border-sand-dark bg-white p-3 sm:grid-cols-[1fr_13rem_8rem_auto] sm:items-end">
+              <div className="col-span-2 sm:col-span-1"><Text id={`edit-removals-${i}-name`} label="Old part" value={r.name} onChange={(v) => setDoc({ removals: d.doc.removals.map((x, j) => (j === i ? { ...x, name: v } : x)) })} /></div>
+              <div>
+                <label htmlFor={`edit-removals-${i}-kind`} className="field-label">Counts as</label>
+                <select id={`edit-removals-${i}-kind`} className="field-input" value={r.kind} onChange={(e) => setDoc({ removals: d.doc.removals.map((x, j) => (j === i ? { ...x, kind: e.target.value as 'removal' | 'trade-in' } : x)) })}>
+                  <option value="removal">Removal, a charge</option>
+                  <option value="trade-in">Trade-in, a credit</option>
+                </select>
+              </div>
+              <Text id={`edit-removals-${i}-amount`} label="Amount" value={r.amount} numeric onChange={(v) => setDoc({ removals: d.doc.removals.map((x, j) => (j === i ? { ...x, amount: v } : x)) })} />
+              <button type="button" className="btn btn-quiet text-sm" aria-label={`Remove old part ${r.name || i + 1}`} onClick={() => setDoc({ removals: d.doc.removals.filter((_, j) => j !== i) })}>Remove</button>
+              {err(`document.removals.${i}`) ? <p className="field-error col-span-2 sm:col-span-4" role="alert">{issues.filter((m) => m.path.startsWith(`document.removals.${i}.`)).map((m) => m.message).join(' ')}</p> : null}
+            </li>
+          ))}
+        </ul>
+        <button type="button" className="btn btn-quiet mt-2 text-sm" onClick={() => setDoc({ removals: [...d.doc.removals, { name: '', kind: 'removal', amount: '0' }] })}>+ Add an old part</button>
+      </fieldset>
+
+      <fieldset className="grid gap-2 sm:grid-cols-3" data-testid="wiring-price-fields">
+        <legend className="mb-1 text-lg font-extrabold">Wiring prices for this quote ({p.currency})</legend>
+        <Text id="doc-wiring-cable" label="Cable, per metre and mm²" value={d.doc.wiring.cablePerMm2M} numeric error={err('document.wiringPrices.cablePerMm2M')} onChange={(v) => setDoc({ wiring: { ...d.doc.wiring, cablePerMm2M: v } })} />
+        <Text id="doc-wiring-fuse" label="Fuse or breaker with holder" value={d.doc.wiring.fuse} numeric error={err('document.wiringPrices.fuse')} onChange={(v) => setDoc({ wiring: { ...d.doc.wiring, fuse: v } })} />
+        <Text id="doc-wiring-busBars" label="Bus bars, a pair" value={d.doc.wiring.busBars} numeric error={err('document.wiringPrices.busBars')} onChange={(v) => setDoc({ wiring: { ...d.doc.wiring, busBars: v } })} />
+      </fieldset>
+
+      <fieldset className="grid gap-2 sm:grid-cols-[10rem_1fr]" data-testid="terms-fields">
+        <legend className="mb-1 text-lg font-extrabold">Tax and terms</legend>
+        <Text id="doc-taxRatePct" label="Tax rate (%)" value={d.doc.taxRatePct} numeric error={err('document.taxRatePct')} onChange={(v) => setDoc({ taxRatePct: v })} />
+        <div>
+          <label htmlFor="doc-terms" className="field-label">Terms</label>
+          <textarea id="doc-terms" className="field-input min-h-[4rem]" maxLength={3000} value={d.doc.terms} placeholder="Payment, warranty, what the price includes…" onChange={(e) => setDoc({ terms: e.target.value })} />
+        </div>
+        <p className="text-lg font-extrabold tabular-nums sm:col-span-2">Total with tax {money(total)}</p>
       </fieldset>
 
       <fieldset>
@@ -330,15 +494,30 @@ function DraftEditor({ p, units }: { p: ProposalDto; units: Units }) {
                     <label htmlFor={`edit-cables-${i}-chosenAwg`} className="field-label">Cable you plan</label>
                     <select id={`edit-cables-${i}-chosenAwg`} className="field-input" value={c.chosenAwg} onChange={(e) => setCable(i, 'chosenAwg', e.target.value)}>
                       <option value="">Use the suggestion</option>
-                      {AWG_SIZES.map((a) => <option key={a} value={a}>{a} AWG</option>)}
+                      {(c.sizes === 'metric' ? METRIC_SIZES : AWG_SIZES).map((a) => <option key={a} value={a}>{c.sizes === 'metric' ? a : `${a} AWG`}</option>)}
                     </select>
                   </div>
                 </div>
-                {err(`cables.${i}`) ? <p className="field-error" role="alert">{issues.filter((m) => m.path.startsWith(`cables.${i}.`)).map((m) => `${m.path.split('.').slice(2).join(' ')}: ${m.message}`).join('; ')}</p> : null}
+                <div className="grid gap-2 sm:grid-cols-2">
+                  <div>
+                    <label htmlFor={`edit-cables-${i}-method`} className="field-label">Voltage drop worked out by</label>
+                    <select id={`edit-cables-${i}-method`} className="field-input" value={c.method} onChange={(e) => setCable(i, 'method', e.target.value)}>
+                      {DROP_METHODS.map((m) => <option key={m} value={m}>{m === 'abyc-20c' ? 'Circular-mil formula, copper at 20 °C (ABYC-style)' : 'NEC Chapter 9 Table 8, copper at 75 °C'}</option>)}
+                    </select>
+                  </div>
+                  <div>
+                    <label htmlFor={`edit-cables-${i}-sizes`} className="field-label">Sizes to suggest from</label>
+                    <select id={`edit-cables-${i}-sizes`} className="field-input" value={c.sizes} onChange={(e) => edit({ ...d, cables: d.cables.map((x, j) => (j === i ? { ...x, sizes: e.target.value as SizeSystem, chosenAwg: '' } : x)) })}>
+                      <option value="awg">AWG (American wire gauge)</option>
+                      <option value="metric">Metric, mm² (IEC 60228)</option>
+                    </select>
+                  </div>
+                </div>
+                {err(`cables.${i}`) ? <p className="field-error" role="alert">{issues.filter((m) => m.path.startsWith(`cables.${i}.`)).map((m) => m.message).join(' ')}</p> : null}
                 {result && !dirty ? (
                   <p className="text-sm" data-testid="cable-result">
-                    {result.suggested ? `Suggested ${result.suggested.awg} AWG` : 'No single cable up to 4/0 AWG passes'} · fuse {result.fuseA ?? '—'} A
-                    {result.chosen ? ` · your ${result.chosen.awg} AWG ${result.chosen.ok ? 'passes' : 'does not pass'}` : ''} (estimate)
+                    {result.suggested ? `Suggested ${result.suggested.label}, drop ${formatNumber(result.suggested.dropPct ?? 0, 2)} % (${DROP_METHOD_SHORT[result.method ?? 'nec-75c']})` : 'No single cable passes'} · fuse {result.fuseA ?? '—'} A
+                    {result.chosen ? ` · your ${result.chosen.label ?? result.chosen.awg} ${result.chosen.ok ? 'passes' : 'does not pass'}` : ''} (estimate)
                   </p>
                 ) : null}
                 <button type="button" className="btn btn-quiet text-sm" aria-label={`Remove cable run ${c.label || i + 1}`} onClick={() => edit({ ...d, cables: d.cables.filter((_, j) => j !== i) })}>Remove run</button>
@@ -349,22 +528,23 @@ function DraftEditor({ p, units }: { p: ProposalDto; units: Units }) {
         <button
           type="button"
           className="btn btn-quiet mt-2 text-sm"
-          onClick={() => edit({ ...d, cables: [...d.cables, { label: '', kind: 'current', amps: '', watts: '', efficiencyPct: String(p.after.plan.inverter.efficiencyPct), lowestVolts: '10.5', oneWay: '', circuit: 'critical', table: 'abyc-105c', chosenAwg: '' }] })}
+          onClick={() => edit({ ...d, cables: [...d.cables, { label: '', kind: 'current', amps: '', watts: '', efficiencyPct: String(p.after.plan.inverter.efficiencyPct), lowestVolts: '10.5', oneWay: '', circuit: 'critical', table: 'abyc-105c', chosenAwg: '', method: 'abyc-20c', sizes: d.cables[0]?.sizes ?? 'awg', basis: '' }] })}
         >
           + Add a cable run
         </button>
       </fieldset>
 
-      {issues.length && !issues.some((i) => /^(title|parts|cables)/.test(i.path)) ? <p role="alert" className="field-error">{issues.map((i) => `${i.path}: ${i.message}`).join('; ')}</p> : null}
+      {issues.some((i) => !/^(title|parts|cables|document)/.test(i.path)) ? <p role="alert" className="field-error">{issues.filter((i) => !/^(title|parts|cables|document)/.test(i.path)).map((i) => i.message).join(' ')}</p> : null}
       {save.isError && !(save.error instanceof ApiError && (save.error.status === 400 || save.error.status === 409)) ? <ErrorState error={save.error} title="The draft could not be saved." /> : null}
       <div className="flex flex-wrap items-center gap-2">
         <button type="button" className="btn btn-primary" disabled={save.isPending || !dirty} onClick={submit}>{save.isPending ? 'Saving…' : 'Save draft'}</button>
-        <button type="button" className="btn btn-primary" disabled={send.isPending || dirty} onClick={() => send.mutate()} title={dirty ? 'Save your changes first' : undefined}>
+        <button type="button" className="btn btn-primary" disabled={send.isPending || dirty || nothingToSend} onClick={() => send.mutate()} aria-describedby={nothingToSend ? 'send-needs' : undefined} title={dirty ? 'Save your changes first' : undefined}>
           {send.isPending ? 'Sending…' : 'Send to the crew'}
         </button>
         <button type="button" className="btn btn-quiet" disabled={remove.isPending} onClick={() => { if (confirm('Delete this draft?')) remove.mutate(); }}>Delete draft</button>
         <p role="status" aria-live="polite" className="font-semibold text-moss-deep">{dirty ? 'Unsaved changes.' : status ?? ''}</p>
       </div>
+      {nothingToSend ? <p id="send-needs" className="field-hint">Add at least one part or labour line, and save, before sending: an empty proposal is not sent.</p> : null}
       {send.isError ? <ErrorState error={send.error} title="The proposal could not be sent." /> : null}
       {remove.isError ? <ErrorState error={remove.error} title="The draft could not be deleted." /> : null}
     </section>
@@ -376,6 +556,16 @@ function Small({ id, label, value, onChange }: { id: string; label: string; valu
     <div>
       <label htmlFor={id} className="field-label">{label}</label>
       <input id={id} inputMode="decimal" className="field-input tabular-nums" value={value} onChange={(e) => onChange(e.target.value)} />
+    </div>
+  );
+}
+
+function Text({ id, label, value, onChange, error, numeric = false }: { id: string; label: string; value: string; onChange: (v: string) => void; error?: string; numeric?: boolean }) {
+  return (
+    <div>
+      <label htmlFor={id} className="field-label">{label}</label>
+      <input id={id} className={`field-input ${numeric ? 'tabular-nums' : ''}`} inputMode={numeric ? 'decimal' : undefined} value={value} aria-invalid={error ? true : undefined} aria-describedby={error ? `${id}-error` : undefined} onChange={(e) => onChange(e.target.value)} />
+      {error ? <p id={`${id}-error`} className="field-error" role="alert">{error}</p> : null}
     </div>
   );
 }
