@@ -139,7 +139,8 @@ describe('installer proposals', () => {
     expect(proposal.after.plan.bank.capacityAh).toBe(600);
     expect(proposal.after.minSocPct).toBeGreaterThan(proposal.before.minSocPct);
     expect(proposal.after.forecast.hourly.length).toBe(proposal.before.forecast.hourly.length);
-    expect(proposal.parts.map((p) => p.name)).toEqual(['600 Ah LiFePO4 bank', 'Bank installation']);
+    // The old bank's removal is listed, at no extra price (it is part of the installation).
+    expect(proposal.parts.map((p) => p.name)).toEqual(['600 Ah LiFePO4 bank', 'Bank installation', 'Removal of the old 200 Ah LiFePO4 bank (in the installation)']);
     expect(proposal.total).toBe(600 * 5 + 100);
     expect(proposal.cables[0]!.input.label).toMatch(/Main battery feed/);
     expect(proposal.cables[0]!.result.estimate).toBe(true);

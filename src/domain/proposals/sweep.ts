@@ -98,7 +98,7 @@ export interface SweepResult {
    */
   ranking: 'margin' | 'cost' | 'closeness';
   options: SweepOption[];
-  /** The cheapest option that makes a trip the rig does not make as it is; null when none does or the rig already makes it. */
+  /** The cheapest option that makes a trip the rig does not make as it is (never one over the rig's stated payload or space); null when none does or the rig already makes it. */
   cheapestPassing: string | null;
   /** When the rig already makes it: the cheapest option that adds at least a point of margin. */
   cheapestMoreMargin: string | null;
@@ -444,8 +444,8 @@ export function runSweep(input: { plan: ResolvedPlan; reserveSocPct: number | nu
     base: { ...baseOutcome, running: baseRunning.reduce((t, i) => t + i.amount, 0), items: baseRunning },
     ranking,
     options,
-    cheapestPassing: ranking === 'cost' ? (options.find((o) => o.passes && rest(o) === 0)?.key ?? null) : null,
-    cheapestMoreMargin: ranking === 'margin' ? (options.find((o) => rest(o) === 0 && o.passes && o.marginPts >= baseOutcome.marginPts + 1)?.key ?? null) : null,
+    cheapestPassing: ranking === 'cost' ? (options.find((o) => o.passes && rest(o) === 0 && !o.weight?.flagged)?.key ?? null) : null,
+    cheapestMoreMargin: ranking === 'margin' ? (options.find((o) => rest(o) === 0 && o.passes && !o.weight?.flagged && o.marginPts >= baseOutcome.marginPts + 1)?.key ?? null) : null,
     generatorRule: ruleFor(plan.bank, plan.bank, reserveSocPct, levels, strandedOf(baseRun)),
     skipped,
     combinations: options.length,

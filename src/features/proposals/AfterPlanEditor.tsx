@@ -136,7 +136,7 @@ export default function AfterPlanEditor({ forecastId, state, setState, fallback 
           <legend className="field-label text-base">Arrays</legend>
           <ul className="space-y-3">
             {state.arrays.map((a, i) => (
-              <li key={i} className="grid grid-cols-2 gap-2 rounded-[12px] bg-sand p-3 sm:grid-cols-[minmax(0,1fr)_7rem_6rem_6rem_9rem_7rem_auto] sm:items-end">
+              <li key={i} className="grid grid-cols-2 gap-2 rounded-[12px] bg-sand p-3 sm:grid-cols-[minmax(0,1fr)_7rem_5.5rem_5.5rem_11rem_6.5rem_auto] sm:items-end">
                 <div className="col-span-2 sm:col-span-1">
                   <label htmlFor={`hand-arrays-${i}-name`} className="field-label">Name</label>
                   <input id={`hand-arrays-${i}-name`} className="field-input" value={a.name} onChange={(e) => setArray(i, { name: e.target.value })} />

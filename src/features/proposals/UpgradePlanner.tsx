@@ -51,7 +51,7 @@ function presets(plan: ResolvedPlan) {
     { watts: '200', mounting: 'portable' },
   ];
   const now = plan.chargers.filter((x) => x.kind === 'alternator').reduce((t, x) => t + x.amps, 0);
-  const dcdc = plan.drives.length > 0 ? DCDC_SIZES.filter((a) => a > now).slice(0, 2).join(', ') : '';
+  const dcdc = plan.drives.length > 0 ? (now > 0 ? DCDC_SIZES.filter((a) => a > now).slice(0, 2) : [20, 40]).join(', ') : '';
   return { banks, panels, dcdc, gens: '', start: '8' };
 }
 
@@ -169,9 +169,9 @@ function Planner({ forecastId, plan, saved, pricesSaved, currency }: { forecastI
           <legend className="field-label text-base">Banks instead of the rig’s: capacity and floor (empty: the chemistry’s own floor)</legend>
           <ul className="space-y-2">
             {banks.map((b, i) => (
-              <li key={i} className="grid grid-cols-[minmax(0,1fr)_6.5rem_5.5rem_2.75rem] items-start gap-2 sm:grid-cols-[12rem_8rem_7rem_auto] sm:justify-start">
+              <li key={i} className="grid grid-cols-[minmax(0,1fr)_minmax(0,1fr)_2.75rem] items-start gap-2 sm:grid-cols-[12rem_8rem_7rem_auto] sm:justify-start">
                 <label className="sr-only" htmlFor={`cand-banks-${i}-chemistry`}>Bank {i + 1} chemistry</label>
-                <select id={`cand-banks-${i}-chemistry`} className="field-input" value={b.chemistry} onChange={(e) => setBanks(banks.map((x, j) => (j === i ? { ...x, chemistry: e.target.value as Chemistry } : x)))}>
+                <select id={`cand-banks-${i}-chemistry`} className="field-input col-span-3 sm:col-span-1" value={b.chemistry} onChange={(e) => setBanks(banks.map((x, j) => (j === i ? { ...x, chemistry: e.target.value as Chemistry } : x)))}>
                   {CHEMISTRIES.map((c) => <option key={c} value={c}>{CHEMISTRY_LABELS[c]}</option>)}
                 </select>
                 <div className="relative">
@@ -185,8 +185,8 @@ function Planner({ forecastId, plan, saved, pricesSaved, currency }: { forecastI
                   <span aria-hidden="true" className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm font-semibold text-slate-text">%</span>
                 </div>
                 <button type="button" className="btn btn-quiet px-0 text-sm" aria-label={`Remove bank ${i + 1}`} title="Remove" onClick={() => setBanks(banks.filter((_, j) => j !== i))}><span aria-hidden="true">✕</span></button>
-                {issueAt(`banks.${i}.capacityAh`) ? <p id={`cand-banks-${i}-capacityAh-error`} className="field-error col-span-4" role="alert">Capacity {issueAt(`banks.${i}.capacityAh`)}</p> : null}
-                {issueAt(`banks.${i}.floorSocPct`) ? <p className="field-error col-span-4" role="alert">Floor {issueAt(`banks.${i}.floorSocPct`)}</p> : null}
+                {issueAt(`banks.${i}.capacityAh`) ? <p id={`cand-banks-${i}-capacityAh-error`} className="field-error col-span-full" role="alert">Capacity {issueAt(`banks.${i}.capacityAh`)}</p> : null}
+                {issueAt(`banks.${i}.floorSocPct`) ? <p className="field-error col-span-full" role="alert">Floor {issueAt(`banks.${i}.floorSocPct`)}</p> : null}
               </li>
             ))}
           </ul>
@@ -377,7 +377,7 @@ function Results({ r, onlyPassing, setOnlyPassing, showAll, setShowAll, onPropos
       </label>
       <ol className="space-y-2" aria-label={`Options, ${RANKING_TITLE[r.ranking]}`}>
         {visible.map((o) => (
-          <li key={o.key} className={`card flex flex-col gap-2 p-3 sm:flex-row sm:items-center ${o.key === r.cheapestPassing || o.key === r.cheapestMoreMargin ? 'ring-2 ring-moss' : ''} ${o.changesNothing || o.noBetterThan ? 'opacity-80' : ''}`} data-option={o.key}>
+          <li key={o.key} className={`card flex flex-col gap-2 p-3 sm:flex-row sm:items-center ${o.key === r.cheapestPassing || o.key === r.cheapestMoreMargin ? 'ring-2 ring-moss' : ''} ${o.changesNothing || o.noBetterThan ? 'border-dashed' : ''}`} data-option={o.key}>
             <div className="min-w-0 flex-1">
               <p className="font-bold">{o.label}</p>
               <p className="text-sm text-slate-text">{outcomeLine(o)}</p>
