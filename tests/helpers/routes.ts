@@ -235,7 +235,7 @@ export const ROUTES: RouteCase[] = [
     method: 'POST',
     route: '/api/proposals/[id]/decision',
     url: (w) => `/api/proposals/${w.proposal.id}/decision`,
-    body: (w) => ({ decision: 'accepted', comment: 'Go ahead.', version: w.proposal.version }),
+    body: (w) => ({ decision: 'accepted', comment: 'Go ahead.', name: 'Crew Owner', version: w.proposal.version }),
     expect: DECIDE(200),
     fresh: true,
   },

@@ -14,8 +14,13 @@ function num(min: number, max: number) {
 function int(min: number, max: number) {
   return num(min, max).int({ error: 'must be a whole number' });
 }
-/** A price in plain words: "A price can't be negative." */
+/** A price list's price: the form puts the field's label before these ("Panels, per rated watt must not be negative"). */
 const money = z
+  .number({ error: 'must be a number, such as 120.50' })
+  .min(0, { error: 'must not be negative' })
+  .max(1_000_000, { error: 'must be at most 1,000,000' });
+/** A parts line's price, in a sentence of its own: "A price can't be negative." */
+const partPrice = z
   .number({ error: 'A price must be a number, such as 120.50.' })
   .min(0, { error: "A price can't be negative." })
   .max(1_000_000, { error: "A price can't be more than 1,000,000." });
@@ -167,7 +172,7 @@ export const partSchema = z.object({
     .gt(0, { error: 'A quantity must be more than 0.' })
     .max(100_000, { error: "A quantity can't be more than 100,000." }),
   unit: z.string({ error: 'A unit must be text, such as m or pcs.' }).trim().max(20, { error: 'A unit can be at most 20 characters, such as m or pcs.' }).default(''),
-  unitPrice: money,
+  unitPrice: partPrice,
 });
 export type Part = z.output<typeof partSchema>;
 
