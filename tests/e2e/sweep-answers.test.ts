@@ -26,16 +26,36 @@ async function seriousViolations(page: Page): Promise<string[]> {
   const results = await new AxeBuilder({ page }).analyze();
   return results.violations
     .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v) => `${v.id} (${v.impact}): ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
+    .map(
+      (v) =>
+        `${v.id} (${v.impact}): ${v.help} — ${v.nodes
+          .slice(0, 3)
+          .map((n) => n.target.join(' '))
+          .join(' | ')}`,
+    );
 }
 
-async function savedForecast(owner: Session, installer: Session, rig: Record<string, unknown>, loads: unknown[], reserveSocPct: number): Promise<string> {
+async function savedForecast(
+  owner: Session,
+  installer: Session,
+  rig: Record<string, unknown>,
+  loads: unknown[],
+  reserveSocPct: number,
+): Promise<string> {
   const crewId = (await activeCrew(owner)).id;
   const r = (await (await api('/api/rigs', { method: 'POST', session: owner, json: { ...rig, crewId } })).json()) as { id: string };
   for (const l of loads) expect((await api(`/api/rigs/${r.id}/loads`, { method: 'POST', session: owner, json: l })).status).toBe(201);
   const plan = demoPlan();
-  const trip = (await (await api('/api/trips', { method: 'POST', session: owner, json: { rigId: r.id, name: 'High desert loop', stops: plan.stops, drives: plan.drives, reserveSocPct } })).json()) as { id: string };
-  const f = (await (await api(`/api/trips/${trip.id}/forecasts`, { method: 'POST', session: owner, json: { name: 'First look' } })).json()) as { id: string };
+  const trip = (await (
+    await api('/api/trips', {
+      method: 'POST',
+      session: owner,
+      json: { rigId: r.id, name: 'High desert loop', stops: plan.stops, drives: plan.drives, reserveSocPct },
+    })
+  ).json()) as { id: string };
+  const f = (await (
+    await api(`/api/trips/${trip.id}/forecasts`, { method: 'POST', session: owner, json: { name: 'First look' } })
+  ).json()) as { id: string };
   expect((await api(`/api/rigs/${r.id}/grants`, { method: 'POST', session: owner, json: { email: installer.email } })).status).toBe(202);
   return f.id;
 }
@@ -56,14 +76,33 @@ describe('the upgrade planner in Chromium', () => {
     expect((await api('/api/price-list', { method: 'PUT', session: installer, json: { ...TEST_PRICES, version: 0 } })).status).toBe(200);
     const owner = await signUp({ name: 'Ana', password: PASSWORD });
     const d = demoPlan();
-    van = await savedForecast(owner, installer, { name: 'Camper van (6.1 m)', bank: d.bank, arrays: d.arrays, chargers: d.chargers, inverter: d.inverter }, d.loads ?? [], 20);
+    van = await savedForecast(
+      owner,
+      installer,
+      { name: 'Camper van (6.1 m)', bank: d.bank, arrays: d.arrays, chargers: d.chargers, inverter: d.inverter },
+      d.loads ?? [],
+      20,
+    );
     trailer = await savedForecast(
       owner,
       installer,
-      { name: 'AGM teardrop', bank: { chemistry: 'agm', nominalVolts: 12, capacityAh: 200 }, arrays: [{ name: 'Portable panel (100 W)', ratedWatts: 100, tiltDeg: 45, aim: 'follow', controller: 'pwm', controllerMaxAmps: 10 }], chargers: [] },
+      {
+        name: 'AGM teardrop',
+        bank: { chemistry: 'agm', nominalVolts: 12, capacityAh: 200 },
+        arrays: [{ name: 'Portable panel (100 W)', ratedWatts: 100, tiltDeg: 45, aim: 'follow', controller: 'pwm', controllerMaxAmps: 10 }],
+        chargers: [],
+      },
       [
         { name: 'Furnace blower', watts: 60, windows: [[0, 24]], response: 'heating', setpointC: 17 },
-        { name: 'LED lights', watts: 1.2, quantity: 8, windows: [[6, 8], [18, 23]] },
+        {
+          name: 'LED lights',
+          watts: 1.2,
+          quantity: 8,
+          windows: [
+            [6, 8],
+            [18, 23],
+          ],
+        },
         { name: 'Parasitic draw', watts: 14, standby: true },
       ],
       50,
@@ -110,7 +149,9 @@ describe('the upgrade planner in Chromium', () => {
     await page.getByTestId('sweep-results').waitFor();
     await page.getByRole('button', { name: /^Show all/ }).click();
     const heavy = page.locator('[data-option="b7.p0.d0.g0"]');
-    expect(await heavy.getByTestId('bank-weight').textContent()).toMatch(/Bank about 240 kg.*Too heavy: it adds 180 kg, more than the rig’s stated 160 kg payload\./);
+    expect(await heavy.getByTestId('bank-weight').textContent()).toMatch(
+      /Bank about 240 kg.*Too heavy: it adds 180 kg, more than the rig’s stated 160 kg payload\./,
+    );
     await shot(page, 'sweep-agm-trailer-desktop');
 
     // Load a LiFePO4 option into the hand editor, change it, run it.

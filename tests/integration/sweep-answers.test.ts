@@ -45,19 +45,35 @@ const json = async <T>(res: Response, status: number): Promise<T> => {
 const tier = (o: Option) => (o.changesNothing ? 2 : o.noBetterThan ? 1 : 0);
 
 /** A rig with its loads and one trip on the demo's late-October loop, a saved forecast of it, shared with the installer. */
-async function savedForecast(owner: Session, installer: Session, rig: Record<string, unknown>, loads: Record<string, unknown>[], reserveSocPct: number): Promise<string> {
+async function savedForecast(
+  owner: Session,
+  installer: Session,
+  rig: Record<string, unknown>,
+  loads: Record<string, unknown>[],
+  reserveSocPct: number,
+): Promise<string> {
   const crewId = (await activeCrew(owner)).id;
   const r = await json<{ id: string }>(await api('/api/rigs', { method: 'POST', session: owner, json: { ...rig, crewId } }), 201);
   for (const l of loads) await json(await api(`/api/rigs/${r.id}/loads`, { method: 'POST', session: owner, json: l }), 201);
   const plan = demoPlan();
-  const trip = await json<{ id: string }>(await api('/api/trips', { method: 'POST', session: owner, json: { rigId: r.id, name: 'High desert loop', stops: plan.stops, drives: plan.drives, reserveSocPct } }), 201);
+  const trip = await json<{ id: string }>(
+    await api('/api/trips', {
+      method: 'POST',
+      session: owner,
+      json: { rigId: r.id, name: 'High desert loop', stops: plan.stops, drives: plan.drives, reserveSocPct },
+    }),
+    201,
+  );
   const f = await json<{ id: string }>(await api(`/api/trips/${trip.id}/forecasts`, { method: 'POST', session: owner, json: {} }), 201);
   await json(await api(`/api/rigs/${r.id}/grants`, { method: 'POST', session: owner, json: { email: installer.email } }), 202);
   return f.id;
 }
 
 const sweep = async (installer: Session, forecastId: string, candidates: unknown) =>
-  json<Sweep>(await api(`/api/forecasts/${forecastId}/sweep`, { method: 'POST', session: installer, json: { candidates, prices: TEST_PRICES } }), 200);
+  json<Sweep>(
+    await api(`/api/forecasts/${forecastId}/sweep`, { method: 'POST', session: installer, json: { candidates, prices: TEST_PRICES } }),
+    200,
+  );
 
 describe('the sweep on the built server', () => {
   let installer: Session;
@@ -68,7 +84,13 @@ describe('the sweep on the built server', () => {
     installer = await signUp({ kind: 'installer', name: 'Kestrel Power' });
     const owner = await signUp({ name: 'Ana' });
     const d = demoPlan();
-    vanForecast = await savedForecast(owner, installer, { name: 'Camper van (6.1 m)', bank: d.bank, arrays: d.arrays, chargers: d.chargers, inverter: d.inverter }, d.loads ?? [], 20);
+    vanForecast = await savedForecast(
+      owner,
+      installer,
+      { name: 'Camper van (6.1 m)', bank: d.bank, arrays: d.arrays, chargers: d.chargers, inverter: d.inverter },
+      d.loads ?? [],
+      20,
+    );
     trailerForecast = await savedForecast(
       owner,
       installer,
@@ -80,8 +102,24 @@ describe('the sweep on the built server', () => {
       },
       [
         { name: 'Absorption fridge control board', watts: 6 },
-        { name: 'LED lights', watts: 1.2, quantity: 8, windows: [[6, 8], [18, 23]] },
-        { name: 'Water pump', watts: 55, windows: [[7, 9], [18, 21]], dutyPct: 8 },
+        {
+          name: 'LED lights',
+          watts: 1.2,
+          quantity: 8,
+          windows: [
+            [6, 8],
+            [18, 23],
+          ],
+        },
+        {
+          name: 'Water pump',
+          watts: 55,
+          windows: [
+            [7, 9],
+            [18, 21],
+          ],
+          dutyPct: 8,
+        },
         { name: 'Furnace blower', watts: 60, windows: [[0, 24]], response: 'heating', setpointC: 17 },
         { name: 'Phones', watts: 10, quantity: 2, windows: [[19, 21]] },
         { name: 'Radio', watts: 15, windows: [[17, 22]] },
@@ -93,7 +131,10 @@ describe('the sweep on the built server', () => {
 
   it('the demo van already makes it: said first with its margin, the options ranked by the margin they buy', async () => {
     const r = await sweep(installer, vanForecast, {
-      banks: [{ chemistry: 'lifepo4', capacityAh: 300 }, { chemistry: 'lifepo4', capacityAh: 400 }],
+      banks: [
+        { chemistry: 'lifepo4', capacityAh: 300 },
+        { chemistry: 'lifepo4', capacityAh: 400 },
+      ],
       panels: [{ watts: 200, mounting: 'flat' }],
       dcdcAmps: [30, 40],
       generatorHours: [2],
@@ -120,7 +161,11 @@ describe('the sweep on the built server', () => {
 
   it('the AGM trailer runs out: LiFePO4 is judged at its own floor, generators run, the cheapest that makes it is named', async () => {
     const r = await sweep(installer, trailerForecast, {
-      banks: [{ chemistry: 'agm', capacityAh: 400 }, { chemistry: 'lifepo4', capacityAh: 200 }, { chemistry: 'agm', capacityAh: 800 }],
+      banks: [
+        { chemistry: 'agm', capacityAh: 400 },
+        { chemistry: 'lifepo4', capacityAh: 200 },
+        { chemistry: 'agm', capacityAh: 800 },
+      ],
       panels: [{ watts: 400, mounting: 'flat' }],
       generatorHours: [2],
       payloadKg: 160,
@@ -147,7 +192,13 @@ describe('the sweep on the built server', () => {
   });
 
   it('when nothing makes it, ranks by closeness and shows the generator’s start level', async () => {
-    const r = await sweep(installer, trailerForecast, { panels: [{ watts: 100, mounting: 'flat' }, { watts: 200, mounting: 'portable' }], generatorHours: [1, 2] });
+    const r = await sweep(installer, trailerForecast, {
+      panels: [
+        { watts: 100, mounting: 'flat' },
+        { watts: 200, mounting: 'portable' },
+      ],
+      generatorHours: [1, 2],
+    });
     expect(r.options.some((o) => o.passes)).toBe(false);
     expect(r.ranking).toBe('closeness');
     expect(r.generatorRule.linePct).toBe(50);
@@ -169,10 +220,13 @@ describe('the sweep on the built server', () => {
       generator: { amps: 30, startHour: 8, hoursPerDay: 4, marginPts: 10, stopPct: 90 },
       payloadKg: 160,
     };
-    const r = await json<{ base: { passes: boolean }; after: { passes: boolean; reservePct: number; unmetWh: number }; changesNothing: boolean; generator: Rule; weight: { kg: number } }>(
-      await api(url, { method: 'POST', session: installer, json: edit }),
-      200,
-    );
+    const r = await json<{
+      base: { passes: boolean };
+      after: { passes: boolean; reservePct: number; unmetWh: number };
+      changesNothing: boolean;
+      generator: Rule;
+      weight: { kg: number };
+    }>(await api(url, { method: 'POST', session: installer, json: edit }), 200);
     expect(r.base.passes).toBe(false);
     expect(r.after.reservePct).toBe(10);
     expect(r.after.unmetWh).toBe(0);

@@ -23,7 +23,10 @@ describe('the demo van already makes its trip (20 % reserve, as the demo seeds i
     reserveSocPct: 20,
     prices: PRICES,
     candidates: candidatesSchema.parse({
-      banks: [{ chemistry: 'lifepo4', capacityAh: 300 }, { chemistry: 'lifepo4', capacityAh: 400 }],
+      banks: [
+        { chemistry: 'lifepo4', capacityAh: 300 },
+        { chemistry: 'lifepo4', capacityAh: 400 },
+      ],
       panels: [{ watts: 200, mounting: 'flat' }],
       dcdcAmps: [30, 40],
       generatorHours: [2],
@@ -59,7 +62,11 @@ describe('the demo van already makes its trip (20 % reserve, as the demo seeds i
   it('offers the next DC-DC size as a replacement, with the old charger’s removal listed', () => {
     const o = result.options.find((x) => x.key === 'b0.p0.d1.g0')!;
     expect(o.label).toBe('40 A DC-DC charger instead of the 30 A');
-    expect(o.items.map((i) => i.name)).toEqual(['DC-DC charger, 40 A (replaces the rig’s 30 A)', 'DC-DC charger installation', 'Removal of the old 30 A DC-DC charger (in the installation)']);
+    expect(o.items.map((i) => i.name)).toEqual([
+      'DC-DC charger, 40 A (replaces the rig’s 30 A)',
+      'DC-DC charger installation',
+      'Removal of the old 30 A DC-DC charger (in the installation)',
+    ]);
     const bank = result.options.find((x) => x.key === 'b1.p0.d0.g0')!;
     expect(bank.items.map((i) => i.name)).toContain('Removal of the old 300 Ah LiFePO4 bank (in the installation)');
   });
@@ -107,8 +114,24 @@ const AGM_TRAILER: Plan = (() => {
     chargers: [],
     loads: [
       { name: 'Absorption fridge control board', watts: 6 },
-      { name: 'LED lights', watts: 1.2, quantity: 8, windows: [[6, 8], [18, 23]] },
-      { name: 'Water pump', watts: 55, windows: [[7, 9], [18, 21]], dutyPct: 8 },
+      {
+        name: 'LED lights',
+        watts: 1.2,
+        quantity: 8,
+        windows: [
+          [6, 8],
+          [18, 23],
+        ],
+      },
+      {
+        name: 'Water pump',
+        watts: 55,
+        windows: [
+          [7, 9],
+          [18, 21],
+        ],
+        dutyPct: 8,
+      },
       { name: 'Furnace blower', watts: 60, windows: [[0, 24]], response: 'heating', setpointC: 17 },
       { name: 'Phones', watts: 10, quantity: 2, windows: [[19, 21]] },
       { name: 'Radio', watts: 15, windows: [[17, 22]] },
@@ -179,7 +202,18 @@ describe('an AGM trailer that runs out (its trip keeps the 50 % AGM floor as res
   });
 
   it('when nothing passes, ranks by closeness — least unmet Wh, then fewest hours short — not by price', () => {
-    const small = runSweep({ plan, reserveSocPct: 50, prices: PRICES, candidates: candidatesSchema.parse({ panels: [{ watts: 100, mounting: 'flat' }, { watts: 200, mounting: 'portable' }], generatorHours: [1, 2] }) });
+    const small = runSweep({
+      plan,
+      reserveSocPct: 50,
+      prices: PRICES,
+      candidates: candidatesSchema.parse({
+        panels: [
+          { watts: 100, mounting: 'flat' },
+          { watts: 200, mounting: 'portable' },
+        ],
+        generatorHours: [1, 2],
+      }),
+    });
     expect(small.options.some((o) => o.passes)).toBe(false);
     expect(small.ranking).toBe('closeness');
     expect(small.cheapestPassing).toBeNull();
@@ -203,22 +237,36 @@ describe('weight and space of a bank option', () => {
     // 800 Ah × 12 V = 9.6 kWh × 25 = 240 kg; the teardrop's 100 Ah AGM: 1.2 kWh × 25 = 30 kg; it adds
     // 210 kg, more than 160.
     expect(KG_PER_KWH.agm).toBe(25);
-    const w = bankWeight({ chemistry: 'agm', capacityAh: 800, nominalVolts: 12 }, { chemistry: 'agm', capacityAh: 100, nominalVolts: 12 }, { payloadKg: 160, batterySpaceL: null });
+    const w = bankWeight(
+      { chemistry: 'agm', capacityAh: 800, nominalVolts: 12 },
+      { chemistry: 'agm', capacityAh: 100, nominalVolts: 12 },
+      { payloadKg: 160, batterySpaceL: null },
+    );
     expect(w).toMatchObject({ kwh: 9.6, kg: 240, oldKg: 30, addedKg: 210, flagged: true });
     expect(w.note).toContain('Too heavy: it adds 210 kg, more than the rig’s stated 160 kg payload.');
   });
 
   it('a LiFePO4 bank of the same energy weighs far less: not flagged', () => {
     // 200 Ah × 12.8 V = 2.56 kWh × 10 = 25.6 kg against the 30 kg AGM: 4.4 kg lighter.
-    const w = bankWeight({ chemistry: 'lifepo4', capacityAh: 200, nominalVolts: 12.8 }, { chemistry: 'agm', capacityAh: 100, nominalVolts: 12 }, { payloadKg: 160, batterySpaceL: null });
+    const w = bankWeight(
+      { chemistry: 'lifepo4', capacityAh: 200, nominalVolts: 12.8 },
+      { chemistry: 'agm', capacityAh: 100, nominalVolts: 12 },
+      { payloadKg: 160, batterySpaceL: null },
+    );
     expect(w).toMatchObject({ kg: 25.6, addedKg: -4.4, flagged: false, note: '' });
   });
 
   it('flags a bank bigger than the stated battery space, and asks about the payload when none is stated', () => {
     // 9.6 kWh × 10 L = 96 L of AGM in 60 L of room.
-    const w = bankWeight({ chemistry: 'agm', capacityAh: 800, nominalVolts: 12 }, { chemistry: 'agm', capacityAh: 100, nominalVolts: 12 }, { payloadKg: null, batterySpaceL: 60 });
+    const w = bankWeight(
+      { chemistry: 'agm', capacityAh: 800, nominalVolts: 12 },
+      { chemistry: 'agm', capacityAh: 100, nominalVolts: 12 },
+      { payloadKg: null, batterySpaceL: 60 },
+    );
     expect(w.flagged).toBe(true);
-    expect(w.note).toBe('About 240 kg: check the rig’s payload (none stated). Too big: about 96 L of batteries, more than the stated 60 L of room.');
+    expect(w.note).toBe(
+      'About 240 kg: check the rig’s payload (none stated). Too big: about 96 L of batteries, more than the stated 60 L of room.',
+    );
   });
 
   it('the sweep carries each bank option’s check, with the rig’s stated limits', () => {
@@ -227,9 +275,25 @@ describe('weight and space of a bank option', () => {
     const teardrop = resolved({
       bank: { chemistry: 'agm', nominalVolts: 12, capacityAh: 100 },
       loads: [{ name: 'Fan, fridge board and lights', watts: 56 }],
-      stops: [{ name: 'Warm camp', lat: 35, lon: -106, timeZone: 'America/Denver', arrive: '2027-10-21', nights: 2, arriveHour: 11, weather: [{ date: '2027-10-21', cloudOktas: 8, highC: 30, lowC: 30 }] }],
+      stops: [
+        {
+          name: 'Warm camp',
+          lat: 35,
+          lon: -106,
+          timeZone: 'America/Denver',
+          arrive: '2027-10-21',
+          nights: 2,
+          arriveHour: 11,
+          weather: [{ date: '2027-10-21', cloudOktas: 8, highC: 30, lowC: 30 }],
+        },
+      ],
     });
-    const r = runSweep({ plan: teardrop, reserveSocPct: null, prices: PRICES, candidates: candidatesSchema.parse({ banks: [{ chemistry: 'agm', capacityAh: 800 }], payloadKg: 160 }) });
+    const r = runSweep({
+      plan: teardrop,
+      reserveSocPct: null,
+      prices: PRICES,
+      candidates: candidatesSchema.parse({ banks: [{ chemistry: 'agm', capacityAh: 800 }], payloadKg: 160 }),
+    });
     const o = r.options[0]!;
     expect(o.weight).toMatchObject({ kg: 240, payloadKg: 160, flagged: true });
     // Flagged, it is never named the cheapest that makes it, even though it does.

@@ -43,7 +43,13 @@ export function judgedLine(floorSocPct: number, reserveSocPct: number | null | u
  * The rule for one bank and trip. The start is kept at least 1 point below the stop (the engine
  * needs start < stop), so a margin too large for the stop level starts just below it.
  */
-export function generatorRule(p: { floorSocPct: number; reserveSocPct?: number | null; marginPts?: number; stopSocPct?: number; strandedPts?: number }): GeneratorRule {
+export function generatorRule(p: {
+  floorSocPct: number;
+  reserveSocPct?: number | null;
+  marginPts?: number;
+  stopSocPct?: number;
+  strandedPts?: number;
+}): GeneratorRule {
   const linePct = judgedLine(p.floorSocPct, p.reserveSocPct);
   const marginPts = p.marginPts ?? DEFAULT_GENERATOR_MARGIN_PTS;
   const strandedPts = Math.max(0, Math.round((p.strandedPts ?? 0) * 10) / 10);

@@ -2,7 +2,16 @@
 // against the saved forecast's trip: for the change no sweep option covers. Same judging as the
 // sweep (the option's line, the one generator rule, the weight check).
 import { z } from 'zod';
-import { arraySchema, CHEMISTRIES, CHEMISTRY_DEFAULTS, prepareTrip, simulatePrepared, type ResolvedArray, type ResolvedCharger, type ResolvedPlan } from '../../engine';
+import {
+  arraySchema,
+  CHEMISTRIES,
+  CHEMISTRY_DEFAULTS,
+  prepareTrip,
+  simulatePrepared,
+  type ResolvedArray,
+  type ResolvedCharger,
+  type ResolvedPlan,
+} from '../../engine';
 import { generatorRule, type GeneratorRule } from '../advice/generator-rule';
 import type { Changes } from './proposals.schema';
 import { arrayFrom, bankFrom, lineFor, outcomeOf, sameOutcome, strandedOf, type Outcome } from './sweep';
@@ -15,7 +24,11 @@ function num(what: string, min: number, max: number, unit = '') {
 
 /** One array of the hand-edited plan. */
 export const handArraySchema = z.object({
-  name: z.string({ error: 'An array’s name must be text.' }).trim().min(1, { error: 'Give each array a name.' }).max(80, { error: 'An array’s name can be at most 80 characters.' }),
+  name: z
+    .string({ error: 'An array’s name must be text.' })
+    .trim()
+    .min(1, { error: 'Give each array a name.' })
+    .max(80, { error: 'An array’s name can be at most 80 characters.' }),
   ratedWatts: num('Panel watts', 1, 100_000, 'W'),
   tiltDeg: num('Tilt', 0, 90, '°'),
   azimuthDeg: num('Facing (azimuth)', 0, 360, '°'),
@@ -49,7 +62,12 @@ export const handPlanSchema = z
     batterySpaceL: num('The battery space', 1, 5_000, 'L').nullable().default(null),
   })
   .superRefine((p, ctx) => {
-    if (p.generator && p.generator.startHour + p.generator.hoursPerDay > 24) ctx.addIssue({ code: 'custom', path: ['generator', 'hoursPerDay'], message: 'The generator’s hours run past midnight: start earlier or run fewer hours.' });
+    if (p.generator && p.generator.startHour + p.generator.hoursPerDay > 24)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['generator', 'hoursPerDay'],
+        message: 'The generator’s hours run past midnight: start earlier or run fewer hours.',
+      });
   });
 export type HandPlan = z.output<typeof handPlanSchema>;
 export type HandPlanInput = z.input<typeof handPlanSchema>;
@@ -69,18 +87,34 @@ export function handPlanOf(plan: ResolvedPlan): HandPlan {
   const window = plan.stops.find((s) => s.hookup === 'none')?.generatorHours ?? [8, 20];
   return {
     bank: { chemistry: plan.bank.chemistry, capacityAh: plan.bank.capacityAh, floorSocPct: plan.bank.floorSocPct },
-    arrays: plan.arrays.map((a) => ({ name: a.name, ratedWatts: a.ratedWatts, tiltDeg: a.tiltDeg, azimuthDeg: a.azimuthDeg, aim: a.aim, controller: a.controller })),
+    arrays: plan.arrays.map((a) => ({
+      name: a.name,
+      ratedWatts: a.ratedWatts,
+      tiltDeg: a.tiltDeg,
+      azimuthDeg: a.azimuthDeg,
+      aim: a.aim,
+      controller: a.controller,
+    })),
     dcdcAmps: plan.chargers.filter((c) => c.kind === 'alternator').reduce((t, c) => t + c.amps, 0),
     shoreAmps: plan.chargers.filter((c) => c.kind === 'shore').reduce((t, c) => t + c.amps, 0),
-    generator: gen ? { amps: gen.amps, startHour: window[0], hoursPerDay: window[1] - window[0], marginPts: 10, stopPct: Math.round(gen.stopSocPct) } : null,
+    generator: gen
+      ? { amps: gen.amps, startHour: window[0], hoursPerDay: window[1] - window[0], marginPts: 10, stopPct: Math.round(gen.stopSocPct) }
+      : null,
     payloadKg: null,
     batterySpaceL: null,
   };
 }
 
 /** The plan a hand edit makes, and its generator rule (which needs a run of the plan without it). */
-export function handPlanApplied(plan: ResolvedPlan, edit: HandPlan, reserveSocPct: number | null): { plan: ResolvedPlan; rule: GeneratorRule | null } {
-  const sameBank = edit.bank.chemistry === plan.bank.chemistry && edit.bank.capacityAh === plan.bank.capacityAh && edit.bank.floorSocPct === plan.bank.floorSocPct;
+export function handPlanApplied(
+  plan: ResolvedPlan,
+  edit: HandPlan,
+  reserveSocPct: number | null,
+): { plan: ResolvedPlan; rule: GeneratorRule | null } {
+  const sameBank =
+    edit.bank.chemistry === plan.bank.chemistry &&
+    edit.bank.capacityAh === plan.bank.capacityAh &&
+    edit.bank.floorSocPct === plan.bank.floorSocPct;
   const bank = sameBank ? plan.bank : bankFrom(plan.bank, edit.bank);
   const arrays: ResolvedArray[] = edit.arrays.map((a, i) => {
     const old = plan.arrays.find((x) => x.name === a.name) ?? plan.arrays[i];
@@ -96,9 +130,24 @@ export function handPlanApplied(plan: ResolvedPlan, edit: HandPlan, reserveSocPc
   const window: [number, number] = [g.startHour, g.startHour + g.hoursPerDay];
   const stops = plan.stops.map((s) => (s.hookup === 'none' ? { ...s, generatorHours: window } : s));
   const stranded = strandedOf(simulatePrepared(prepareTrip({ ...withoutGen, stops })));
-  const rule = generatorRule({ floorSocPct: lineFor(plan.bank, bank, reserveSocPct), marginPts: g.marginPts, stopSocPct: g.stopPct, strandedPts: stranded });
+  const rule = generatorRule({
+    floorSocPct: lineFor(plan.bank, bank, reserveSocPct),
+    marginPts: g.marginPts,
+    stopSocPct: g.stopPct,
+    strandedPts: stranded,
+  });
   const fuel = plan.chargers.find((c) => c.kind === 'generator')?.fuelLitresPerHour ?? 0.6;
-  return { plan: { ...withoutGen, stops, chargers: [...fixed, { kind: 'generator', amps: g.amps, startSocPct: rule.startSocPct, stopSocPct: rule.stopSocPct, fuelLitresPerHour: fuel }] }, rule };
+  return {
+    plan: {
+      ...withoutGen,
+      stops,
+      chargers: [
+        ...fixed,
+        { kind: 'generator', amps: g.amps, startSocPct: rule.startSocPct, stopSocPct: rule.stopSocPct, fuelLitresPerHour: fuel },
+      ],
+    },
+    rule,
+  };
 }
 
 /** Runs a hand-edited after-plan and judges it as the sweep judges an option. */
@@ -120,19 +169,47 @@ export function runHandPlan(input: { plan: ResolvedPlan; reserveSocPct: number |
 }
 
 /** The hand edit a sweep option makes (the editor's starting point when the installer picks "Edit by hand"). */
-export function handPlanFromOption(plan: ResolvedPlan, c: Changes, limits: { payloadKg: number | null; batterySpaceL: number | null }): HandPlan {
+export function handPlanFromOption(
+  plan: ResolvedPlan,
+  c: Changes,
+  limits: { payloadKg: number | null; batterySpaceL: number | null },
+): HandPlan {
   const now = handPlanOf(plan);
   const sameChem = c.bank?.chemistry === plan.bank.chemistry;
   const added = c.panel ? arrayFrom(plan, c.panel) : null;
   const gen = plan.chargers.find((x) => x.kind === 'generator');
   return {
     ...now,
-    bank: c.bank ? { chemistry: c.bank.chemistry, capacityAh: c.bank.capacityAh, floorSocPct: c.bank.floorSocPct ?? (sameChem ? plan.bank.floorSocPct : CHEMISTRY_DEFAULTS[c.bank.chemistry].floorSocPct) } : now.bank,
-    arrays: added ? [...now.arrays, { name: added.name, ratedWatts: added.ratedWatts, tiltDeg: added.tiltDeg, azimuthDeg: added.azimuthDeg, aim: added.aim, controller: added.controller }] : now.arrays,
+    bank: c.bank
+      ? {
+          chemistry: c.bank.chemistry,
+          capacityAh: c.bank.capacityAh,
+          floorSocPct: c.bank.floorSocPct ?? (sameChem ? plan.bank.floorSocPct : CHEMISTRY_DEFAULTS[c.bank.chemistry].floorSocPct),
+        }
+      : now.bank,
+    arrays: added
+      ? [
+          ...now.arrays,
+          {
+            name: added.name,
+            ratedWatts: added.ratedWatts,
+            tiltDeg: added.tiltDeg,
+            azimuthDeg: added.azimuthDeg,
+            aim: added.aim,
+            controller: added.controller,
+          },
+        ]
+      : now.arrays,
     dcdcAmps: c.dcdcAmps ?? now.dcdcAmps,
     generator:
       c.generatorHours !== null
-        ? { amps: gen?.amps ?? c.generatorAmps, startHour: c.generatorStartHour, hoursPerDay: c.generatorHours, marginPts: c.generatorMarginPts, stopPct: c.generatorStopPct }
+        ? {
+            amps: gen?.amps ?? c.generatorAmps,
+            startHour: c.generatorStartHour,
+            hoursPerDay: c.generatorHours,
+            marginPts: c.generatorMarginPts,
+            stopPct: c.generatorStopPct,
+          }
         : now.generator,
     ...limits,
   };

@@ -62,5 +62,16 @@ export function bankWeight(
     flagged = true;
     notes.push(`Too big: about ${Math.round(litres)} L of batteries, more than the stated ${Math.round(limits.batterySpaceL)} L of room.`);
   }
-  return { kwh: r1(kwh), kg: r1(kg), oldKg: r1(oldKg), addedKg: r1(addedKg), litres: r1(litres), oldLitres: r1(oldLitres), payloadKg: limits.payloadKg, batterySpaceL: limits.batterySpaceL, flagged, note: notes.join(' ') };
+  return {
+    kwh: r1(kwh),
+    kg: r1(kg),
+    oldKg: r1(oldKg),
+    addedKg: r1(addedKg),
+    litres: r1(litres),
+    oldLitres: r1(oldLitres),
+    payloadKg: limits.payloadKg,
+    batterySpaceL: limits.batterySpaceL,
+    flagged,
+    note: notes.join(' '),
+  };
 }
