@@ -22,7 +22,11 @@ function ProposalsPage({ installer, showPrices = true }: { installer: boolean; s
         {q.data && q.data.length === 0 ? (
           <EmptyState title="No proposals yet">
             {installer ? (
-              <p>Open a saved forecast of a rig shared with you (under <a className="font-bold text-ember-deep underline" href="/installer">Rigs shared with me</a>) and choose “Plan an upgrade”.</p>
+              showPrices ? (
+                <p>Open a saved forecast of a rig shared with you (under <a className="font-bold text-ember-deep underline" href="/installer">Rigs shared with me</a>) and choose “Plan an upgrade”.</p>
+              ) : (
+                <p>Open a saved forecast of one of the rigs above and choose “Plan an upgrade”.</p>
+              )
             ) : (
               <p>When an installer you shared a rig with sends an upgrade proposal, it shows here and the crew’s owners get an e-mail.</p>
             )}
