@@ -19,7 +19,6 @@ import { proposalKeys, proposalQueries } from './proposals.queries';
 import { STATUS_LOOK } from './status';
 
 
-const day = (iso: string | null) => (iso ? formatDate(iso.slice(0, 10)) : '');
 /** A stored UTC time as "Fri 4 Dec 2026, 18:20 UTC". */
 const dayTime = (iso: string) => `${formatDate(iso.slice(0, 10))}, ${iso.slice(11, 16)} UTC`;
 const outcome = (s: { minSocPct: number; firstCutoffAt: string | null; unmetWh: number }) =>
