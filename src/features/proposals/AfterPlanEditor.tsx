@@ -8,6 +8,7 @@ import { ApiError, type ApiIssue } from '../../lib/query-client';
 import type { HandPlan, HandPlanInput, HandPlanResult } from '../../domain/proposals/sweep-edit';
 import type { Outcome } from '../../domain/proposals/sweep';
 import { runAfterPlan } from './proposals.api';
+import { CAUTIONS } from '../../domain/advice/cautions';
 
 // The after-plan edited by hand: bank, arrays, chargers and generator as the installer types them,
 // run again against the saved forecast's trip and judged as a sweep option is.
@@ -454,6 +455,9 @@ export default function AfterPlanEditor({
               than now.{r.weight.note ? ` ${r.weight.note}` : ''}
             </p>
           ) : null}
+          <p className="caution text-sm">
+            {CAUTIONS.wiring} {r.generator ? CAUTIONS.generator : ''} {CAUTIONS.estimate}
+          </p>
         </div>
       ) : null}
     </section>

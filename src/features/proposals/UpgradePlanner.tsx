@@ -11,6 +11,7 @@ import type { SweepOption } from '../../domain/proposals/sweep';
 import { handPlanFromOption, handPlanOf } from '../../domain/proposals/sweep-edit';
 import { DEFAULT_GENERATOR_MARGIN_PTS, DEFAULT_GENERATOR_STOP_PCT, type GeneratorRule } from '../../domain/advice/generator-rule';
 import AfterPlanEditor, { editorStateOf, type EditorState } from './AfterPlanEditor';
+import { CAUTIONS } from '../../domain/advice/cautions';
 import { forecastQueries } from '../forecast/forecast.queries';
 import { formatRowTime } from '../../lib/format';
 import { useDelayed } from '../forecast/useWidth';
@@ -364,6 +365,12 @@ function Results({ r, onlyPassing, setOnlyPassing, showAll, setShowAll, onPropos
       <p className="text-sm" data-testid="generator-rule">
         <span className="font-bold">Generator options</span> {ruleText(r.generatorRule, r.base.reservePct > 0 ? 'line' : 'floor')} with the rig’s bank; a bank option starts from its own line. Change the margin and stop level above.
       </p>
+      <ul className="caution space-y-1 text-sm" data-testid="sweep-cautions" aria-label="Cautions">
+        <li>{CAUTIONS.wiring}</li>
+        {r.options.some((o) => o.generator) ? <li>{CAUTIONS.generator}</li> : null}
+        {r.options.some((o) => o.changes.bank?.chemistry === 'lifepo4') ? <li>{CAUTIONS.cold}</li> : null}
+        <li>{CAUTIONS.estimate} Weights and sizes are common-practice figures per kWh: check the batteries’ own data sheets.</li>
+      </ul>
       {r.skipped.length ? (
         <div className="text-sm" data-testid="sweep-skipped">
           <p className="font-bold">Not tried:</p>
