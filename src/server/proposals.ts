@@ -278,7 +278,7 @@ export function proposalMail(p: { ownerName: string; installerName: string; rigN
     greeting: 'Hello,',
     intro: [
       `An installer who signs as “${p.installerName}” sent you an upgrade proposal for your rig “${p.rigName}”. Its title, in the installer’s words: “${p.title}”.`,
-      `It shows your saved forecast before and after the change, the parts (${p.total} in all), the cable and fuse sizes, and the cautions that go with them. Figures are estimates.`,
+      `It shows your saved forecast before and after the change, the quote (${p.total} in all, tax included): parts, cables and fuses, labour, and the cautions that go with them. Figures are estimates.`,
       'Open it in Sunreckon to accept or decline it, with a comment for your installer.',
     ],
     action: { label: 'Open the proposal', url: p.url },

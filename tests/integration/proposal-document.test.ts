@@ -2,6 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { api, signUp, type Session } from '../helpers/api';
 import { activeCrew, makeLoad, makeRig, makeTrip } from '../helpers/crew';
 import { TEST_PRICES } from '../helpers/routes';
+import { waitForMail } from '../helpers/mail';
 
 // A proposal as a business document over HTTP: refused when empty, quote number and dates,
 // labour, removals and trade-ins, tax and totals, the cable check's parts at the list's prices,
@@ -119,6 +120,9 @@ describe('a proposal as a business document', () => {
 
   it('records the owner’s acceptance with the name typed and the time; no name, no acceptance', async () => {
     const sent = await json<Proposal>(await api(`/api/proposals/${p.id}/send`, { method: 'POST', session: installer, json: { version: p.version } }), 200);
+    // The crew's e-mail states the quote's total, tax included.
+    const [mail] = await waitForMail(owner.email);
+    expect(mail!.text_body).toContain('the quote ($2,779.86 in all, tax included)');
     const url = `/api/proposals/${p.id}/decision`;
     const noName = await api(url, { method: 'POST', session: owner, json: { version: sent.version, decision: 'accepted' } });
     expect(noName.status).toBe(400);
