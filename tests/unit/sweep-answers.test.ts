@@ -5,6 +5,7 @@ import { CHEMISTRY_DEFAULTS, demoPlan, forecast, validatePlan, type Plan, type R
 import { candidatesSchema, priceListSchema, type PriceList } from '../../src/domain/proposals/proposals.schema';
 import { forecastAfter, runSweep, type SweepOption } from '../../src/domain/proposals/sweep';
 import { bankWeight, KG_PER_KWH } from '../../src/domain/proposals/sweep-weight';
+import { handPlanFromOption, handPlanOf, runHandPlan } from '../../src/domain/proposals/sweep-edit';
 import { TEST_PRICES } from '../helpers/prices';
 
 function resolved(p: Plan): ResolvedPlan {
@@ -300,5 +301,42 @@ describe('weight and space of a bank option', () => {
     expect(o.passes).toBe(true);
     expect(r.ranking).toBe('cost');
     expect(r.cheapestPassing).toBeNull();
+  });
+});
+
+describe('the after-plan edited by hand', () => {
+  const plan = resolved(AGM_TRAILER);
+
+  it('the rig as it is, run by hand, changes nothing', () => {
+    const r = runHandPlan({ plan, reserveSocPct: 50, edit: handPlanOf(plan) });
+    expect(r.changesNothing).toBe(true);
+    expect(r.after.unmetWh).toBeCloseTo(r.base.unmetWh, 6);
+    expect(r.weight).toBeNull();
+  });
+
+  it('an option loaded into the editor ("Edit by hand") gives the sweep’s own figures', () => {
+    const result = runSweep({
+      plan,
+      reserveSocPct: 50,
+      prices: PRICES,
+      candidates: candidatesSchema.parse({
+        banks: [{ chemistry: 'lifepo4', capacityAh: 200 }],
+        panels: [{ watts: 400, mounting: 'flat' }],
+        generatorHours: [2],
+      }),
+    });
+    for (const key of ['b1.p0.d0.g0', 'b0.p1.d0.g0', 'b0.p0.d0.g1', 'b1.p1.d0.g1']) {
+      const o = result.options.find((x) => x.key === key)!;
+      const r = runHandPlan({
+        plan,
+        reserveSocPct: 50,
+        edit: handPlanFromOption(plan, o.changes, { payloadKg: null, batterySpaceL: null }),
+      });
+      expect(r.after.unmetWh, key).toBeCloseTo(o.unmetWh, 6);
+      expect(r.after.minUsablePct, key).toBeCloseTo(o.minUsablePct, 6);
+      expect(r.after.reservePct, key).toBe(o.reservePct);
+      expect(r.after.generatorHours, key).toBe(o.generatorHours);
+      expect(r.generator?.startSocPct ?? null, key).toBe(o.generator?.startSocPct ?? null);
+    }
   });
 });
