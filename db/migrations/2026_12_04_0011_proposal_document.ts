@@ -1,4 +1,5 @@
 import type { Kysely } from 'kysely';
+import { columnTypes } from './types';
 
 // A proposal becomes a business document: the installer's company and contact, an optional licence
 // or registration number, the quote number, issue date and validity, labour lines, removal or
@@ -6,7 +7,8 @@ import type { Kysely } from 'kysely';
 // (src/domain/proposals/document.schema.ts), '{}' for proposals made before (every field defaults).
 // The crew owner's acceptance records the name they typed; the time is decided_at.
 export async function up(db: Kysely<any>): Promise<void> {
-  await db.schema.alterTable('proposals').addColumn('document', 'text', (c) => c.notNull().defaultTo('{}')).execute();
+  const ty = columnTypes(db);
+  await db.schema.alterTable('proposals').addColumn('document', ty.json, (c) => c.notNull().defaultTo('{}')).execute();
   await db.schema.alterTable('proposals').addColumn('accepted_name', 'text').execute();
 }
 
