@@ -44,6 +44,17 @@ export function DocumentHead({ p }: { p: ProposalDto }) {
   );
 }
 
+/** What a run feeds, in a word for the sketch's far end, read from its label. */
+export function runEnd(label: string): string {
+  const l = label.toLowerCase();
+  if (l.includes('inverter')) return 'Inverter';
+  if (l.includes('mppt') || l.includes('panel')) return 'MPPT';
+  if (l.includes('dc-dc')) return 'DC-DC';
+  if (l.includes('converter') || l.includes('charger')) return 'Charger';
+  if (l.includes('bus')) return 'Bus bar';
+  return 'Load';
+}
+
 /** A run drawn as a line: the bank's positive post, its fuse, the cable, and the part it feeds. */
 export function RunSketch({ r }: { r: CableResult }) {
   const pick = r.chosen ?? r.suggested;
@@ -58,12 +69,13 @@ export function RunSketch({ r }: { r: CableResult }) {
       <line x1="31" y1="18" x2="46" y2="18" stroke={line} strokeWidth="3" />
       <rect x="46" y="12" width="18" height="12" rx="2" fill="#fff" stroke="#D9642E" strokeWidth="1.5" />
       <line x1="46" y1="18" x2="64" y2="18" stroke="#D9642E" strokeWidth="1.5" />
-      <line x1="64" y1="18" x2="206" y2="18" stroke={line} strokeWidth="3" strokeDasharray={ok ? undefined : '6 3'} />
+      <line x1="64" y1="18" x2="196" y2="18" stroke={line} strokeWidth="3" strokeDasharray={ok ? undefined : '6 3'} />
       {/* the part it feeds */}
-      <rect x="206" y="8" width="32" height="20" rx="3" fill="#fff" stroke="#2F3E55" strokeWidth="1.5" />
+      <rect x="196" y="8" width="42" height="20" rx="3" fill="#fff" stroke="#2F3E55" strokeWidth="1.5" />
+      <text x="217" y="21" textAnchor="middle" fontSize="8" fill="#2F3E55">{runEnd(r.label)}</text>
       <text x="55" y="9" textAnchor="middle" fontSize="8" fill="#2F3E55">{r.fuseA !== null ? `${r.fuseA} A` : ''}</text>
-      <text x="135" y="12" textAnchor="middle" fontSize="9" fill="#2F3E55">{pick ? (conductor(pick.awg)?.label ?? pick.awg) : 'no single cable'}</text>
-      <text x="135" y="32" textAnchor="middle" fontSize="8" fill="#4A5568">{pick ? `${formatNumber(pick.dropPct, 1)} % drop` : ''}</text>
+      <text x="130" y="12" textAnchor="middle" fontSize="9" fill="#2F3E55">{pick ? (conductor(pick.awg)?.label ?? pick.awg) : 'no single cable'}</text>
+      <text x="130" y="32" textAnchor="middle" fontSize="8" fill="#4A5568">{pick ? `${formatNumber(pick.dropPct, 1)} % drop` : ''}</text>
     </svg>
   );
 }

@@ -62,7 +62,7 @@ function Loaded({ p, units }: { p: ProposalDto; units: Units }) {
       {p.status === 'sent' && !p.canDecide && !p.mine ? <p className="caution no-print">The crew’s owner accepts or declines this proposal.</p> : null}
       {p.status === 'sent' && p.mine ? <p className="caution no-print">Sent to the crew’s owners by e-mail; their answer shows here.</p> : null}
 
-      <section aria-labelledby="what-heading" className="card p-4 sm:p-5 print:break-inside-avoid print:p-0 print:shadow-none">
+      <section aria-labelledby="what-heading" className="card p-4 sm:p-5 print:break-inside-avoid print:p-0 print:shadow-none print:border-0 print:bg-transparent">
         <h2 id="what-heading" className="text-xl">What changes</h2>
         <p className="mt-1 text-lg font-bold">{p.label}</p>
         <dl className="mt-2 grid grid-cols-[auto_1fr] gap-x-3 text-sm" data-testid="before-after">
@@ -80,7 +80,7 @@ function Loaded({ p, units }: { p: ProposalDto; units: Units }) {
 
       {p.canEdit ? <DraftEditor p={p} units={units} /> : null}
 
-      <section aria-labelledby="parts-heading" className="card p-4 sm:p-5 print:p-0 print:shadow-none">
+      <section aria-labelledby="parts-heading" className="card p-4 sm:p-5 print:p-0 print:shadow-none print:border-0 print:bg-transparent">
         <h2 id="parts-heading" className="mb-2 text-xl">{p.canEdit ? 'The quote as last saved' : 'Quote'}</h2>
         <PartsTable p={p} units={units} />
       </section>
@@ -412,8 +412,8 @@ function DraftEditor({ p, units }: { p: ProposalDto; units: Units }) {
               <div>
                 <label htmlFor={`edit-removals-${i}-kind`} className="field-label">Counts as</label>
                 <select id={`edit-removals-${i}-kind`} className="field-input" value={r.kind} onChange={(e) => setDoc({ removals: d.doc.removals.map((x, j) => (j === i ? { ...x, kind: e.target.value as 'removal' | 'trade-in' } : x)) })}>
-                  <option value="removal">Removal, a charge</option>
-                  <option value="trade-in">Trade-in, a credit</option>
+                  <option value="removal">Removal (charge)</option>
+                  <option value="trade-in">Trade-in (credit)</option>
                 </select>
               </div>
               <Text id={`edit-removals-${i}-amount`} label="Amount" value={r.amount} numeric onChange={(v) => setDoc({ removals: d.doc.removals.map((x, j) => (j === i ? { ...x, amount: v } : x)) })} />
