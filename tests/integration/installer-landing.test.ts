@@ -23,6 +23,10 @@ describe('installer landing and invitations to an address without an account', (
     const trips = await api('/trips', { session: installer });
     expect(trips.status).toBe(302);
     expect(trips.headers.get('location')).toBe('/installer');
+    for (const page of ['/rigs', '/rigs/new']) {
+      const res = await api(page, { session: installer });
+      expect(res.headers.get('location'), page).toBe('/installer');
+    }
     const signIn = await api('/sign-in', { session: installer });
     expect(signIn.headers.get('location')).toBe('/installer');
     const page = await api('/installer', { session: installer });
