@@ -6,7 +6,8 @@ import AxeBuilder from '@axe-core/playwright';
 import type { Page } from 'playwright-core';
 import { api, baseUrl, signUp, type Session } from '../helpers/api';
 import { hydrated, launch, SCREENSHOTS, shot, type ViewportName } from '../helpers/browser';
-import { activeCrew, makeLoad, makeRig, makeTrip } from '../helpers/crew';
+import { activeCrew } from '../helpers/crew';
+import { demoPlan } from '../../src/engine';
 import { TEST_PRICES } from '../helpers/prices';
 
 // The proposal as a document an installer hands over: company block and quote number on page 1,
@@ -48,17 +49,24 @@ describe('a proposal as a document, on screen and on paper', () => {
   beforeAll(async () => {
     owner = await signUp({ name: 'Halvard', password: PASSWORD });
     const crewId = (await activeCrew(owner)).id;
-    const rig = await makeRig(owner, crewId);
-    await makeLoad(owner, rig.id);
-    await makeLoad(owner, rig.id, { name: 'Coffee maker', watts: 800, supply: 'ac', windows: [[7, 8]], dutyPct: 25 });
-    const tripId = (await makeTrip(owner, rig.id)).id;
-    const f = await api(`/api/trips/${tripId}/forecasts`, { method: 'POST', session: owner, json: { name: 'Before' } });
+    // The invented demo van and its late-October trip (src/engine/demo-plan.ts, as the demo seed makes them).
+    const plan = demoPlan();
+    const rigRes = await api('/api/rigs', { method: 'POST', session: owner, json: { crewId, name: 'Camper van (6.1 m)', bank: plan.bank, arrays: plan.arrays, chargers: plan.chargers, inverter: plan.inverter } });
+    expect(rigRes.status).toBe(201);
+    const rig = (await rigRes.json()) as { id: string };
+    for (const load of plan.loads ?? []) {
+      expect((await api(`/api/rigs/${rig.id}/loads`, { method: 'POST', session: owner, json: { ...load, standby: load.name === 'Parasitic draw' } })).status).toBe(201);
+    }
+    const tripRes = await api('/api/trips', { method: 'POST', session: owner, json: { rigId: rig.id, name: 'High desert loop, late October', stops: plan.stops, drives: plan.drives, reserveSocPct: 20 } });
+    expect(tripRes.status).toBe(201);
+    const tripId = ((await tripRes.json()) as { id: string }).id;
+    const f = await api(`/api/trips/${tripId}/forecasts`, { method: 'POST', session: owner, json: { name: 'First look' } });
     const forecastId = ((await f.json()) as { id: string }).id;
     installer = await signUp({ kind: 'installer', name: 'Sable Okonkwo', password: PASSWORD });
     await api(`/api/rigs/${rig.id}/grants`, { method: 'POST', session: owner, json: { email: installer.email } });
     await api('/api/installer/rigs', { session: installer });
     const prices = { ...TEST_PRICES, wiring: { cablePerMm2M: 0.42, fuse: 24, busBars: 58 } };
-    const created = await api('/api/proposals', { method: 'POST', session: installer, json: { forecastId, changes: { bank: { chemistry: 'lifepo4', capacityAh: 400 }, panel: { watts: 200, mounting: 'flat' } }, prices } });
+    const created = await api('/api/proposals', { method: 'POST', session: installer, json: { forecastId, changes: { bank: { chemistry: 'lifepo4', capacityAh: 400 }, panel: { watts: 200, mounting: 'portable' } }, prices } });
     expect(created.status).toBe(201);
     const p = (await created.json()) as { id: string; version: number; document: Record<string, unknown> };
     proposalId = p.id;
@@ -78,8 +86,8 @@ describe('a proposal as a document, on screen and on paper', () => {
           licence: 'RV-EL 20931',
           taxRatePct: 7.5,
           terms: 'Half on acceptance, the rest on handover. Parts carry their makers’ warranties; our work is guaranteed for two years.',
-          labour: [{ name: 'Fit the new bank, main feed and fuse', hours: 3, rate: 95 }, { name: 'Mount the panel and controller, run the cable', hours: 2.5, rate: 95 }],
-          removals: [{ name: 'Old 200 Ah bank', kind: 'trade-in', amount: 150 }],
+          labour: [{ name: 'Fit the new bank, main feed and fuse', hours: 3, rate: 95 }, { name: 'Fit the portable panel’s socket and controller, run the cable', hours: 2, rate: 95 }],
+          removals: [{ name: 'Old 300 Ah LiFePO4 bank, traded in', kind: 'trade-in', amount: 450 }],
         },
       },
     });
@@ -94,7 +102,7 @@ describe('a proposal as a document, on screen and on paper', () => {
     await signIn(page, installer.email);
     await page.waitForURL((u) => u.pathname === '/installer');
     await hydrated(page);
-    await page.locator('[data-shared-rig="Test van"]').waitFor();
+    await page.locator('[data-shared-rig="Camper van (6.1 m)"]').waitFor();
     await page.locator(`a[href="/proposals/${proposalId}"]`).waitFor();
     expect(await page.getByRole('link', { name: 'New trip' }).count()).toBe(0);
     expect(await serious(page)).toEqual([]);
@@ -111,7 +119,7 @@ describe('a proposal as a document, on screen and on paper', () => {
     expect(await page.getByTestId('quote-number').textContent()).toMatch(/^Q-\d{4}-001$/);
     const table = page.getByTestId('parts-table');
     expect(await table.getByTestId('run-sketch').count()).toBe(2);
-    expect(await table.textContent()).toMatch(/Fit the new bank.*Old 200 Ah bank \(trade-in, a credit\)/s);
+    expect(await table.textContent()).toMatch(/Fit the new bank.*Old 300 Ah LiFePO4 bank, traded in \(trade-in, a credit\)/s);
     expect(await page.getByTestId('run-basis').first().textContent()).toMatch(/^Sized for /);
     expect(await page.getByTestId('tax').textContent()).toMatch(/^\$/);
     expect(await page.getByTestId('cautions').textContent()).toMatch(/qualified electrician decide/);
