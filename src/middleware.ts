@@ -8,14 +8,18 @@ const PUBLIC_PAGES = new Set(['/', '/sign-in', '/sign-up', '/reset-password', '/
 const PUBLIC_API = [/^\/api\/auth\//, /^\/api\/health$/, /^\/api\/forecasts\/preview$/, /^\/api\/places$/, /^\/api\/timezone$/];
 
 /**
- * An address holding the NUL character (%00) is refused before any route reads it: no id, place or
- * token of ours contains it, and the database could not compare it.
+ * An address holding the NUL character (%00) never reaches a route: no id, place or token of ours
+ * contains it, and PostgreSQL cannot compare it. API: 400; a page's query: asked again without it.
  */
 const noNul = defineMiddleware(async (ctx, next) => {
-  if (/%00/i.test(ctx.url.pathname + ctx.url.search)) {
+  const { pathname, search } = ctx.url;
+  if (!/%00/i.test(pathname + search)) return next();
+  if (pathname.startsWith('/api/')) {
     return errorResponse('invalid_request', 'This address holds an invisible NUL character (%00); remove it.', [{ path: '(url)', message: 'contains %00' }]);
   }
-  return next();
+  // Pages: no page of ours has one in its path; in a query it is dropped and the page asked again.
+  if (/%00/i.test(pathname)) return new Response('Not found', { status: 404, headers: { 'content-type': 'text/plain; charset=utf-8' } });
+  return ctx.redirect(pathname + search.replace(/%00/gi, ''), 302);
 });
 
 /** Resolves the session once per request and puts it on Astro.locals. */
