@@ -80,6 +80,10 @@ export interface RigTable {
   created_by: string | null;
   created_at: string;
   updated_at: string;
+  /** What the rig may still carry, kg (migration 0014), or null when not stated. */
+  payload_kg: ColumnType<number | null, number | null | undefined, number | null>;
+  /** Room for batteries, litres (migration 0014), or null when not stated. */
+  battery_space_l: ColumnType<number | null, number | null | undefined, number | null>;
 }
 
 export interface LoadTable {

@@ -64,6 +64,8 @@ describe('the upgrade planner in Chromium', () => {
   let installer: Session;
   let van: string;
   let trailer: string;
+  let trailerRig: string;
+  let owner: Session;
   const browsers: { close(): Promise<void> }[] = [];
   async function open(viewport: ViewportName) {
     const b = await launch(viewport);
@@ -74,7 +76,7 @@ describe('the upgrade planner in Chromium', () => {
   beforeAll(async () => {
     installer = await signUp({ kind: 'installer', name: 'Kestrel Power', password: PASSWORD });
     expect((await api('/api/price-list', { method: 'PUT', session: installer, json: { ...TEST_PRICES, version: 0 } })).status).toBe(200);
-    const owner = await signUp({ name: 'Ana', password: PASSWORD });
+    owner = await signUp({ name: 'Ana', password: PASSWORD });
     const d = demoPlan();
     van = await savedForecast(
       owner,
@@ -107,6 +109,9 @@ describe('the upgrade planner in Chromium', () => {
       ],
       50,
     );
+    trailerRig = ((await (await api('/api/rigs', { session: owner })).json()) as { id: string; name: string }[]).find(
+      (r) => r.name === 'AGM teardrop',
+    )!.id;
   });
   afterAll(async () => {
     for (const b of browsers) await b.close();
@@ -172,6 +177,32 @@ describe('the upgrade planner in Chromium', () => {
     expect(await seriousViolations(page)).toEqual([]);
     await shot(page, 'sweep-after-plan-desktop');
   });
+
+  for (const viewport of ['desktop', 'phone'] as const) {
+    it(`the crew states the rig’s payload and battery room; the planner starts from them (${viewport})`, async () => {
+      const page = await open(viewport);
+      await signIn(page, owner.email, `/rigs/${trailerRig}`);
+      await page.getByLabel('Payload it may still carry').fill(viewport === 'desktop' ? '160' : '170');
+      await page.getByLabel('Room for batteries').fill('60');
+      await page.getByRole('button', { name: 'Save power system' }).click();
+      await page.getByText('Saved.', { exact: true }).first().waitFor();
+      const section = page.getByRole('region', { name: 'Weight and room (optional)' });
+      await section.scrollIntoViewIfNeeded();
+      expect(await seriousViolations(page)).toEqual([]);
+      await shot(page, `rig-weight-room-${viewport}`);
+      const rig = (await (await page.request.get(`${baseUrl()}/api/rigs/${trailerRig}`)).json()) as {
+        payloadKg: number;
+        batterySpaceL: number;
+      };
+      expect(rig).toMatchObject({ payloadKg: viewport === 'desktop' ? 160 : 170, batterySpaceL: 60 });
+
+      const planner = await open(viewport);
+      await signIn(planner, installer.email, `/proposals/new?forecast=${trailer}`);
+      await planner.getByTestId('verdict-headline').waitFor();
+      expect(await planner.locator('#cand-payloadKg').inputValue()).toBe(viewport === 'desktop' ? '160' : '170');
+      expect(await planner.locator('#cand-batterySpaceL').inputValue()).toBe('60');
+    });
+  }
 
   it('the AGM trailer at 390 px', async () => {
     const page = await open('phone');

@@ -241,3 +241,44 @@ describe('the sweep on the built server', () => {
     expect(body.issues).toContainEqual({ path: 'bank.capacityAh', message: 'The bank’s capacity must be a number from 1 to 20000 Ah.' });
   });
 });
+
+describe('a rig’s stated payload and battery room (migration 0014)', () => {
+  it('are saved, read back, cleared, and refused in plain words when they are not numbers', async () => {
+    const owner = await signUp({ name: 'Bo' });
+    const crewId = (await activeCrew(owner)).id;
+    const bank = { chemistry: 'agm', nominalVolts: 12, capacityAh: 100 };
+    const rig = await json<{ id: string; version: number; payloadKg: number | null; batterySpaceL: number | null }>(
+      await api('/api/rigs', {
+        method: 'POST',
+        session: owner,
+        json: { name: 'Teardrop', bank, crewId, payloadKg: 160, batterySpaceL: 60 },
+      }),
+      201,
+    );
+    expect(rig).toMatchObject({ payloadKg: 160, batterySpaceL: 60 });
+    expect(await json(await api(`/api/rigs/${rig.id}`, { session: owner }), 200)).toMatchObject({ payloadKg: 160, batterySpaceL: 60 });
+    // A patch that does not send them keeps them; null clears one.
+    const renamed = await json<{ version: number }>(
+      await api(`/api/rigs/${rig.id}`, { method: 'PATCH', session: owner, json: { version: rig.version, name: 'Teardrop 2' } }),
+      200,
+    );
+    expect(renamed).toMatchObject({ payloadKg: 160, batterySpaceL: 60 });
+    const cleared = await json(
+      await api(`/api/rigs/${rig.id}`, { method: 'PATCH', session: owner, json: { version: renamed.version, batterySpaceL: null } }),
+      200,
+    );
+    expect(cleared).toMatchObject({ payloadKg: 160, batterySpaceL: null });
+    const bad = await api('/api/rigs', {
+      method: 'POST',
+      session: owner,
+      json: { name: 'Bad', bank, crewId, payloadKg: 'abc', batterySpaceL: 0 },
+    });
+    expect(bad.status).toBe(400);
+    const issues = ((await bad.json()) as { issues: { path: string; message: string }[] }).issues;
+    expect(issues).toContainEqual({ path: 'payloadKg', message: 'The payload must be a number of kilograms, such as 250.' });
+    expect(issues).toContainEqual({ path: 'batterySpaceL', message: 'The battery room must be more than 0 L.' });
+    // A rig made without them states neither.
+    const plain = await json(await api('/api/rigs', { method: 'POST', session: owner, json: { name: 'Plain', bank, crewId } }), 201);
+    expect(plain).toMatchObject({ payloadKg: null, batterySpaceL: null });
+  });
+});

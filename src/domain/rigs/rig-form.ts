@@ -48,6 +48,8 @@ export function emptyRig(chemistry: Chemistry = 'lifepo4'): RigFormValues {
     arrays: [],
     chargers: [],
     inverter: null,
+    payloadKg: null,
+    batterySpaceL: null,
   };
 }
 
@@ -71,6 +73,8 @@ export function rigToForm(rig: RigDto): RigFormValues {
     arrays: rig.arrays.map((a) => ({ ...a, name: a.name, vmpVolts: a.vmpVolts, controllerMaxAmps: a.controllerMaxAmps ?? null })),
     chargers: rig.chargers.map((c) => ({ ...c })),
     inverter: rig.inverter ? { ...rig.inverter, continuousWatts: rig.inverter.continuousWatts ?? null, surgeWatts: rig.inverter.surgeWatts ?? null } : null,
+    payloadKg: rig.payloadKg ?? null,
+    batterySpaceL: rig.batterySpaceL ?? null,
   };
 }
 

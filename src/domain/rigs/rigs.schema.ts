@@ -14,6 +14,10 @@ export const rigInputSchema = z.object({
   arrays: z.array(arraySchema).max(LIMITS.maxArrays, { error: `at most ${LIMITS.maxArrays} arrays` }).default([]),
   chargers: z.array(chargerSchema).max(LIMITS.maxChargers, { error: `at most ${LIMITS.maxChargers} chargers` }).default([]),
   inverter: inverterSchema.nullable().default(null),
+  /** What the rig may still carry, kg: the upgrade sweep checks bank weights against it. */
+  payloadKg: z.number({ error: 'The payload must be a number of kilograms, such as 250.' }).positive({ error: 'The payload must be more than 0 kg.' }).max(20_000, { error: 'The payload can be at most 20,000 kg.' }).nullable().default(null),
+  /** Room for batteries, litres: the upgrade sweep checks bank sizes against it. */
+  batterySpaceL: z.number({ error: 'The battery room must be a number of litres, such as 60.' }).positive({ error: 'The battery room must be more than 0 L.' }).max(5_000, { error: 'The battery room can be at most 5,000 L.' }).nullable().default(null),
   crewId: z.string().min(1).optional(),
 });
 export type RigInput = z.input<typeof rigInputSchema>;
@@ -32,6 +36,8 @@ export interface RigDto {
   arrays: z.output<typeof arraySchema>[];
   chargers: z.output<typeof chargerSchema>[];
   inverter: z.output<typeof inverterSchema> | null;
+  payloadKg: number | null;
+  batterySpaceL: number | null;
   /** Whether the signed-in user may change this rig, its loads and its trips (false for a crew viewer). */
   canEdit: boolean;
   version: number;

@@ -70,16 +70,22 @@ const list = (s: string) =>
     .map((x) => asNumber(x) ?? NaN);
 
 /** The upgrade planner: candidates for a saved forecast, the sweep with its progress, ranked options, and "propose this". */
-function UpgradePlanner({ forecastId }: { forecastId: string }) {
+/** The rig's stated payload and battery room (migration 0014), when the crew gave them. */
+interface RigLimits {
+  payloadKg: number | null;
+  batterySpaceL: number | null;
+}
+
+function UpgradePlanner({ forecastId, limits = { payloadKg: null, batterySpaceL: null } }: { forecastId: string; limits?: RigLimits }) {
   const f = useQuery(forecastQueries.detail(forecastId));
   const prices = useQuery(proposalQueries.priceList());
   if (f.isPending || prices.isPending) return <LoadingState label="Loading the saved forecast…" />;
   if (f.isError) return <ErrorState error={f.error} title="This saved forecast could not be loaded." />;
   if (prices.isError) return <ErrorState error={prices.error} title="Your price list could not be loaded." onRetry={() => void prices.refetch()} />;
-  return <Planner forecastId={forecastId} plan={f.data.plan} saved={f.data} pricesSaved={prices.data.saved} currency={prices.data.currency} />;
+  return <Planner forecastId={forecastId} plan={f.data.plan} saved={f.data} pricesSaved={prices.data.saved} currency={prices.data.currency} limits={limits} />;
 }
 
-function Planner({ forecastId, plan, saved, pricesSaved, currency }: { forecastId: string; plan: ResolvedPlan; saved: { name: string; forecast: Parameters<typeof VerdictBanner>[0]['forecast']; reserveSocPct: number | null }; pricesSaved: boolean; currency: string }) {
+function Planner({ forecastId, plan, saved, pricesSaved, currency, limits }: { forecastId: string; plan: ResolvedPlan; saved: { name: string; forecast: Parameters<typeof VerdictBanner>[0]['forecast']; reserveSocPct: number | null }; pricesSaved: boolean; currency: string; limits: RigLimits }) {
   const initial = useMemo(() => presets(plan), [plan]);
   const [banks, setBanks] = useState<BankRow[]>(initial.banks);
   const [panels, setPanels] = useState<PanelRow[]>(initial.panels);
@@ -88,12 +94,12 @@ function Planner({ forecastId, plan, saved, pricesSaved, currency }: { forecastI
   const [start, setStart] = useState(initial.start);
   const [margin, setMargin] = useState(String(DEFAULT_GENERATOR_MARGIN_PTS));
   const [stop, setStop] = useState(String(DEFAULT_GENERATOR_STOP_PCT));
-  const [payload, setPayload] = useState('');
-  const [space, setSpace] = useState('');
+  const [payload, setPayload] = useState(limits.payloadKg === null ? '' : String(limits.payloadKg));
+  const [space, setSpace] = useState(limits.batterySpaceL === null ? '' : String(limits.batterySpaceL));
   const [issues, setIssues] = useState<ApiIssue[]>([]);
   const [onlyPassing, setOnlyPassing] = useState(false);
   const [showAll, setShowAll] = useState(false);
-  const asIs = useMemo(() => editorStateOf(handPlanOf(plan)), [plan]);
+  const asIs = useMemo(() => editorStateOf({ ...handPlanOf(plan), ...limits }), [plan, limits]);
   const [hand, setHand] = useState<EditorState>(asIs);
   const optional = (x: string) => (x.trim() === '' ? null : (asNumber(x) ?? NaN));
 
@@ -256,7 +262,7 @@ function Planner({ forecastId, plan, saved, pricesSaved, currency }: { forecastI
           </p>
         </div>
         <fieldset className="grid gap-4 sm:grid-cols-3">
-          <legend className="field-label text-base">The rig’s limits for the weight and space check (optional)</legend>
+          <legend className="field-label text-base">The rig’s limits for the weight and space check (optional{limits.payloadKg !== null || limits.batterySpaceL !== null ? '; as the crew stated them on the rig' : ''})</legend>
           <div>
             <label htmlFor="cand-payloadKg" className="field-label">Payload it may still carry</label>
             <div className="relative">

@@ -30,7 +30,7 @@ type Ctx = {
 const num = { setValueAs: asNumber };
 
 /** The fields a rig is saved with (the form also carries the crew it goes to). */
-const rigBody = (v: RigFormOutput) => ({ name: v.name, bank: bankToSave(v.bank), arrays: v.arrays, chargers: v.chargers, inverter: v.inverter });
+const rigBody = (v: RigFormOutput) => ({ name: v.name, bank: bankToSave(v.bank), arrays: v.arrays, chargers: v.chargers, inverter: v.inverter, payloadKg: v.payloadKg, batterySpaceL: v.batterySpaceL });
 const numOrNull = { setValueAs: asNumberOrNull };
 
 /** The power-system form: bank (with chemistry presets and a series/parallel helper), solar arrays, chargers, inverter. */
@@ -275,6 +275,16 @@ export function RigEditor({ rig }: RigEditorProps) {
         ) : (
           <p className="text-slate-text">No inverter: every load runs on 12 V DC.</p>
         )}
+      </section>
+
+      {/* ---------------- Weight and room ---------------- */}
+      <section className="card space-y-4 p-4 sm:p-6" aria-labelledby="limits-heading">
+        <h2 id="limits-heading" className="text-xl">Weight and room (optional)</h2>
+        <p className="text-sm text-slate-text">An installer’s upgrade sweep checks each bigger bank’s weight and size against these.</p>
+        <div className="grid gap-4 sm:grid-cols-2">
+          <NumberField id="rig-payloadKg" label="Payload it may still carry" unit="kg" registration={register('payloadKg', numOrNull)} error={errorAt(errors, 'payloadKg')} hint="The rated payload less what it carries now. Empty: not stated." />
+          <NumberField id="rig-batterySpaceL" label="Room for batteries" unit="L" registration={register('batterySpaceL', numOrNull)} error={errorAt(errors, 'batterySpaceL')} hint="The battery box or bay’s inside volume. Empty: not stated." />
+        </div>
       </section>
 
       </fieldset>
