@@ -9,6 +9,8 @@ export async function migrateToLatest(db: Kysely<any>): Promise<string[]> {
   const migrator = new Migrator({
     db,
     provider: { getMigrations: async () => migrations },
+    // Migrations written side by side land in any order; each still runs once, in name order when pending together.
+    allowUnorderedMigrations: true,
   });
   const { error, results } = await migrator.migrateToLatest();
   if (error) throw error instanceof Error ? error : new Error(String(error));
