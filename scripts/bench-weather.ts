@@ -3,7 +3,8 @@
 // the SDK) and cached (answered from SQLite). Prints medians in milliseconds; a script, not a test.
 // Targets from issue 14: ≤ 300 ms cold, ≤ 20 ms cached. Then the "how sure is this?" band of the
 // 30-day / 40-load benchmark trip under its ten past years (target ≤ 50 ms): the engine runs the
-// worker pool does (validate, prepare once per year, simulate) and the band and sentence.
+// worker pool does (the sun prepared once, then each year's weather and a simulation) and the band
+// and sentence.
 import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';

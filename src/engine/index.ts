@@ -4,10 +4,12 @@
 //   validatePlan(input: unknown)     → { ok: true, plan }     | { ok: false, envelope }
 //   forecast(plan: ResolvedPlan)     → Forecast
 //   prepareTrip(plan) + simulatePrepared(prepared, variant) (+ toForecast) for upgrade sweeps
+//   prepareSun(plan) + prepareWithSun(sun, planWithOtherWeatherOrLoads) for many weathers on one
+//     trip (the band); sunKey(plan) keys a cache of prepared suns
 export { runForecast, validatePlan, forecast, toForecast, ENGINE_REVISION } from './forecast';
 export type { Forecast, HourlyRow, DayRow, ForecastSummary, ForecastWarning, RunResult, ValidationResult } from './forecast';
-export { prepareTrip, SUBSTEPS, BATTERY_SUBSTEPS } from './prepare';
-export type { PreparedTrip, PreparedArray, PreparedDemand, RowWarning } from './prepare';
+export { prepareTrip, prepareSun, prepareWithSun, sunKey, SUBSTEPS, BATTERY_SUBSTEPS } from './prepare';
+export type { PreparedTrip, PreparedSun, PreparedArray, PreparedDemand, RowWarning } from './prepare';
 export { simulatePrepared, variantSchema, CUTOFF_NONE, CUTOFF_FLOOR, CUTOFF_VOLTS } from './simulate';
 export type { SimResult, SimSummary, Variant } from './simulate';
 export { planSchema, bankSchema, arraySchema, chargerSchema, inverterSchema, loadSchema, stopSchema, driveSchema, weatherSchema, resolveBank, LIMITS, BANK_LOCATIONS, LOAD_LOCATIONS, WEATHER_SOURCES, weatherHourSchema } from './schema';

@@ -113,13 +113,59 @@ export interface PreparedTrip {
   warnings: RowWarning[];
 }
 
-/** Computes once, for a validated plan, everything the battery loop needs per hour. */
-export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
+/**
+ * The part of a trip that depends only on where and when it is and how its panels are aimed: the
+ * grid, the days, drive hours and the sun at every sub-step with its clear-sky irradiance and its
+ * angle on every array. Weather, shade, loads, the bank and the chargers do not enter it, so one
+ * value serves every weather (the "how sure is this?" band) and can be kept by a cache keyed by
+ * `sunKey(plan)`. Read-only once made.
+ */
+export interface PreparedSun {
+  /** `sunKey` of the plan it was made from. */
+  key: string;
+  grid: Grid;
+  n: number;
+  /** Local dates (day numbers) of the forecast, ascending; `dayIndex` points into it. */
+  dayList: number[];
+  dayIndex: Uint16Array;
+  /** Per stop: the local days it owns an hour of, in order. */
+  ownedDays: number[][];
+  /** `${stop}|${day}` → the first row of that stop-day. */
+  firstRowOfStopDay: Map<string, number>;
+  /** Per stop: its first row, or −1 when it owns none. */
+  firstRowOfStop: number[];
+  driveFrac: Float64Array;
+  /** Sun altitude at each row's midpoint, degrees (apparent). */
+  sunAltitudeDeg: Float64Array;
+  /** 1 where some sub-step of the row can have sun on an array (always 0 without arrays). */
+  lit: Uint8Array;
+  /** Extraterrestrial irradiance of each row's local day, W/m². */
+  e0: Float64Array;
+  /** Per row × sub-step: cos of the zenith angle and the Haurwitz clear-sky GHI (0 where dark). */
+  cosZSub: Float64Array;
+  clearSub: Float64Array;
+  /** Per row: the sum of the hour's six clear-sky GHI sub-steps. */
+  clearSum: Float64Array;
+  /** Per array, per row × sub-step: cos of the angle of incidence on the panel. */
+  cosIncSub: Float64Array[];
+}
+
+/**
+ * The cache key of a trip's prepared sun: every plan field `prepareSun` reads (places, time zones,
+ * dates, arrival hours, drives and the arrays' tilt, azimuth and aim), and nothing else.
+ */
+export function sunKey(plan: ResolvedPlan): string {
+  return JSON.stringify([
+    plan.stops.map((s) => [s.lat, s.lon, s.timeZone, s.arrive, s.nights, s.arriveHour]),
+    plan.drives,
+    plan.arrays.map((a) => [a.tiltDeg, a.azimuthDeg, a.aim]),
+  ]);
+}
+
+/** The sun of a validated plan (see PreparedSun). The CPU-heavy part: thousands of sun positions. */
+export function prepareSun(plan: ResolvedPlan): PreparedSun {
   const grid = buildGrid(plan.stops, plan.drives);
   const n = grid.n;
-  const warnings: RowWarning[] = [];
-
-  // ---- days and weather per (stop, local day) ----
   const daySet = new Set<number>();
   const ownedDays: number[][] = plan.stops.map(() => []);
   const firstRowOfStopDay = new Map<string, number>();
@@ -137,6 +183,100 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   }
   const dayList = [...daySet].sort((a, b) => a - b);
   const dayPos = new Map<number, number>(dayList.map((d, i) => [d, i]));
+  const dayIndex = new Uint16Array(n);
+  const driveFrac = new Float64Array(n);
+  const sunAltitudeDeg = new Float64Array(n);
+  const lit = new Uint8Array(n);
+  const e0 = new Float64Array(n);
+  const cosZSub = new Float64Array(n * SUBSTEPS);
+  const clearSub = new Float64Array(n * SUBSTEPS);
+  const clearSum = new Float64Array(n);
+  const na = plan.arrays.length;
+  const cosIncSub = plan.arrays.map(() => new Float64Array(n * SUBSTEPS));
+  const follow = plan.arrays.map((a) => a.aim === 'follow');
+  const cosTilt = plan.arrays.map((a) => Math.cos(a.tiltDeg * RAD));
+  const sinTilt = plan.arrays.map((a) => Math.sin(a.tiltDeg * RAD));
+  const drives = grid.timeline.drives;
+  // suncalc 2.x directly (see sun.ts sunPosition for its conventions), with one reused Date:
+  // thousands of sub-steps per trip make allocation show up in the timings.
+  const dark = plan.stops.map((st) => darkBelowDeg(st.lat));
+  const date = new Date(0);
+  for (let r = 0; r < n; r++) {
+    const s = grid.stop[r]!;
+    const stop = plan.stops[s]!;
+    const day = grid.localDay[r]!;
+    dayIndex[r] = dayPos.get(day) ?? 0;
+    const t0 = grid.startMs + r * HOUR_MS;
+    let df = 0;
+    for (const d of drives) {
+      const lo = Math.max(d.startMs, t0);
+      const hi = Math.min(d.endMs, t0 + HOUR_MS);
+      if (hi > lo) df += (hi - lo) / HOUR_MS;
+    }
+    driveFrac[r] = Math.min(1, df);
+    // ---- sun at the midpoint (reported) ----
+    date.setTime(t0 + HOUR_MS / 2);
+    const mid = getPosition(date, stop.lat, stop.lon);
+    sunAltitudeDeg[r] = mid.altitude;
+    if (na === 0 || mid.altitude < dark[s]!) continue;
+    lit[r] = 1;
+    e0[r] = extraterrestrial(dayOfYear(day));
+    // ---- sun and clear sky at each sub-step (forecast-engine.md steps 1–3), incidence (step 6) ----
+    let sum = 0;
+    for (let k = 0; k < SUBSTEPS; k++) {
+      const i = r * SUBSTEPS + k;
+      date.setTime(t0 + ((k + 0.5) * HOUR_MS) / SUBSTEPS);
+      const p = getPosition(date, stop.lat, stop.lon);
+      const cosZ = Math.sin(p.altitude * RAD);
+      cosZSub[i] = cosZ;
+      const clear = haurwitz(cosZ);
+      clearSub[i] = clear;
+      sum += clear;
+      if (!(cosZ > 0)) continue;
+      const sinZ = Math.sqrt(Math.max(0, 1 - cosZ * cosZ));
+      for (let a = 0; a < na; a++) {
+        // Step 6: a panel that follows the sun faces the sun's azimuth at every sub-step.
+        const cosDaz = follow[a] ? 1 : Math.cos((p.azimuth - plan.arrays[a]!.azimuthDeg) * RAD);
+        cosIncSub[a]![i] = cosIncidenceTrig(cosZ, sinZ, cosTilt[a]!, sinTilt[a]!, cosDaz);
+      }
+    }
+    clearSum[r] = sum;
+  }
+  return {
+    key: sunKey(plan),
+    grid,
+    n,
+    dayList,
+    dayIndex,
+    ownedDays,
+    firstRowOfStopDay,
+    firstRowOfStop,
+    driveFrac,
+    sunAltitudeDeg,
+    lit,
+    e0,
+    cosZSub,
+    clearSub,
+    clearSum,
+    cosIncSub,
+  };
+}
+
+/** Computes once, for a validated plan, everything the battery loop needs per hour. */
+export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
+  return prepareWithSun(prepareSun(plan), plan);
+}
+
+/**
+ * Stage one with the sun already prepared: the plan's weather, shade, loads, hookups and
+ * generator windows on top of `sun`. `plan` must have the places, dates, drives and array
+ * geometry `sun` was made from (same `sunKey`; anything else may differ, e.g. each past year's
+ * weather), otherwise it throws. Cheap next to `prepareSun`: no sun positions.
+ */
+export function prepareWithSun(sun: PreparedSun, plan: ResolvedPlan): PreparedTrip {
+  if (sunKey(plan) !== sun.key) throw new RangeError('prepareWithSun: the plan has other places, dates, drives or array geometry than the prepared sun');
+  const { grid, n, ownedDays, firstRowOfStopDay, firstRowOfStop, dayList, dayIndex, driveFrac, sunAltitudeDeg } = sun;
+  const warnings: RowWarning[] = [];
   const weather = plan.stops.map((stop, s) => {
     const owned = ownedDays[s]!;
     const w = resolveStopWeather(stop.weather, owned);
@@ -158,10 +298,8 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     perWattSub: new Float64Array(n * SUBSTEPS),
   }));
   const na = arrays.length;
-  const follow = plan.arrays.map((a) => a.aim === 'follow');
   const arrayShade = plan.arrays.map((a) => 1 - a.shadePct / 100);
   const cosTilt = plan.arrays.map((a) => Math.cos(a.tiltDeg * RAD));
-  const sinTilt = plan.arrays.map((a) => Math.sin(a.tiltDeg * RAD));
 
   const ambientC = new Float64Array(n);
   const cabinHeatedC = new Float64Array(n);
@@ -175,16 +313,13 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     inverterOverload: new Uint8Array(n),
   });
   const demand: [PreparedDemand, PreparedDemand] = [newDemand(), newDemand()];
-  const driveFrac = new Float64Array(n);
   const invEta = plan.inverter.efficiencyPct / 100;
-  const sunAltitudeDeg = new Float64Array(n);
   const poaWm2 = new Float64Array(n);
   const dcLoadW = new Float64Array(n);
   const acBankW = new Float64Array(n);
   const shore = new Uint8Array(n);
   const generatorAllowed = new Uint8Array(n);
   const generatorSite = new Uint8Array(n);
-  const dayIndex = new Uint16Array(n);
 
   // ---- loads: masks and constant parts once ----
   const masks = plan.loads.map((l) => windowMask(l.windows));
@@ -198,15 +333,6 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
   // Per-row accumulators for the two cabin states (offsets into `acc`).
   const acc = new Float64Array(2 * ACC);
   const pwm = plan.arrays.map((a) => a.controller === 'pwm');
-  const cosZSub = new Float64Array(SUBSTEPS);
-  const clearSub = new Float64Array(SUBSTEPS);
-  const azSub = new Float64Array(SUBSTEPS);
-  const drives = grid.timeline.drives;
-
-  // suncalc 2.x directly (see sun.ts sunPosition for its conventions), with one reused Date:
-  // thousands of sub-steps per trip make allocation show up in the timings.
-  const dark = plan.stops.map((st) => darkBelowDeg(st.lat));
-  const date = new Date(0);
   const poaSub = new Float64Array(na);
   for (let r = 0; r < n; r++) {
     const s = grid.stop[r]!;
@@ -214,7 +340,6 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     const day = grid.localDay[r]!;
     const hour = grid.localHour[r]!;
     const w = weather[s]!.byDay.get(day) as DayWeather;
-    dayIndex[r] = dayPos.get(day) ?? 0;
     // Revision 2: an hour's `tempC` from a source replaces the ASHRAE profile.
     const givenT = w.tempC ? w.tempC[hour] : NaN;
     const ta = givenT !== undefined && Number.isFinite(givenT) ? givenT : ambientForRow(hour, w.highC, w.lowC);
@@ -223,13 +348,6 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     // Minutes past the local clock hour, as a fraction (rows after a move to a zone with a different minute offset).
     const local = t0 + grid.offsetMin[r]! * 60_000;
     const minuteFrac = (((local % HOUR_MS) + HOUR_MS) % HOUR_MS) / HOUR_MS;
-    let df = 0;
-    for (const d of drives) {
-      const lo = Math.max(d.startMs, t0);
-      const hi = Math.min(d.endMs, t0 + HOUR_MS);
-      if (hi > lo) df += (hi - lo) / HOUR_MS;
-    }
-    driveFrac[r] = Math.min(1, df);
 
     const driving = grid.driving[r] === 1;
     const hookup = stop.hookup === 'shore';
@@ -318,43 +436,29 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
     dcLoadW[r] = demand[1].dcW[r]!;
     acBankW[r] = inverterDcWatts(demand[1].acW[r]!, plan.inverter);
 
-    // ---- sun at the midpoint (reported) ----
-    date.setTime(t0 + HOUR_MS / 2);
-    const mid = getPosition(date, stop.lat, stop.lon);
-    sunAltitudeDeg[r] = mid.altitude;
-    if (na === 0 || mid.altitude < dark[s]!) continue;
+    if (na === 0 || sun.lit[r] !== 1) continue;
 
-    // ---- irradiance at each sub-step (forecast-engine.md steps 1–8) ----
-    const e0 = extraterrestrial(dayOfYear(day));
+    // ---- irradiance at each sub-step (forecast-engine.md steps 1–8; the sun from `sun`) ----
+    const e0 = sun.e0[r]!;
     const cloud = kastenCzeplak(w.cloudOktas);
     const shadeStop = 1 - stop.shadePct / 100;
     let poaFirstSum = 0;
-    let clearSum = 0;
-    for (let k = 0; k < SUBSTEPS; k++) {
-      date.setTime(t0 + ((k + 0.5) * HOUR_MS) / SUBSTEPS);
-      const p = getPosition(date, stop.lat, stop.lon);
-      cosZSub[k] = Math.sin(p.altitude * RAD);
-      azSub[k] = p.azimuth;
-      clearSub[k] = haurwitz(cosZSub[k]!);
-      clearSum += clearSub[k]!;
-    }
+    const clearSum = sun.clearSum[r]!;
     // Revision 2: an hour's GHI from a source replaces clear sky × clouds, spread over the
     // sub-steps with the hour's clear-sky shape (dropped where that shape is zero).
     const givenGhi = w.ghiWm2 ? w.ghiWm2[hour] : NaN;
     const useGiven = givenGhi !== undefined && Number.isFinite(givenGhi);
     const ghiScale = useGiven ? (clearSum > 0 ? (givenGhi * SUBSTEPS) / clearSum : 0) : cloud;
     for (let k = 0; k < SUBSTEPS; k++) {
-      const cosZ = cosZSub[k]!;
+      const i = r * SUBSTEPS + k;
+      const cosZ = sun.cosZSub[i]!;
       if (!(cosZ > 0)) continue;
-      const p = { azimuth: azSub[k]! };
       // Steps 3–5: clear sky, clouds (or the given GHI), beam/diffuse split.
-      const sky = splitErbs(clearSub[k]! * ghiScale, cosZ, e0);
-      const sinZ = Math.sqrt(Math.max(0, 1 - cosZ * cosZ));
+      const sky = splitErbs(sun.clearSub[i]! * ghiScale, cosZ, e0);
       for (let a = 0; a < na; a++) {
         const spec = plan.arrays[a]!;
-        // Step 6: a panel that follows the sun faces the sun's azimuth at every sub-step.
-        const cosDaz = follow[a] ? 1 : Math.cos((p.azimuth - spec.azimuthDeg) * RAD);
-        const cosT = cosIncidenceTrig(cosZ, sinZ, cosTilt[a]!, sinTilt[a]!, cosDaz);
+        // Step 6 (the angle of incidence) is in `sun`.
+        const cosT = sun.cosIncSub[a]![i]!;
         // Step 7: shade scales the plane-of-array irradiance before the cell temperature.
         const poa = poaIsotropicCos(sky.dni, sky.dhi, sky.ghi, cosT, cosTilt[a]!) * shadeStop * arrayShade[a]!;
         poaSub[a] = poa;
@@ -362,7 +466,7 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
         // PWM (Revision 2): the panel's current follows POA with no temperature coefficient.
         const pw = pwm[a] ? Math.max(0, (poa / 1000) * (1 - spec.lossesPct / 100)) : dcPerWatt(poa, cellTempNoct(ta, poa, spec.nocC), spec.tempCoeffPctPerC, spec.lossesPct);
         const arr = arrays[a]!;
-        arr.perWattSub[r * SUBSTEPS + k] = pw;
+        arr.perWattSub[i] = pw;
         arr.perWatt[r] = arr.perWatt[r]! + pw / SUBSTEPS;
         if (pw > arr.perWattMax[r]!) arr.perWattMax[r] = pw;
       }
