@@ -5,6 +5,42 @@ import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
 import { build as esbuild } from 'esbuild';
 import { fileURLToPath } from 'node:url';
+import { readdir, readFile, writeFile } from 'node:fs/promises';
+import path from 'node:path';
+import { brotliCompressSync, gzipSync, constants as zlib } from 'node:zlib';
+
+/**
+ * Static text files of the client build (scripts, styles, SVG, the manifest) get .br and .gz
+ * siblings at their best levels, written once here; server.mjs sends them as they are.
+ * Fonts (woff/woff2) and PNGs are packed already.
+ */
+function precompress() {
+  /** @type {URL | undefined} */
+  let clientDir;
+  /** @type {import('astro').AstroIntegration} */
+  const integration = {
+    name: 'sunreckon-precompress',
+    hooks: {
+      'astro:config:done': ({ config }) => {
+        clientDir = config.build.client;
+      },
+      'astro:build:done': async () => {
+        if (!clientDir) return;
+        const root = fileURLToPath(clientDir);
+        const entries = await readdir(root, { recursive: true, withFileTypes: true });
+        for (const e of entries) {
+          if (!e.isFile() || !/\.(js|mjs|css|svg|webmanifest|json|txt|html)$/.test(e.name)) continue;
+          const full = path.join(e.parentPath, e.name);
+          const body = await readFile(full);
+          if (body.length < 1024) continue;
+          await writeFile(`${full}.br`, brotliCompressSync(body, { params: { [zlib.BROTLI_PARAM_QUALITY]: 11, [zlib.BROTLI_PARAM_SIZE_HINT]: body.length } }));
+          await writeFile(`${full}.gz`, gzipSync(body, { level: 9 }));
+        }
+      },
+    },
+  };
+  return integration;
+}
 
 /**
  * The worker pool's tasks (src/server/workers/tasks.ts) bundled into one file of the build,
@@ -41,8 +77,10 @@ function workerTasks() {
 
 export default defineConfig({
   output: 'server',
-  adapter: node({ mode: 'standalone' }),
-  integrations: [react(), workerTasks()],
+  // Middleware mode: server.mjs answers static files itself (precompressed, from memory) and hands
+  // everything else to Astro's handler, which then skips the adapter's per-request file lookup.
+  adapter: node({ mode: 'middleware' }),
+  integrations: [react(), workerTasks(), precompress()],
   // Cross-site form posts are refused; API routes also check Origin through better-auth.
   // Hosts whose Host header Astro trusts to build request URLs (the origin check compares against them).
   // Loopback always; a deployment adds its public host names at build time in SUNRECKON_ALLOWED_HOSTS.

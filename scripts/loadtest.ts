@@ -4,12 +4,17 @@ import os from 'node:os';
 import { DEMO_ACCOUNTS } from './seed';
 import { demoPlan } from '../src/engine';
 import { describeHeavy, heavyRun } from './loadtest-heavy';
+import { throughputRun } from './loadtest-throughput';
 
 /**
  * `npm run loadtest`: builds the server (into SUNRECKON_DIST, default .dist-loadtest; set
  * SUNRECKON_PREBUILT=1 to reuse a build there), seeds a throw-away database with the demo crew and
- * drives the server from this process with autocannon over loopback. Three runs, each bounded in
- * time (LOADTEST_SECONDS, default 10) and connections:
+ * drives the server from this process with autocannon over loopback. The server runs on every core
+ * (WEB_CONCURRENCY, default the core count). Runs, each bounded in time (LOADTEST_SECONDS, default
+ * 10) and connections:
+ *   0. the throughput table (loadtest-throughput.ts): a bare Node server, health, landing, preview of
+ *      a 30-day 40-load trip, the saved forecast page, with ratios and RSS per server process
+ *      (LOADTEST_ONLY=throughput stops after it),
  *   1. anonymous preview forecasts of the demo trip (rate limit off for the run),
  *   2. the signed-in forecast page of the demo trip,
  *   3. several editors of one crew reading and writing one rig's loads (PATCH with versions, add,
@@ -29,6 +34,8 @@ const BASE_LOADS = 10;
 // The same harness as the integration tests: build once, a throw-away migrated database, the
 // built server on a free loopback port (rate limits off), then the demo crew seeded into it.
 process.env.SUNRECKON_DIST ??= '.dist-loadtest';
+// The server on every core, as in production (server.mjs; the test harness alone defaults to one).
+process.env.WEB_CONCURRENCY ??= String(os.availableParallelism());
 const { startDemoServer } = await import('../tests/helpers/server');
 const { server, shutdown } = await startDemoServer();
 const { url, dbPath } = server;
@@ -60,6 +67,14 @@ try {
   if (!forecastPage) throw new Error('The seed has no saved forecast to load.');
   const page = await fetch(`${url}${forecastPage}`, { headers: { cookie: camper }, redirect: 'manual' });
   if (page.status !== 200) throw new Error(`The forecast page answered ${page.status} when signed in.`);
+
+  // 0. Throughput side by side (issue 21): bare server, health, landing, preview, saved forecast page.
+  const tp = await throughputRun({ url, serverPid: server.child.pid!, forecastPage, camperCookie: camper, seconds: SECONDS });
+  for (const line of tp.lines) console.log(line);
+  if (!tp.ok) failed = true;
+  if (process.env.LOADTEST_ONLY === 'throughput') {
+    await shutdown(failed ? 1 : 0);
+  }
 
   // Editors of the demo crew, sharing one rig of loads.
   const crews = await must<{ id: string; role: string }[]>(await fetch(`${url}/api/crews`, { headers: { cookie: camper } }), 200, 'crews');

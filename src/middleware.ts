@@ -22,12 +22,21 @@ const noNul = defineMiddleware(async (ctx, next) => {
   return ctx.redirect(pathname + search.replace(/%00/gi, ''), 302);
 });
 
+/**
+ * Routes that never read the session: health, the anonymous preview, place search, time zones and
+ * static files (a path with an extension). They skip the lookup (a cookie parse, a signature check
+ * and a database read per request); their handlers see `locals.user === null`.
+ */
+const NO_SESSION_API = new Set(['/api/health', '/api/forecasts/preview', '/api/places', '/api/timezone']);
+function skipsSession(path: string): boolean {
+  return path.startsWith('/_astro/') || path.startsWith('/api/auth/') || NO_SESSION_API.has(path) || (!path.startsWith('/api/') && /\.[a-z0-9]+$/i.test(path));
+}
+
 /** Resolves the session once per request and puts it on Astro.locals. */
 const session = defineMiddleware(async (ctx, next) => {
   ctx.locals.user = null;
   ctx.locals.session = null;
-  const path = ctx.url.pathname;
-  if (path.startsWith('/_astro/') || path.startsWith('/api/auth/')) return next();
+  if (skipsSession(ctx.url.pathname)) return next();
   try {
     const s = await auth.api.getSession({ headers: ctx.request.headers });
     if (s) {
@@ -77,26 +86,47 @@ const sameOrigin = defineMiddleware(async (ctx, next) => {
 const INLINE_SCRIPT = /<script\b(?![^>]*\bsrc\s*=)[^>]*>([\s\S]*?)<\/script>/gi;
 
 /** The CSP with script-src limited to our files and the SHA-256 of each inline script on the page. */
-function policy(scriptHashes: string[]): string {
-  const scripts = ["'self'", ...scriptHashes.map((h) => `'sha256-${h}'`)].join(' ');
+function policy(scriptHashes: Iterable<string>): string {
+  const scripts = ["'self'", ...[...scriptHashes].map((h) => `'sha256-${h}'`)].join(' ');
   // Styles keep 'unsafe-inline': React islands and the chart set style attributes (see DEVELOPERS.md).
   return `default-src 'self'; img-src 'self' data:; font-src 'self'; style-src 'self' 'unsafe-inline'; script-src ${scripts}; connect-src 'self'; frame-ancestors 'none'; base-uri 'self'; form-action 'self'; object-src 'none'`;
 }
 
 /**
- * Security headers on every response. HTML pages are read once so that each inline script Astro
- * writes (the island loader and hydration directives) is allowed by its hash, and no other.
+ * Inline scripts are part of the build (Astro's island loader, its hydration directives, our own
+ * small scripts): the same few texts on every render. Each page (route pattern, signed in or not) is
+ * read in full for its first LEARN_RENDERS renders; every hash found joins one set for the build.
+ * After that its answers stream through untouched with the CSP naming every hash of the build —
+ * all of them our own scripts — instead of buffering and scanning each HTML body.
  */
-const headers = defineMiddleware(async (_ctx, next) => {
+const LEARN_RENDERS = 3;
+const buildHashes = new Set<string>();
+const learned = new Map<string, number>();
+let buildPolicy = policy(buildHashes);
+
+function learnScripts(html: string): void {
+  const before = buildHashes.size;
+  for (const m of html.matchAll(INLINE_SCRIPT)) buildHashes.add(createHash('sha256').update(m[1]!, 'utf8').digest('base64'));
+  if (buildHashes.size !== before) buildPolicy = policy(buildHashes);
+}
+
+/** Security headers on every response; HTML pages get the CSP described above. */
+const headers = defineMiddleware(async (ctx, next) => {
   let res = await next();
   if (!res.headers.has('Content-Security-Policy') && /^text\/html\b/i.test(res.headers.get('content-type') ?? '') && res.body) {
-    const html = await res.text();
-    const hashes = new Set<string>();
-    for (const m of html.matchAll(INLINE_SCRIPT)) hashes.add(createHash('sha256').update(m[1]!, 'utf8').digest('base64'));
-    const h = new Headers(res.headers);
-    h.delete('content-length');
-    h.set('Content-Security-Policy', policy([...hashes]));
-    res = new Response(html, { status: res.status, statusText: res.statusText, headers: h });
+    const key = `${ctx.routePattern}|${ctx.locals.user ? 'in' : 'out'}`;
+    const seen = learned.get(key) ?? 0;
+    if (seen < LEARN_RENDERS) {
+      learned.set(key, seen + 1);
+      const html = await res.text();
+      learnScripts(html);
+      const h = new Headers(res.headers);
+      h.delete('content-length');
+      h.set('Content-Security-Policy', buildPolicy);
+      res = new Response(html, { status: res.status, statusText: res.statusText, headers: h });
+    } else {
+      res.headers.set('Content-Security-Policy', buildPolicy);
+    }
   }
   const h = res.headers;
   h.set('X-Content-Type-Options', 'nosniff');
@@ -106,4 +136,35 @@ const headers = defineMiddleware(async (_ctx, next) => {
   return res;
 });
 
-export const onRequest = sequence(headers, noNul, sameOrigin, session, guard);
+/**
+ * The landing page is the same for every anonymous visitor (its demo forecast is computed from the
+ * invented demo plan and today's date): its HTML is kept for LANDING_TTL_MS and for today only.
+ * A request carrying a session cookie never reads nor fills it, and only an answer rendered with
+ * no user is kept, so a signed-in page never reaches an anonymous visitor nor the other way round.
+ */
+const LANDING_TTL_MS = 60_000;
+let landing: { body: string; headers: [string, string][]; until: number; day: string } | null = null;
+const SESSION_COOKIE = /(?:^|;\s*)(?:__Secure-)?better-auth\.session_(?:token|data)=/;
+
+function hasSessionCookie(cookie: string | null): boolean {
+  return cookie !== null && SESSION_COOKIE.test(cookie);
+}
+
+const landingCache = defineMiddleware(async (ctx, next) => {
+  if (ctx.url.pathname !== '/' || ctx.url.search !== '' || (ctx.request.method !== 'GET' && ctx.request.method !== 'HEAD') || hasSessionCookie(ctx.request.headers.get('cookie'))) {
+    return next();
+  }
+  const now = Date.now();
+  const day = new Date(now).toISOString().slice(0, 10);
+  if (landing && landing.until > now && landing.day === day) {
+    return new Response(ctx.request.method === 'HEAD' ? null : landing.body, { status: 200, headers: [...landing.headers, ['X-Sunreckon-Cache', 'hit']] });
+  }
+  const res = await next();
+  if (res.status !== 200 || ctx.locals.user || !/^text\/html\b/i.test(res.headers.get('content-type') ?? '') || res.headers.has('set-cookie')) return res;
+  const body = await res.text();
+  const headers = [...res.headers].filter(([k]) => k !== 'content-length');
+  landing = { body, headers, until: now + LANDING_TTL_MS, day };
+  return new Response(ctx.request.method === 'HEAD' ? null : body, { status: 200, headers });
+});
+
+export const onRequest = sequence(landingCache, headers, noNul, sameOrigin, session, guard);

@@ -1,9 +1,10 @@
 import type { Kysely } from 'kysely';
 import type { DB, RigRow, TripRow } from '../../db/schema';
-import { forecast as runEngine, validatePlan, type Forecast, type HourlyRow, type Plan, type ResolvedPlan } from '../engine';
+import { validatePlan, type Forecast, type HourlyRow, type Plan, type ResolvedPlan } from '../engine';
 import type { LoadDto } from '../domain/loads/loads.schema';
 import type { RigDto } from '../domain/rigs/rigs.schema';
 import type { TripDto } from '../domain/trips/trips.schema';
+import { cachedForecast } from './sun-cache';
 import { tripAccess, type Actor, type Need } from './access';
 import { HttpError } from './errors';
 import { listLoads } from './loads';
@@ -95,7 +96,8 @@ export async function createForecast(
     throw new HttpError('invalid_plan', `This trip cannot be forecast yet: ${checked.envelope.error.message}`, checked.envelope.issues);
   }
   const plan = checked.plan;
-  const result = runEngine(plan);
+  // A re-run of the trip with other loads or bank reuses its sun (sun-cache.ts).
+  const result = cachedForecast(plan);
   const id = crypto.randomUUID();
   const createdAt = new Date().toISOString();
   const name = input.name?.trim() || `Forecast of ${formatStamp(createdAt)}`;

@@ -137,4 +137,6 @@ export async function outboxSummary(db: Kysely<DB>, limit = 50): Promise<OutboxR
 
 // Only inside the built or dev server (Astro sets import.meta.env.SSR): scripts that import the
 // auth module — seed, migrate — must not start sending mail from the database they touch.
-if (import.meta.env?.SSR) startOutboxWorker();
+// With several worker processes (server.mjs) only the one with SUNRECKON_BACKGROUND=1 keeps the timer;
+// any worker may still kick a pass for what it queued (each mail is claimed once, see claim()).
+if (import.meta.env?.SSR && process.env.SUNRECKON_BACKGROUND !== '0') startOutboxWorker();

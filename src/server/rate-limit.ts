@@ -1,17 +1,21 @@
-import { RateLimiterMemory, RateLimiterPostgres, RateLimiterRes, type RateLimiterAbstract } from 'rate-limiter-flexible';
+import cluster from 'node:cluster';
+import { RateLimiterCluster, RateLimiterMemory, RateLimiterPostgres, RateLimiterRes, type RateLimiterAbstract } from 'rate-limiter-flexible';
 import type { APIContext } from 'astro';
 import { database } from './db';
 import { env } from './env';
 import { HttpError } from './errors';
 
 /**
- * A limiter counting in this process's memory (one instance on SQLite), or in the shared
+ * A limiter counting in this process's memory (one instance on SQLite; with several worker
+ * processes, in the primary's memory through cluster messages), or in the shared
  * PostgreSQL table `rate_limits` (migration 0018) so that several instances count together.
  */
 function makeLimiter(opts: { points: number; duration: number; keyPrefix: string }): RateLimiterAbstract {
   if (database.pool) {
     return new RateLimiterPostgres({ ...opts, storeClient: database.pool, storeType: 'pool', tableName: 'rate_limits', tableCreated: true, clearExpiredByTimeout: true });
   }
+  // Several worker processes (server.mjs, WEB_CONCURRENCY > 1): counted in the primary's memory for all.
+  if (cluster.isWorker) return new RateLimiterCluster({ ...opts, timeoutMs: 2000 });
   return new RateLimiterMemory(opts);
 }
 

@@ -1,0 +1,135 @@
+import autocannon from 'autocannon';
+import { spawn } from 'node:child_process';
+import { readdirSync, readFileSync } from 'node:fs';
+import { benchPlan } from './bench-plan';
+
+/**
+ * The throughput table of `npm run loadtest` (issue 21): in one run, side by side, a bare Node
+ * `http` server answering "ok" (the ceiling of this machine's loopback), /api/health, the landing
+ * page (anonymous), the anonymous preview of a 30-day, 40-load trip, and the signed-in saved
+ * forecast page, each for `seconds` at 20 connections. Prints req/s, p50/p99, the ratio to the bare
+ * server and the peak RSS of every server process (primary and workers) against the targets.
+ */
+
+export const THROUGHPUT_CONNECTIONS = 20;
+
+const TARGETS = {
+  healthOfBare: 0.25,
+  landingRps: 2000,
+  previewRps: 600,
+  previewP99: 100,
+  forecastPageRps: 300,
+  rssMb: 300,
+};
+
+function rssMb(pid: number): number {
+  try {
+    const m = /VmRSS:\s+(\d+) kB/.exec(readFileSync(`/proc/${pid}/status`, 'utf8'));
+    return m ? Number(m[1]) / 1024 : 0;
+  } catch {
+    return 0;
+  }
+}
+
+/** The process and its children (cluster workers), from /proc. */
+function processTree(root: number): number[] {
+  const parents = new Map<number, number>();
+  for (const d of readdirSync('/proc')) {
+    if (!/^\d+$/.test(d)) continue;
+    try {
+      const stat = readFileSync(`/proc/${d}/stat`, 'utf8');
+      const ppid = Number(stat.slice(stat.lastIndexOf(')') + 2).split(' ')[1]);
+      parents.set(Number(d), ppid);
+    } catch {
+      // gone meanwhile
+    }
+  }
+  const out = [root];
+  for (let i = 0; i < out.length; i++) for (const [pid, ppid] of parents) if (ppid === out[i]) out.push(pid);
+  return out;
+}
+
+async function bareServer(): Promise<{ url: string; stop: () => void }> {
+  const child = spawn(
+    process.execPath,
+    [
+      '-e',
+      "const s=require('http').createServer((q,r)=>{r.writeHead(200,{'content-type':'text/plain'});r.end('ok')});s.listen(0,'127.0.0.1',()=>console.log(s.address().port))",
+    ],
+    { stdio: ['ignore', 'pipe', 'inherit'] },
+  );
+  const port = await new Promise<string>((resolve) => child.stdout!.once('data', (d) => resolve(String(d).trim())));
+  return { url: `http://127.0.0.1:${port}`, stop: () => child.kill('SIGTERM') };
+}
+
+type Row = { name: string; rps: number; p50: number; p99: number; non2xx: number; errors: number };
+
+export async function throughputRun(p: {
+  url: string;
+  serverPid: number;
+  forecastPage: string;
+  camperCookie: string;
+  seconds: number;
+}): Promise<{ lines: string[]; ok: boolean }> {
+  const { url, seconds } = p;
+  const pids = processTree(p.serverPid);
+  const peak = new Map<number, number>(pids.map((pid) => [pid, rssMb(pid)]));
+  const sampler = setInterval(() => {
+    for (const pid of pids) peak.set(pid, Math.max(peak.get(pid) ?? 0, rssMb(pid)));
+  }, 200);
+  const rows: Row[] = [];
+  const run = async (name: string, opts: autocannon.Options) => {
+    const r = await autocannon({ connections: THROUGHPUT_CONNECTIONS, duration: seconds, timeout: 20, ...opts });
+    const row = { name, rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, non2xx: r.non2xx, errors: r.errors + r.timeouts };
+    rows.push(row);
+    return row;
+  };
+  const bare = await bareServer();
+  try {
+    await run('bare Node http server ("ok")', { url: bare.url });
+  } finally {
+    bare.stop();
+  }
+  const health = await run('GET /api/health', { url: `${url}/api/health` });
+  const landing = await run('GET / (landing, anonymous)', { url: `${url}/` });
+  const plan = JSON.stringify(benchPlan(30));
+  const preview = await run('POST /api/forecasts/preview (30 days, 40 loads)', {
+    url: `${url}/api/forecasts/preview`,
+    method: 'POST',
+    headers: { 'content-type': 'application/json', origin: url },
+    body: plan,
+  });
+  const page = await run('GET saved forecast page (signed in)', { url: `${url}${p.forecastPage}`, headers: { cookie: p.camperCookie } });
+  clearInterval(sampler);
+
+  const bareRps = rows[0]!.rps;
+  const lines = [
+    `\nThroughput, ${THROUGHPUT_CONNECTIONS} connections, ${seconds} s each, server processes: ${pids.length} (${pids.length > 1 ? `primary + ${pids.length - 1} workers` : 'one'})`,
+    '| run | req/s | of bare | p50 ms | p99 ms | non-2xx | errors |',
+    '|---|---:|---:|---:|---:|---:|---:|',
+    ...rows.map(
+      (r) =>
+        `| ${r.name} | ${r.rps.toFixed(0)} | ${((r.rps / bareRps) * 100).toFixed(1)} % | ${r.p50} | ${r.p99} | ${r.non2xx} | ${r.errors} |`,
+    ),
+    `Peak RSS per server process (MB): ${[...peak].map(([pid, mb]) => `${pid === p.serverPid ? 'primary/main' : pid} ${mb.toFixed(0)}`).join(', ')}`,
+  ];
+  const maxRss = Math.max(...peak.values());
+  const checks: [string, boolean][] = [
+    [
+      `health ≥ ${TARGETS.healthOfBare * 100} % of bare (${((health.rps / bareRps) * 100).toFixed(1)} %)`,
+      health.rps >= TARGETS.healthOfBare * bareRps,
+    ],
+    [`landing ≥ ${TARGETS.landingRps} req/s (${landing.rps.toFixed(0)})`, landing.rps >= TARGETS.landingRps],
+    [
+      `preview ≥ ${TARGETS.previewRps} req/s (${preview.rps.toFixed(0)}) with p99 ≤ ${TARGETS.previewP99} ms (${preview.p99})`,
+      preview.rps >= TARGETS.previewRps && preview.p99 <= TARGETS.previewP99,
+    ],
+    [`saved forecast page ≥ ${TARGETS.forecastPageRps} req/s (${page.rps.toFixed(0)})`, page.rps >= TARGETS.forecastPageRps],
+    [`RSS ≤ ${TARGETS.rssMb} MB per process (max ${maxRss.toFixed(0)})`, maxRss <= TARGETS.rssMb],
+  ];
+  for (const [what, met] of checks) lines.push(`  ${met ? 'met    ' : 'MISSED '} ${what}`);
+  const broken = rows.filter((r) => r.non2xx > 0 || r.errors > 0);
+  if (broken.length) lines.push(`  Runs with non-2xx answers or errors: ${broken.map((r) => r.name).join('; ')}`);
+  // Speed targets are reported, not enforced (the machine is shared); wrong answers fail the run.
+  return { lines, ok: broken.length === 0 };
+}

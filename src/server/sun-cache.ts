@@ -1,0 +1,89 @@
+import { LRUCache } from 'lru-cache';
+import {
+  prepareSun,
+  prepareWithSun,
+  simulatePrepared,
+  sunKey,
+  toForecast,
+  validatePlan,
+  type Forecast,
+  type PreparedSun,
+  type ResolvedPlan,
+  type RunResult,
+} from '../engine';
+
+/**
+ * The prepared sun of recent trips (sun positions, clear-sky irradiance, angles on each array), kept
+ * in this process's memory and keyed by the engine's `sunKey`: places, time zones, dates, arrival
+ * hours, drives and the arrays' geometry. A preview or re-run of the same trip with other loads,
+ * bank, chargers or weather reuses it and skips the CPU-heavy part of a forecast.
+ * Least recently used trips leave first; the cache holds at most SUN_CACHE_MB (default 64) of arrays.
+ */
+const MAX_BYTES = Math.max(1, Number(process.env.SUN_CACHE_MB ?? 64)) * 1024 * 1024;
+
+/** Roughly what a prepared sun takes in memory: its typed arrays, strings and small collections. */
+export function sizeOfSun(sun: PreparedSun): number {
+  let bytes = 0;
+  const seen = new Set<unknown>();
+  const walk = (v: unknown): void => {
+    if (v === null || typeof v !== 'object') {
+      bytes += typeof v === 'string' ? 40 + v.length * 2 : 8;
+      return;
+    }
+    if (seen.has(v)) return;
+    seen.add(v);
+    if (ArrayBuffer.isView(v)) {
+      bytes += v.byteLength + 64;
+      return;
+    }
+    if (v instanceof Map) {
+      bytes += 64;
+      for (const [k, x] of v) {
+        bytes += 32;
+        walk(k);
+        walk(x);
+      }
+      return;
+    }
+    bytes += 32;
+    for (const x of Array.isArray(v) ? v : Object.values(v)) walk(x);
+  };
+  walk(sun);
+  return Math.max(1, bytes);
+}
+
+const suns = new LRUCache<string, PreparedSun>({ maxSize: MAX_BYTES, sizeCalculation: sizeOfSun });
+const counts = { hits: 0, misses: 0 };
+
+/** The prepared sun of a validated plan, from the cache when a plan of the same trip made it. */
+export function sunOf(plan: ResolvedPlan): PreparedSun {
+  const key = sunKey(plan);
+  const cached = suns.get(key);
+  if (cached) {
+    counts.hits += 1;
+    return cached;
+  }
+  counts.misses += 1;
+  const sun = prepareSun(plan);
+  // A trip larger than the whole cache is computed but not kept.
+  if (sizeOfSun(sun) <= MAX_BYTES) suns.set(key, sun);
+  return sun;
+}
+
+/** `forecast(plan)` with the sun from the cache; the same figures as the engine's own. */
+export function cachedForecast(plan: ResolvedPlan): Forecast {
+  const prepared = prepareWithSun(sunOf(plan), plan);
+  return toForecast(prepared, simulatePrepared(prepared));
+}
+
+/** `runForecast(input)` with the sun from the cache: validates an untrusted plan and forecasts it. */
+export function runCachedForecast(input: unknown): RunResult {
+  const v = validatePlan(input);
+  if (!v.ok) return v;
+  return { ok: true, forecast: cachedForecast(v.plan) };
+}
+
+/** What the cache holds, for tests and the load test's notes. */
+export function sunCacheStats(): { entries: number; bytes: number; maxBytes: number; hits: number; misses: number } {
+  return { entries: suns.size, bytes: suns.calculatedSize, maxBytes: MAX_BYTES, ...counts };
+}
