@@ -5,7 +5,7 @@ import { makeLoad, makeRig } from '../helpers/crew';
 // A saved trip's forecast run (POST /api/trips/:id/forecasts) fills every untyped stop-day from
 // the local fake weather service: the median past year for a far trip (and the ten years as a
 // band), the forecast for a near one (and skies two steps either way as a band). Typed days win,
-// and a failed service leaves the run working on typed and assumed days with a message.
+// and a failed service leaves the run working on typed days (copied to the untyped ones) with a message.
 
 const fakeUrl = () => inject('weatherUrl');
 const DAY = 86_400_000;
@@ -17,6 +17,7 @@ interface Saved {
   forecast: {
     hourly: { time: string; socPct: number; usablePct: number }[];
     summary: { firstCutoffAt: string | null; minSocPct: number };
+    warnings: { code: string; message: string }[];
     weatherSources?: { kind: string; status: string; message: string | null; medianYear: number | null; stops: { name: string; days: { date: string; source: string }[] }[] };
     band?: { kind: string; runs: { label: string; year: number | null; ok: boolean; minSocPct: number; firstCutoffAt: string | null }[]; lowPct: number[]; highPct: number[]; madeIt: number; total: number; worst: string; sentence: string } | null;
   };
@@ -103,7 +104,7 @@ describe('a far trip with no typed weather', () => {
 });
 
 describe('typed days and a failed service', () => {
-  it('keeps typed days as typed, and runs on typed and assumed days with a message when the service is down', async () => {
+  it('keeps typed days as typed, and runs on typed days copied to the untyped ones with a message when the service is down', async () => {
     const d0 = isoDay(70);
     const typed = { date: d0, cloudOktas: 7, highC: 11, lowC: 2 };
     const t = await tripOf([stopAt(d0, 2, { weather: [typed] })]);
@@ -111,8 +112,13 @@ describe('typed days and a failed service', () => {
     const saved = await run(t.id);
     const src = saved.forecast.weatherSources!;
     expect(src.status).toBe('unreachable');
-    expect(src.message).toMatch(/^Weather service unreachable — using your typed skies and typical skies/);
-    expect(src.stops[0]!.days.map((d) => d.source)).toEqual(['typed', 'assumed', 'assumed']);
+    expect(src.message).toMatch(/^Weather service unreachable — using your typed skies and each stop's nearest day with weather/);
+    // What the engine really used: the typed day, copied to the two untyped ones.
+    expect(src.stops[0]!.days).toEqual([
+      { date: d0, source: 'typed' },
+      { date: isoDay(71), source: 'copied', from: d0, fromSource: 'typed' },
+      { date: isoDay(72), source: 'copied', from: d0, fromSource: 'typed' },
+    ]);
     expect(saved.forecast.band ?? null).toBeNull();
     const w = saved.plan.stops[0]!.weather;
     expect(w).toHaveLength(1);
@@ -120,8 +126,9 @@ describe('typed days and a failed service', () => {
     // The trip itself still holds exactly what was typed.
     const trip = (await (await api(`/api/trips/${t.id}`, { session: owner })).json()) as { stops: { weather: unknown[] }[] };
     expect(trip.stops[0]!.weather).toEqual([typed]);
-    // And the verdict may not be a plain "makes it": two days are assumed.
-    expect(src.stops[0]!.days.filter((d) => d.source === 'assumed')).toHaveLength(2);
+    // No day is assumed: the engine reports none either.
+    expect(src.stops[0]!.days.filter((d) => d.source === 'assumed')).toHaveLength(0);
+    expect(saved.forecast.warnings.filter((w) => w.code === 'weather-assumed')).toHaveLength(0);
   });
 
   it('fills around typed days when the service answers, never over them', async () => {

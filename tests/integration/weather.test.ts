@@ -167,22 +167,28 @@ describe('when the service fails', () => {
     ['answers 500', 'fail', 500, /could not be reached/],
     ['answers 503 (the SDK reads its body as FlatBuffers: garbage)', 'fail', 503, /not weather/],
     ['answers garbage', 'garbage', undefined, /not weather/],
-  ] as const)('%s: a clear message, typed skies kept, the rest assumed, the trip unchanged', async (_, m, status, why) => {
-    const typed = { date: isoDay(2), cloudOktas: 5, highC: 8, lowC: 1 };
-    const t = await trip([stopAt(isoDay(2), 1, { weather: [typed] })]);
-    await mode(m, status);
-    const f = await fill(t.id);
-    expect(f.status).toBe('unreachable');
-    expect(f.message).toMatch(/^Weather service unreachable — using your typed skies and typical skies/);
-    expect(f.message).toMatch(why);
-    expect(f.stops[0]!.days).toEqual([
-      { date: isoDay(2), source: 'typed' },
-      { date: isoDay(3), source: 'assumed' },
-    ]);
-    expect(f.stops[0]!.weather).toEqual([{ ...typed, hourly: [], source: 'typed' }]);
-    const stored = (await (await api(`/api/trips/${t.id}`, { session: owner })).json()) as { stops: { weather: unknown[] }[] };
-    expect(stored.stops[0]!.weather).toEqual([typed]);
-  });
+  ] as const)(
+    '%s: a clear message, typed skies kept, the other day copied from the typed one, the trip unchanged',
+    async (_, m, status, why) => {
+      const typed = { date: isoDay(2), cloudOktas: 5, highC: 8, lowC: 1 };
+      const t = await trip([stopAt(isoDay(2), 1, { weather: [typed] })]);
+      await mode(m, status);
+      const f = await fill(t.id);
+      expect(f.status).toBe('unreachable');
+      expect(f.message).toMatch(
+        /^Weather service unreachable — using your typed skies and each stop's nearest day with weather for its days without any\./,
+      );
+      expect(f.message).toMatch(why);
+      // The engine uses the typed day for the untyped one: the badge says so, not "assumed".
+      expect(f.stops[0]!.days).toEqual([
+        { date: isoDay(2), source: 'typed' },
+        { date: isoDay(3), source: 'copied', from: isoDay(2), fromSource: 'typed' },
+      ]);
+      expect(f.stops[0]!.weather).toEqual([{ ...typed, hourly: [], source: 'typed' }]);
+      const stored = (await (await api(`/api/trips/${t.id}`, { session: owner })).json()) as { stops: { weather: unknown[] }[] };
+      expect(stored.stops[0]!.weather).toEqual([typed]);
+    },
+  );
 
   it('says "typical skies" alone when nothing was typed, and retries a failing request at most twice', async () => {
     const t = await trip([stopAt(isoDay(2), 1)]);

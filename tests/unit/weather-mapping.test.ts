@@ -228,7 +228,7 @@ describe('the median year and the merge', () => {
     expect(medianYear([])).toBeNull();
   });
 
-  it('typed days always win over fetched ones; uncovered days are assumed', () => {
+  it('typed days always win over fetched ones; an uncovered day is copied from the nearest covered one', () => {
     const s = stop({ arrive: '2027-03-10', nights: 3, weather: [{ date: '2027-03-11', cloudOktas: 7, highC: 3, lowC: -2 }] });
     const fetched = (date: string, source: 'forecast' | 'past-year'): WeatherEntry => ({
       date,
@@ -251,6 +251,8 @@ describe('the median year and the merge', () => {
       ['2027-03-12', 'past-year'],
     ]);
     expect(fill.weather[1]).toEqual({ date: '2027-03-11', cloudOktas: 7, highC: 3, lowC: -2, hourly: [], source: 'typed' });
-    expect(fill.days.map((d) => d.source)).toEqual(['forecast', 'typed', 'past-year', 'assumed']);
+    expect(fill.days.map((d) => d.source)).toEqual(['forecast', 'typed', 'past-year', 'copied']);
+    // 13 March has nothing: the engine uses the nearest covered day, the 12th (a past year).
+    expect(fill.days[3]).toEqual({ date: '2027-03-13', source: 'copied', from: '2027-03-12', fromSource: 'past-year' });
   });
 });

@@ -62,7 +62,7 @@ export function verdict(forecast: Forecast, plan: ResolvedPlan, reserveSocPct?: 
   } else if (band && v.status === 'runs-out') {
     v.detail = `${v.detail} ${band.sentence}`;
   }
-  const assumed = assumedDays(extra.weatherSources);
+  const assumed = assumedDays(extra.weatherSources, forecast.warnings);
   if (assumed.length > 0 && v.status !== 'runs-out') {
     const n = assumed.length;
     v.status = 'weather-assumed';

@@ -5,7 +5,7 @@
 // forecast page's verdict reads it).
 import type { Forecast, ResolvedPlan } from '../../engine';
 import { localParts } from '../../lib/format';
-import { mergeStop, type DaySource, type PastYear, type StopLike, type WeatherEntry } from './weather';
+import { mergeStop, type DayOrigin, type PastYear, type StopLike, type WeatherEntry } from './weather';
 
 /** Where each stop-day's weather came from, as a saved forecast keeps it. */
 export interface WeatherSources {
@@ -13,7 +13,7 @@ export interface WeatherSources {
   status: 'ok' | 'unreachable';
   message: string | null;
   medianYear: number | null;
-  stops: { name: string; days: { date: string; source: DaySource }[] }[];
+  stops: { name: string; days: DayOrigin[] }[];
 }
 
 /** One re-run of the trip under other weather. */
@@ -48,10 +48,15 @@ export interface Band {
 /** A saved forecast with the weather it used and its band (both optional: older forecasts lack them). */
 export type ForecastWithWeather = Forecast & { weatherSources?: WeatherSources; band?: Band | null };
 
-/** Stop-days whose weather was assumed (nothing typed, nothing fetched). */
-export function assumedDays(sources: WeatherSources | undefined): { stop: string; date: string }[] {
-  if (!sources) return [];
-  return sources.stops.flatMap((s) => s.days.filter((d) => d.source === 'assumed').map((d) => ({ stop: s.name, date: d.date })));
+/**
+ * Stop-days whose weather was assumed (nothing typed or fetched for the whole stop): from the
+ * saved sources, or — for a forecast without them — from the engine's own `weather-assumed`
+ * warnings, so no caller can miss an assumed day.
+ */
+export function assumedDays(sources: WeatherSources | undefined, warnings: readonly { code: string; message: string }[] = []): { stop: string; date: string }[] {
+  const fromSources = sources ? sources.stops.flatMap((s) => s.days.filter((d) => d.source === 'assumed').map((d) => ({ stop: s.name, date: d.date }))) : [];
+  const fromEngine = warnings.filter((w) => w.code === 'weather-assumed').map((w) => ({ stop: '', date: /\d{4}-\d{2}-\d{2}/.exec(w.message)?.[0] ?? '' }));
+  return fromEngine.length > fromSources.length ? fromEngine : fromSources;
 }
 
 // ---------- skies one step better or worse ----------

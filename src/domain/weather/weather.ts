@@ -6,8 +6,21 @@
 
 /** Where one day's weather came from: the engine's `source`. */
 export type WeatherSource = 'forecast' | 'past-year' | 'typed';
-/** Where a day's weather comes from, for people: `assumed` is the engine's 4 oktas / 20 °C / 10 °C. */
-export type DaySource = WeatherSource | 'assumed';
+/**
+ * Where a day's weather comes from, for people — what the engine really uses for it: its own
+ * typed or fetched day; `copied`, the stop's nearest day that has weather (the engine's rule when
+ * a day has none); `assumed`, the engine's 4 oktas / 20 °C / 10 °C when the stop has no day at all.
+ */
+export type DaySource = WeatherSource | 'copied' | 'assumed';
+
+/** One owned day of a stop with where its weather comes from; a copied day names the day it copies. */
+export interface DayOrigin {
+  date: string;
+  source: DaySource;
+  /** For `copied`: the date whose weather the engine uses, and where that day's came from. */
+  from?: string;
+  fromSource?: WeatherSource;
+}
 
 /** One local clock hour of a stop-day (the engine's `weather[i].hourly[j]`). */
 export interface SourceHour {
@@ -400,13 +413,32 @@ export interface StopFill {
   name: string;
   /** Engine-ready entries, by date: typed, forecast and past-year days. */
   weather: WeatherEntry[];
-  /** Every owned date with its source (`assumed` when nothing covers it). */
-  days: { date: string; source: DaySource }[];
+  /** Every owned date with its source (`copied` or `assumed` when nothing covers it). */
+  days: DayOrigin[];
+}
+
+/**
+ * The day the engine uses for an uncovered date: the nearest covered date of the stop by whole
+ * days, the earlier on a tie (the engine's resolveStopWeather rule), or null when none is covered.
+ */
+function nearestCovered(date: string, covered: string[]): string | null {
+  const d = dayNumber(date);
+  let best: string | null = null;
+  let bestGap = Infinity;
+  for (const c of covered) {
+    const gap = Math.abs(dayNumber(c) - d);
+    if (gap < bestGap) {
+      best = c;
+      bestGap = gap;
+    }
+  }
+  return best;
 }
 
 /**
  * Merges the sources of one stop, day by day: typed days always win, then the forecast, then the
- * chosen past year; dates covered by none are `assumed`.
+ * chosen past year. A date covered by none is `copied` from the stop's nearest covered date (as
+ * the engine does), or `assumed` when no date of the stop is covered.
  */
 export function mergeStop(stops: StopLike[], i: number, forecast: WeatherEntry[], pastYear: WeatherEntry[]): StopFill {
   const stop = stops[i]!;
@@ -415,6 +447,14 @@ export function mergeStop(stops: StopLike[], i: number, forecast: WeatherEntry[]
   for (const e of forecast) byDate.set(e.date, e);
   for (const e of typedEntries(stop)) byDate.set(e.date, e);
   const weather = [...byDate.values()].sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0));
-  const days = stopDates(stops, i).map((date) => ({ date, source: (byDate.get(date)?.source ?? 'assumed') as DaySource }));
+  const owned = stopDates(stops, i);
+  // The engine ignores given days the stop owns no hour of, so only owned dates can be copied.
+  const covered = owned.filter((d) => byDate.has(d));
+  const days = owned.map((date): DayOrigin => {
+    const own = byDate.get(date);
+    if (own) return { date, source: own.source };
+    const from = nearestCovered(date, covered);
+    return from ? { date, source: 'copied', from, fromSource: byDate.get(from)!.source } : { date, source: 'assumed' };
+  });
   return { name: stop.name ?? `Stop ${i + 1}`, weather, days };
 }

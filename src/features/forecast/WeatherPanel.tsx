@@ -1,6 +1,6 @@
 import type { Forecast, ResolvedPlan } from '../../engine';
 import type { Band, ForecastWithWeather, WeatherSources } from '../../domain/weather/band';
-import type { DaySource } from '../../domain/weather/weather';
+import type { DayOrigin, DaySource } from '../../domain/weather/weather';
 import { formatDay } from '../../lib/format';
 import { useWidth } from './useWidth';
 
@@ -11,15 +11,26 @@ export const SOURCE_WORDS: Record<DaySource, { label: string; title: string; loo
   typed: { label: 'Typed', title: 'The sky you typed for this day', look: 'bg-[#e6eef7] text-[#23456b] border-[#9db5d3]' },
   forecast: { label: 'Forecast', title: "The weather service's forecast for this day", look: 'bg-[#eef5ef] text-[#2f5b3a] border-[#9cc3a5]' },
   'past-year': { label: 'Past years', title: 'The same date in the median of the last ten years', look: 'bg-[#f3eefa] text-[#4d3a6e] border-[#bfaed8]' },
-  assumed: { label: 'Assumed', title: 'Nothing known: typical skies (partly cloudy, 4 oktas; 20 °C by day, 10 °C at night)', look: 'bg-[#fdf3dc] text-[#6b4e0e] border-[#e0bd6a]' },
+  copied: { label: 'Copied', title: "No weather for this day: the stop's nearest day with weather is used", look: 'bg-[#f1efe9] text-[#4a4436] border-[#c4bba5]' },
+  assumed: { label: 'Assumed', title: 'Nothing known for this stop: typical skies (partly cloudy, 4 oktas; 20 °C by day, 10 °C at night)', look: 'bg-[#fdf3dc] text-[#6b4e0e] border-[#e0bd6a]' },
 };
 
-/** A day's source as a small badge with words (never colour alone). */
-export function SourceBadge({ source }: { source: DaySource }) {
+/** Where a copied day's weather came from, in the badge's words. */
+const FROM_WORDS: Record<string, string> = { typed: 'typed', forecast: 'forecast', 'past-year': 'past years' };
+
+/**
+ * A day's source as a small badge with words (never colour alone): what the engine really used
+ * for the day. A copied day names the day it copies ("Copied from Tue 21 Oct, typed").
+ */
+export function SourceBadge({ day }: { day: Pick<DayOrigin, 'source' | 'from' | 'fromSource'> }) {
+  const source: DaySource = day.source;
   const w = SOURCE_WORDS[source];
+  const copied = source === 'copied' && day.from;
+  const label = copied ? `Copied from ${formatDay(day.from!)}${day.fromSource ? `, ${FROM_WORDS[day.fromSource] ?? day.fromSource}` : ''}` : w.label;
+  const title = copied ? `No weather for this day: ${formatDay(day.from!)}'s is used, the stop's nearest day with weather` : w.title;
   return (
-    <span className={`inline-block rounded-full border px-2 py-0.5 text-xs font-bold ${w.look}`} title={w.title} data-source={source}>
-      {w.label}
+    <span className={`inline-block rounded-full border px-2 py-0.5 text-xs font-bold ${w.look}`} title={title} data-source={source}>
+      {label}
     </span>
   );
 }
@@ -35,7 +46,7 @@ export function DaySources({ sources }: { sources: WeatherSources }) {
             {s.days.map((d) => (
               <li key={d.date} className="flex items-center gap-1 text-sm">
                 <span className="text-dusk">{formatDay(d.date)}</span>
-                <SourceBadge source={d.source} />
+                <SourceBadge day={d} />
               </li>
             ))}
           </ul>

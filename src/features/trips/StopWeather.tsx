@@ -5,7 +5,7 @@ import { formatDate } from '../../lib/format';
 import { formatTemp, type Units } from '../../lib/units';
 import type { TripDto } from '../../domain/trips/trips.schema';
 import { SKY_CHOICES } from '../../domain/trips/sky';
-import type { DaySource, StopFill } from '../../domain/weather/weather';
+import type { StopFill } from '../../domain/weather/weather';
 import { SourceBadge } from '../forecast/WeatherPanel';
 import { updateTrip } from './trips.api';
 import { tripKeys } from './trips.queries';
@@ -84,11 +84,12 @@ export function StopWeather({ trip, index, units, canEdit, fallback }: { trip: T
       {f.message ? <p role="status" className="text-sm text-[#6b4e0e]">{f.message}</p> : null}
       <ul className="grid gap-1 text-sm tabular-nums sm:grid-cols-2">
         {stop.days.map((d) => {
-          const w = byDate.get(d.date);
+          // A copied day shows the sky of the day it copies, as the engine uses it.
+          const w = byDate.get(d.date) ?? (d.from ? byDate.get(d.from) : undefined);
           return (
             <li key={d.date} className="flex flex-wrap items-center gap-2 border-t border-sand py-0.5">
               <span className="w-24 font-semibold">{formatDate(d.date, false)}</span>
-              <SourceBadge source={d.source as DaySource} />
+              <SourceBadge day={d} />
               <span className="text-slate-text">
                 {w ? `${sky(w.cloudOktas)}, ${formatTemp(w.highC, units)} / ${formatTemp(w.lowC, units)}` : 'typical skies'}
               </span>
