@@ -3,7 +3,7 @@ import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { startMailCatcher, type MailCatcher } from '../src/server/mail-catcher';
-import { startFakeWeather, type FakeWeather } from './fakes/weather';
+import { weatherEnvFor } from './fakes/weather';
 
 /** `npm run demo`: build, migrate and seed the embedded SQLite database, then serve the app. */
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
@@ -28,13 +28,9 @@ if (!process.env.SMTP_URL) {
   catcher = await startMailCatcher({ dbPath, port: wanted }).catch(() => startMailCatcher({ dbPath, port: 0 }));
   Object.assign(env, { SMTP_URL: catcher.url });
 }
-// Weather comes from the local fake of the weather service unless its URLs point elsewhere.
-let weather: FakeWeather | null = null;
-if (!process.env.WEATHER_FORECAST_URL && !process.env.WEATHER_ARCHIVE_URL) {
-  const wanted = Number(process.env.FAKE_WEATHER_PORT ?? 8642);
-  weather = await startFakeWeather({ port: wanted, quiet: true }).catch(() => startFakeWeather({ port: 0, quiet: true }));
-  Object.assign(env, { WEATHER_FORECAST_URL: weather.forecastUrl, WEATHER_ARCHIVE_URL: weather.archiveUrl });
-}
+// Weather comes from the local fake of the weather service unless both its URLs point elsewhere.
+const { fake: weather, ...weatherEnv } = await weatherEnvFor(process.env, { port: Number(process.env.FAKE_WEATHER_PORT ?? 8642) });
+Object.assign(env, weatherEnv);
 console.log(`\nSunreckon is starting on http://${env.HOST}:${env.PORT}  (Ctrl+C stops it)`);
 if (catcher) console.log(`Mail is caught on ${catcher.url}: read it at http://${env.HOST}:${env.PORT}/dev/mail`);
 if (weather) console.log(`Weather comes from the local fake weather service on ${weather.url}`);

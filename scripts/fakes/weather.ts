@@ -28,6 +28,8 @@ export interface FakeWeather {
   archiveUrl: string;
   port: number;
   stop(): Promise<void>;
+  /** Lets the process end while the fake still listens (a shared fake of a test file or script). */
+  unref(): void;
 }
 
 const DAY_S = 86_400;
@@ -397,7 +399,43 @@ export async function startFakeWeather(opts: { port?: number; quiet?: boolean } 
         for (const s of sockets) s.destroy();
         server.close(() => resolve());
       }),
+    unref: () => {
+      server.unref();
+      for (const s of sockets) s.unref();
+      server.on('connection', (s) => s.unref());
+    },
   };
+}
+
+/** The settings that point a server at a weather service. */
+export interface WeatherEnv {
+  WEATHER_FORECAST_URL: string;
+  WEATHER_ARCHIVE_URL: string;
+}
+
+let shared: Promise<FakeWeather> | null = null;
+
+/**
+ * The one way a script or test points a server at weather: `given`'s own WEATHER_FORECAST_URL and
+ * WEATHER_ARCHIVE_URL when it names both, otherwise this process's shared local fake (started on
+ * first use, on `port` if free, else any; it does not keep the process alive). Every server the
+ * tests, the measuring scripts and `npm run demo` start goes through here, so none of them asks
+ * the real service unless told to.
+ */
+export async function weatherEnvFor(
+  given: Partial<Record<keyof WeatherEnv, string | undefined>> = {},
+  opts: { port?: number } = {},
+): Promise<WeatherEnv & { fake: FakeWeather | null }> {
+  if (given.WEATHER_FORECAST_URL && given.WEATHER_ARCHIVE_URL)
+    return { WEATHER_FORECAST_URL: given.WEATHER_FORECAST_URL, WEATHER_ARCHIVE_URL: given.WEATHER_ARCHIVE_URL, fake: null };
+  shared ??= startFakeWeather({ port: opts.port ?? 0, quiet: true })
+    .catch(() => startFakeWeather({ port: 0, quiet: true }))
+    .then((f) => {
+      f.unref();
+      return f;
+    });
+  const fake = await shared;
+  return { WEATHER_FORECAST_URL: fake.forecastUrl, WEATHER_ARCHIVE_URL: fake.archiveUrl, fake };
 }
 
 // `npx tsx scripts/fakes/weather.ts [port]` for `npm run dev`.

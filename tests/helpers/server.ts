@@ -5,6 +5,7 @@ import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import pg from 'pg';
+import { weatherEnvFor } from '../../scripts/fakes/weather';
 
 export const ROOT = path.resolve(import.meta.dirname, '../..');
 
@@ -69,8 +70,11 @@ export async function startServer(extraEnv: Record<string, string> = {}, reuse?:
   const dbPath = reuse?.dbPath ?? (await freshTestDatabase(dir));
   const onPostgres = /^postgres(ql)?:\/\//.test(dbPath);
   const port = await freePort();
+  // Weather from the caller's URLs or the local fake, never the real service (not even when the shell names it).
+  const { fake: _fake, ...weather } = await weatherEnvFor(extraEnv);
   const env = {
     ...process.env,
+    ...weather,
     ...(onPostgres ? { DATABASE_URL: dbPath } : { DATABASE_PATH: dbPath }),
     HOST: '127.0.0.1',
     PORT: String(port),
