@@ -92,6 +92,12 @@ async function serve() {
   // Text over 1 KB is compressed (the library's default test of the content type); fonts and images are already packed.
   const compress = compression({ threshold: 1024 });
   const statics = loadStatics(path.join(dist, 'client'));
+  // /api/health: the route's database check answers at most once a second per process; in between,
+  // its last 200 is repeated from here (an orchestrator's probe learns of a failed database within
+  // a second, and a burst of probes does not go through the whole stack).
+  const HEALTH_FRESH_MS = 1000;
+  const HEALTH_OK = JSON.stringify({ ok: true, db: 'ok' });
+  let health = null;
 
   // Behind a proxy without SUNRECKON_TRUST_PROXY=1 every client shares one rate-limit bucket; say so once.
   const trustProxy = process.env.SUNRECKON_TRUST_PROXY === '1';
@@ -110,6 +116,22 @@ async function serve() {
     const pathname = q < 0 ? url : url.slice(0, q);
     const file = statics.get(pathname);
     if (file && (req.method === 'GET' || req.method === 'HEAD')) return sendStatic(req, res, file);
+    if (pathname === '/api/health' && req.method === 'GET') {
+      if (health && Date.now() - health.at < HEALTH_FRESH_MS) {
+        res.writeHead(200, health.headers);
+        res.end(HEALTH_OK);
+        return;
+      }
+      // The route itself checks the database; a 200 it gives is repeated for HEALTH_FRESH_MS.
+      res.once('finish', () => {
+        const headers = res.getHeaders();
+        delete headers['content-length'];
+        delete headers['content-encoding'];
+        delete headers['vary'];
+        headers['content-length'] = Buffer.byteLength(HEALTH_OK);
+        health = res.statusCode === 200 ? { at: Date.now(), headers } : null;
+      });
+    }
     try {
       decodeURI(url);
     } catch {
