@@ -35,6 +35,28 @@ export function SourceBadge({ day }: { day: Pick<DayOrigin, 'source' | 'from' | 
   );
 }
 
+/** True when some day's weather came from the weather service (directly or copied). */
+export function usesService(sources: { stops: { days: DayOrigin[] }[] }): boolean {
+  return sources.stops.some((s) => s.days.some((d) => d.source === 'forecast' || d.source === 'past-year' || d.fromSource === 'forecast' || d.fromSource === 'past-year'));
+}
+
+/** The weather service's data credit (its data is offered under CC BY 4.0, which asks for it wherever the data is shown). */
+export function WeatherCredit() {
+  return (
+    <p className="mt-2 text-xs text-dusk" data-testid="weather-credit">
+      Weather data by{' '}
+      <a className="underline" href="https://open-meteo.com/" rel="noopener noreferrer">
+        Open-Meteo.com
+      </a>{' '}
+      (
+      <a className="underline" href="https://creativecommons.org/licenses/by/4.0/" rel="noopener noreferrer">
+        CC BY 4.0
+      </a>
+      ), reworked into stop-days and past-year medians.
+    </p>
+  );
+}
+
 /** Per stop, each day with its source badge. */
 export function DaySources({ sources }: { sources: WeatherSources }) {
   return (
@@ -126,6 +148,7 @@ export default function WeatherPanel({ forecast, plan }: { forecast: Forecast; p
           <h3 className="mb-2 text-lg">Where each day's weather came from</h3>
           {sources.medianYear && <p className="mb-2 text-sm text-dusk">Past-year days use {sources.medianYear}, the median of the last ten years by sunshine.</p>}
           <DaySources sources={sources} />
+          {usesService(sources) && <WeatherCredit />}
         </div>
       )}
     </section>

@@ -6,7 +6,7 @@ import { formatTemp, type Units } from '../../lib/units';
 import type { TripDto } from '../../domain/trips/trips.schema';
 import { SKY_CHOICES } from '../../domain/trips/sky';
 import type { StopFill } from '../../domain/weather/weather';
-import { SourceBadge } from '../forecast/WeatherPanel';
+import { SourceBadge, WeatherCredit, usesService } from '../forecast/WeatherPanel';
 import { updateTrip } from './trips.api';
 import { tripKeys } from './trips.queries';
 
@@ -116,6 +116,7 @@ export function StopWeather({ trip, index, units, canEdit, fallback }: { trip: T
           <button type="button" className="btn btn-quiet" onClick={() => setAsking(true)}>{buttonLabel}</button>
         )
       ) : null}
+      {index === f.stops.length - 1 && usesService(f) ? <WeatherCredit /> : null}
     </div>
   );
 }
