@@ -80,7 +80,7 @@ export async function throughputRun(p: {
   const rows: Row[] = [];
   const run = async (name: string, opts: autocannon.Options) => {
     const r = await autocannon({ connections: THROUGHPUT_CONNECTIONS, duration: seconds, timeout: 20, ...opts });
-    const row = { name, rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, non2xx: r.non2xx, errors: r.errors + r.timeouts };
+    const row = { name, rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, non2xx: Object.entries(r.statusCodeStats ?? {}).reduce((n, [code, v]) => n + (code.startsWith('2') ? 0 : Number(v.count)), 0), errors: r.errors + r.timeouts };
     rows.push(row);
     return row;
   };

@@ -94,38 +94,35 @@ function policy(scriptHashes: Iterable<string>): string {
 
 /**
  * Inline scripts are part of the build (Astro's island loader, its hydration directives, our own
- * small scripts): the same few texts on every render. Each page (route pattern, signed in or not) is
- * read in full for its first LEARN_RENDERS renders; every hash found joins one set for the build.
- * After that its answers stream through untouched with the CSP naming every hash of the build —
- * all of them our own scripts — instead of buffering and scanning each HTML body.
+ * small scripts): the same few texts on each render of a page. Each page (route pattern, signed in
+ * or not) is read in full on its first LEARN_RENDERS renders and then on every RELEARN_EVERY-th;
+ * the hashes found there make that page's CSP. The renders in between stream through untouched
+ * with it, instead of buffering and scanning every HTML body. A page that may carry an inline
+ * script on one render and not on another keeps every hash it has shown (see DEVELOPERS.md).
  */
 const LEARN_RENDERS = 3;
-const buildHashes = new Set<string>();
-const learned = new Map<string, number>();
-let buildPolicy = policy(buildHashes);
-
-function learnScripts(html: string): void {
-  const before = buildHashes.size;
-  for (const m of html.matchAll(INLINE_SCRIPT)) buildHashes.add(createHash('sha256').update(m[1]!, 'utf8').digest('base64'));
-  if (buildHashes.size !== before) buildPolicy = policy(buildHashes);
-}
+const RELEARN_EVERY = 50;
+const pages = new Map<string, { renders: number; hashes: Set<string>; policy: string }>();
 
 /** Security headers on every response; HTML pages get the CSP described above. */
 const headers = defineMiddleware(async (ctx, next) => {
   let res = await next();
   if (!res.headers.has('Content-Security-Policy') && /^text\/html\b/i.test(res.headers.get('content-type') ?? '') && res.body) {
     const key = `${ctx.routePattern}|${ctx.locals.user ? 'in' : 'out'}`;
-    const seen = learned.get(key) ?? 0;
-    if (seen < LEARN_RENDERS) {
-      learned.set(key, seen + 1);
+    let page = pages.get(key);
+    if (!page) pages.set(key, (page = { renders: 0, hashes: new Set(), policy: policy([]) }));
+    page.renders += 1;
+    if (page.renders <= LEARN_RENDERS || page.renders % RELEARN_EVERY === 0) {
       const html = await res.text();
-      learnScripts(html);
+      const before = page.hashes.size;
+      for (const m of html.matchAll(INLINE_SCRIPT)) page.hashes.add(createHash('sha256').update(m[1]!, 'utf8').digest('base64'));
+      if (page.hashes.size !== before || page.renders === 1) page.policy = policy(page.hashes);
       const h = new Headers(res.headers);
       h.delete('content-length');
-      h.set('Content-Security-Policy', buildPolicy);
+      h.set('Content-Security-Policy', page.policy);
       res = new Response(html, { status: res.status, statusText: res.statusText, headers: h });
     } else {
-      res.headers.set('Content-Security-Policy', buildPolicy);
+      res.headers.set('Content-Security-Policy', page.policy);
     }
   }
   const h = res.headers;

@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import http from 'node:http';
 import { readdirSync, readFileSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -96,6 +97,20 @@ describe('routes without a session lookup', () => {
     const bad = await post({ ...plan, stops: [{ ...plan.stops[0]!, lat: 'north' }] });
     expect(bad.status).toBe(400);
     expect(JSON.stringify(await bad.json())).toContain('stops.0.lat');
+  });
+});
+
+describe('the security-headers step', () => {
+  it('keeps allowing each inline script of a page by hash after it stops reading the page (learned on the first renders)', async () => {
+    for (let i = 0; i < 8; i++) {
+      const res = await fetch(`${baseUrl()}/sign-in`);
+      const html = await res.text();
+      const csp = res.headers.get('content-security-policy') ?? '';
+      const inline = [...html.matchAll(/<script\b(?![^>]*\bsrc\s*=)[^>]*>([\s\S]*?)<\/script>/gi)].map((m) => `'sha256-${createHash('sha256').update(m[1]!).digest('base64')}'`);
+      expect(inline.length).toBeGreaterThan(0);
+      for (const h of inline) expect(csp, `render ${i + 1}`).toContain(h);
+      expect(res.headers.get('x-frame-options')).toBe('DENY');
+    }
   });
 });
 
