@@ -96,6 +96,9 @@ async function serve() {
   // its last 200 is repeated from here (an orchestrator's probe learns of a failed database within
   // a second, and a burst of probes does not go through the whole stack).
   const HEALTH_FRESH_MS = 1000;
+  // The landing page's cache (filled in middleware.ts) and the session cookie that bypasses it.
+  const LANDING = Symbol.for('sunreckon.landing');
+  const SESSION_COOKIE = /(?:^|;\s*)(?:__Secure-)?better-auth\.session_(?:token|data)=/;
   const HEALTH_OK = JSON.stringify({ ok: true, db: 'ok' });
   let health = null;
 
@@ -116,6 +119,18 @@ async function serve() {
     const pathname = q < 0 ? url : url.slice(0, q);
     const file = statics.get(pathname);
     if (file && (req.method === 'GET' || req.method === 'HEAD')) return sendStatic(req, res, file);
+    // The landing page for an anonymous visitor, as middleware.ts last rendered and kept it.
+    if (url === '/' && (req.method === 'GET' || req.method === 'HEAD') && !SESSION_COOKIE.test(req.headers.cookie ?? '')) {
+      const cached = globalThis[LANDING];
+      if (cached && cached.until > Date.now() && cached.day === new Date().toISOString().slice(0, 10)) {
+        return compress(req, res, () => {
+          for (const [k, v] of cached.headers) res.setHeader(k, v);
+          res.setHeader('X-Sunreckon-Cache', 'hit');
+          res.writeHead(200);
+          res.end(req.method === 'HEAD' ? undefined : cached.body);
+        });
+      }
+    }
     if (pathname === '/api/health' && req.method === 'GET') {
       if (health && Date.now() - health.at < HEALTH_FRESH_MS) {
         res.writeHead(200, health.headers);

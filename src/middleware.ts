@@ -140,7 +140,12 @@ const headers = defineMiddleware(async (ctx, next) => {
  * no user is kept, so a signed-in page never reaches an anonymous visitor nor the other way round.
  */
 const LANDING_TTL_MS = 60_000;
-let landing: { body: string; headers: [string, string][]; until: number; day: string } | null = null;
+type Landing = { body: string; headers: [string, string][]; until: number; day: string };
+// Shared with server.mjs, which answers a fresh entry to a request without a session cookie
+// before Astro's pipeline (the same rules as below); this step fills it.
+const LANDING = Symbol.for('sunreckon.landing');
+const shared = globalThis as unknown as Record<symbol, Landing | null>;
+let landing: Landing | null = null;
 const SESSION_COOKIE = /(?:^|;\s*)(?:__Secure-)?better-auth\.session_(?:token|data)=/;
 
 function hasSessionCookie(cookie: string | null): boolean {
@@ -161,6 +166,7 @@ const landingCache = defineMiddleware(async (ctx, next) => {
   const body = await res.text();
   const headers = [...res.headers].filter(([k]) => k !== 'content-length');
   landing = { body, headers, until: now + LANDING_TTL_MS, day };
+  shared[LANDING] = landing;
   return new Response(ctx.request.method === 'HEAD' ? null : body, { status: 200, headers });
 });
 
