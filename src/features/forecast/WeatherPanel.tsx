@@ -141,7 +141,7 @@ export default function WeatherPanel({ forecast, plan }: { forecast: Forecast; p
           <BandChart band={band} forecast={forecast} floorPct={floorPct} />
         </>
       ) : (
-        <p className="text-dusk">No band: every day's weather is typed or assumed, so there is nothing to vary.</p>
+        <p className="text-dusk">No band: every day's weather is typed, copied from a typed day or assumed, so there is nothing to vary.</p>
       )}
       {sources && (
         <div>
