@@ -1,7 +1,7 @@
 // The band's engine runs, for the worker pool (kept apart from band.ts so pages that only read a
 // band do not load the engine).
 import { CUTOFF_VOLTS, prepareSun, prepareWithSun, simulatePrepared, sunKey, type PreparedSun, type ResolvedPlan } from '../../engine';
-import type { RunOutcome } from './band';
+import { bandPlans, type BandTask, type RunOutcome } from './band';
 
 /**
  * Runs each plan through the engine: CPU-heavy, for the worker pool. The plans are the trip's
@@ -37,4 +37,9 @@ export function runBandPlans(plans: ResolvedPlan[]): RunOutcome[] {
       return { socEndPct: [], minSocPct: NaN, minSocRow: 0, firstCutoffRow: null, error: String(err) };
     }
   });
+}
+
+/** A band task (band.ts `bandTask`) built into its plans and run, all in the worker. */
+export function runBandTask(task: BandTask): RunOutcome[] {
+  return runBandPlans(bandPlans(task));
 }

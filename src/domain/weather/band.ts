@@ -94,7 +94,7 @@ function inRange(w: WeatherEntry): WeatherEntry {
     cloudOktas: clamp(w.cloudOktas, 0, 8),
     highC: clamp(w.highC, -60, 60),
     lowC: clamp(w.lowC, -60, 60),
-    hourly: w.hourly.map((h) => ({ hour: h.hour, ghiWm2: clamp(h.ghiWm2, 0, 1500), tempC: clamp(h.tempC, -60, 60), cloudPct: clamp(h.cloudPct, 0, 100) })),
+    hourly: (w.hourly ?? []).map((h) => ({ hour: h.hour, ghiWm2: clamp(h.ghiWm2, 0, 1500), tempC: clamp(h.tempC, -60, 60), cloudPct: clamp(h.cloudPct, 0, 100) })),
   };
 }
 
@@ -113,14 +113,98 @@ export function yearPlans(plan: ResolvedPlan, stops: StopLike[], years: PastYear
     .map((y) => ({ label: String(y.year), year: y.year, plan: withWeather(plan, stops.map((_, i) => mergeStop(stops, i, [], y.stops[i] ?? []).weather)) }));
 }
 
+const SKY_LABELS = ['two steps cloudier', 'as forecast', 'two steps clearer'] as const;
+
 /** Cloudier, as planned, clearer: the plan with every fetched day's sky moved two oktas each way. */
 export function skyPlans(plan: ResolvedPlan): { label: string; year: null; plan: ResolvedPlan }[] {
   const shifted = (steps: number) => withWeather(plan, plan.stops.map((s) => (s.weather as WeatherEntry[]).map((w) => shiftSky(w, steps))));
   return [
-    { label: 'two steps cloudier', year: null, plan: shifted(2) },
-    { label: 'as forecast', year: null, plan },
-    { label: 'two steps clearer', year: null, plan: shifted(-2) },
+    { label: SKY_LABELS[0], year: null, plan: shifted(2) },
+    { label: SKY_LABELS[1], year: null, plan },
+    { label: SKY_LABELS[2], year: null, plan: shifted(-2) },
   ];
+}
+
+// ---------- handing a band to a worker ----------
+
+/**
+ * Past years packed for the trip to a worker thread: the hours of every day in one Float64Array
+ * (hour, GHI, temperature, cloud, four numbers an hour) and the days' few fields beside it. A
+ * structured clone copies a typed array in one go, where ten years of hour objects took several
+ * milliseconds of the request thread.
+ */
+export interface PackedYears {
+  years: { year: number; yearsBack: number; ghiWhM2: number; stops: { date: string; cloudOktas: number; highC: number; lowC: number; hours: number }[][] }[];
+  hours: Float64Array;
+}
+
+export function packYears(years: PastYear[]): PackedYears {
+  let n = 0;
+  for (const y of years) for (const days of y.stops) for (const d of days) n += d.hourly.length;
+  const hours = new Float64Array(n * 4);
+  let i = 0;
+  const meta = years.map((y) => ({
+    year: y.year,
+    yearsBack: y.yearsBack,
+    ghiWhM2: y.ghiWhM2,
+    stops: y.stops.map((days) =>
+      days.map((d) => {
+        for (const h of d.hourly) {
+          hours[i++] = h.hour;
+          hours[i++] = h.ghiWm2;
+          hours[i++] = h.tempC;
+          hours[i++] = h.cloudPct;
+        }
+        return { date: d.date, cloudOktas: d.cloudOktas, highC: d.highC, lowC: d.lowC, hours: d.hourly.length };
+      }),
+    ),
+  }));
+  return { years: meta, hours };
+}
+
+export function unpackYears(packed: PackedYears): PastYear[] {
+  let i = 0;
+  const h = packed.hours;
+  return packed.years.map((y) => ({
+    year: y.year,
+    yearsBack: y.yearsBack,
+    ghiWhM2: y.ghiWhM2,
+    stops: y.stops.map((days) =>
+      days.map((d) => {
+        const hourly = [];
+        for (let k = 0; k < d.hours; k++, i += 4) hourly.push({ hour: h[i]!, ghiWm2: h[i + 1]!, tempC: h[i + 2]!, cloudPct: h[i + 3]! });
+        return { date: d.date, cloudOktas: d.cloudOktas, highC: d.highC, lowC: d.lowC, hourly, source: 'past-year' as const };
+      }),
+    ),
+  }));
+}
+
+/** What a worker needs to run a band: the trip's plan, the camper's own stops and, for a far trip, the past years. */
+export interface BandTask {
+  kind: Band['kind'];
+  plan: ResolvedPlan;
+  stops: StopLike[];
+  years: PackedYears | null;
+}
+
+/**
+ * The band to run for a trip, or null when there is nothing to vary: every past year for a far
+ * trip with two or more, skies moved two oktas each way when some day was fetched. The labels are
+ * for the request thread; the task goes to a worker, which builds the plans (`bandPlans`).
+ */
+export function bandTask(plan: ResolvedPlan, stops: StopLike[], fill: { kind: 'near' | 'far'; pastYears: PastYear[] }): { task: BandTask; labels: { label: string; year: number | null }[] } | null {
+  if (fill.kind === 'far' && fill.pastYears.length >= 2) {
+    const labels = [...fill.pastYears].sort((a, b) => a.year - b.year).map((y) => ({ label: String(y.year), year: y.year }));
+    return { task: { kind: 'years', plan, stops, years: packYears(fill.pastYears) }, labels };
+  }
+  if (!hasFetchedDays(plan)) return null;
+  return { task: { kind: 'skies', plan, stops, years: null }, labels: SKY_LABELS.map((label) => ({ label, year: null })) };
+}
+
+/** The plans of a band task, in the order of its labels (in the worker). */
+export function bandPlans(task: BandTask): ResolvedPlan[] {
+  const runs = task.kind === 'years' && task.years ? yearPlans(task.plan, task.stops, unpackYears(task.years)) : skyPlans(task.plan);
+  return runs.map((r) => r.plan);
 }
 
 /** True when some day of the plan came from the weather service (so skies can be moved). */
