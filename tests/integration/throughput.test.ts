@@ -7,12 +7,17 @@ import { brotliDecompressSync, gunzipSync } from 'node:zlib';
 import { afterAll, describe, expect, it } from 'vitest';
 import { startMailCatcher, type MailCatcher } from '../../src/server/mail-catcher';
 import { benchPlan } from '../../scripts/bench-plan';
+import type { Forecast } from '../../src/engine';
+import { fromColumns, type ColumnarForecast } from '../../src/lib/forecast-columns';
 import { baseUrl, signUp } from '../helpers/api';
 import { caughtFor, waitForMail } from '../helpers/mail';
 import { cleanup, freshTestDatabase, startServer, type RunningServer } from '../helpers/server';
 
 /** A raw GET (no automatic decompression), for checking what travels on the wire. */
-function rawGet(url: string, headers: Record<string, string> = {}): Promise<{ status: number; headers: http.IncomingHttpHeaders; body: Buffer }> {
+function rawGet(
+  url: string,
+  headers: Record<string, string> = {},
+): Promise<{ status: number; headers: http.IncomingHttpHeaders; body: Buffer }> {
   return new Promise((resolve, reject) => {
     http
       .get(url, { headers }, (res) => {
@@ -83,7 +88,12 @@ describe('routes without a session lookup', () => {
   });
 
   it('the anonymous preview forecasts a 30-day, 40-load trip the same way twice (the second from the sun cache) and still names a bad field', async () => {
-    const post = (body: unknown) => fetch(`${baseUrl()}/api/forecasts/preview`, { method: 'POST', headers: { 'content-type': 'application/json', origin: baseUrl() }, body: JSON.stringify(body) });
+    const post = (body: unknown) =>
+      fetch(`${baseUrl()}/api/forecasts/preview`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json', origin: baseUrl() },
+        body: JSON.stringify(body),
+      });
     const plan = benchPlan(30);
     const first = await post(plan);
     expect(first.status).toBe(200);
@@ -100,13 +110,38 @@ describe('routes without a session lookup', () => {
   });
 });
 
+describe('the preview in columns', () => {
+  it('?hourly=columns carries the same forecast as the row form, in less JSON', async () => {
+    const post = (q: string) =>
+      fetch(`${baseUrl()}/api/forecasts/preview${q}`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json', origin: baseUrl() },
+        body: JSON.stringify(benchPlan(30)),
+      });
+    const rowsRes = await post('');
+    const colsRes = await post('?hourly=columns');
+    expect(colsRes.status).toBe(200);
+    const rowsText = await rowsRes.text();
+    const colsText = await colsRes.text();
+    expect(colsText.length).toBeLessThan(rowsText.length * 0.6);
+    const rows = JSON.parse(rowsText) as Forecast;
+    const cols = JSON.parse(colsText) as ColumnarForecast;
+    expect(cols.hours).toBe(rows.hourly.length);
+    expect(cols.hourlyColumns.socPct).toHaveLength(rows.hourly.length);
+    expect(cols.hourlyColumns.socPct[100]).toBe(rows.hourly[100]!.socPct);
+    expect(fromColumns(cols)).toEqual(rows);
+  });
+});
+
 describe('the security-headers step', () => {
   it('keeps allowing each inline script of a page by hash after it stops reading the page (learned on the first renders)', async () => {
     for (let i = 0; i < 8; i++) {
       const res = await fetch(`${baseUrl()}/sign-in`);
       const html = await res.text();
       const csp = res.headers.get('content-security-policy') ?? '';
-      const inline = [...html.matchAll(/<script\b(?![^>]*\bsrc\s*=)[^>]*>([\s\S]*?)<\/script>/gi)].map((m) => `'sha256-${createHash('sha256').update(m[1]!).digest('base64')}'`);
+      const inline = [...html.matchAll(/<script\b(?![^>]*\bsrc\s*=)[^>]*>([\s\S]*?)<\/script>/gi)].map(
+        (m) => `'sha256-${createHash('sha256').update(m[1]!).digest('base64')}'`,
+      );
       expect(inline.length).toBeGreaterThan(0);
       for (const h of inline) expect(csp, `render ${i + 1}`).toContain(h);
       expect(res.headers.get('x-frame-options')).toBe('DENY');
@@ -164,7 +199,10 @@ describe('several worker processes', () => {
     const dir = mkdtempSync(path.join(tmpdir(), 'sunreckon-test-'));
     const dbPath = await freshTestDatabase(dir);
     catcher = await startMailCatcher({ dbPath, quiet: true });
-    server = await startServer({ WEB_CONCURRENCY: '2', SMTP_URL: catcher.url, OUTBOX_RETRY_BASE_MS: '200', PREVIEW_RATE_LIMIT: '6' }, { dir, dbPath });
+    server = await startServer(
+      { WEB_CONCURRENCY: '2', SMTP_URL: catcher.url, OUTBOX_RETRY_BASE_MS: '200', PREVIEW_RATE_LIMIT: '6' },
+      { dir, dbPath },
+    );
     const url = server.url;
 
     // The primary and its two workers.
@@ -191,11 +229,21 @@ describe('several worker processes', () => {
     const headers = { 'content-type': 'application/json', origin: url };
     const emails = Array.from({ length: 10 }, (_, i) => `cluster.mail.${i}.${Date.now()}@example.test`);
     for (const email of emails) {
-      const up = await fetch(`${url}/api/auth/sign-up/email`, { method: 'POST', headers, body: JSON.stringify({ name: 'Cluster Camper', email, password: 'cluster-pass-1', kind: 'camper' }) });
+      const up = await fetch(`${url}/api/auth/sign-up/email`, {
+        method: 'POST',
+        headers,
+        body: JSON.stringify({ name: 'Cluster Camper', email, password: 'cluster-pass-1', kind: 'camper' }),
+      });
       expect(up.status).toBe(200);
     }
     const resets = await Promise.all(
-      emails.map((email) => fetch(`${url}/api/auth/request-password-reset`, { method: 'POST', headers, body: JSON.stringify({ email, redirectTo: '/reset-password' }) })),
+      emails.map((email) =>
+        fetch(`${url}/api/auth/request-password-reset`, {
+          method: 'POST',
+          headers,
+          body: JSON.stringify({ email, redirectTo: '/reset-password' }),
+        }),
+      ),
     );
     expect(resets.map((r) => r.status)).toEqual(emails.map(() => 200));
     for (const email of emails) await waitForMail(email, { dbPath, timeoutMs: 15_000 });
@@ -205,7 +253,8 @@ describe('several worker processes', () => {
     // Six previews a minute per client, counted for both workers together.
     const plan = JSON.stringify(benchPlan(3));
     const statuses: number[] = [];
-    for (let i = 0; i < 8; i++) statuses.push((await fetch(`${url}/api/forecasts/preview`, { method: 'POST', headers, body: plan })).status);
+    for (let i = 0; i < 8; i++)
+      statuses.push((await fetch(`${url}/api/forecasts/preview`, { method: 'POST', headers, body: plan })).status);
     expect(statuses.slice(0, 6)).toEqual([200, 200, 200, 200, 200, 200]);
     expect(statuses.slice(6)).toEqual([429, 429]);
   }, 90_000);

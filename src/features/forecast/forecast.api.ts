@@ -1,5 +1,6 @@
 // Plain fetchers of the forecast area (no React).
 import type { Forecast, Plan, ResolvedPlan } from '../../engine';
+import { fromColumns, type ColumnarForecast } from '../../lib/forecast-columns';
 import { apiFetch } from '../../lib/query-client';
 
 /** A saved forecast as `GET /api/forecasts/:id` returns it. */
@@ -21,7 +22,7 @@ export function fetchForecast(id: string, signal?: AbortSignal): Promise<SavedFo
   return apiFetch<SavedForecast>(`/api/forecasts/${encodeURIComponent(id)}`, { signal });
 }
 
-/** Forecasts a plan without saving it (anonymous, rate limited): `POST /api/forecasts/preview`. */
-export function previewForecast(plan: Plan, signal?: AbortSignal): Promise<Forecast> {
-  return apiFetch<Forecast>('/api/forecasts/preview', { method: 'POST', json: plan, signal });
+/** Forecasts a plan without saving it (anonymous, rate limited): `POST /api/forecasts/preview`, hours as columns. */
+export async function previewForecast(plan: Plan, signal?: AbortSignal): Promise<Forecast> {
+  return fromColumns(await apiFetch<ColumnarForecast>('/api/forecasts/preview?hourly=columns', { method: 'POST', json: plan, signal }));
 }
