@@ -45,7 +45,7 @@ function precompress() {
 /**
  * The worker pool's tasks (src/server/workers/tasks.ts) bundled into one file of the build,
  * <build>/server/workers/tasks.mjs, which the pool's threads load (the server's own chunks have
- * hashed names and mangled exports). better-sqlite3 stays a package, as for the server.
+ * hashed names and mangled exports). better-sqlite3 and pg stay packages, as for the server.
  */
 function workerTasks() {
   /** @type {URL | undefined} */
@@ -66,7 +66,7 @@ function workerTasks() {
           format: 'esm',
           platform: 'node',
           target: 'node20',
-          external: ['better-sqlite3'],
+          external: ['better-sqlite3', 'pg'],
           logLevel: 'warning',
         });
       },

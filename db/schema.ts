@@ -251,6 +251,8 @@ export interface MonitorLogTable {
   version: Generated<number>;
   created_by: string | null;
   created_at: string;
+  /** JSON: the thinned series, night baseline and daily Ah (LogSeries), made at save; null until first opened for older logs. */
+  overview: ColumnType<string | null, string | null | undefined, string | null>;
 }
 
 /** One reading of a monitor log; amps are positive while charging. */

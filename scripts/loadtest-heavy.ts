@@ -16,8 +16,15 @@ export interface HeavyResult {
   max: number;
   /** p99 of the same polling for 3 s before the heavy work starts. */
   idleP99: number;
+  /** Peak of the server's processes together, and of the largest one alone. */
   peakRssMb: number;
+  peakProcessRssMb: number;
+  processes: number;
   startRssMb: number;
+  /** A 10 MB log saved while health is polled, then its page read. */
+  save: { status: number; ms: number; healthP99: number; healthMax: number; readings: number };
+  logPage: { p50: number; max: number; bytes: number };
+  readingsPage: { p50: number; max: number };
   sweeps: Record<string, number>;
   previews: Record<string, number>;
   seconds: number;
@@ -25,10 +32,40 @@ export interface HeavyResult {
 
 const HEALTH_TARGET_MS = 100;
 const RSS_TARGET_MB = 400;
+const LOG_PAGE_TARGET_MS = 100;
 
-function rssMb(pid: number): number {
-  const m = /VmRSS:\s+(\d+) kB/.exec(readFileSync(`/proc/${pid}/status`, 'utf8'));
-  return m ? Math.round(Number(m[1]) / 1024) : NaN;
+function ownRssKb(pid: number): number {
+  try {
+    const m = /VmRSS:\s+(\d+) kB/.exec(readFileSync(`/proc/${pid}/status`, 'utf8'));
+    return m ? Number(m[1]) : 0;
+  } catch {
+    return 0; // the process ended between listing and reading
+  }
+}
+
+function childrenOf(pid: number): number[] {
+  try {
+    return readFileSync(`/proc/${pid}/task/${pid}/children`, 'utf8').trim().split(/\s+/).filter(Boolean).map(Number);
+  } catch {
+    return [];
+  }
+}
+
+/**
+ * The server's RSS: its own process and every process under it (the cluster's worker processes,
+ * WEB_CONCURRENCY), their worker threads included; and the largest single process.
+ */
+function rssMb(pid: number): { total: number; largest: number } {
+  let total = 0;
+  let largest = 0;
+  for (const stack = [pid]; stack.length; ) {
+    const p = stack.pop()!;
+    const kb = ownRssKb(p);
+    total += kb;
+    largest = Math.max(largest, kb);
+    stack.push(...childrenOf(p));
+  }
+  return { total: Math.round(total / 1024), largest: Math.round(largest / 1024) };
 }
 
 /** A valid monitor log of about `bytes`: one reading a minute (time, volts, amps, SOC, temperature). */
@@ -127,9 +164,17 @@ export async function heavyRun(p: {
   const idle = await pollFor(url, 3000);
 
   const pid = p.server.child.pid!;
-  const startRssMb = rssMb(pid);
+  const startRssMb = rssMb(pid).total;
+  const processes = (function count(x: number): number {
+    return 1 + childrenOf(x).reduce((n, c) => n + count(c), 0);
+  })(pid);
   let peakRssMb = startRssMb;
-  const sampler = setInterval(() => (peakRssMb = Math.max(peakRssMb, rssMb(pid))), 50);
+  let peakProcessRssMb = 0;
+  const sampler = setInterval(() => {
+    const r = rssMb(pid);
+    peakRssMb = Math.max(peakRssMb, r.total);
+    peakProcessRssMb = Math.max(peakProcessRssMb, r.largest);
+  }, 50);
 
   const tally = (into: Record<string, number>) => async (res: Response) => {
     into[res.status] = (into[res.status] ?? 0) + 1;
@@ -152,14 +197,60 @@ export async function heavyRun(p: {
 
   const busy = await pollUntil(url, () => done);
   await heavy;
-  clearInterval(sampler);
   const seconds = (performance.now() - started) / 1000;
+
+  // Saving a 10 MB log (read and written in the pool) while health is polled, then reading its page.
+  const mapping = {
+    headerLine: 1,
+    delimiter: ',',
+    decimal: '.',
+    timeZone: 'America/Denver',
+    time: { column: 0, dateColumn: null, format: 'iso' },
+    voltage: { column: 1, unit: 'V' },
+    current: { column: 2, unit: 'A', sign: 'charge-positive' },
+    soc: { column: 3, unit: '%' },
+    temperature: { column: 4, unit: 'C' },
+  };
+  const form = new FormData();
+  form.set('file', new Blob([csv], { type: 'text/csv' }), 'long-log.csv');
+  form.set('timeZone', 'America/Denver');
+  form.set('mapping', JSON.stringify(mapping));
+  let saved = false;
+  const t0 = performance.now();
+  const saving = fetch(`${url}/api/rigs/${p.rigId}/monitor-logs`, { method: 'POST', headers: { origin: url, cookie: p.ownerCookie }, body: form }).finally(
+    () => (saved = true),
+  );
+  const duringSave = await pollUntil(url, () => saved);
+  const saveRes = await saving;
+  const saveMs = performance.now() - t0;
+  const log = (await saveRes.json()) as { id?: string; sampleCount?: number };
+  clearInterval(sampler);
+  const pageMs: number[] = [];
+  const readingsMs: number[] = [];
+  let pageBytes = 0;
+  if (log.id) {
+    for (let i = 0; i < 10; i++) {
+      const a = performance.now();
+      const body = await (await fetch(`${url}/api/monitor-logs/${log.id}`, { headers: { cookie: p.ownerCookie } })).arrayBuffer();
+      pageMs.push(performance.now() - a);
+      pageBytes = body.byteLength;
+      const b = performance.now();
+      await (await fetch(`${url}/api/monitor-logs/${log.id}/readings?limit=1000&after=${Date.parse('2027-05-20T00:00:00Z')}`, { headers: { cookie: p.ownerCookie } })).arrayBuffer();
+      readingsMs.push(performance.now() - b);
+    }
+  }
+  const savedHealth = quantiles(duringSave.length ? duringSave : [0]);
   return {
     healthCalls: busy.length,
     ...quantiles(busy),
     idleP99: quantiles(idle).p99,
     peakRssMb,
+    peakProcessRssMb,
+    processes,
     startRssMb,
+    save: { status: saveRes.status, ms: Math.round(saveMs), healthP99: savedHealth.p99, healthMax: savedHealth.max, readings: log.sampleCount ?? 0 },
+    logPage: { p50: quantiles(pageMs.length ? pageMs : [NaN]).p50, max: quantiles(pageMs.length ? pageMs : [NaN]).max, bytes: pageBytes },
+    readingsPage: { p50: quantiles(readingsMs.length ? readingsMs : [NaN]).p50, max: quantiles(readingsMs.length ? readingsMs : [NaN]).max },
     sweeps,
     previews,
     seconds: Math.round(seconds * 10) / 10,
@@ -197,6 +288,9 @@ export function describeHeavy(r: HeavyResult): { lines: string[]; ok: boolean } 
   const ok =
     r.p99 <= HEALTH_TARGET_MS &&
     r.peakRssMb <= RSS_TARGET_MB &&
+    r.save.status === 201 &&
+    r.save.healthP99 <= HEALTH_TARGET_MS &&
+    r.logPage.p50 <= LOG_PAGE_TARGET_MS &&
     Object.keys(r.sweeps).every((c) => c === '200') &&
     Object.keys(r.previews).every((c) => c === '200');
   return {
@@ -204,8 +298,10 @@ export function describeHeavy(r: HeavyResult): { lines: string[]; ok: boolean } 
     lines: [
       `\nHeavy run: 10 sweeps of 1,000 options on a 60-day plan and 2 previews of a 10 MB monitor log, ${r.seconds} s.`,
       `  /api/health (4 clients back to back, ${r.healthCalls} calls): p50 ${r.p50} ms, p99 ${r.p99} ms (target ≤ ${HEALTH_TARGET_MS}), max ${r.max} ms; p99 with nothing heavy running: ${r.idleP99} ms`,
-      `  server RSS: ${r.startRssMb} MB at the start, peak ${r.peakRssMb} MB (target ≤ ${RSS_TARGET_MB})`,
+      `  server RSS (${r.processes} processes together, worker threads included): ${r.startRssMb} MB at the start, peak ${r.peakRssMb} MB (target ≤ ${RSS_TARGET_MB}); largest single process ${r.peakProcessRssMb} MB`,
       `  sweeps answered ${JSON.stringify(r.sweeps)}, previews ${JSON.stringify(r.previews)}`,
+      `  saving the 10 MB log (${r.save.readings.toLocaleString('en-GB')} readings): ${r.save.status} in ${r.save.ms} ms; /api/health meanwhile p99 ${r.save.healthP99} ms, max ${r.save.healthMax} ms`,
+      `  its log page (overview + first 200 readings, ${Math.round(r.logPage.bytes / 1024)} KB): p50 ${r.logPage.p50} ms, max ${r.logPage.max} ms (target ≤ ${LOG_PAGE_TARGET_MS}); a page of 1,000 readings: p50 ${r.readingsPage.p50} ms, max ${r.readingsPage.max} ms`,
     ],
   };
 }

@@ -88,25 +88,28 @@ export async function readLimited(request: Request, maxBytes: number, tooLarge?:
   if (Number(request.headers.get('content-length') ?? '0') > maxBytes) throw refuse();
   if (!request.body) return new Uint8Array();
   const reader = request.body.getReader();
-  const chunks: Uint8Array[] = [];
+  // One buffer for the whole body: sized from Content-Length when it is given (and grown by doubling
+  // when the body runs past it or none was given), so a body is never held twice. The answer is the
+  // whole of its own buffer, which a worker thread can take over without a copy.
+  const declared = Number(request.headers.get('content-length') ?? '');
+  let out = new Uint8Array(Number.isSafeInteger(declared) && declared > 0 ? declared : 64 * 1024);
   let total = 0;
   for (;;) {
     const { done, value } = await reader.read();
     if (done) break;
-    total += value.byteLength;
-    if (total > maxBytes) {
+    if (total + value.byteLength > maxBytes) {
       await reader.cancel().catch(() => {});
       throw refuse();
     }
-    chunks.push(value);
+    if (total + value.byteLength > out.byteLength) {
+      const grown = new Uint8Array(Math.min(maxBytes, Math.max(out.byteLength * 2, total + value.byteLength)));
+      grown.set(out.subarray(0, total));
+      out = grown;
+    }
+    out.set(value, total);
+    total += value.byteLength;
   }
-  const out = new Uint8Array(total);
-  let off = 0;
-  for (const c of chunks) {
-    out.set(c, off);
-    off += c.byteLength;
-  }
-  return out;
+  return total === out.byteLength ? out : out.slice(0, total);
 }
 
 /** Parses with a zod schema or throws a 400 naming each field. */

@@ -1,23 +1,22 @@
 import type { Kysely } from 'kysely';
 import type { DB, MonitorLogRow } from '../../db/schema';
 import { planTimeline, type ResolvedPlan } from '../engine';
-import type { ForecastOverlap, MonitorLogDetail, MonitorLogDto, ColumnMapping } from '../domain/monitor/monitor.schema';
-import type { Sample } from '../domain/monitor/parse';
-import { bankLimits, refusalMessage, type LogPreview } from '../domain/monitor/monitor';
+import type { ForecastOverlap, MonitorLogDetail, MonitorLogDto, ColumnMapping, ReadingsPage } from '../domain/monitor/monitor.schema';
+import { bankLimits, type LogPreview } from '../domain/monitor/monitor';
 import { rigAccess, type Actor, type Need, type RigGrant } from './access';
 import { HttpError } from './errors';
 import { readLimited } from './http';
-import { lineIssues } from './upload';
-import { MAX_BODY_BYTES, SEND_AS, tooLarge, unpack } from './workers/monitor-task';
-import { logSeriesInPool, monitorLogInPool } from './workers/pool';
+import { MAX_BODY_BYTES, SEND_AS, tooLarge } from './workers/monitor-task';
+import type { LogSeries } from './workers/log-store';
+import { logSeriesInPool, monitorLogInPool, saveLogInPool } from './workers/pool';
 import { env } from './env';
-import { conflict, nowIso } from './versions';
+import { conflict } from './versions';
 
 // Monitor logs: a battery monitor's CSV (kept as uploaded) and its readings, saved together in one
 // transaction, and what they tell (night-time baseline, daily amp-hours, saved forecasts of the
 // same dates).
 
-type Row = Omit<MonitorLogRow, 'original'> & { creator_name: string | null };
+type Row = Omit<MonitorLogRow, 'original' | 'overview'> & { creator_name: string | null };
 
 function toDto(r: Row): MonitorLogDto {
   const mapping = JSON.parse(r.mapping) as ColumnMapping;
@@ -76,54 +75,6 @@ export async function listLogs(db: Kysely<DB>, rigId: string): Promise<MonitorLo
   return r.map(toDto);
 }
 
-/** Readings are inserted in batches of this many rows (6 values each, well under SQLite's variable limit). */
-const BATCH = 1000;
-
-/**
- * Saves the file as uploaded and every reading in one transaction: if any insert fails, neither
- * the log nor any of its readings is left behind.
- */
-export async function createLog(
-  db: Kysely<DB>,
-  input: { rigId: string; crewId: string; userId: string; name: string; original: Uint8Array; mapping: ColumnMapping; samples: Sample[] },
-): Promise<MonitorLogDto> {
-  const { samples } = input;
-  const first = samples[0];
-  const last = samples.at(-1);
-  if (!first || !last) throw new HttpError('invalid_request', 'The log has no readings to save.', [{ path: 'file', message: 'no readings' }]);
-  const id = crypto.randomUUID();
-  await db.transaction().execute(async (trx) => {
-    await trx
-      .insertInto('monitor_logs')
-      .values({
-        id,
-        crew_id: input.crewId,
-        rig_id: input.rigId,
-        name: input.name,
-        original: input.original,
-        original_bytes: input.original.byteLength,
-        mapping: JSON.stringify(input.mapping),
-        time_zone: input.mapping.timeZone,
-        sample_count: samples.length,
-        started_at: new Date(first.t).toISOString(),
-        ended_at: new Date(last.t).toISOString(),
-        created_by: input.userId,
-        created_at: nowIso(),
-      })
-      .execute();
-    for (let i = 0; i < samples.length; i += BATCH) {
-      await trx
-        .insertInto('monitor_samples')
-        .values(samples.slice(i, i + BATCH).map((s) => ({ log_id: id, t: s.t, volts: s.volts, amps: s.amps, soc_pct: s.socPct, temp_c: s.tempC })))
-        .execute();
-      // Let the event loop turn between batches: requests that need no database keep answering.
-      await new Promise((resolve) => setImmediate(resolve));
-    }
-  });
-  const row = await rows(db).where('monitor_logs.id', '=', id).executeTakeFirstOrThrow();
-  return toDto(row);
-}
-
 /** A monitor-log upload as received: the multipart body (at most 10 MB and a little framing) and its type. */
 export interface RawLogUpload {
   body: Uint8Array;
@@ -142,38 +93,67 @@ export async function readLogUpload(request: Request): Promise<RawLogUpload> {
   return { body: await readLimited(request, MAX_BODY_BYTES, tooLarge), contentType };
 }
 
-/** The uploaded log read as the save would read it, in the worker pool: with the sent mapping, else the detected one. */
-async function readLog(rig: RigGrant['rig'], upload: RawLogUpload, withSamples: boolean) {
-  const limits = bankLimits(JSON.parse(rig.bank) as { chemistry: string; capacityAh: number; nominalVolts?: number });
-  const out = await monitorLogInPool({ body: upload.body, contentType: upload.contentType, limits, withSamples });
-  if (!out.ok) throw new HttpError(out.code, out.message, out.issues, out.extra);
-  return out;
-}
-
-/** Step 1 of an upload: the detected (or sent) mapping, the first readings and every problem by line and column. */
+/** Step 1 of an upload, in the worker pool: the detected (or sent) mapping, the first readings and every problem by line and column. */
 export async function previewUpload(rig: RigGrant['rig'], upload: RawLogUpload): Promise<LogPreview & { fileName: string; bytes: number }> {
-  const out = await readLog(rig, upload, false);
+  const out = await monitorLogInPool({ body: upload.body, contentType: upload.contentType, limits: limitsOf(rig), withSamples: false });
+  if (!out.ok) throw new HttpError(out.code, out.message, out.issues, out.extra);
   return { ...out.preview, fileName: out.fileName, bytes: out.fileBytes };
 }
 
-/**
- * Step 2: saves the log read with the confirmed mapping. Any problem refuses the whole file (400,
- * issues `line 12.Voltage (V)`); else the file and its readings are saved in one transaction.
- */
-export async function saveUpload(db: Kysely<DB>, ctx: { rig: RigGrant['rig']; userId: string }, upload: RawLogUpload): Promise<MonitorLogDto & { warnings: string[] }> {
-  const { mapping, preview, samples, file, fileName, name } = await readLog(ctx.rig, upload, true);
-  if (!mapping) throw new HttpError('invalid_request', 'Confirm the column mapping before saving: send it in the field "mapping".', [{ path: 'mapping', message: 'send the confirmed column mapping' }]);
-  if (preview.errorCount > 0 || !samples || !file) {
-    throw new HttpError('invalid_request', refusalMessage(preview), lineIssues(preview.errors), { errors: preview.errors, errorCount: preview.errorCount });
-  }
-  const log = await createLog(db, { rigId: ctx.rig.id, crewId: ctx.rig.crew_id, userId: ctx.userId, name: (name || fileName).slice(0, 120), original: file, mapping, samples: unpack(samples) });
-  return { ...log, warnings: preview.warnings };
+function limitsOf(rig: RigGrant['rig']) {
+  return bankLimits(JSON.parse(rig.bank) as { chemistry: string; capacityAh: number; nominalVolts?: number });
 }
 
-/** Every reading of a log, in time order. */
-export async function logSamples(db: Kysely<DB>, logId: string): Promise<Sample[]> {
-  const r = await db.selectFrom('monitor_samples').select(['t', 'volts', 'amps', 'soc_pct', 'temp_c']).where('log_id', '=', logId).orderBy('t').execute();
-  return r.map((x) => ({ t: x.t, volts: x.volts, amps: x.amps, socPct: x.soc_pct, tempC: x.temp_c }));
+/**
+ * Step 2: saves the log read with the confirmed mapping. Reading, the readings' insert (one
+ * transaction, in batches) and the overview all happen in the worker pool on its own connection;
+ * this thread only waits. Any problem refuses the whole file (400, issues `line 12.Voltage (V)`).
+ */
+export async function saveUpload(db: Kysely<DB>, ctx: { rig: RigGrant['rig']; userId: string }, upload: RawLogUpload): Promise<MonitorLogDto & { warnings: string[] }> {
+  const out = await saveLogInPool({
+    body: upload.body,
+    contentType: upload.contentType,
+    limits: limitsOf(ctx.rig),
+    db: { url: env.DATABASE_URL, path: env.DATABASE_PATH },
+    rigId: ctx.rig.id,
+    crewId: ctx.rig.crew_id,
+    userId: ctx.userId,
+  });
+  if (!out.ok) throw new HttpError(out.code, out.message, out.issues, out.extra);
+  const row = await rows(db).where('monitor_logs.id', '=', out.id).executeTakeFirstOrThrow();
+  return { ...toDto(row), warnings: out.warnings };
+}
+
+/** The most readings one page gives, and how many when the caller names no limit. */
+export const MAX_READINGS_PAGE = 1000;
+export const DEFAULT_READINGS_PAGE = 200;
+
+/** `?after=<ms>&limit=<n>` of a readings page, checked (a 400 naming the field otherwise). */
+export function pageFrom(url: URL): { after: number | null; limit: number } {
+  const a = url.searchParams.get('after');
+  const l = url.searchParams.get('limit');
+  let after: number | null = null;
+  if (a !== null && a !== '') {
+    after = Number(a);
+    if (!Number.isSafeInteger(after))
+      throw new HttpError('invalid_request', 'after must be the time of the last reading you have, in milliseconds since 1970.', [{ path: 'after', message: 'expected a whole number of milliseconds' }]);
+  }
+  let limit = DEFAULT_READINGS_PAGE;
+  if (l !== null && l !== '') {
+    limit = Number(l);
+    if (!Number.isInteger(limit) || limit < 1 || limit > MAX_READINGS_PAGE)
+      throw new HttpError('invalid_request', `limit must be a whole number from 1 to ${MAX_READINGS_PAGE}.`, [{ path: 'limit', message: `from 1 to ${MAX_READINGS_PAGE}` }]);
+  }
+  return { after, limit };
+}
+
+/** One page of a log's readings in time order, after `after` (exclusive); `next` is the cursor of the following page, null at the end. */
+export async function logReadings(db: Kysely<DB>, logId: string, page: { after: number | null; limit: number }): Promise<ReadingsPage> {
+  let q = db.selectFrom('monitor_samples').select(['t', 'volts', 'amps', 'soc_pct', 'temp_c']).where('log_id', '=', logId);
+  if (page.after !== null) q = q.where('t', '>', page.after);
+  const r = await q.orderBy('t').limit(page.limit + 1).execute();
+  const items = r.slice(0, page.limit).map((x) => ({ t: x.t, volts: x.volts, amps: x.amps, socPct: x.soc_pct, tempC: x.temp_c }));
+  return { items, limit: page.limit, after: page.after, next: r.length > page.limit ? (items.at(-1)?.t ?? null) : null };
 }
 
 /** Saved forecasts of the rig that share hours with [fromMs, toMs]. */
@@ -203,14 +183,21 @@ async function overlappingForecasts(db: Kysely<DB>, rigId: string, fromMs: numbe
   return out.sort((a, b) => b.overlapHours - a.overlapHours || b.createdAt.localeCompare(a.createdAt));
 }
 
-/** A log with its thinned series and what it tells. */
-export async function logDetail(db: Kysely<DB>, log: MonitorLogDto): Promise<MonitorLogDetail> {
-  // The readings are read and thinned in the worker pool, on a read-only connection of its own.
-  const [told, forecasts] = await Promise.all([
-    logSeriesInPool({ dbPath: env.DATABASE_PATH, logId: log.id, timeZone: log.timeZone }),
+/** The log's stored overview; a log saved before overviews were kept gets one made in the worker pool (once). */
+async function overview(db: Kysely<DB>, log: MonitorLogDto): Promise<LogSeries> {
+  const r = await db.selectFrom('monitor_logs').select('overview').where('id', '=', log.id).executeTakeFirst();
+  if (r?.overview) return JSON.parse(r.overview) as LogSeries;
+  return logSeriesInPool({ db: { url: env.DATABASE_URL, path: env.DATABASE_PATH }, logId: log.id, timeZone: log.timeZone });
+}
+
+/** A log with its thinned overview, what it tells, and one page of its readings. */
+export async function logDetail(db: Kysely<DB>, log: MonitorLogDto, page: { after: number | null; limit: number }): Promise<MonitorLogDetail> {
+  const [told, forecasts, readings] = await Promise.all([
+    overview(db, log),
     overlappingForecasts(db, log.rigId, Date.parse(log.startedAt), Date.parse(log.endedAt)),
+    logReadings(db, log.id, page),
   ]);
-  return { ...log, ...told, forecasts };
+  return { ...log, ...told, forecasts, readings };
 }
 
 /** The file exactly as it was uploaded. */

@@ -116,4 +116,14 @@ export interface MonitorLogDetail extends MonitorLogDto {
   days: DayAh[];
   /** Saved forecasts of this rig whose dates the log covers, most overlap first. */
   forecasts: ForecastOverlap[];
+  /** One page of the readings as stored (`?after=&limit=`). */
+  readings: ReadingsPage;
+}
+
+/** A page of a log's readings in time order; `next` is the `after` of the following page (null: the last page). */
+export interface ReadingsPage {
+  items: SeriesPoint[];
+  limit: number;
+  after: number | null;
+  next: number | null;
 }

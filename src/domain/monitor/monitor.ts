@@ -38,14 +38,15 @@ export function refusalMessage(preview: Pick<LogPreview, 'errors' | 'errorCount'
 }
 
 /** Detects (when no mapping is given) and reads the whole file, as the save will. */
-export function previewLog(text: string, opts: { timeZone: string; mapping: ColumnMapping | null; limits: BankLimits | null }): { preview: LogPreview; parsed: ParseResult | null } {
+/** `keepAll: false` (a preview) keeps only the first readings and counts the rest. */
+export function previewLog(text: string, opts: { timeZone: string; mapping: ColumnMapping | null; limits: BankLimits | null; keepAll?: boolean }): { preview: LogPreview; parsed: ParseResult | null } {
   const detection = opts.mapping ? null : detectLog(text, opts.timeZone);
   const mapping: DetectedMapping = opts.mapping ?? detection!.mapping;
   let parsed: ParseResult | null = null;
   let errors: LogLineError[] = [];
   let errorCount = 0;
   if (mapping.time) {
-    parsed = parseLog(text, { ...mapping, time: mapping.time }, opts.limits);
+    parsed = parseLog(text, { ...mapping, time: mapping.time }, opts.limits, { keepAll: opts.keepAll ?? true });
     errors = parsed.errors;
     errorCount = parsed.errorCount;
   } else {
@@ -67,9 +68,9 @@ export function previewLog(text: string, opts: { timeZone: string; mapping: Colu
       errors,
       errorCount,
       warnings: parsed?.warnings ?? [],
-      count: samples.length,
-      from: samples[0]?.t ?? null,
-      to: samples.at(-1)?.t ?? null,
+      count: parsed?.count ?? 0,
+      from: parsed?.from ?? null,
+      to: parsed?.to ?? null,
     },
   };
 }

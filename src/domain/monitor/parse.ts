@@ -42,7 +42,14 @@ export interface ParseResult {
   warnings: string[];
   /** Cells of the header row, or "column N" names without a header. */
   headers: string[];
+  /** Readings read (all of them, also when only the first are kept), and the earliest and latest time. */
+  count: number;
+  from: number | null;
+  to: number | null;
 }
+
+/** How many readings a read that does not keep them all still keeps (the preview's first readings). */
+export const KEPT_WHEN_COUNTING = 10;
 
 export const MAX_ERRORS = 100;
 
@@ -134,7 +141,14 @@ export function columnNames(headerCells: string[] | null, count: number): string
  * Reads every line under the header with the mapping. Returns the readings sorted by time and
  * every problem by line and column; a caller saves nothing while `errorCount` > 0.
  */
-export function parseLog(text: string, mapping: ColumnMapping, limits: BankLimits | null): ParseResult {
+export function parseLog(text: string, mapping: ColumnMapping, limits: BankLimits | null, opts: { keepAll?: boolean } = {}): ParseResult {
+  // A preview keeps only the first readings and counts the rest, so a large log is read in little memory.
+  const keepAll = opts.keepAll ?? true;
+  let count = 0;
+  let from = Infinity;
+  let to = -Infinity;
+  let prevT = -Infinity;
+  let backwardsSeen = 0;
   const errors: LogLineError[] = [];
   let errorCount = 0;
   const warnings: string[] = [];
@@ -250,15 +264,22 @@ export function parseLog(text: string, mapping: ColumnMapping, limits: BankLimit
       empty++;
       return;
     }
-    samples.push({ t: time.ms, volts, amps, socPct, tempC });
-    lines.push(rec.line);
+    count++;
+    if (time.ms < prevT) backwardsSeen++;
+    prevT = time.ms;
+    if (time.ms < from) from = time.ms;
+    if (time.ms > to) to = time.ms;
+    if (keepAll || samples.length < KEPT_WHEN_COUNTING) {
+      samples.push({ t: time.ms, volts, amps, socPct, tempC });
+      lines.push(rec.line);
+    }
   };
 
   /** Once the first data lines are in: the width, the column names and the checks that stop the read. */
   const settle = (): boolean => {
     if (mapping.headerLine > 0 && !header) {
       push({ line: mapping.headerLine, column: null, message: `the file has no line ${mapping.headerLine} to read the header from` });
-      halt.result = { samples: [], lines: [], errors, errorCount, warnings, headers: [] };
+      halt.result = { samples: [], lines: [], errors, errorCount, warnings, headers: [], count: 0, from: null, to: null };
       return false;
     }
     // The width of the data lines (their most common cell count), or the header's when it is wider.
@@ -273,12 +294,12 @@ export function parseLog(text: string, mapping: ColumnMapping, limits: BankLimit
     const [outside] = needed.filter((c) => c >= width);
     if (outside !== undefined) {
       push({ line: Math.max(1, mapping.headerLine), column: null, message: `the file has ${width} columns; column ${outside + 1} does not exist` });
-      halt.result = { samples: [], lines: [], errors, errorCount, warnings, headers };
+      halt.result = { samples: [], lines: [], errors, errorCount, warnings, headers, count: 0, from: null, to: null };
       return false;
     }
     if (prefix.length === 0) {
       push({ line: Math.max(1, mapping.headerLine), column: null, message: mapping.headerLine > 0 ? 'The file has a header but no readings under it.' : 'The file has no readings.' });
-      halt.result = { samples: [], lines: [], errors, errorCount, warnings, headers };
+      halt.result = { samples: [], lines: [], errors, errorCount, warnings, headers, count: 0, from: null, to: null };
       return false;
     }
     for (const r of prefix) readLine(r);
@@ -297,14 +318,13 @@ export function parseLog(text: string, mapping: ColumnMapping, limits: BankLimit
   if (width < 0 && !halt.result) settle();
   if (halt.result) return halt.result;
 
-  if (errorCount === 0 && samples.length === 0) {
+  if (errorCount === 0 && count === 0) {
     push({ line: firstDataLine ?? Math.max(1, mapping.headerLine), column: null, message: 'No line under the header has a reading in the chosen columns.' });
   }
   if (empty > 0) warnings.push(`${empty} line${empty === 1 ? ' has' : 's have'} a time but no reading in the chosen columns; ${empty === 1 ? 'it is' : 'they are'} left out.`);
 
   // Readings are kept in time order; a log that jumps back suggests day and month are swapped.
-  let backwards = 0;
-  for (let i = 1; i < samples.length; i++) if (at(samples, i).t < at(samples, i - 1).t) backwards++;
+  const backwards = backwardsSeen;
   if (backwards > 0) {
     const order = samples.map((_, i) => i).sort((a, b) => at(samples, a).t - at(samples, b).t || a - b);
     const s2 = order.map((i) => at(samples, i, 'reading'));
@@ -314,5 +334,5 @@ export function parseLog(text: string, mapping: ColumnMapping, limits: BankLimit
     for (const [i, l] of l2.entries()) lines[i] = l;
     warnings.push(`${backwards} reading${backwards === 1 ? ' is' : 's are'} earlier than the line before; the readings were put in time order. If this is unexpected, check the time format (day first or month first).`);
   }
-  return { samples, lines, errors, errorCount, warnings, headers };
+  return { samples, lines, errors, errorCount, warnings, headers, count, from: count ? from : null, to: count ? to : null };
 }

@@ -13,7 +13,7 @@ import { forecastQueries } from '../forecast/forecast.queries';
 import { formatRowTime } from '../../lib/format';
 import { createLoad, updateLoad } from '../loads/loads.api';
 import { loadKeys, loadsQuery } from '../loads/loads.queries';
-import { deleteLog, originalUrl } from './monitor.api';
+import { deleteLog, fetchReadings, originalUrl } from './monitor.api';
 import { monitorKeys, monitorQueries } from './monitor.queries';
 import { formatBytes, formatDay, formatReadingTime } from '../../lib/format';
 import MeasuredChart from './MeasuredChart';
@@ -54,6 +54,7 @@ export default function LogView({ id, rig, onDeleted }: { id: string; rig: RigDt
       <NightDraw log={d} rig={rig} />
       <Days log={d} />
       <AgainstForecast log={d} />
+      <Readings log={d} />
     </article>
   );
 }
@@ -261,6 +262,79 @@ function AgainstForecast({ log }: { log: MonitorLogDetail }) {
         ) : null}
       </div>
       {body}
+    </section>
+  );
+}
+
+const PAGE = 50;
+
+/** The readings as stored, a page at a time (the server never sends them all at once). */
+function Readings({ log }: { log: MonitorLogDetail }) {
+  // Cursors of the pages seen so far: [null] is the first page; the last entry is the page shown.
+  const [cursors, setCursors] = useState<(number | null)[]>([null]);
+  const after = cursors.at(-1) ?? null;
+  const page = useQuery({
+    queryKey: [...monitorKeys.detail(log.id), 'readings', after, PAGE],
+    queryFn: ({ signal }) => fetchReadings(log.id, after, PAGE, signal),
+    staleTime: Infinity,
+    placeholderData: (prev) => prev,
+  });
+  const n = cursors.length;
+  const first = (n - 1) * PAGE + 1;
+  return (
+    <section className="card space-y-3 p-4" aria-labelledby={`readings-${log.id}`}>
+      <h4 id={`readings-${log.id}`} className="text-base font-extrabold">Each reading</h4>
+      {page.isError ? (
+        <ErrorState error={page.error} title="Couldn't load these readings." onRetry={() => page.refetch()} />
+      ) : !page.data ? (
+        <LoadingState label="Loading readings…" />
+      ) : (
+        <>
+          <p className="text-sm text-slate-text" aria-live="polite" data-testid="readings-range">
+            Readings {first.toLocaleString('en-GB')}–{(first + page.data.items.length - 1).toLocaleString('en-GB')} of {log.sampleCount.toLocaleString('en-GB')}
+          </p>
+          <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Readings (scrolls sideways)">
+            <table className="w-full min-w-[22rem] text-sm tabular-nums" data-testid="readings-table">
+              <thead>
+                <tr className="border-b border-sand-dark text-left">
+                  <th scope="col" className="py-1 pr-3">Time ({log.timeZone})</th>
+                  {log.has.volts ? <th scope="col" className="py-1 pr-3 text-right">V</th> : null}
+                  {log.has.amps ? <th scope="col" className="py-1 pr-3 text-right">A</th> : null}
+                  {log.has.soc ? <th scope="col" className="py-1 pr-3 text-right">SOC %</th> : null}
+                  {log.has.temperature ? <th scope="col" className="py-1 text-right">°C</th> : null}
+                </tr>
+              </thead>
+              <tbody>
+                {page.data.items.map((r) => (
+                  <tr key={r.t} className="border-b border-sand">
+                    <th scope="row" className="py-1 pr-3 text-left font-normal">{formatReadingTime(r.t, log.timeZone, true)}</th>
+                    {log.has.volts ? <td className="py-1 pr-3 text-right">{r.volts?.toFixed(2) ?? '–'}</td> : null}
+                    {log.has.amps ? <td className="py-1 pr-3 text-right">{r.amps?.toFixed(2) ?? '–'}</td> : null}
+                    {log.has.soc ? <td className="py-1 pr-3 text-right">{r.socPct?.toFixed(1) ?? '–'}</td> : null}
+                    {log.has.temperature ? <td className="py-1 text-right">{r.tempC?.toFixed(1) ?? '–'}</td> : null}
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+          <div className="flex gap-2">
+            <button type="button" className="btn btn-quiet text-sm" disabled={n === 1 || page.isFetching} onClick={() => setCursors((c) => c.slice(0, -1))}>
+              Earlier readings
+            </button>
+            <button
+              type="button"
+              className="btn btn-quiet text-sm"
+              disabled={page.data.next === null || page.isFetching}
+              onClick={() => {
+                const next = page.data?.next;
+                if (next !== null && next !== undefined) setCursors((c) => [...c, next]);
+              }}
+            >
+              Later readings
+            </button>
+          </div>
+        </>
+      )}
     </section>
   );
 }

@@ -1,6 +1,6 @@
 // Plain fetchers for monitor logs; hooks live in monitor.queries.ts and the islands.
 import type { DetectedMapping } from '../../domain/monitor/detect';
-import type { ColumnMapping, MonitorLogDetail, MonitorLogDto } from '../../domain/monitor/monitor.schema';
+import type { ColumnMapping, MonitorLogDetail, MonitorLogDto, ReadingsPage } from '../../domain/monitor/monitor.schema';
 import type { LogPreview } from '../../domain/monitor/monitor';
 import { apiFetch } from '../../lib/query-client';
 
@@ -12,6 +12,10 @@ const rigPath = (rigId: string) => `/api/rigs/${encodeURIComponent(rigId)}/monit
 export const fetchLogs = (rigId: string, signal?: AbortSignal) => apiFetch<MonitorLogDto[]>(rigPath(rigId), { signal });
 
 export const fetchLog = (id: string, signal?: AbortSignal) => apiFetch<MonitorLogDetail>(`/api/monitor-logs/${encodeURIComponent(id)}`, { signal });
+
+/** One page of a log's readings after `after` (ms; null: from the first). */
+export const fetchReadings = (id: string, after: number | null, limit: number, signal?: AbortSignal) =>
+  apiFetch<ReadingsPage>(`/api/monitor-logs/${encodeURIComponent(id)}/readings?limit=${limit}${after === null ? '' : `&after=${after}`}`, { signal });
 
 function form(file: File, timeZone: string, mapping: DetectedMapping | ColumnMapping | null, name?: string): FormData {
   const f = new FormData();

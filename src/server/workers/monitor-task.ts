@@ -1,14 +1,15 @@
 // Reading an uploaded monitor log inside the worker pool: decode, check the caps line by line,
-// detect (or apply the sent mapping) and parse. Pure: the bytes come in, plain data goes out (no
-// HttpError crosses the thread; the caller turns a refusal into one). Readings travel back as
-// typed arrays, which move between threads without copying.
+// detect (or apply the sent mapping) and parse. The bytes come in, plain data goes out (no
+// HttpError crosses the thread; the caller turns a refusal into one). Readings never leave the
+// thread: a save writes them to the database from here.
 import { isValidTimeZone } from '../../engine';
-import { previewLog, type LogPreview } from '../../domain/monitor/monitor';
+import { previewLog, refusalMessage, type LogPreview } from '../../domain/monitor/monitor';
 import { mappingSchema, type ColumnMapping } from '../../domain/monitor/monitor.schema';
 import type { BankLimits, Sample } from '../../domain/monitor/parse';
 import { HttpError, type ErrorCode } from '../errors';
 import { zodIssues } from '../http';
-import { decodeCsvBytes, multipartInPlace, type MultipartRules } from '../upload';
+import { decodeCsvBytes, lineIssues, multipartInPlace, type MultipartRules } from '../upload';
+import { insertLog, threadDb, type DbTarget } from './log-store';
 
 /** The longest line a monitor log may have (a real export's lines are well under 200 characters). */
 export const MAX_LINE_CHARS = 4096;
@@ -44,16 +45,8 @@ export interface MonitorLogTask {
   body: Uint8Array;
   contentType: string;
   limits: BankLimits | null;
-  /** true for a save: the readings and the file come back too. */
+  /** true for a save: every reading is kept (a preview keeps the first and counts the rest). */
   withSamples: boolean;
-}
-
-export interface PackedSamples {
-  t: Float64Array;
-  volts: Float64Array;
-  amps: Float64Array;
-  socPct: Float64Array;
-  tempC: Float64Array;
 }
 
 export type MonitorLogOutcome =
@@ -61,14 +54,11 @@ export type MonitorLogOutcome =
   | {
       ok: true;
       preview: LogPreview;
-      samples: PackedSamples | null;
       fileName: string;
       /** The name typed for the log, if any. */
       name: string | null;
-      /** The mapping sent with the upload (a save needs one). */
+      /** The mapping sent with the upload. */
       mapping: ColumnMapping | null;
-      /** The file as uploaded (a save stores it). */
-      file: Uint8Array | null;
       fileBytes: number;
     };
 
@@ -141,77 +131,113 @@ function capped(preview: LogPreview): LogPreview {
   return out;
 }
 
-function pack(samples: Sample[]): PackedSamples {
-  const n = samples.length;
-  const p: PackedSamples = {
-    t: new Float64Array(n),
-    volts: new Float64Array(n),
-    amps: new Float64Array(n),
-    socPct: new Float64Array(n),
-    tempC: new Float64Array(n),
-  };
-  samples.forEach((s, i) => {
-    p.t[i] = s.t;
-    p.volts[i] = s.volts ?? NaN;
-    p.amps[i] = s.amps ?? NaN;
-    p.socPct[i] = s.socPct ?? NaN;
-    p.tempC[i] = s.tempC ?? NaN;
-  });
-  return p;
-}
-
-/** Readings back from their typed arrays (NaN = not measured). */
-export function unpack(p: PackedSamples): Sample[] {
-  const v = (x: number) => (Number.isNaN(x) ? null : x);
-  return Array.from(p.t, (t, i) => ({ t, volts: v(p.volts[i]!), amps: v(p.amps[i]!), socPct: v(p.socPct[i]!), tempC: v(p.tempC[i]!) }));
-}
+type Read =
+  | { ok: false; outcome: MonitorLogOutcome }
+  | { ok: true; preview: LogPreview; samples: Sample[] | null; fileName: string; name: string | null; mapping: ColumnMapping | null; file: Uint8Array; fileBytes: number };
 
 /**
  * Reads the multipart form, checks the file's name, mapping and time zone, decodes it, checks the
- * caps, detects or applies the mapping and parses the whole file. A refusal comes back as data.
+ * caps, detects or applies the mapping and parses the file line by line (keeping every reading only
+ * for a save). A refusal comes back as data.
  */
-export async function readMonitorLog(task: MonitorLogTask): Promise<MonitorLogOutcome> {
+function readUpload(task: MonitorLogTask): Read {
   try {
     // The body moved here from the request thread; the file is a view into it, never copied.
     const upload = multipartInPlace(task.body, task.contentType, UPLOAD_RULES);
     if (!ALLOWED_EXTENSIONS.test(upload.fileName) && /\.[a-z0-9]{1,5}$/i.test(upload.fileName)) {
-      return refuse(
-        `"${upload.fileName.slice(0, 80)}" is not a CSV. Export the monitor's log as CSV (.csv or .txt) and upload that.`,
-        'file',
-        'expected a .csv, .tsv or .txt file',
-        'unsupported_media_type',
-      );
+      return {
+        ok: false,
+        outcome: refuse(
+          `"${upload.fileName.slice(0, 80)}" is not a CSV. Export the monitor's log as CSV (.csv or .txt) and upload that.`,
+          'file',
+          'expected a .csv, .tsv or .txt file',
+          'unsupported_media_type',
+        ),
+      };
     }
     const decoded = decodeCsvBytes(upload.bytes);
     if (!decoded.ok) {
       const empty = upload.bytes.byteLength === 0 || /empty/.test(decoded.message);
-      return refuse(
-        decoded.message,
-        'file',
-        empty ? 'the file is empty' : 'not a text CSV',
-        empty ? 'invalid_request' : 'unsupported_media_type',
-      );
+      return {
+        ok: false,
+        outcome: refuse(decoded.message, 'file', empty ? 'the file is empty' : 'not a text CSV', empty ? 'invalid_request' : 'unsupported_media_type'),
+      };
     }
     const mapping = mappingFrom(upload.fields.get('mapping'));
     const timeZone = upload.fields.get('timeZone')?.trim() || mapping?.timeZone || 'UTC';
     if (!isValidTimeZone(timeZone))
-      return refuse('The time zone is not one we know.', 'timeZone', 'must be an IANA time zone such as America/Denver');
+      return { ok: false, outcome: refuse('The time zone is not one we know.', 'timeZone', 'must be an IANA time zone such as America/Denver') };
     const problem = capsProblem(decoded.text);
-    if (problem) return problem;
-    const { preview, parsed } = previewLog(decoded.text, { timeZone, mapping, limits: task.limits });
+    if (problem) return { ok: false, outcome: problem };
+    const { preview, parsed } = previewLog(decoded.text, { timeZone, mapping, limits: task.limits, keepAll: task.withSamples });
     const keep = task.withSamples && parsed !== null && preview.errorCount === 0;
     return {
       ok: true,
       preview: capped(preview),
-      samples: keep ? pack(parsed.samples) : null,
+      samples: keep ? parsed.samples : null,
       fileName: upload.fileName,
       name: upload.fields.get('name')?.trim() || null,
       mapping,
-      file: keep ? upload.bytes : null,
+      file: upload.bytes,
       fileBytes: upload.bytes.byteLength,
     };
   } catch (e) {
-    if (e instanceof HttpError) return { ok: false, code: e.code, message: e.message, issues: e.issues, extra: e.extra };
+    if (e instanceof HttpError) return { ok: false, outcome: { ok: false, code: e.code, message: e.message, issues: e.issues, extra: e.extra } };
     throw e;
   }
+}
+
+/** A preview: what the file holds read with the sent (or detected) mapping; nothing is kept. */
+export async function readMonitorLog(task: MonitorLogTask): Promise<MonitorLogOutcome> {
+  const r = readUpload({ ...task, withSamples: false });
+  if (!r.ok) return r.outcome;
+  return { ok: true, preview: r.preview, fileName: r.fileName, name: r.name, mapping: r.mapping, fileBytes: r.fileBytes };
+}
+
+export interface SaveLogTask extends Omit<MonitorLogTask, 'withSamples'> {
+  db: DbTarget;
+  rigId: string;
+  crewId: string;
+  userId: string;
+}
+
+export type SaveLogOutcome =
+  | { ok: false; code: ErrorCode; message: string; issues: { path: string; message: string }[]; extra?: Record<string, unknown> }
+  | { ok: true; id: string; warnings: string[] };
+
+/**
+ * A save, all of it here: the file read with the confirmed mapping, then the file, its readings and
+ * their overview written in one transaction on this thread's own connection. Any problem refuses
+ * the whole file (issues `line 12.Voltage (V)`).
+ */
+export async function saveMonitorLog(task: SaveLogTask): Promise<SaveLogOutcome> {
+  const r = readUpload({ ...task, withSamples: true });
+  if (!r.ok) return r.outcome as SaveLogOutcome;
+  if (!r.mapping) {
+    return {
+      ok: false,
+      code: 'invalid_request',
+      message: 'Confirm the column mapping before saving: send it in the field "mapping".',
+      issues: [{ path: 'mapping', message: 'send the confirmed column mapping' }],
+    };
+  }
+  if (r.preview.errorCount > 0 || !r.samples || r.samples.length === 0) {
+    return {
+      ok: false,
+      code: 'invalid_request',
+      message: refusalMessage(r.preview),
+      issues: lineIssues(r.preview.errors),
+      extra: { errors: r.preview.errors, errorCount: r.preview.errorCount },
+    };
+  }
+  const id = await insertLog(threadDb(task.db), {
+    rigId: task.rigId,
+    crewId: task.crewId,
+    userId: task.userId,
+    name: (r.name || r.fileName).slice(0, 120),
+    original: r.file,
+    mapping: r.mapping,
+    samples: r.samples,
+  });
+  return { ok: true, id, warnings: r.preview.warnings };
 }

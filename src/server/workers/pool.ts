@@ -4,7 +4,7 @@ import path from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { Piscina } from 'piscina';
 import { HttpError } from '../errors';
-import type { MonitorLogOutcome, MonitorLogTask } from './monitor-task';
+import type { MonitorLogOutcome, MonitorLogTask, SaveLogOutcome, SaveLogTask } from './monitor-task';
 import type { HandPlanTask, LogDetailTask, LogSeries, SweepTask, handPlan, sweep } from './tasks';
 import type { ResolvedPlan } from '../../engine';
 import type { RunOutcome } from '../../domain/weather/band';
@@ -89,8 +89,22 @@ export function handPlanInPool(task: HandPlanTask): Promise<ReturnType<typeof ha
  * body is moved to the thread, not copied (it is unusable here afterwards; a save gets the file back).
  */
 export function monitorLogInPool(task: MonitorLogTask): Promise<MonitorLogOutcome> {
-  const own = task.body.byteOffset === 0 && task.body.byteLength === task.body.buffer.byteLength ? task.body : task.body.slice();
+  const own = whole(task.body);
   return run('monitorLog', { ...task, body: own }, [own.buffer as ArrayBuffer]);
+}
+
+/** The body as the whole of its own buffer (what readLimited gives): then it moves without a copy. */
+function whole(body: Uint8Array): Uint8Array {
+  return body.byteOffset === 0 && body.byteLength === body.buffer.byteLength ? body : body.slice();
+}
+
+/**
+ * Reads an uploaded log and saves it, readings and overview, all in the worker pool (its own
+ * connection, one transaction): the request thread only waits. The body moves to the thread.
+ */
+export function saveLogInPool(task: SaveLogTask): Promise<SaveLogOutcome> {
+  const own = whole(task.body);
+  return run('saveLog', { ...task, body: own }, [own.buffer as ArrayBuffer]);
 }
 
 /** A saved log's thinned series and what it tells, read and computed off the request thread. */

@@ -1,15 +1,12 @@
 // The worker pool's tasks: CPU-heavy work that must never run on the request thread (an upgrade
-// sweep, reading a monitor log). Pure: no database, no environment, no clock. The build bundles this
+// sweep, reading and saving a monitor log). No environment: a task that writes is told where the database is. The build bundles this
 // file on its own into <build>/server/workers/tasks.mjs (astro.config.mjs), which the pool runs.
 import { runSweep, type SweepResult } from '../../domain/proposals/sweep';
 import { runHandPlan, type HandPlan, type HandPlanResult } from '../../domain/proposals/sweep-edit';
 import { PlanValidationError, type ResolvedPlan } from '../../engine';
 import type { Candidates, PriceList } from '../../domain/proposals/proposals.schema';
-import Database from 'better-sqlite3';
-import { dailyAh, nightBaseline, nightTemperature, type BaselineResult, type DayAh } from '../../domain/monitor/baseline';
-import type { Sample } from '../../domain/monitor/parse';
-import { downsample, type SeriesPoint } from '../../domain/monitor/series';
-import { readMonitorLog, type MonitorLogTask, type MonitorLogOutcome } from './monitor-task';
+import { readMonitorLog, saveMonitorLog, type MonitorLogTask, type MonitorLogOutcome, type SaveLogOutcome, type SaveLogTask } from './monitor-task';
+import { storedOverview, type DbTarget, type LogSeries } from './log-store';
 import { runBandPlans } from '../../domain/weather/band-run';
 import type { RunOutcome } from '../../domain/weather/band';
 
@@ -58,43 +55,20 @@ export function monitorLog(task: MonitorLogTask): Promise<MonitorLogOutcome> {
   return readMonitorLog(task);
 }
 
+/** Reads an uploaded log with its confirmed mapping and saves it, readings and overview, on this thread's connection. */
+export function saveLog(task: SaveLogTask): Promise<SaveLogOutcome> {
+  return saveMonitorLog(task);
+}
+
 export interface LogDetailTask {
-  dbPath: string;
+  db: DbTarget;
   logId: string;
   timeZone: string;
 }
 
-export interface LogSeries {
-  series: SeriesPoint[];
-  baseline: BaselineResult;
-  nightTempC: number | null;
-  days: DayAh[];
+/** A saved log's overview made from its readings (a log saved before overviews were kept), and stored. */
+export function logSeries(task: LogDetailTask): Promise<LogSeries> {
+  return storedOverview(task.db, task.logId, task.timeZone);
 }
 
-const readers = new Map<string, Database.Database>();
-
-/** A read-only connection of this thread's own (WAL: it never holds up the server's writes). */
-function reader(dbPath: string): Database.Database {
-  let d = readers.get(dbPath);
-  if (!d) {
-    d = new Database(dbPath, { readonly: true, fileMustExist: true });
-    d.pragma('busy_timeout = 5000');
-    readers.set(dbPath, d);
-  }
-  return d;
-}
-
-/** A saved log's readings thinned for a chart, its night-time baseline and daily amp-hours, read and computed here. */
-export function logSeries(task: LogDetailTask): LogSeries {
-  const rows = reader(task.dbPath)
-    .prepare('select t, volts, amps, soc_pct, temp_c from monitor_samples where log_id = ? order by t')
-    .raw()
-    .all(task.logId) as [number, number | null, number | null, number | null, number | null][];
-  const samples: Sample[] = rows.map(([t, volts, amps, socPct, tempC]) => ({ t, volts, amps, socPct, tempC }));
-  return {
-    series: downsample(samples),
-    baseline: nightBaseline(samples, task.timeZone),
-    nightTempC: nightTemperature(samples, task.timeZone),
-    days: dailyAh(samples, task.timeZone),
-  };
-}
+export type { LogSeries };
