@@ -166,7 +166,8 @@ async function serve() {
   });
 
   // Finish the requests in flight, then exit; a stuck connection does not hold the process past 5 s.
-  const stop = () => {
+  const stop = async () => {
+    if (stopProfile) await stopProfile();
     server.close(() => process.exit(0));
     server.closeIdleConnections?.();
     setTimeout(() => process.exit(0), 5000).unref();
@@ -253,6 +254,27 @@ function sendStatic(req, res, file) {
   res.writeHead(200, headers);
   res.end(req.method === 'HEAD' ? undefined : body);
 }
+
+/**
+ * SUNRECKON_CPU_PROFILE=<folder>: each serving process records a V8 CPU profile from start and
+ * writes <folder>/<pid>.cpuprofile when it stops (Chrome DevTools or `node --cpu-prof` tooling read
+ * it). The measuring scripts start the server through this file, where `node --cpu-prof` cannot be
+ * passed; see DEVELOPERS.md, Performance.
+ */
+async function startProfile(dir) {
+  const { Session } = await import('node:inspector/promises');
+  const { mkdirSync, writeFileSync } = await import('node:fs');
+  const session = new Session();
+  session.connect();
+  await session.post('Profiler.enable');
+  await session.post('Profiler.start');
+  return async () => {
+    const { profile } = await session.post('Profiler.stop');
+    mkdirSync(dir, { recursive: true });
+    writeFileSync(path.join(dir, `${process.pid}.cpuprofile`), JSON.stringify(profile));
+  };
+}
+const stopProfile = process.env.SUNRECKON_CPU_PROFILE && !(cluster.isPrimary && concurrency > 1) ? await startProfile(process.env.SUNRECKON_CPU_PROFILE) : null;
 
 if (cluster.isPrimary && concurrency > 1) await primary(concurrency);
 else await serve();
