@@ -35,6 +35,10 @@ export interface CheckInOutcome {
   firstCutoffAt: string | null;
   /** The next cutoff after the bank reconnects (a reading at the floor cuts off at once; this is when it runs out again). */
   nextCutoffAt: string | null;
+  /** When charging first reconnects the bank after its first cutoff; null: it never does before the trip ends (absent on check-ins stored before this was kept). */
+  reconnectAt?: string | null;
+  /** Hours with unmet load (absent on older check-ins). */
+  unmetHours?: number;
   /** Name of the stop where the bank cuts off. */
   cutoffStop: string | null;
   minSocPct: number;

@@ -248,11 +248,25 @@ export function outcomeOf(f: Forecast): CheckInOutcome {
     .filter((w) => (w.code === 'floor-cutoff' || w.code === 'voltage-cutoff') && Date.parse(w.at) > first)
     .map((w) => w.at)
     .sort((a, b) => Date.parse(a) - Date.parse(b))[0] ?? null;
+  // The first hour after the first cutoff in which the bank is connected again.
+  const cutIndex = s.firstCutoffAt ? f.hourly.findIndex((r) => r.time === s.firstCutoffAt) : -1;
+  let reconnectAt: string | null = null;
+  if (cutIndex >= 0) {
+    for (let i = cutIndex + 1; i < f.hourly.length; i++) {
+      const r = f.hourly[i]!;
+      if (!r.disconnected) {
+        reconnectAt = r.time;
+        break;
+      }
+    }
+  }
   return {
     startAt: f.hourly[0]?.time ?? '',
     startSocPct: s.startSocPct,
     firstCutoffAt: s.firstCutoffAt,
     nextCutoffAt: next,
+    reconnectAt,
+    unmetHours: f.hourly.filter((r) => r.unmetWatts > 0).length,
     cutoffStop: cutRow ? (f.stops[cutRow.stop]?.name ?? null) : null,
     minSocPct: s.minSocPct,
     minSocAt: s.minSocAt,

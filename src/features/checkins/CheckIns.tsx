@@ -12,6 +12,7 @@ import { tripForecastQueries } from '../trip-forecasts/trip-forecasts.queries';
 import { discard, enqueue, flushOutbox, listQueued, onOutboxChange, type QueuedCheckIn } from '../offline/outbox';
 import { deleteCheckIn } from './checkins.api';
 import { checkInKeys, checkInQueries } from './checkins.queries';
+import { outcomeSentence } from '../../domain/checkins/sentence';
 import { computeCheckIn, fromHour, localInputToIso, newCheckInId, nowInputValue, type Basis } from '../../domain/checkins/checkins';
 import { IslandQueryProvider } from '../../components/ui/QueryProvider';
 
@@ -280,13 +281,14 @@ function cutNow(o: CheckInOutcome): boolean {
   return o.firstCutoffAt !== null && o.firstCutoffAt === o.startAt && o.startSocPct <= o.floorSocPct;
 }
 
-function verdictOf(o: { firstCutoffAt: string | null; minSocPct: number; minSocAt: string }, stop?: string | null): string {
-  if ('floorSocPct' in o && cutNow(o as CheckInOutcome)) {
-    const c = o as CheckInOutcome;
-    const then = c.nextCutoffAt ? `; then it runs out again ${formatRowTime(c.nextCutoffAt)}` : '; after that it lasts the trip';
-    return `At or below the bank’s ${c.floorSocPct.toFixed(0)} % floor now: cut off until charging lifts it to ${(c.floorSocPct + 5).toFixed(0)} %${then}`;
-  }
-  return o.firstCutoffAt ? `Runs out ${formatRowTime(o.firstCutoffAt)}${stop ? ` at ${stop}` : ''}` : `Makes it — lowest ${o.minSocPct.toFixed(0)} % on ${formatRowTime(o.minSocAt)}`;
+/** What the saved forecast said, in short. */
+function verdictOf(o: PreviousOutcome): string {
+  return o.firstCutoffAt ? `Runs out ${formatRowTime(o.firstCutoffAt)}` : `Makes it — lowest ${o.minSocPct.toFixed(0)} % on ${formatRowTime(o.minSocAt)}`;
+}
+
+/** What the re-forecast says, from its computed outcome (cutoff, reconnect, next cutoff, unmet Wh). */
+function saysOf(o: CheckInOutcome): string {
+  return outcomeSentence(o, formatRowTime, o.cutoffStop);
 }
 
 function hoursBetween(a: string, b: string): number {
@@ -333,7 +335,7 @@ function Featured({ entry, basis }: { entry: Entry; basis: Basis | null }) {
         <div className="grid gap-3 sm:grid-cols-2">
           <div className={`rounded-xl p-3 ${o.firstCutoffAt ? 'bg-[#fbe9df]' : 'bg-[#e6efe7]'}`}>
             <p className="text-xs font-bold uppercase tracking-wide text-slate-text">Now</p>
-            <p className="text-lg font-extrabold" data-testid="new-cutoff">{verdictOf(o, o.cutoffStop)}</p>
+            <p className="text-lg font-extrabold" data-testid="new-cutoff">{saysOf(o)}</p>
           </div>
           <div className="rounded-xl bg-sand p-3">
             <p className="text-xs font-bold uppercase tracking-wide text-slate-text">{entry.previous ? `Saved forecast “${entry.previous.name}”` : 'Saved forecast'}</p>
@@ -390,7 +392,7 @@ function EntryRow({ entry, canEdit, onDelete, deleting }: { entry: Entry; canEdi
         <p className="font-bold">
           {readingText(entry)} · {formatRowTime(o?.startAt ?? entry.at)}
         </p>
-        <p className="text-sm text-slate-text">{o ? verdictOf(o, o.cutoffStop) : 'Re-forecast when it reaches the server.'}</p>
+        <p className="text-sm text-slate-text">{o ? saysOf(o) : 'Re-forecast when it reaches the server.'}</p>
       </div>
       {badge ? <span className={`self-start rounded-full px-3 py-1 text-sm font-bold sm:self-center ${badge.cls}`}>{badge.text}</span> : null}
       {canEdit && entry.status === 'saved' ? (
