@@ -1,7 +1,7 @@
 import type { Kysely } from 'kysely';
 import type { DB } from '../../db/schema';
 import type { Forecast, ResolvedPlan } from '../engine';
-import { buildBand, hasFetchedDays, skyPlans, yearPlans, type Band, type WeatherSources } from '../domain/weather/band';
+import { bandTask, buildBand, type Band, type WeatherSources } from '../domain/weather/band';
 import type { StopLike } from '../domain/weather/weather';
 import type { TripDto } from '../domain/trips/trips.schema';
 import { env } from './env';
@@ -40,8 +40,9 @@ export async function bandFor(typedTrip: TripDto, fill: TripWeather, plan: Resol
   // The camper's own stops (typed days only), not the filled ones.
   const stops = typedTrip.stops as unknown as StopLike[];
   const times = result.hourly.map((r) => r.time);
-  const runs = fill.kind === 'far' && fill.pastYears.length >= 2 ? yearPlans(plan, stops, fill.pastYears) : hasFetchedDays(plan) ? skyPlans(plan) : [];
-  if (runs.length === 0) return null;
-  const outcomes = await weatherBandInPool(runs.map((r) => r.plan));
-  return buildBand(fill.kind === 'far' && fill.pastYears.length >= 2 ? 'years' : 'skies', runs, outcomes, times);
+  // The worker builds the plans: handing over ten built plans cost the request thread several ms.
+  const band = bandTask(plan, stops, fill);
+  if (!band) return null;
+  const outcomes = await weatherBandInPool(band.task);
+  return buildBand(band.task.kind, band.labels, outcomes, times);
 }

@@ -6,8 +6,7 @@ import { Piscina } from 'piscina';
 import { HttpError } from '../errors';
 import type { MonitorLogOutcome, MonitorLogTask, SaveLogOutcome, SaveLogTask } from './monitor-task';
 import type { HandPlanTask, LogDetailTask, LogSeries, SweepTask, handPlan, sweep } from './tasks';
-import type { ResolvedPlan } from '../../engine';
-import type { RunOutcome } from '../../domain/weather/band';
+import type { BandTask, RunOutcome } from '../../domain/weather/band';
 
 // The worker pool for CPU-heavy work (upgrade sweeps, reading monitor logs): the request thread only
 // hands the task over and waits, so /api/health and every other request keep answering.
@@ -112,7 +111,7 @@ export function logSeriesInPool(task: LogDetailTask): Promise<LogSeries> {
   return run('logSeries', task);
 }
 
-/** A trip re-run under each weather of its band, off the request thread. */
-export function weatherBandInPool(plans: ResolvedPlan[]): Promise<RunOutcome[]> {
-  return run('weatherBand', plans);
+/** A trip re-run under each weather of its band, off the request thread (the plans are built there too). */
+export function weatherBandInPool(task: BandTask): Promise<RunOutcome[]> {
+  return run('weatherBand', task);
 }

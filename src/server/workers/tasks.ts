@@ -7,8 +7,8 @@ import { PlanValidationError, type ResolvedPlan } from '../../engine';
 import type { Candidates, PriceList } from '../../domain/proposals/proposals.schema';
 import { readMonitorLog, saveMonitorLog, type MonitorLogTask, type MonitorLogOutcome, type SaveLogOutcome, type SaveLogTask } from './monitor-task';
 import { storedOverview, type DbTarget, type LogSeries } from './log-store';
-import { runBandPlans } from '../../domain/weather/band-run';
-import type { RunOutcome } from '../../domain/weather/band';
+import { runBandTask } from '../../domain/weather/band-run';
+import type { BandTask, RunOutcome } from '../../domain/weather/band';
 
 export interface SweepTask {
   forecastId: string;
@@ -45,9 +45,9 @@ export function handPlan(task: HandPlanTask): { ok: true; result: HandPlanResult
   }
 }
 
-/** A trip re-run under each weather of its band ("how sure is this?"): one engine run per plan. */
-export function weatherBand(plans: ResolvedPlan[]): RunOutcome[] {
-  return runBandPlans(plans);
+/** A trip re-run under each weather of its band ("how sure is this?"): its plans built here, one engine run each. */
+export function weatherBand(task: BandTask): RunOutcome[] {
+  return runBandTask(task);
 }
 
 /** Reads an uploaded monitor log's form, then decodes, detects and parses it within the caps. */
