@@ -178,3 +178,43 @@ export function nightTemperature(samples: Sample[], timeZone: string, fromHour =
 export function suggestedParasiticWatts(baseline: NightBaseline, nominalVolts: number, planned: PlannedNightDraw): number {
   return Math.max(0, Math.round((baseline.drawA * nominalVolts - planned.watts) * 10) / 10);
 }
+
+/** The parasitic estimate with its working: measured night draw, what the loads already run then, the rest. */
+export interface ParasiticWorking {
+  /** The measured night baseline in watts (median amps × the bank's nominal volts). */
+  measuredW: number;
+  /** What the rig's other loads are scheduled to draw in the same hours. */
+  scheduledW: number;
+  /** measured − scheduled, never below zero. */
+  parasiticW: number;
+  /** The arithmetic in words, e.g. "2.20 A × 12.8 V = 28.2 W measured − 18.0 W scheduled = 10.2 W". */
+  text: string;
+}
+
+const w1 = (x: number) => `${(Math.round(x * 10) / 10).toFixed(1)} W`;
+
+export function parasiticWorking(baseline: NightBaseline, nominalVolts: number, planned: PlannedNightDraw): ParasiticWorking {
+  const measuredW = Math.round(baseline.drawA * nominalVolts * 10) / 10;
+  const parasiticW = suggestedParasiticWatts(baseline, nominalVolts, planned);
+  const raw = measuredW - planned.watts;
+  return {
+    measuredW,
+    scheduledW: planned.watts,
+    parasiticW,
+    text: `${baseline.drawA.toFixed(2)} A × ${nominalVolts} V = ${w1(measuredW)} measured − ${w1(planned.watts)} scheduled = ${raw < 0 ? `${w1(raw)}, so ${w1(0)}` : w1(parasiticW)}`,
+  };
+}
+
+/**
+ * The watts typed for the parasitic draw: a number from 0 to 5000; empty is refused, and 0 only
+ * when the camper confirms the rig draws nothing with everything off (a 0 wipes the standby load).
+ */
+export function readParasiticWatts(typed: string, zeroConfirmed: boolean): { ok: true; watts: number } | { ok: false; message: string; needsConfirm?: true } {
+  const t = typed.trim().replace(',', '.');
+  if (t === '') return { ok: false, message: 'Enter the parasitic draw in watts.' };
+  const n = Number(t);
+  if (!Number.isFinite(n) || n < 0 || n > 5000) return { ok: false, message: 'Parasitic draw must be a number of watts from 0 to 5000.' };
+  const watts = Math.round(n * 10) / 10;
+  if (watts === 0 && !zeroConfirmed) return { ok: false, message: 'A parasitic draw of 0 W removes the standby load from every forecast. Tick the box if the rig really draws nothing with everything off.', needsConfirm: true };
+  return { ok: true, watts };
+}

@@ -4,7 +4,7 @@ import { ApiError, isConflict } from '../../lib/query-client';
 import { ConflictNotice } from '../../components/ui/ConflictNotice';
 import { ErrorState, LoadingState } from '../../components/ui/States';
 import type { Plan } from '../../engine';
-import { plannedNightDraw, suggestedParasiticWatts, type NightBaseline } from '../../domain/monitor/baseline';
+import { parasiticWorking, plannedNightDraw, readParasiticWatts, type NightBaseline } from '../../domain/monitor/baseline';
 import type { MonitorLogDetail } from '../../domain/monitor/monitor.schema';
 import { overlaySoc } from '../../domain/monitor/overlay';
 import type { LoadDto } from '../../domain/loads/loads.schema';
@@ -116,12 +116,15 @@ function Parasitic({ baseline, log, rig, loads, nominal }: { baseline: NightBase
       ),
     [rig, others, ambient, baseline],
   );
-  const suggestion = suggestedParasiticWatts(baseline, nominal, planned);
+  const working = parasiticWorking(baseline, nominal, planned);
+  const suggestion = working.parasiticW;
   const [watts, setWatts] = useState<string | null>(null);
   const value = watts ?? String(suggestion);
-  const [done, setDone] = useState<string | null>(null);
+  const [zeroOk, setZeroOk] = useState(false);
+  const [done, setDone] = useState<{ text: string; undo: (() => void) | null } | null>(null);
   const [fieldError, setFieldError] = useState<string | null>(null);
-  const note = `From the monitor log "${log.name}": median draw ${baseline.drawA.toFixed(2)} A between ${String(baseline.fromHour).padStart(2, '0')}:00 and ${String(baseline.toHour).padStart(2, '0')}:00, less what the other loads plan then.`.slice(0, 500);
+  const [askZero, setAskZero] = useState(false);
+  const note = `From the monitor log "${log.name}": ${working.text} between ${String(baseline.fromHour).padStart(2, '0')}:00 and ${String(baseline.toHour).padStart(2, '0')}:00.`.slice(0, 500);
 
   const save = useMutation({
     mutationFn: async (v: { watts: number; version?: number }) =>
@@ -129,34 +132,65 @@ function Parasitic({ baseline, log, rig, loads, nominal }: { baseline: NightBase
         ? updateLoad(target.id, { watts: v.watts, quantity: 1, dutyPct: 100, windows: [[0, 24]], days: 'all', note, version: v.version ?? target.version })
         : createLoad(rig.id, { name: 'Parasitic standby draw', watts: v.watts, standby: true, note }),
     onSuccess: (l) => {
-      setDone(`Saved: “${l.name}” now draws ${l.watts} W all day, every day. Forecasts run from now on use it.`);
+      // The old standby load stays in the rig's activity (watts before → after); one click puts it back.
+      const before = target;
+      setDone({
+        text: `Saved: “${l.name}” now draws ${l.watts} W all day, every day${before ? ` (it was ${before.watts} W)` : ''}. Forecasts run from now on use it.`,
+        undo: before
+          ? () =>
+              undo.mutate({
+                id: l.id,
+                version: l.version,
+                body: { watts: before.watts, quantity: before.quantity, dutyPct: before.dutyPct, windows: before.windows, days: before.days, note: before.note ?? '' },
+              })
+          : null,
+      });
+      qc.invalidateQueries({ queryKey: loadKeys.list(rig.id) });
+    },
+  });
+  const undo = useMutation({
+    mutationFn: (v: { id: string; version: number; body: Omit<Parameters<typeof updateLoad>[1], 'version'> }) => updateLoad(v.id, { ...v.body, version: v.version }),
+    onSuccess: (l) => {
+      setDone({ text: `Put back: “${l.name}” draws ${l.watts} W again.`, undo: null });
       qc.invalidateQueries({ queryKey: loadKeys.list(rig.id) });
     },
   });
 
   const submit = (version?: number) => {
-    const n = Number(value.replace(',', '.'));
-    if (!Number.isFinite(n) || n < 0 || n > 5000) {
-      setFieldError('Parasitic draw must be a number of watts from 0 to 5000.');
+    const r = readParasiticWatts(value, zeroOk);
+    if (!r.ok) {
+      setFieldError(r.message);
+      if (r.needsConfirm) setAskZero(true);
       return;
     }
     setFieldError(null);
     setDone(null);
-    save.mutate({ watts: Math.round(n * 10) / 10, version });
+    save.mutate({ watts: r.watts, version });
   };
   const theirs = isConflict(save.error) ? save.error.current<LoadDto>() : undefined;
   const serverIssue = save.error instanceof ApiError && save.error.status !== 409 ? save.error.issues.find((i) => i.path === 'watts')?.message : undefined;
 
   return (
     <div className="space-y-3 rounded-xl bg-sand p-3" data-testid="parasitic">
+      <dl className="grid grid-cols-2 gap-2 text-sm sm:max-w-md" data-testid="night-numbers">
+        <div className="rounded-lg bg-white/70 p-2">
+          <dt className="text-slate-text">Night baseline (measured)</dt>
+          <dd className="text-lg font-extrabold tabular-nums">{w(working.measuredW)}</dd>
+        </div>
+        <div className="rounded-lg bg-white/70 p-2">
+          <dt className="text-slate-text">Parasitic (unexplained)</dt>
+          <dd className="text-lg font-extrabold tabular-nums">{w(working.parasiticW)}</dd>
+        </div>
+      </dl>
       <p className="text-sm">
-        Your load list plans <strong>{w(planned.watts)}</strong> in those hours without {target ? `“${target.name}”` : 'a standby load'} (at {planned.ambientC} °C{log.nightTempC === null ? ', as the log has no temperature' : ', the log’s night temperature'}).{' '}
+        Your load list schedules <strong>{w(planned.watts)}</strong> in those hours without {target ? `“${target.name}”` : 'a standby load'} (CPAP, furnace, fridge and the like, at {planned.ambientC} °C{log.nightTempC === null ? ', as the log has no temperature' : ', the log’s night temperature'}).{' '}
         {suggestion > 0 ? (
-          <>The rest, <strong>{w(suggestion)}</strong>, is draw the list does not explain: detectors, control boards, radio memory, an inverter left on.</>
+          <>The rest is draw the list does not explain: detectors, control boards, radio memory, an inverter left on.</>
         ) : (
           <>The list already explains the night draw; no parasitic draw is missing.</>
         )}
       </p>
+      <p className="text-sm tabular-nums" data-testid="parasitic-working">{working.text}</p>
       {rig.canEdit ? (
         <form
           className="flex flex-col gap-3 sm:flex-row sm:items-end"
@@ -169,6 +203,12 @@ function Parasitic({ baseline, log, rig, loads, nominal }: { baseline: NightBase
             <label htmlFor={`parasitic-${log.id}`} className="field-label">Parasitic draw, W</label>
             <input id={`parasitic-${log.id}`} className="field-input max-w-[10rem] tabular-nums" inputMode="decimal" value={value} onChange={(e) => setWatts(e.target.value)} aria-invalid={fieldError || serverIssue ? true : undefined} aria-describedby={fieldError || serverIssue ? `parasitic-${log.id}-error` : undefined} />
             {fieldError || serverIssue ? <p id={`parasitic-${log.id}-error`} className="field-error" role="alert">{fieldError ?? `Parasitic draw ${serverIssue}`}</p> : null}
+            {askZero ? (
+              <label className="mt-2 flex items-start gap-2 text-sm">
+                <input type="checkbox" checked={zeroOk} onChange={(e) => setZeroOk(e.target.checked)} className="mt-1" />
+                <span>Yes, this rig draws nothing with everything off</span>
+              </label>
+            ) : null}
           </div>
           <button type="submit" className="btn btn-primary" disabled={save.isPending}>
             {save.isPending ? 'Saving…' : 'Use this as the rig’s parasitic draw'}
@@ -182,7 +222,17 @@ function Parasitic({ baseline, log, rig, loads, nominal }: { baseline: NightBase
         </ConflictNotice>
       ) : null}
       {save.isError && !theirs && !serverIssue ? <ErrorState error={save.error} title="The parasitic draw was not saved." /> : null}
-      {done ? <p role="status" className="font-semibold text-moss-deep">{done}</p> : null}
+      {done ? (
+        <div role="status" className="flex flex-wrap items-center gap-2">
+          <p className="font-semibold text-moss-deep">{done.text}</p>
+          {done.undo ? (
+            <button type="button" className="btn btn-quiet text-sm" disabled={undo.isPending} onClick={done.undo}>
+              {undo.isPending ? 'Putting back…' : 'Undo'}
+            </button>
+          ) : null}
+        </div>
+      ) : null}
+      {undo.isError ? <ErrorState error={undo.error} title="The old standby load was not put back." /> : null}
     </div>
   );
 }
