@@ -121,6 +121,17 @@ export function detectTimeFormat(values: string[], timeZone: string): { format: 
       }
       return n;
     };
+    // Day first or month first: the order whose readings come evenly spaced and close together
+    // (a log is one stretch of readings), then the one that keeps them in time order.
+    const [sd, sm] = [spread(vals, 'dmy', resolve), spread(vals, 'mdy', resolve)];
+    if (sd !== null && sm !== null && sd.spanMs !== sm.spanMs) {
+      const pick: TimeFormat = sm.spanMs < sd.spanMs ? 'mdy' : 'dmy';
+      const [near, far] = pick === 'mdy' ? [sm, sd] : [sd, sm];
+      return {
+        format: pick,
+        note: `Every day in the first lines is 12 or less, so the date could be day first or month first; ${pick === 'mdy' ? 'month' : 'day'} first keeps the readings together (${spanWords(near.spanMs)} instead of ${spanWords(far.spanMs)}). Check the dates in the sample.`,
+      };
+    }
     const [bd, bm] = [backwards('dmy'), backwards('mdy')];
     if (bm < bd) return { format: 'mdy', note: 'Every day in the first lines is 12 or less, so the date could be day first or month first; month first keeps the readings in time order. Check the dates in the sample.' };
     return { format: 'dmy', note: bd === bm ? 'Every day in the first lines is 12 or less, so the date could be day first or month first; we read it day first. Check the dates in the sample.' : undefined };
@@ -298,3 +309,51 @@ export function detectLog(text: string, timeZone: string): Detection {
 }
 
 export { DELIMITERS };
+
+/** The span of the values read in one date order (null when any fails to read that way). */
+function spread(vals: string[], format: TimeFormat, resolve: ReturnType<typeof localResolver>): { spanMs: number } | null {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const v of vals) {
+    const r = parseTimeCell(v, format, resolve);
+    if (!r.ok) return null;
+    lo = Math.min(lo, r.ms);
+    hi = Math.max(hi, r.ms);
+  }
+  return { spanMs: hi - lo };
+}
+
+function spanWords(ms: number): string {
+  const h = ms / 3_600_000;
+  if (h < 48) return `${Math.round(h)} hours`;
+  const d = h / 24;
+  return d < 60 ? `${Math.round(d)} days` : `${Math.round(d / 30.4)} months`;
+}
+
+/**
+ * When the time column is read day first or month first and the other order would also read the
+ * first readings, a problem if the chosen order spreads them far wider (a 3-day log read as 3
+ * months): the file is not saved while its dates look wrong.
+ */
+export function dateOrderProblem(text: string, mapping: ColumnMapping): string | null {
+  const f = mapping.time.format;
+  if (f !== 'dmy' && f !== 'mdy') return null;
+  const other: TimeFormat = f === 'dmy' ? 'mdy' : 'dmy';
+  const lines = headOf(text, mapping.headerLine + 300).split('\n').slice(mapping.headerLine);
+  const vals: string[] = [];
+  for (const line of lines) {
+    if (line.trim() === '') continue;
+    const cells = splitLine(line, mapping.delimiter);
+    const t = mapping.time.dateColumn !== null ? `${(cells[mapping.time.dateColumn] ?? '').trim()} ${(cells[mapping.time.column] ?? '').trim()}` : (cells[mapping.time.column] ?? '').trim();
+    if (t) vals.push(t);
+  }
+  if (vals.length < 3) return null;
+  const resolve = localResolver(mapping.timeZone);
+  const [mine, theirs] = [spread(vals, f, resolve), spread(vals, other, resolve)];
+  if (!mine || !theirs) return null;
+  // Wrong when the other order packs the same readings at least 5 times tighter and this one spreads them over more than 2 weeks.
+  if (mine.spanMs > 14 * 86_400_000 && theirs.spanMs * 5 <= mine.spanMs) {
+    return `Read ${f === 'dmy' ? 'day' : 'month'} first, the first ${vals.length} readings span ${spanWords(mine.spanMs)}; read ${other === 'dmy' ? 'day' : 'month'} first they span ${spanWords(theirs.spanMs)}. Choose ${other === 'dmy' ? 'Day first' : 'Month first'} as the time format (or check the file).`;
+  }
+  return null;
+}

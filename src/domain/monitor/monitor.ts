@@ -1,4 +1,4 @@
-import { detectLog, headOf, type DetectedMapping } from './detect';
+import { dateOrderProblem, detectLog, headOf, type DetectedMapping } from './detect';
 import type { ColumnMapping } from './monitor.schema';
 import { splitLine } from './text';
 import { parseLog, type BankLimits, type LogLineError, type ParseResult } from './parse';
@@ -49,6 +49,12 @@ export function previewLog(text: string, opts: { timeZone: string; mapping: Colu
     parsed = parseLog(text, { ...mapping, time: mapping.time }, opts.limits, { keepAll: opts.keepAll ?? true });
     errors = parsed.errors;
     errorCount = parsed.errorCount;
+    // Day and month that could be either way round, read the way that spreads a short log over months: not saved as it is.
+    const order = dateOrderProblem(text, { ...mapping, time: mapping.time });
+    if (order) {
+      errors = [{ line: mapping.headerLine + 1, column: parsed.headers[mapping.time.column] ?? null, message: order }, ...errors];
+      errorCount++;
+    }
   } else {
     errors = [{ line: Math.max(1, mapping.headerLine), column: null, message: 'The log has no time column: choose the column that holds the time of each reading.' }];
     errorCount = 1;
