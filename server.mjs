@@ -274,7 +274,10 @@ async function startProfile(dir) {
     writeFileSync(path.join(dir, `${process.pid}.cpuprofile`), JSON.stringify(profile));
   };
 }
-const stopProfile = process.env.SUNRECKON_CPU_PROFILE && !(cluster.isPrimary && concurrency > 1) ? await startProfile(process.env.SUNRECKON_CPU_PROFILE) : null;
+const stopProfile =
+  process.env.SUNRECKON_CPU_PROFILE && !(cluster.isPrimary && concurrency > 1)
+    ? await startProfile(process.env.SUNRECKON_CPU_PROFILE)
+    : null;
 
 if (cluster.isPrimary && concurrency > 1) await primary(concurrency);
 else await serve();
