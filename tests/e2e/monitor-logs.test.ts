@@ -91,7 +91,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('monitor logs at %s widt
     await chart.waitFor();
     expect(await chart.locator('.measured-line path.recharts-curve').count()).toBeGreaterThan(0);
     expect(await page.getByTestId('measured-summary').textContent()).toMatch(/^Over \d+ hours the measured state of charge ran/);
-    expect(await page.getByTestId('days-table').locator('tbody tr').count()).toBe(3);
+    expect(await page.getByTestId('day-ledger').locator(':scope > li').count()).toBe(3);
     const axe = await new AxeBuilder({ page }).include('#logs').analyze();
     expect(axe.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(' | ')}`)).toEqual([]);
     await shot(page, `logs-${viewport}`);

@@ -7,6 +7,7 @@ import type { Plan } from '../../engine';
 import { parasiticWorking, plannedNightDraw, readParasiticWatts, type NightBaseline } from '../../domain/monitor/baseline';
 import type { MonitorLogDetail } from '../../domain/monitor/monitor.schema';
 import { overlaySoc } from '../../domain/monitor/overlay';
+import { dayLedger } from '../../domain/monitor/ledger';
 import type { LoadDto } from '../../domain/loads/loads.schema';
 import type { RigDto } from '../../domain/rigs/rigs.schema';
 import { forecastQueries } from '../forecast/forecast.queries';
@@ -52,7 +53,7 @@ export default function LogView({ id, rig, onDeleted }: { id: string; rig: RigDt
       </header>
       {remove.isError ? <ErrorState error={remove.error} title="The log was not deleted." /> : null}
       <NightDraw log={d} rig={rig} />
-      <Days log={d} />
+      <Days log={d} rig={rig} />
       <AgainstForecast log={d} />
       <Readings log={d} />
     </article>
@@ -237,39 +238,57 @@ function Parasitic({ baseline, log, rig, loads, nominal }: { baseline: NightBase
   );
 }
 
-function Days({ log }: { log: MonitorLogDetail }) {
+/** Each day's energy into and out of the bank as measured, with the forecast's for the same day as a tick. */
+function Days({ log, rig }: { log: MonitorLogDetail; rig: RigDto }) {
+  const fid = log.forecasts[0]?.id ?? null;
+  const f = useQuery({ ...forecastQueries.detail(fid ?? ''), enabled: fid !== null && log.has.amps });
+  const nominal = rig.bank.nominalVolts ?? (rig.bank.chemistry === 'lifepo4' ? 12.8 : 12);
+  const ledger = useMemo(() => dayLedger(log.days, nominal, f.data ? f.data.forecast.days : null), [log.days, nominal, f.data]);
   if (!log.has.amps) return null;
+  const pct = (wh: number) => `${Math.min(100, (wh / ledger.maxWh) * 100).toFixed(1)}%`;
+  const kwh = (wh: number) => `${Math.round(wh).toLocaleString('en-GB')} Wh`;
+  const withForecast = ledger.days.some((d) => d.forecast);
   return (
-    <section className="card p-4" aria-labelledby={`days-${log.id}`}>
-      <h4 id={`days-${log.id}`} className="text-base font-extrabold">Day by day</h4>
-      {log.days.length === 0 ? (
+    <section className="card space-y-3 p-4" aria-labelledby={`days-${log.id}`}>
+      <h4 id={`days-${log.id}`} className="text-base font-extrabold">Energy in and out, day by day</h4>
+      {ledger.days.length === 0 ? (
         <p className="text-slate-text">Too few readings to add up a day.</p>
       ) : (
-        <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Amp-hours per day (scrolls sideways)">
-          <table className="w-full min-w-[26rem] text-sm" data-testid="days-table">
-            <caption className="sr-only">Amp-hours taken from and put into the bank, per local day</caption>
-            <thead>
-              <tr className="border-b border-sand-dark text-left">
-                <th scope="col" className="py-1 pr-3">Day</th>
-                <th scope="col" className="py-1 pr-3 text-right">Used, Ah</th>
-                <th scope="col" className="py-1 pr-3 text-right">Charged, Ah</th>
-                <th scope="col" className="py-1 pr-3 text-right">Net, Ah</th>
-                <th scope="col" className="py-1 text-right">Hours logged</th>
-              </tr>
-            </thead>
-            <tbody>
-              {log.days.map((d) => (
-                <tr key={d.date} className="border-b border-sand">
-                  <th scope="row" className="py-1 pr-3 text-left font-semibold">{formatDay(d.date)}</th>
-                  <td className="py-1 pr-3 text-right">{d.consumedAh.toFixed(1)}</td>
-                  <td className="py-1 pr-3 text-right">{d.chargedAh.toFixed(1)}</td>
-                  <td className={`py-1 pr-3 text-right font-bold ${d.netAh < 0 ? 'text-alert' : 'text-moss-deep'}`}>{d.netAh > 0 ? '+' : ''}{d.netAh.toFixed(1)}</td>
-                  <td className="py-1 text-right text-slate-text">{d.hoursCovered < 23.9 ? `${d.hoursCovered} (part day)` : d.hoursCovered}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <>
+          <p className="text-sm text-slate-text">
+            Measured amp-hours at the bank’s {nominal} V.{' '}
+            {withForecast && f.data ? <>The orange mark on each bar is what “{f.data.name}” expected that day.</> : fid ? null : 'No saved forecast covers these days to compare with.'}
+          </p>
+          <ol className="space-y-3" data-testid="day-ledger">
+            {ledger.days.map((d) => (
+              <li key={d.date} className="space-y-1">
+                <p className="flex flex-wrap items-baseline justify-between gap-x-3 text-sm">
+                  <strong>{formatDay(d.date)}</strong>
+                  <span className={`font-semibold ${d.netWh < 0 ? 'text-alert' : 'text-moss-deep'}`}>
+                    {d.netWh >= 0 ? `Gained ${kwh(d.netWh)}` : `Drew down ${kwh(-d.netWh)}`}
+                    {d.hoursCovered < 23.9 ? <span className="font-normal text-slate-text"> · {d.hoursCovered} h logged</span> : null}
+                  </span>
+                </p>
+                {([
+                  ['In', d.inWh, d.forecast?.inWh, 'bg-sun'],
+                  ['Out', d.outWh, d.forecast?.outWh, 'bg-slate'],
+                ] as const).map(([label, wh, expected, colour]) => (
+                  <div key={label} className="grid grid-cols-[2.5rem_1fr_auto] items-center gap-2 text-sm tabular-nums">
+                    <span className="text-slate-text">{label}</span>
+                    <span className="relative h-3 rounded-full bg-sand" aria-hidden="true">
+                      <span className={`absolute inset-y-0 left-0 rounded-full ${colour}`} style={{ width: pct(wh) }} />
+                      {expected !== undefined ? <span className="absolute -inset-y-1 w-1 rounded bg-ember-deep" style={{ left: pct(expected) }} /> : null}
+                    </span>
+                    <span>
+                      {kwh(wh)}
+                      {expected !== undefined ? <span className="text-slate-text"> (expected {kwh(expected)})</span> : null}
+                    </span>
+                  </div>
+                ))}
+              </li>
+            ))}
+          </ol>
+        </>
       )}
     </section>
   );
