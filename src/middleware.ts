@@ -138,6 +138,7 @@ const headers = defineMiddleware(async (ctx, next) => {
  * invented demo plan and today's date): its HTML is kept for LANDING_TTL_MS and for today only.
  * A request carrying a session cookie never reads nor fills it, and only an answer rendered with
  * no user is kept, so a signed-in page never reaches an anonymous visitor nor the other way round.
+ * The page must not depend on anything else of the request (another cookie, Accept-Language).
  */
 const LANDING_TTL_MS = 60_000;
 type Landing = { body: string; headers: [string, string][]; until: number; day: string };
