@@ -273,15 +273,17 @@ function Days({ log, rig }: { log: MonitorLogDetail; rig: RigDto }) {
                   ['In', d.inWh, d.forecast?.inWh, 'bg-sun'],
                   ['Out', d.outWh, d.forecast?.outWh, 'bg-slate'],
                 ] as const).map(([label, wh, expected, colour]) => (
-                  <div key={label} className="grid grid-cols-[2.5rem_1fr_auto] items-center gap-2 text-sm tabular-nums">
-                    <span className="text-slate-text">{label}</span>
-                    <span className="relative h-3 rounded-full bg-sand" aria-hidden="true">
+                  <div key={label} className="text-sm tabular-nums">
+                    <p className="flex justify-between gap-2">
+                      <span className="text-slate-text">{label}</span>
+                      <span>
+                        {kwh(wh)}
+                        {expected !== undefined ? <span className="text-slate-text"> · expected {kwh(expected)}</span> : null}
+                      </span>
+                    </p>
+                    <span className="relative mt-0.5 block h-3 rounded-full bg-sand" aria-hidden="true">
                       <span className={`absolute inset-y-0 left-0 rounded-full ${colour}`} style={{ width: pct(wh) }} />
                       {expected !== undefined ? <span className="absolute -inset-y-1 w-1 rounded bg-ember-deep" style={{ left: pct(expected) }} /> : null}
-                    </span>
-                    <span>
-                      {kwh(wh)}
-                      {expected !== undefined ? <span className="text-slate-text"> (expected {kwh(expected)})</span> : null}
                     </span>
                   </div>
                 ))}
@@ -335,7 +337,7 @@ function AgainstForecast({ log }: { log: MonitorLogDetail }) {
   );
 }
 
-const PAGE = 50;
+const PAGE = 24;
 
 /** The readings as stored, a page at a time (the server never sends them all at once). */
 function Readings({ log }: { log: MonitorLogDetail }) {
@@ -351,8 +353,11 @@ function Readings({ log }: { log: MonitorLogDetail }) {
   const n = cursors.length;
   const first = (n - 1) * PAGE + 1;
   return (
-    <section className="card space-y-3 p-4" aria-labelledby={`readings-${log.id}`}>
-      <h4 id={`readings-${log.id}`} className="text-base font-extrabold">Each reading</h4>
+    <details className="card p-4" aria-labelledby={`readings-${log.id}`}>
+      <summary className="cursor-pointer">
+        <h4 id={`readings-${log.id}`} className="inline text-base font-extrabold">Each reading ({log.sampleCount.toLocaleString('en-GB')})</h4>
+      </summary>
+      <div className="mt-3 space-y-3">
       {page.isError ? (
         <ErrorState error={page.error} title="Couldn't load these readings." onRetry={() => page.refetch()} />
       ) : !page.data ? (
@@ -404,6 +409,7 @@ function Readings({ log }: { log: MonitorLogDetail }) {
           </div>
         </>
       )}
-    </section>
+      </div>
+    </details>
   );
 }
