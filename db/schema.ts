@@ -352,6 +352,13 @@ export interface WeatherCacheTable {
   fetched_at: string;
 }
 
+/** Trip watch: who holds a piece of background work until when (epoch ms). */
+export interface WatchLeaseTable {
+  name: string;
+  holder: string;
+  expires_at: number;
+}
+
 export interface DB {
   user: UserTable;
   session: SessionTable;
@@ -376,6 +383,7 @@ export interface DB {
   monitor_samples: MonitorSampleTable;
   check_ins: CheckInTable;
   weather_cache: WeatherCacheTable;
+  watch_leases: WatchLeaseTable;
 }
 
 export type User = Selectable<UserTable>;

@@ -2,6 +2,8 @@
 // crew member can stop one trip's watch mail without signing in. The secret is passed in (the app's auth
 // secret), which keeps this testable without the server's environment.
 import { createHmac, timingSafeEqual } from 'node:crypto';
+import type { Kysely } from 'kysely';
+import type { DB } from '../../db/schema';
 
 export interface UnsubscribeClaim {
   tripId: string;
@@ -36,4 +38,30 @@ export function readUnsubscribe(secret: string, token: string): UnsubscribeClaim
   } catch {
     return null;
   }
+}
+
+/**
+ * Claims the lease `name` for `holder` until `nowMs + leaseMs` when it is free, expired or already
+ * held by `holder`; true when this holder now has it. One conditional statement each way, plain SQL
+ * that runs the same on SQLite and PostgreSQL, so two instances racing never both win.
+ */
+export async function claimLease(db: Kysely<DB>, name: string, holder: string, nowMs: number, leaseMs: number): Promise<boolean> {
+  const until = nowMs + leaseMs;
+  await db
+    .insertInto('watch_leases')
+    .values({ name, holder: '', expires_at: 0 })
+    .onConflict((oc) => oc.column('name').doNothing())
+    .execute();
+  const res = await db
+    .updateTable('watch_leases')
+    .set({ holder, expires_at: until })
+    .where('name', '=', name)
+    .where((eb) => eb.or([eb('expires_at', '<=', nowMs), eb('holder', '=', holder)]))
+    .executeTakeFirst();
+  return Number(res.numUpdatedRows) === 1;
+}
+
+/** Gives the lease back early (only when `holder` still has it). */
+export async function releaseLease(db: Kysely<DB>, name: string, holder: string): Promise<void> {
+  await db.updateTable('watch_leases').set({ expires_at: 0 }).where('name', '=', name).where('holder', '=', holder).execute();
 }
