@@ -194,6 +194,7 @@ export const ROUTES: RouteCase[] = [
   { method: 'POST', route: '/api/rigs/[id]/monitor-logs', url: (w) => `/api/rigs/${w.rig.id}/monitor-logs?preview=1`, raw: monitorLogUpload(false), expect: RIG_WRITE(200) },
   { method: 'POST', route: '/api/rigs/[id]/monitor-logs', url: (w) => `/api/rigs/${w.rig.id}/monitor-logs`, raw: monitorLogUpload(true), expect: RIG_WRITE(201) },
   { method: 'GET', route: '/api/monitor-logs/[id]', url: (w) => `/api/monitor-logs/${w.monitorLog.id}`, expect: RIG_READ },
+  { method: 'GET', route: '/api/monitor-logs/[id]/readings', url: (w) => `/api/monitor-logs/${w.monitorLog.id}/readings?limit=5`, expect: RIG_READ },
   { method: 'GET', route: '/api/monitor-logs/[id]/original', url: (w) => `/api/monitor-logs/${w.monitorLog.id}/original`, expect: RIG_READ },
   { method: 'DELETE', route: '/api/monitor-logs/[id]', url: (w) => `/api/monitor-logs/${w.monitorLog.id}?version=${w.monitorLog.version}`, expect: RIG_WRITE(204), fresh: true },
   { method: 'GET', route: '/api/trips/[id]/check-ins', url: (w) => `/api/trips/${w.trip.id}/check-ins`, expect: RIG_READ },
