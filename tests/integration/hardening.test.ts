@@ -43,7 +43,10 @@ describe('/api/auth/* reads the body with the bounded reader', () => {
           resolve(res.statusCode ?? 0);
         },
       );
-      req.on('error', reject);
+      // The server answers 413 and closes the connection while we may still be writing: our next
+      // write can then fail (EPIPE, ECONNRESET) before the answer is read. That is the refusal too
+      // (a server that read the whole body would answer it, not drop the connection).
+      req.on('error', (err: NodeJS.ErrnoException) => (err.code === 'EPIPE' || err.code === 'ECONNRESET' ? resolve(-1) : reject(err)));
       const chunk = 'x'.repeat(16 * 1024);
       let sent = 0;
       const pump = () => {
@@ -55,7 +58,9 @@ describe('/api/auth/* reads the body with the bounded reader', () => {
       };
       pump();
     });
-    expect(status).toBe(413);
+    if (status !== -1) expect(status).toBe(413);
+    // And the server is still there.
+    expect((await fetch(`${baseUrl()}/api/health`)).status).toBe(200);
   });
 
   it('still signs in with an ordinary body', async () => {
