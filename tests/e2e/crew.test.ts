@@ -1,20 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Page } from 'playwright-core';
 import { api, baseUrl, signUp, uniqueEmail, type Session } from '../helpers/api';
-import { hydrated, launch, shot, signOut, type ViewportName } from '../helpers/browser';
+import { hydrated, launch, shot, signOut, type ViewportName, signIn } from '../helpers/browser';
 import { activeCrew, makeRig, member } from '../helpers/crew';
 
 const PASSWORD = 'dusk-and-ember-27';
 
-async function signIn(page: Page, email: string, next: string, password = PASSWORD) {
-  await page.goto(`${baseUrl()}/sign-in?next=${encodeURIComponent(next)}`);
-  await hydrated(page);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((u) => u.pathname === next.split('?')[0]!.split('#')[0]);
-  await hydrated(page);
-}
 
 describe('a household shares one rig (Chromium)', () => {
   let owner: Session;
@@ -40,7 +30,7 @@ describe('a household shares one rig (Chromium)', () => {
 
   it('the owner invites a household member by e-mail from the Crew page', async () => {
     const page = await open();
-    await signIn(page, owner.email, '/crew');
+    await signIn(page, owner.email, PASSWORD, '/crew');
     await expect(page.getByRole('heading', { level: 1 }).textContent()).resolves.toBe('Reyes-Okafor');
     await page.getByLabel('E-mail').fill('not-an-address');
     await page.getByRole('button', { name: 'Send invitation' }).click();
@@ -79,7 +69,7 @@ describe('a household shares one rig (Chromium)', () => {
 
   it('the member adds a load to the shared rig, and the owner sees it', async () => {
     const page = await open();
-    await signIn(page, inviteeEmail, `/rigs/${rigId}#loads`);
+    await signIn(page, inviteeEmail, PASSWORD, `/rigs/${rigId}#loads`);
     await page.getByRole('button', { name: '+ Add a load' }).click();
     const form = page.getByRole('form', { name: 'New load' });
     await form.getByLabel('Name').fill('Tobi’s laptop');
@@ -88,7 +78,7 @@ describe('a household shares one rig (Chromium)', () => {
     await page.getByRole('table', { name: 'Loads' }).getByText('Tobi’s laptop').waitFor();
 
     const ownerPage = await open();
-    await signIn(ownerPage, owner.email, `/rigs/${rigId}#loads`);
+    await signIn(ownerPage, owner.email, PASSWORD, `/rigs/${rigId}#loads`);
     await ownerPage.getByRole('table', { name: 'Loads' }).getByText('Tobi’s laptop').waitFor();
     // The rig's Activity section says who added it.
     await ownerPage.getByRole('link', { name: 'Activity', exact: true }).click();
@@ -102,7 +92,7 @@ describe('a household shares one rig (Chromium)', () => {
     const viewer = await member(owner, crewId, 'viewer', 'Vera');
     const page = await open('phone');
     // The helper signs members up with its default password.
-    await signIn(page, viewer.email, `/rigs/${rigId}#loads`, 'correct-horse-1');
+    await signIn(page, viewer.email, 'correct-horse-1', `/rigs/${rigId}#loads`);
     await page.getByRole('table', { name: 'Loads' }).getByText('Tobi’s laptop').waitFor();
     expect(await page.getByRole('button', { name: '+ Add a load' }).count()).toBe(0);
     expect(await page.getByRole('button', { name: /^Edit / }).count()).toBe(0);
@@ -132,7 +122,7 @@ describe('installer and crew pages at both widths (Chromium)', () => {
     const b = await launch(viewport);
     try {
       const { page } = b;
-      await signIn(page, owner.email, '/crew');
+      await signIn(page, owner.email, PASSWORD, '/crew');
       await page.locator('[data-member]').nth(1).waitFor();
       await shot(page, `crew-${viewport}`);
 
@@ -154,7 +144,7 @@ describe('installer and crew pages at both widths (Chromium)', () => {
       await signOut(page);
       await page.waitForURL(baseUrl() + '/');
 
-      await signIn(page, installer.email, '/installer');
+      await signIn(page, installer.email, PASSWORD, '/installer');
       await page.locator('[data-shared-rig="Test van"]').waitFor();
       await shot(page, `installer-${viewport}`);
       await page.getByRole('link', { name: 'Open rig' }).click();
@@ -169,7 +159,7 @@ describe('installer and crew pages at both widths (Chromium)', () => {
       await page.waitForURL(baseUrl() + '/');
 
       // The owner revokes; the installer's list is empty again.
-      await signIn(page, owner.email, `/rigs/${rig.id}#installers`);
+      await signIn(page, owner.email, PASSWORD, `/rigs/${rig.id}#installers`);
       page.once('dialog', (d) => void d.accept());
       await page.getByRole('button', { name: 'Revoke access' }).click();
       await page.getByText('Wren no longer has access to this rig.').waitFor();

@@ -1,29 +1,14 @@
 import { execFileSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
-import AxeBuilder from '@axe-core/playwright';
 import type { Page } from 'playwright-core';
 import { DEMO_ACCOUNTS } from '../../scripts/seed';
 import { baseUrl } from '../helpers/api';
-import { hydrated, launch, shot, VIEWPORTS, type ViewportName } from '../helpers/browser';
+import { hydrated, launch, shot, VIEWPORTS, type ViewportName, seriousViolations, signIn } from '../helpers/browser';
 import { ROOT } from '../helpers/server';
 
 /** Serious and critical axe violations of the page as it is now, as readable lines. */
-async function seriousViolations(page: Page): Promise<string[]> {
-  const results = await new AxeBuilder({ page }).analyze();
-  return results.violations
-    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v) => `${v.id} (${v.impact}): ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
-}
 
-async function signIn(page: Page): Promise<void> {
-  await page.goto(baseUrl() + '/sign-in');
-  await hydrated(page);
-  await page.getByLabel('E-mail').fill(DEMO_ACCOUNTS.camper.email);
-  await page.getByLabel('Password').fill(DEMO_ACCOUNTS.camper.password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL('**/trips');
-}
 
 beforeAll(() => {
   // The invented demo crew, seeded into the test server's database (the seed is idempotent).
@@ -36,7 +21,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('forecasts in Chromium a
 
   beforeAll(async () => {
     ({ page, close } = await launch(viewport));
-    await signIn(page);
+    await signIn(page, DEMO_ACCOUNTS.camper.email, DEMO_ACCOUNTS.camper.password);
   });
   afterAll(async () => close?.());
 

@@ -2,7 +2,7 @@ import AxeBuilder from '@axe-core/playwright';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { api, baseUrl, signUp, type Session } from '../helpers/api';
-import { hydrated, launch, shot, VIEWPORTS, type ViewportName } from '../helpers/browser';
+import { hydrated, launch, shot, VIEWPORTS, type ViewportName, signIn } from '../helpers/browser';
 import { createLoad, createRig } from '../helpers/fixtures';
 import { toCsv, truth } from '../fixtures/monitor/synthetic';
 
@@ -13,14 +13,6 @@ import { toCsv, truth } from '../fixtures/monitor/synthetic';
 const PASSWORD = 'correct-horse-1';
 const TZ = 'America/Denver';
 
-async function signIn(page: Page, s: Session): Promise<void> {
-  await page.goto(baseUrl() + '/sign-in');
-  await hydrated(page);
-  await page.getByLabel('E-mail').fill(s.email);
-  await page.getByLabel('Password').fill(PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL('**/trips');
-}
 
 describe.each(Object.keys(VIEWPORTS) as ViewportName[])('monitor logs at %s width', (viewport) => {
   let page: Page;
@@ -37,7 +29,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('monitor logs at %s widt
     ).json();
     await api(`/api/trips/${trip.id}/forecasts`, { method: 'POST', session: camper, json: { name: 'Before leaving' } });
     ({ page, close } = await launch(viewport));
-    await signIn(page, camper);
+    await signIn(page, camper.email, PASSWORD);
   });
   afterAll(async () => close?.());
 

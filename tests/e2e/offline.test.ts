@@ -2,7 +2,7 @@ import AxeBuilder from '@axe-core/playwright';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { api, baseUrl, openTestDb, signUp, type Session } from '../helpers/api';
-import { hydrated, launch, shot, VIEWPORTS, type ViewportName } from '../helpers/browser';
+import { hydrated, launch, shot, VIEWPORTS, type ViewportName, signIn } from '../helpers/browser';
 import { createLoad, createRig } from '../helpers/fixtures';
 import { at } from '../../src/lib/invariant';
 
@@ -44,14 +44,6 @@ function phone(viewport: ViewportName): ReturnType<typeof launch> {
   return launch(viewport, { timezoneId: TZ });
 }
 
-async function signIn(page: Page): Promise<void> {
-  await page.goto(baseUrl() + '/sign-in');
-  await hydrated(page);
-  await page.getByLabel('E-mail').fill(camper.email);
-  await page.getByLabel('Password').fill(PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL('**/trips');
-}
 
 /** What waits in the phone's outbox (IndexedDB). */
 function outbox(page: Page): Promise<{ id: string; state: string; local: { socPct: number; outcome: Record<string, unknown> } | null }[]> {
@@ -87,7 +79,7 @@ describe('a trip kept on the phone, offline', () => {
 
   beforeAll(async () => {
     ({ page, context, close } = await phone('phone'));
-    await signIn(page);
+    await signIn(page, camper.email, PASSWORD);
   });
   afterAll(async () => close?.());
 
@@ -199,7 +191,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('check-ins on the trip p
   it('shows the new cutoff beside the saved forecast’s', async () => {
     const { page, close } = await phone(viewport);
     try {
-      await signIn(page);
+      await signIn(page, camper.email, PASSWORD);
       await page.goto(`${baseUrl()}/trips/${tripId}#check-ins`);
       await hydrated(page);
       await page.getByTestId('check-in-result').waitFor();

@@ -1,8 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import AxeBuilder from '@axe-core/playwright';
-import type { Page } from 'playwright-core';
 import { api, baseUrl, signUp, type Session } from '../helpers/api';
-import { hydrated, launch, shot, type ViewportName } from '../helpers/browser';
+import { hydrated, launch, shot, type ViewportName, signIn, seriousViolations } from '../helpers/browser';
 import { activeCrew, makeLoad, makeRig, makeTrip } from '../helpers/crew';
 import { linkIn, waitForMail } from '../helpers/mail';
 
@@ -10,22 +8,7 @@ import { linkIn, waitForMail } from '../helpers/mail';
 
 const PASSWORD = 'dusk-and-ember-27';
 
-async function signIn(page: Page, email: string, next: string) {
-  await page.goto(`${baseUrl()}/sign-in?next=${encodeURIComponent(next)}`);
-  await hydrated(page);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((u) => u.pathname === next.split('?')[0]);
-  await hydrated(page);
-}
 
-async function seriousViolations(page: Page): Promise<string[]> {
-  const results = await new AxeBuilder({ page }).analyze();
-  return results.violations
-    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v) => `${v.id} (${v.impact}): ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
-}
 
 describe('installer proposals in Chromium', () => {
   let owner: Session;
@@ -59,7 +42,7 @@ describe('installer proposals in Chromium', () => {
 
   it('the installer saves a price list, sweeps the granted rig’s saved forecast and sends a proposal (1280 px)', async () => {
     const page = await open('desktop');
-    await signIn(page, installer.email, '/proposals');
+    await signIn(page, installer.email, PASSWORD, '/proposals');
     await page.getByText('No proposals yet').waitFor();
     const prices = page.getByRole('form', { name: 'Price list' });
     await prices.getByLabel('Currency').fill('CAD');
@@ -128,7 +111,7 @@ describe('installer proposals in Chromium', () => {
     expect(link).toBe(proposalUrl);
 
     const page = await open('phone');
-    await signIn(page, owner.email, new URL(link).pathname);
+    await signIn(page, owner.email, PASSWORD, new URL(link).pathname);
     await page.getByTestId('proposal').waitFor();
     expect(await page.getByTestId('installer-name').textContent()).toBe('Wren Solar');
     // Before and after overlaid, with their summaries side by side.
@@ -160,7 +143,7 @@ describe('installer proposals in Chromium', () => {
 
   it.each(['phone', 'desktop'] as ViewportName[])('both sides see the accepted proposal at %s width', async (viewport) => {
     const page = await open(viewport);
-    await signIn(page, installer.email, '/proposals');
+    await signIn(page, installer.email, PASSWORD, '/proposals');
     await page.locator('[data-status="accepted"]').first().waitFor();
     await shot(page, `proposals-installer-${viewport}`);
     await page.goto(proposalUrl);

@@ -1,8 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import AxeBuilder from '@axe-core/playwright';
 import type { Page } from 'playwright-core';
 import { api, baseUrl, signUp, type Session } from '../helpers/api';
-import { hydrated, launch, shot, VIEWPORTS, type ViewportName } from '../helpers/browser';
+import { hydrated, launch, shot, VIEWPORTS, type ViewportName, seriousViolations } from '../helpers/browser';
 
 // Revision 2 in the forms: a camper puts the bank inside the heated cabin, gives the inverter's
 // ratings, types a load in amps and sees it in watts, saves, and finds it all again after a reload
@@ -11,12 +10,6 @@ import { hydrated, launch, shot, VIEWPORTS, type ViewportName } from '../helpers
 const PASSWORD = 'cold-nights-2027';
 
 /** Serious and critical axe violations of the page as it is now, as readable lines. */
-async function seriousViolations(page: Page): Promise<string[]> {
-  const results = await new AxeBuilder({ page }).analyze();
-  return results.violations
-    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v) => `${v.id} (${v.impact}): ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
-}
 
 describe.each(Object.keys(VIEWPORTS) as ViewportName[])('a cabin bank and a load in amps in Chromium at %s width', (viewport) => {
   let camper: Session;

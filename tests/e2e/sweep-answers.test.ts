@@ -1,9 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import AxeBuilder from '@axe-core/playwright';
-import type { Page } from 'playwright-core';
 import { demoPlan } from '../../src/engine';
 import { api, baseUrl, signUp, type Session } from '../helpers/api';
-import { hydrated, launch, shot, type ViewportName } from '../helpers/browser';
+import { launch, shot, type ViewportName, signIn, seriousViolations } from '../helpers/browser';
 import { activeCrew } from '../helpers/crew';
 import { TEST_PRICES } from '../helpers/routes';
 
@@ -12,28 +10,7 @@ import { TEST_PRICES } from '../helpers/routes';
 
 const PASSWORD = 'dusk-and-ember-27';
 
-async function signIn(page: Page, email: string, next: string) {
-  await page.goto(`${baseUrl()}/sign-in?next=${encodeURIComponent(next)}`);
-  await hydrated(page);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((u) => u.pathname === next.split('?')[0]);
-  await hydrated(page);
-}
 
-async function seriousViolations(page: Page): Promise<string[]> {
-  const results = await new AxeBuilder({ page }).analyze();
-  return results.violations
-    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-    .map(
-      (v) =>
-        `${v.id} (${v.impact}): ${v.help} — ${v.nodes
-          .slice(0, 3)
-          .map((n) => n.target.join(' '))
-          .join(' | ')}`,
-    );
-}
 
 async function savedForecast(
   owner: Session,
@@ -120,7 +97,7 @@ describe('the upgrade planner in Chromium', () => {
   for (const viewport of ['desktop', 'phone'] as const) {
     it(`the demo van: "already makes the trip" first, the 30 A DC-DC charger not offered (${viewport})`, async () => {
       const page = await open(viewport);
-      await signIn(page, installer.email, `/proposals/new?forecast=${van}`);
+      await signIn(page, installer.email, PASSWORD, `/proposals/new?forecast=${van}`);
       await page.getByTestId('verdict-headline').waitFor();
       // The preset DC-DC sizes are the next ones above the van's 30 A.
       expect(await page.getByLabel('DC-DC charger sizes (A)').inputValue()).toBe('40, 60');
@@ -143,7 +120,7 @@ describe('the upgrade planner in Chromium', () => {
 
   it('the AGM trailer: 800 Ah of AGM is flagged against the payload, and a hand-edited plan runs (1280 px)', async () => {
     const page = await open('desktop');
-    await signIn(page, installer.email, `/proposals/new?forecast=${trailer}`);
+    await signIn(page, installer.email, PASSWORD, `/proposals/new?forecast=${trailer}`);
     await page.getByTestId('verdict-headline').waitFor();
     await page.getByRole('button', { name: '+ Add a bank' }).click();
     await page.locator('#cand-banks-6-chemistry').selectOption('agm');
@@ -181,7 +158,7 @@ describe('the upgrade planner in Chromium', () => {
   for (const viewport of ['desktop', 'phone'] as const) {
     it(`the crew states the rig’s payload and battery room; the planner starts from them (${viewport})`, async () => {
       const page = await open(viewport);
-      await signIn(page, owner.email, `/rigs/${trailerRig}`);
+      await signIn(page, owner.email, PASSWORD, `/rigs/${trailerRig}`);
       await page.getByLabel('Payload it may still carry').fill(viewport === 'desktop' ? '160' : '170');
       await page.getByLabel('Room for batteries').fill('60');
       await page.getByRole('button', { name: 'Save power system' }).click();
@@ -197,7 +174,7 @@ describe('the upgrade planner in Chromium', () => {
       expect(rig).toMatchObject({ payloadKg: viewport === 'desktop' ? 160 : 170, batterySpaceL: 60 });
 
       const planner = await open(viewport);
-      await signIn(planner, installer.email, `/proposals/new?forecast=${trailer}`);
+      await signIn(planner, installer.email, PASSWORD, `/proposals/new?forecast=${trailer}`);
       await planner.getByTestId('verdict-headline').waitFor();
       expect(await planner.locator('#cand-payloadKg').inputValue()).toBe(viewport === 'desktop' ? '160' : '170');
       expect(await planner.locator('#cand-batterySpaceL').inputValue()).toBe('60');
@@ -206,7 +183,7 @@ describe('the upgrade planner in Chromium', () => {
 
   it('the AGM trailer at 390 px', async () => {
     const page = await open('phone');
-    await signIn(page, installer.email, `/proposals/new?forecast=${trailer}`);
+    await signIn(page, installer.email, PASSWORD, `/proposals/new?forecast=${trailer}`);
     await page.getByTestId('verdict-headline').waitFor();
     await page.getByRole('button', { name: 'Run the sweep' }).click();
     await page.getByTestId('sweep-results').waitFor();

@@ -1,7 +1,9 @@
 import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import AxeBuilder from '@axe-core/playwright';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { inject } from 'vitest';
 import { ROOT } from './server';
 
 export const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
@@ -78,4 +80,27 @@ export async function shot(page: Page, name: string): Promise<string> {
 export async function signOut(page: Page): Promise<void> {
   await page.locator('#account-menu > summary').click();
   await page.getByRole('button', { name: 'Sign out' }).click();
+}
+
+/**
+ * Signs in through the sign-in form as a camper does, asking to land on `next` (default /trips),
+ * and waits until that page (its path, without query or hash) has loaded and hydrated.
+ */
+export async function signIn(page: Page, email: string, password: string, next = '/trips'): Promise<void> {
+  await page.goto(`${inject('baseUrl')}/sign-in?next=${encodeURIComponent(next)}`);
+  await hydrated(page);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  const want = next.split('?')[0]!.split('#')[0];
+  await page.waitForURL((u) => u.pathname === want);
+  await hydrated(page);
+}
+
+/** axe's serious and critical findings on the page, one line each (rule, impact, help, first nodes). */
+export async function seriousViolations(page: Page): Promise<string[]> {
+  const results = await new AxeBuilder({ page }).analyze();
+  return results.violations
+    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v) => `${v.id} (${v.impact}): ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
 }
