@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { arraySchema, bankSchema, chargerSchema, inverterSchema, LIMITS } from '../../engine';
+import { arraySchema, bankSchema, chargerSchema, CHEMISTRY_DEFAULTS, inverterSchema, LIMITS } from '../../engine';
 import { patchOf, versionField } from '../shared/patch';
 
 /**
@@ -8,9 +8,30 @@ import { patchOf, versionField } from '../shared/patch';
  */
 export const rigNameField = z.string({ error: 'must be text' }).trim().min(1, { error: 'Give the rig a name.' }).max(80, { error: 'Use at most 80 characters.' });
 
+/**
+ * Low-voltage cutoff band, as a share of the bank's nominal volts (the chemistry's own nominal volts
+ * when none is given). 0.75–1.0 × nominal is common practice: a 12.8 V LiFePO4 BMS cuts near 10 V,
+ * a 12 V lead-acid rig near 10.5 V; a cutoff at or above nominal would cut a healthy bank.
+ */
+export const CUTOFF_BAND = { low: 0.75, high: 1.0 } as const;
+
+const rigBankSchema = bankSchema.superRefine((bank, ctx) => {
+  if (bank.cutoffVolts == null) return;
+  const nominal = bank.nominalVolts ?? CHEMISTRY_DEFAULTS[bank.chemistry].nominalVolts;
+  const low = Math.round(nominal * CUTOFF_BAND.low * 10) / 10;
+  const high = Math.round(nominal * CUTOFF_BAND.high * 10) / 10;
+  if (bank.cutoffVolts < low || bank.cutoffVolts > high) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['cutoffVolts'],
+      message: `The low-voltage cutoff must be between ${low} V and ${high} V for a ${nominal} V bank.`,
+    });
+  }
+});
+
 export const rigInputSchema = z.object({
   name: rigNameField,
-  bank: bankSchema,
+  bank: rigBankSchema,
   arrays: z.array(arraySchema).max(LIMITS.maxArrays, { error: `at most ${LIMITS.maxArrays} arrays` }).default([]),
   chargers: z.array(chargerSchema).max(LIMITS.maxChargers, { error: `at most ${LIMITS.maxChargers} chargers` }).default([]),
   inverter: inverterSchema.nullable().default(null),
