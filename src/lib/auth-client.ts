@@ -24,5 +24,8 @@ export function safeNext(raw: string | null | undefined, fallback = '/trips'): s
     return fallback;
   }
   if (url.origin !== HOME) return fallback;
+  // Dot segments are resolved by the URL parser: "/.//evil.example" becomes the path "//evil.example",
+  // which a browser reads as another site. The normalised path must itself be a plain path.
+  if (url.pathname.startsWith('//') || url.pathname.startsWith('/\\')) return fallback;
   return url.pathname + url.search + url.hash;
 }

@@ -84,6 +84,11 @@ describe('redirect after sign-in (next)', () => {
     'https://evil.example/',
     '%2F%2Fevil.example',
     '/%00/evil.example',
+    // Dot segments: the parser turns "/.//evil.example" into the path "//evil.example" (found by the fuzz run).
+    '/.%2F%2Fevil.example',
+    '/./%2Fevil.example',
+    '/a/..//evil.example',
+    '/.%2F%5Cevil.example',
   ];
 
   it.each(evil)('next=%s stays on our origin and never answers 500', async (next) => {
