@@ -84,6 +84,10 @@ export interface RigTable {
   payload_kg: ColumnType<number | null, number | null | undefined, number | null>;
   /** Room for batteries, litres (migration 0014), or null when not stated. */
   battery_space_l: ColumnType<number | null, number | null | undefined, number | null>;
+  /** When the rig was deleted (migration 0010): hidden, restorable for 30 days, then purged; null while in use. */
+  deleted_at: ColumnType<string | null, string | null | undefined, string | null>;
+  /** Who deleted it (migration 0010). */
+  deleted_by: ColumnType<string | null, string | null | undefined, string | null>;
 }
 
 export interface LoadTable {
@@ -107,6 +111,8 @@ export interface LoadTable {
   standby: number;
   position: number;
   added_by: string | null;
+  /** Who saved the load last (migration 0010); null before it was recorded. */
+  updated_by: ColumnType<string | null, string | null | undefined, string | null>;
   version: Generated<number>;
   created_at: string;
   updated_at: string;
@@ -141,6 +147,10 @@ export interface TripTable {
   created_by: string | null;
   created_at: string;
   updated_at: string;
+  /** When the trip was deleted (migration 0010): hidden, restorable for 30 days, then purged; null while in use. */
+  deleted_at: ColumnType<string | null, string | null | undefined, string | null>;
+  /** Who deleted it (migration 0010). */
+  deleted_by: ColumnType<string | null, string | null | undefined, string | null>;
 }
 
 /** An invitation to join a crew; only a SHA-256 of the link's token is stored. */

@@ -8,6 +8,7 @@ import * as logsCheckIns from './2026_12_01_0006_logs_checkins';
 import * as weatherCache from './2026_12_04_0007_weather_cache';
 import * as rigShareInvites from './2026_12_04_0008_rig_share_invites';
 import * as revision2Inputs from './2026_12_04_0009_revision2_inputs';
+import * as softDelete from './2026_12_04_0010_soft_delete';
 import * as watchLeases from './2026_12_04_0012_watch_leases';
 import * as logOverview from './2026_12_04_0013_log_overview';
 import * as rigLimits from './2026_12_04_0014_rig_limits';
@@ -28,6 +29,7 @@ export const migrations: Record<string, Migration> = {
   '2026_12_04_0007_weather_cache': weatherCache,
   '2026_12_04_0008_rig_share_invites': rigShareInvites,
   '2026_12_04_0009_revision2_inputs': revision2Inputs,
+  '2026_12_04_0010_soft_delete': softDelete,
   '2026_12_04_0011_proposal_document': proposalDocument,
   '2026_12_04_0012_watch_leases': watchLeases,
   '2026_12_04_0013_log_overview': logOverview,
