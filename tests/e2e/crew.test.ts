@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { api, baseUrl, signUp, uniqueEmail, type Session } from '../helpers/api';
-import { hydrated, launch, shot, signOut, type ViewportName, signIn } from '../helpers/browser';
+import { browserPool, hydrated, launch, shot, signOut, type ViewportName, signIn } from '../helpers/browser';
 import { activeCrew, makeRig, member } from '../helpers/crew';
 
 const PASSWORD = 'dusk-and-ember-27';
@@ -11,13 +11,8 @@ describe('a household shares one rig (Chromium)', () => {
   let crewId: string;
   let rigId: string;
   const inviteeEmail = uniqueEmail('tobi');
-  const browsers: { close(): Promise<void> }[] = [];
-  async function open(viewport: ViewportName = 'desktop') {
-    const b = await launch(viewport);
-    browsers.push(b);
-    return b.page;
-  }
-
+  const browsers = browserPool();
+  const open = browsers.open;
   beforeAll(async () => {
     owner = await signUp({ name: 'Inés', password: PASSWORD });
     crewId = (await activeCrew(owner)).id;
@@ -25,7 +20,7 @@ describe('a household shares one rig (Chromium)', () => {
     rigId = (await makeRig(owner, crewId)).id;
   });
   afterAll(async () => {
-    for (const b of browsers) await b.close();
+    await browsers.closeAll();
   });
 
   it('the owner invites a household member by e-mail from the Crew page', async () => {

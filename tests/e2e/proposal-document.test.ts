@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import AxeBuilder from '@axe-core/playwright';
 import type { Page } from 'playwright-core';
 import { api, baseUrl, signUp, type Session } from '../helpers/api';
-import { hydrated, launch, SCREENSHOTS, shot, type ViewportName } from '../helpers/browser';
+import { browserPool, hydrated, SCREENSHOTS, shot, type ViewportName } from '../helpers/browser';
 import { activeCrew } from '../helpers/crew';
 import { demoPlan } from '../../src/engine';
 import { TEST_PRICES } from '../helpers/prices';
@@ -39,13 +39,8 @@ describe('a proposal as a document, on screen and on paper', () => {
   let owner: Session;
   let installer: Session;
   let proposalId: string;
-  const browsers: { close(): Promise<void> }[] = [];
-  async function open(viewport: ViewportName) {
-    const b = await launch(viewport);
-    browsers.push(b);
-    return b.page;
-  }
-
+  const browsers = browserPool();
+  const open = browsers.open;
   beforeAll(async () => {
     owner = await signUp({ name: 'Halvard', password: PASSWORD });
     const crewId = (await activeCrew(owner)).id;
@@ -94,7 +89,7 @@ describe('a proposal as a document, on screen and on paper', () => {
     expect(patched.status).toBe(200);
   });
   afterAll(async () => {
-    for (const b of browsers) await b.close();
+    await browsers.closeAll();
   });
 
   it('signs an installer in to their own page, not the Trips page', async () => {

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { api, baseUrl, signUp, type Session } from '../helpers/api';
-import { hydrated, launch, shot, type ViewportName, signIn, seriousViolations } from '../helpers/browser';
+import { browserPool, hydrated, shot, type ViewportName, signIn, seriousViolations } from '../helpers/browser';
 import { activeCrew, makeLoad, makeRig, makeTrip } from '../helpers/crew';
 import { linkIn, waitForMail } from '../helpers/mail';
 
@@ -16,13 +16,8 @@ describe('installer proposals in Chromium', () => {
   let tripId: string;
   let forecastId: string;
   let proposalUrl: string;
-  const browsers: { close(): Promise<void> }[] = [];
-  async function open(viewport: ViewportName) {
-    const b = await launch(viewport);
-    browsers.push(b);
-    return b.page;
-  }
-
+  const browsers = browserPool();
+  const open = browsers.open;
   beforeAll(async () => {
     owner = await signUp({ name: 'Inés', password: PASSWORD });
     const crewId = (await activeCrew(owner)).id;
@@ -37,7 +32,7 @@ describe('installer proposals in Chromium', () => {
     expect((await api(`/api/rigs/${rig.id}/grants`, { method: 'POST', session: owner, json: { email: installer.email } })).status).toBe(202);
   });
   afterAll(async () => {
-    for (const b of browsers) await b.close();
+    await browsers.closeAll();
   });
 
   it('the installer saves a price list, sweeps the granted rig’s saved forecast and sends a proposal (1280 px)', async () => {

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { demoPlan } from '../../src/engine';
 import { api, baseUrl, signUp, type Session } from '../helpers/api';
-import { launch, shot, type ViewportName, signIn, seriousViolations } from '../helpers/browser';
+import { browserPool, shot, signIn, seriousViolations } from '../helpers/browser';
 import { activeCrew } from '../helpers/crew';
 import { TEST_PRICES } from '../helpers/routes';
 
@@ -43,13 +43,8 @@ describe('the upgrade planner in Chromium', () => {
   let trailer: string;
   let trailerRig: string;
   let owner: Session;
-  const browsers: { close(): Promise<void> }[] = [];
-  async function open(viewport: ViewportName) {
-    const b = await launch(viewport);
-    browsers.push(b);
-    return b.page;
-  }
-
+  const browsers = browserPool();
+  const open = browsers.open;
   beforeAll(async () => {
     installer = await signUp({ kind: 'installer', name: 'Kestrel Power', password: PASSWORD });
     expect((await api('/api/price-list', { method: 'PUT', session: installer, json: { ...TEST_PRICES, version: 0 } })).status).toBe(200);
@@ -91,7 +86,7 @@ describe('the upgrade planner in Chromium', () => {
     )!.id;
   });
   afterAll(async () => {
-    for (const b of browsers) await b.close();
+    await browsers.closeAll();
   });
 
   for (const viewport of ['desktop', 'phone'] as const) {

@@ -52,6 +52,24 @@ export async function launch(viewport: ViewportName = 'desktop', options: Launch
   };
 }
 
+/**
+ * Browsers a test file opens and closes together: `open(viewport)` launches one and gives its page,
+ * `closeAll()` (in afterAll) closes every one opened.
+ */
+export function browserPool(): { open(viewport?: ViewportName, options?: LaunchOptions): Promise<Page>; closeAll(): Promise<void> } {
+  const opened: { close(): Promise<void> }[] = [];
+  return {
+    open: async (viewport = 'desktop', options = {}) => {
+      const b = await launch(viewport, options);
+      opened.push(b);
+      return b.page;
+    },
+    closeAll: async () => {
+      for (const b of opened.splice(0)) await b.close();
+    },
+  };
+}
+
 /** Waits until every island on the page has hydrated. */
 export async function hydrated(page: Page): Promise<void> {
   await page.waitForLoadState('load');
