@@ -16,10 +16,23 @@ import { Variable } from '@openmeteo/sdk/variable';
 // Controls (for tests, never part of the service's protocol):
 //   POST /__fake/mode  {"mode": "normal" | "fail" | "hang" | "garbage", "status"?: 500}
 //   GET  /__fake/stats → {"forecast": n, "archive": n}   (requests answered or held since the last reset)
-//   POST /__fake/reset  (mode normal, counts 0)
+//   POST /__fake/reset  (mode normal, counts 0, weather normal)
+//   POST /__fake/turn  {"mode": "storm" | "normal", "from"?: "YYYY-MM-DD"}  turns the weather: from
+//        local midnight of `from` (every hour when left out) the forecast answers are a storm —
+//        overcast, dim and cold — so a trip that made it on the normal forecast runs out. The archive
+//        (past years' weather) never turns. `GET /__fake/turn` reads it back.
 //   `fake_sky=clear` in a weather request: no clouds (the reference check of the clear-sky shape).
 
 export type FakeMode = 'normal' | 'fail' | 'hang' | 'garbage';
+
+/** The fake's turned weather: a storm in its forecast answers from local midnight of `from` on. */
+export interface FakeTurn {
+  mode: 'normal' | 'storm';
+  /** YYYY-MM-DD, or null for every hour. */
+  from: string | null;
+}
+
+const NORMAL: FakeTurn = { mode: 'normal', from: null };
 
 export interface FakeWeather {
   /** Base URL, e.g. http://127.0.0.1:41234 */
@@ -137,12 +150,38 @@ function temperature(tSec: number, latT: number, lonT: number, lat: number, lon:
   return dayMean + (range / 2) * Math.cos((2 * Math.PI * (solarHours - 15)) / 24);
 }
 
-/** The hourly values of one variable at the instants `times` (seconds, UTC). */
-function series(name: string, times: number[], lat: number, lon: number, clear: boolean): Float32Array {
+// The turned weather (invented for the fake, deterministic): thick storm cloud, 94–100 % cover, lets
+// through about a tenth of the clear-sky light, and the air is 12 °C colder than the normal answer
+// with almost no daily swing.
+const STORM_LIGHT = 0.1;
+const STORM_COOLING_C = 12;
+
+function stormCloud(tSec: number, latT: number, lonT: number): number {
+  return 94 + Math.round(6 * hash(latT, lonT, Math.floor(tSec / 3600)));
+}
+
+/**
+ * The hourly values of one variable at the instants `times` (seconds, UTC); the instants at or after
+ * `stormFrom` (seconds, UTC) are the turned storm.
+ */
+function series(name: string, times: number[], lat: number, lon: number, clear: boolean, stormFrom = Infinity): Float32Array {
   const latT = Math.round(lat * 10);
   const lonT = Math.round(lon * 10);
   const out = new Float32Array(times.length);
   times.forEach((t, i) => {
+    if (t >= stormFrom) {
+      if (name === 'shortwave_radiation') out[i] = clearSkyHourMean(t, lat, lon) * STORM_LIGHT;
+      else if (name === 'cloud_cover') out[i] = stormCloud(t, latT, lonT);
+      else {
+        // The day's mean of the normal answer, cooled, with a 2 °C swing instead of up to 12 °C.
+        const day = Math.floor(t / DAY_S) * DAY_S;
+        let mean = 0;
+        for (let h = 0; h < 24; h++) mean += temperature(day + h * 3600, latT, lonT, lat, lon, 1) / 24;
+        const solarHours = ((t - day) / 3600 + lon / 15 + 48) % 24;
+        out[i] = Math.round((mean - STORM_COOLING_C + Math.cos((2 * Math.PI * (solarHours - 15)) / 24)) * 10) / 10;
+      }
+      return;
+    }
     if (name === 'shortwave_radiation') {
       // Hour-ending mean, as the service gives it; clouds by Kasten & Czeplak (1980) at mid-hour.
       const c = clear ? 0 : cloudFraction(t - 1800, latT, lonT, lat);
@@ -194,10 +233,12 @@ interface Answer {
   hours: number;
   variables: string[];
   clear: boolean;
+  /** The first instant (seconds, UTC) of the turned storm; Infinity when the weather is normal. */
+  stormFrom: number;
 }
 
 /** Reads a forecast or archive request the way the service does; refuses what it would refuse. */
-function readRequest(kind: 'forecast' | 'archive', q: URLSearchParams, todaySec: number): Answer[] {
+function readRequest(kind: 'forecast' | 'archive', q: URLSearchParams, todaySec: number, turn: FakeTurn): Answer[] {
   if (q.get('format') !== 'flatbuffers') throw new BadRequest('This fake only answers format=flatbuffers');
   const lats = numbers(q, 'latitude');
   const lons = numbers(q, 'longitude');
@@ -240,7 +281,12 @@ function readRequest(kind: 'forecast' | 'archive', q: URLSearchParams, todaySec:
     // Data start at local midnight of the first day, as the service does with a time zone.
     const midnight = first * DAY_S;
     const start = midnight - offsetSeconds(timeZone, midnight);
-    return { lat, lon, timeZone, start, hours: (last - first + 1) * 24, variables, clear };
+    let stormFrom = Infinity;
+    if (kind === 'forecast' && turn.mode === 'storm') {
+      const fromMidnight = turn.from === null ? -Infinity : dayOf(turn.from, 'from') * DAY_S;
+      stormFrom = fromMidnight - (Number.isFinite(fromMidnight) ? offsetSeconds(timeZone, fromMidnight) : 0);
+    }
+    return { lat, lon, timeZone, start, hours: (last - first + 1) * 24, variables, clear, stormFrom };
   });
 }
 
@@ -250,7 +296,7 @@ function encode(a: Answer, model: Model): Uint8Array {
   const times = Array.from({ length: a.hours }, (_, i) => a.start + i * 3600);
   const varOffsets = a.variables.map((name) => {
     const spec = VARIABLES[name]!;
-    const values = series(name, times, a.lat, a.lon, a.clear);
+    const values = series(name, times, a.lat, a.lon, a.clear, a.stormFrom);
     b.startVector(4, values.length, 4);
     for (let i = values.length - 1; i >= 0; i--) b.addFloat32(values[i]!);
     const vec = b.endVector();
@@ -291,8 +337,13 @@ function encode(a: Answer, model: Model): Uint8Array {
 }
 
 /** The body of a weather request: every location's root, one after another. */
-export function answerWeather(kind: 'forecast' | 'archive', query: URLSearchParams, nowMs = Date.now()): Uint8Array {
-  const answers = readRequest(kind, query, Math.floor(nowMs / 1000));
+export function answerWeather(
+  kind: 'forecast' | 'archive',
+  query: URLSearchParams,
+  nowMs = Date.now(),
+  turn: FakeTurn = NORMAL,
+): Uint8Array {
+  const answers = readRequest(kind, query, Math.floor(nowMs / 1000), turn);
   const parts = answers.map((a) => encode(a, kind === 'archive' ? Model.era5 : Model.best_match));
   const out = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));
   let at = 0;
@@ -323,9 +374,25 @@ function sendJson(res: ServerResponse, status: number, body: unknown): void {
   res.end(JSON.stringify(body));
 }
 
+/** Reads the body of `POST /__fake/turn`; a message naming the field when it is wrong. */
+export function readTurn(body: unknown): FakeTurn | string {
+  if (typeof body !== 'object' || body === null || Array.isArray(body)) return 'body must be a JSON object';
+  const b = body as Record<string, unknown>;
+  if (b.mode !== 'storm' && b.mode !== 'normal') return "mode must be 'storm' or 'normal'";
+  if (b.from === undefined || b.from === null) return { mode: b.mode, from: null };
+  if (typeof b.from !== 'string') return 'from must be a date, YYYY-MM-DD';
+  try {
+    dayOf(b.from, 'from');
+  } catch {
+    return 'from must be a date, YYYY-MM-DD';
+  }
+  return { mode: b.mode, from: b.from };
+}
+
 /** Starts the fake on 127.0.0.1 (port 0 picks a free one). */
 export async function startFakeWeather(opts: { port?: number; quiet?: boolean } = {}): Promise<FakeWeather> {
   let mode: FakeMode = 'normal';
+  let turn: FakeTurn = NORMAL;
   let failStatus = 500;
   const counts = { forecast: 0, archive: 0 };
   const sockets = new Set<Socket>();
@@ -333,8 +400,22 @@ export async function startFakeWeather(opts: { port?: number; quiet?: boolean } 
   const server: Server = createServer((req, res) => {
     const url = new URL(req.url ?? '/', 'http://127.0.0.1');
     void (async () => {
-      if (url.pathname === '/__fake/stats' && req.method === 'GET') return sendJson(res, 200, { ...counts, mode });
+      if (url.pathname === '/__fake/stats' && req.method === 'GET') return sendJson(res, 200, { ...counts, mode, turn });
+      if (url.pathname === '/__fake/turn' && req.method === 'GET') return sendJson(res, 200, turn);
+      if (url.pathname === '/__fake/turn' && req.method === 'POST') {
+        let body: unknown;
+        try {
+          body = JSON.parse(await readBody(req));
+        } catch {
+          return sendJson(res, 400, { error: 'body must be JSON' });
+        }
+        const read = readTurn(body);
+        if (typeof read === 'string') return sendJson(res, 400, { error: read });
+        turn = read;
+        return sendJson(res, 200, turn);
+      }
       if (url.pathname === '/__fake/reset' && req.method === 'POST') {
+        turn = NORMAL;
         mode = 'normal';
         failStatus = 500;
         counts.forecast = 0;
@@ -365,7 +446,7 @@ export async function startFakeWeather(opts: { port?: number; quiet?: boolean } 
         return res.end(Buffer.concat([Buffer.from([0x10, 0, 0, 0]), Buffer.from('<html>gateway says hello</html>')]));
       }
       try {
-        const body = answerWeather(kind, url.searchParams);
+        const body = answerWeather(kind, url.searchParams, Date.now(), turn);
         res.writeHead(200, { 'content-type': 'application/octet-stream', 'content-length': String(body.length) });
         res.end(body);
       } catch (err) {
@@ -405,6 +486,21 @@ export async function startFakeWeather(opts: { port?: number; quiet?: boolean } 
       server.on('connection', (s) => s.unref());
     },
   };
+}
+
+/**
+ * Turns the weather of the fake at `baseUrl` (its origin, e.g. http://127.0.0.1:8642): a storm in its
+ * forecast answers from local midnight of `from` on (every hour when left out), or back to normal.
+ */
+export async function turnFakeWeather(baseUrl: string, mode: FakeTurn['mode'], from?: string): Promise<FakeTurn> {
+  const res = await fetch(`${new URL(baseUrl).origin}/__fake/turn`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify(from ? { mode, from } : { mode }),
+  });
+  const body = (await res.json()) as FakeTurn | { error: string };
+  if (!res.ok || 'error' in body) throw new Error(`The fake weather refused the turn: ${'error' in body ? body.error : res.status}`);
+  return body;
 }
 
 /** The settings that point a server at a weather service. */
