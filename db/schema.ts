@@ -242,6 +242,8 @@ export interface ForecastTable {
   created_at: string;
   /** The engine revision that made the result; null for forecasts saved before it was recorded (revision 1). */
   engine_revision: ColumnType<number | null, number | null | undefined, number | null>;
+  /** 'plan' (run by a person) or 'watch' (run by the trip watch, migration 0015). */
+  kind: ColumnType<'plan' | 'watch', 'plan' | 'watch' | undefined, 'plan' | 'watch'>;
 }
 
 /** An uploaded battery-monitor CSV: the original file, the column mapping it was read with, its span. */
@@ -369,6 +371,51 @@ export interface WatchLeaseTable {
   expires_at: number;
 }
 
+/** Trip watch state of one trip (migration 0015): the choice, the last run, the answer the crew saw, the notice. */
+export interface TripWatchTable {
+  trip_id: string;
+  /** 0/1 when the owner or an editor chose; null: on by default within 21 days of the first arrival. */
+  enabled: number | null;
+  last_run_at: string | null;
+  seen_forecast_id: string | null;
+  seen_status: string | null;
+  seen_min_soc_pct: number | null;
+  /** Row time with the stop's offset. */
+  seen_cutoff_at: string | null;
+  last_error: string | null;
+  last_error_at: string | null;
+  notice_at: string | null;
+  notice_forecast_id: string | null;
+  notice_status: string | null;
+  notice_previous_status: string | null;
+  notice_summary: string | null;
+  updated_at: string;
+}
+
+/** One watch run's figures (the saved forecast holds the rest). */
+export interface WatchRunTable {
+  forecast_id: string;
+  trip_id: string;
+  ran_at: string;
+  status: string;
+  min_soc_pct: number;
+  first_cutoff_at: string | null;
+  first_cutoff_local: string | null;
+  changed: number;
+  reason: string | null;
+  band_low_pct: number | null;
+  band_high_pct: number | null;
+}
+
+/** One person's watch mail for one trip: 'follow', 'stop' or null (the role's default), and the last mail. */
+export interface WatchPersonTable {
+  trip_id: string;
+  user_id: string;
+  choice: 'follow' | 'stop' | null;
+  last_mailed_at: string | null;
+  updated_at: string;
+}
+
 export interface DB {
   user: UserTable;
   session: SessionTable;
@@ -394,6 +441,9 @@ export interface DB {
   check_ins: CheckInTable;
   weather_cache: WeatherCacheTable;
   watch_leases: WatchLeaseTable;
+  trip_watches: TripWatchTable;
+  watch_runs: WatchRunTable;
+  watch_people: WatchPersonTable;
 }
 
 export type User = Selectable<UserTable>;

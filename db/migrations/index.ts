@@ -14,6 +14,7 @@ import * as logOverview from './2026_12_04_0013_log_overview';
 import * as rigLimits from './2026_12_04_0014_rig_limits';
 import * as proposalDocument from './2026_12_04_0011_proposal_document';
 import * as sharedLimits from './2026_12_04_0018_shared_limits';
+import * as tripWatch from './2026_12_04_0015_trip_watch';
 
 /**
  * Every migration, in order. Listed statically (not read from the folder) so the same list runs
@@ -34,5 +35,6 @@ export const migrations: Record<string, Migration> = {
   '2026_12_04_0012_watch_leases': watchLeases,
   '2026_12_04_0013_log_overview': logOverview,
   '2026_12_04_0014_rig_limits': rigLimits,
+  '2026_12_04_0015_trip_watch': tripWatch,
   '2026_12_04_0018_shared_limits': sharedLimits,
 };
