@@ -1,0 +1,63 @@
+import { afterAll, describe, expect, it } from 'vitest';
+import { formatInstant, isTimeZone, withZoneName, zoneOffset, zoneOr, zonePlainName } from '../../src/lib/clock';
+
+// Instants shown in an explicit zone. Check values from the IANA tz database's rules (COMPUTED by
+// hand): Vancouver is UTC−8 in winter (PST) and UTC−7 from 02:00 local on the second Sunday of
+// March (8 Mar 2026, 10:00 UTC); Auckland is UTC+13 in the southern summer (NZDT); India UTC+05:30.
+
+const saved = process.env.TZ;
+afterAll(() => {
+  if (saved === undefined) delete process.env.TZ;
+  else process.env.TZ = saved;
+});
+
+describe('formatInstant', () => {
+  it('shows an instant in the zone asked for, whatever the runtime’s own zone', () => {
+    for (const runtime of ['UTC', 'Asia/Tokyo', 'America/Vancouver']) {
+      process.env.TZ = runtime;
+      // 11:08 UTC − 8 h = 03:08 in Vancouver; + 13 h = 00:08 next day in Auckland.
+      expect(formatInstant('2026-12-04T11:08:00Z', 'America/Vancouver', 'time')).toBe('03:08');
+      expect(formatInstant('2026-12-04T11:08:00Z', 'America/Vancouver')).toBe('Fri 4 Dec, 03:08');
+      expect(formatInstant('2026-12-04T11:08:00Z', 'Pacific/Auckland', 'dayTimeYear')).toBe('Sat 5 Dec 2026, 00:08');
+      expect(formatInstant('2026-12-04T11:08:00Z', 'UTC', 'time')).toBe('11:08');
+    }
+  });
+
+  it('follows daylight saving: 10:00 UTC is 02:00 PST the day before the change and 03:00 PDT on it', () => {
+    expect(formatInstant('2026-03-07T10:00:00Z', 'America/Vancouver', 'time')).toBe('02:00');
+    expect(formatInstant('2026-03-08T10:00:00Z', 'America/Vancouver', 'time')).toBe('03:00');
+    expect(zoneOffset('2026-03-08T10:00:00Z', 'America/Vancouver')).toBe('UTC−07:00');
+    expect(zoneOffset('2026-03-07T10:00:00Z', 'America/Vancouver')).toBe('UTC−08:00');
+  });
+
+  it('groups by the day in the zone (a late-evening save in Vancouver is the next day in UTC)', () => {
+    // 2026-12-05 05:30 UTC − 8 h = 4 Dec 21:30 in Vancouver.
+    expect(formatInstant('2026-12-05T05:30:00Z', 'America/Vancouver', 'dayKey')).toBe('2026-12-04');
+    expect(formatInstant('2026-12-05T05:30:00Z', 'UTC', 'dayKey')).toBe('2026-12-05');
+  });
+
+  it('reads ms and ISO strings with offsets alike, and shows "—" for nonsense', () => {
+    expect(formatInstant(Date.UTC(2026, 11, 4, 11, 8), 'Asia/Kolkata', 'time')).toBe('16:38');
+    expect(formatInstant('2026-12-04T03:08-08:00', 'UTC', 'time')).toBe('11:08');
+    expect(formatInstant('not a time', 'UTC')).toBe('—');
+  });
+});
+
+describe('zones', () => {
+  it('knows real zone names and falls back to UTC for anything else', () => {
+    expect(isTimeZone('America/Vancouver')).toBe(true);
+    expect(isTimeZone('Mars/Olympus_Mons')).toBe(false);
+    expect(isTimeZone('')).toBe(false);
+    expect(isTimeZone(42)).toBe(false);
+    expect(zoneOr('Mars/Olympus_Mons')).toBe('UTC');
+    expect(zoneOr(null)).toBe('UTC');
+  });
+
+  it('names a zone in plain words for e-mails', () => {
+    expect(zonePlainName('America/Los_Angeles')).toBe('Los Angeles time');
+    expect(zonePlainName('UTC')).toBe('UTC');
+    expect(zonePlainName('Etc/GMT+7')).toBe('UTC−07:00'); // POSIX sign: Etc/GMT+7 is seven hours behind UTC.
+    expect(withZoneName('2026-12-04T11:00:00Z', 'America/Vancouver')).toBe('Fri 4 Dec, 03:00 Vancouver time (UTC−08:00)');
+    expect(withZoneName('2026-12-04T11:00:00Z', 'UTC', 'time')).toBe('11:00 UTC');
+  });
+});
