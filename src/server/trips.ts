@@ -6,6 +6,7 @@ import type { TripChanges, TripDto, TripValues } from '../domain/trips/trips.sch
 import { listVisibleRigs } from './access';
 import { HttpError, type Issue } from './errors';
 import { zodIssues } from './http';
+import { driveIssues } from '../domain/trips/drives';
 import { conflict, nowIso } from './versions';
 
 type Stop = z.output<typeof stopSchema>;
@@ -35,8 +36,12 @@ export function toTripDto(row: TripRow, canEdit: boolean): TripDto {
  */
 export function checkItinerary(bankJson: string, stops: Stop[], drives: Drive[]): void {
   const r = planSchema.safeParse({ bank: JSON.parse(bankJson), stops, drives });
-  if (r.success) return;
-  const issues: Issue[] = zodIssues(r.error).filter((i) => /^(stops|drives)(\.|$)/.test(i.path));
+  // The drive rules of the trip schema, again on the trip as a PATCH would leave it.
+  const drivePlace = driveIssues(stops, drives).map((i) => ({ path: i.path.join('.'), message: i.message }));
+  if (r.success && drivePlace.length === 0) return;
+  const planIssues: Issue[] = r.success ? [] : zodIssues(r.error).filter((i) => /^(stops|drives)(\.|$)/.test(i.path));
+  // Where both name one field, the plainer drive message stands.
+  const issues = [...planIssues.filter((p) => !drivePlace.some((d) => d.path === p.path)), ...drivePlace];
   if (issues.length) throw new HttpError('invalid_request', 'The stops and drives need fixing.', issues);
 }
 

@@ -52,7 +52,7 @@ describe('trip planner rules', () => {
       drives: [{ date: '2027-11-01', startHour: 9, hours: 4 }],
     });
     expect(issues(t).sort()).toEqual([
-      'drives.0.date: must be within the trip, Thu 21 Oct 2027 to Sun 24 Oct 2027.',
+      'drives.0.date: Drive 1 starts at 09:00 on Mon 1 Nov, after the trip ends (11:00 on Sun 24 Oct). Move it inside the trip.',
       'stops.0.generatorHours: Generator hours must start before they stop.',
       'stops.0.weather.0.lowC: must not be above the high',
     ]);

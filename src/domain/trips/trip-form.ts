@@ -1,5 +1,5 @@
 // The trip planner's form model: the shared trip schema, plus the itinerary rules the form can
-// check before the server does (stops in order, drives inside the trip, high above low), and
+// check before the server does (stops in order, high above low; drives through the trip schema), and
 // the small date helpers the planner needs. Pure and unit-tested.
 import type { z } from 'zod';
 import { tripInputSchema, type TripDto } from './trips.schema';
@@ -25,12 +25,8 @@ export const tripFormSchema = tripInputSchema.superRefine((trip, ctx) => {
     if (dayNo(s.arrive) <= dayNo(prev.arrive)) add(['stops', i, 'arrive'], 'must be after the stop before: stops go in the order you travel.');
     else if (dayNo(s.arrive) < leaves) add(['stops', i, 'arrive'], `overlaps the stop before, which you leave on ${formatDate(addDaysIso(prev.arrive, prev.nights))}.`);
   });
-  const span = tripSpan(stops);
-  if (span) {
-    (trip.drives ?? []).forEach((d, k) => {
-      if (isDate(d.date) && (d.date < span.from || d.date > span.to)) add(['drives', k, 'date'], `must be within the trip, ${formatDate(span.from)} to ${formatDate(span.to)}.`);
-    });
-  }
+  // Where drives may lie (inside the trip, ending by the next arrival, not overlapping) is the trip
+  // schema's own rule (drives.ts), so the form and the API give the same words.
   // Run even when some other field is wrong, so every problem shows at once (each rule guards its own inputs).
 }, { when: () => true });
 

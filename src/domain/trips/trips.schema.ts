@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { driveSchema, LIMITS, stopSchema } from '../../engine';
 import { patchOf, versionField } from '../shared/patch';
+import { driveIssues } from './drives';
 
 /** A trip: stops (with their weather days) and drives, as the engine contract shapes them. */
 export const tripInputSchema = z.object({
@@ -9,6 +10,9 @@ export const tripInputSchema = z.object({
   stops: z.array(stopSchema).min(1, { error: 'Add at least one stop.' }).max(LIMITS.maxStops, { error: `at most ${LIMITS.maxStops} stops` }),
   drives: z.array(driveSchema).max(LIMITS.maxDrives).default([]),
   reserveSocPct: z.number({ error: 'must be a number' }).min(0).max(95).nullable().default(null),
+}).superRefine((trip, ctx) => {
+  // Drives inside the trip, each ending by the next stop's arrival, none overlapping (drives.ts).
+  for (const i of driveIssues(trip.stops, trip.drives)) ctx.addIssue({ code: 'custom', path: i.path, message: i.message });
 });
 export type TripInput = z.input<typeof tripInputSchema>;
 
