@@ -1,5 +1,5 @@
 import { useRef, useState } from 'react';
-import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type UseFormRegister, type UseFormSetValue } from 'react-hook-form';
+import { useFieldArray, useForm, useWatch, type Control, type UseFormRegister, type UseFormSetValue } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useQueryClient } from '@tanstack/react-query';
 import { CHEMISTRIES, type Chemistry } from '../../engine/light';
@@ -23,9 +23,20 @@ interface RigEditorProps {
 type Ctx = {
   register: UseFormRegister<RigFormValues>;
   control: Control<RigFormValues>;
-  errors: FieldErrors<RigFormValues>;
+  /** A field's message once the camper has left the field or tried to save; nothing before. */
+  shown: (path: string) => string | undefined;
   setValue: UseFormSetValue<RigFormValues>;
 };
+
+/** Whether the field at a dot path has been left (react-hook-form's touched tree). */
+function touchedAt(touched: unknown, path: string): boolean {
+  let node: unknown = touched;
+  for (const key of path.split('.')) {
+    if (node === null || typeof node !== 'object') return false;
+    node = (node as Record<string, unknown>)[key];
+  }
+  return node === true;
+}
 
 const num = { setValueAs: asNumber };
 
@@ -45,8 +56,11 @@ export function RigEditor({ rig }: RigEditorProps) {
     mode: 'onTouched',
   });
   const { register, control, handleSubmit, setValue, getValues, getFieldState, reset, setError, formState } = form;
-  const { errors, isSubmitting, isDirty } = formState;
-  const ctx: Ctx = { register, control, errors, setValue };
+  const { errors, isSubmitting, isDirty, isSubmitted, touchedFields } = formState;
+  // Adding a panel or charger re-checks the whole list (react-hook-form's field-array rule): its empty
+  // boxes would show red before a single key. A message waits until its field is left or the rig is saved.
+  const shown = (path: string) => (isSubmitted || touchedAt(touchedFields, path) ? errorAt(errors, path) : undefined);
+  const ctx: Ctx = { register, control, shown, setValue };
 
   const chemistry = useWatch({ control, name: 'bank.chemistry' }) as Chemistry;
   const bankLocation = useWatch({ control, name: 'bank.location' });
@@ -139,8 +153,8 @@ export function RigEditor({ rig }: RigEditorProps) {
       <fieldset disabled={readOnly} className="min-w-0 space-y-5">
       <section className="card p-4 sm:p-6" aria-labelledby="rig-name-heading">
         <h2 id="rig-name-heading" className="sr-only">Name</h2>
-        <Field id="name" label="Rig name" error={errors.name?.message} hint="What your crew calls it, e.g. “Van” or “Trailer”.">
-          <input id="name" className="field-input" autoComplete="off" {...describedBy('name', errors.name?.message, true)} {...register('name')} />
+        <Field id="name" label="Rig name" error={shown('name')} hint="What your crew calls it, e.g. “Van” or “Trailer”.">
+          <input id="name" className="field-input" autoComplete="off" {...describedBy('name', shown('name'), true)} {...register('name')} />
         </Field>
       </section>
 
@@ -161,8 +175,8 @@ export function RigEditor({ rig }: RigEditorProps) {
         </fieldset>
 
         <div className="grid gap-4 sm:grid-cols-2">
-          <NumberField id="bank-capacityAh" label="Capacity" unit="Ah" registration={capacityReg} error={errorAt(errors, 'bank.capacityAh')} hint="The whole bank's rated amp-hours at its nominal volts." />
-          <NumberField id="bank-nominalVolts" label="Nominal voltage" unit="V" registration={register('bank.nominalVolts', num)} error={errorAt(errors, 'bank.nominalVolts')} hint="12.8 V for a LiFePO4 “12 V” bank; 12 V for lead-acid." />
+          <NumberField id="bank-capacityAh" label="Capacity" unit="Ah" registration={capacityReg} error={shown('bank.capacityAh')} hint="The whole bank's rated amp-hours at its nominal volts." />
+          <NumberField id="bank-nominalVolts" label="Nominal voltage" unit="V" registration={register('bank.nominalVolts', num)} error={shown('bank.nominalVolts')} hint="12.8 V for a LiFePO4 “12 V” bank; 12 V for lead-acid." />
         </div>
 
         <fieldset>
@@ -200,20 +214,20 @@ export function RigEditor({ rig }: RigEditorProps) {
           </div>
           {presetNote ? <p className="field-hint mt-1" role="status">{presetNote}</p> : null}
           <div className="mt-3 grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
-            <NumberField id="bank-floorSocPct" label="Usable floor" unit="%" registration={register('bank.floorSocPct', num)} error={errorAt(errors, 'bank.floorSocPct')} hint="Lowest state of charge you allow." />
-            <NumberField id="bank-cutoffVolts" label="Low-voltage cutoff" unit="V" registration={register('bank.cutoffVolts', numOrNull)} error={errorAt(errors, 'bank.cutoffVolts')} hint="Where the BMS or inverter disconnects. Leave empty if none." />
-            <NumberField id="bank-maxChargeAmps" label="Max charge current" unit="A" registration={register('bank.maxChargeAmps', num)} error={errorAt(errors, 'bank.maxChargeAmps')} hint={`Typical ${formatNumber(CHEMISTRY_PRESETS[chemistry].maxChargeC, 1)} C of capacity.`} />
-            <NumberField id="bank-peukertExponent" label="Peukert exponent" registration={register('bank.peukertExponent', num)} error={errorAt(errors, 'bank.peukertExponent')} hint="How much heavy draw shrinks capacity (1 = not at all)." />
-            <NumberField id="bank-chargeEfficiencyPct" label="Charge efficiency" unit="%" registration={register('bank.chargeEfficiencyPct', num)} error={errorAt(errors, 'bank.chargeEfficiencyPct')} hint="Share of charge current the bank keeps." />
+            <NumberField id="bank-floorSocPct" label="Usable floor" unit="%" registration={register('bank.floorSocPct', num)} error={shown('bank.floorSocPct')} hint="Lowest state of charge you allow." />
+            <NumberField id="bank-cutoffVolts" label="Low-voltage cutoff" unit="V" registration={register('bank.cutoffVolts', numOrNull)} error={shown('bank.cutoffVolts')} hint="Where the BMS or inverter disconnects. Leave empty if none." />
+            <NumberField id="bank-maxChargeAmps" label="Max charge current" unit="A" registration={register('bank.maxChargeAmps', num)} error={shown('bank.maxChargeAmps')} hint={`Typical ${formatNumber(CHEMISTRY_PRESETS[chemistry].maxChargeC, 1)} C of capacity.`} />
+            <NumberField id="bank-peukertExponent" label="Peukert exponent" registration={register('bank.peukertExponent', num)} error={shown('bank.peukertExponent')} hint="How much heavy draw shrinks capacity (1 = not at all)." />
+            <NumberField id="bank-chargeEfficiencyPct" label="Charge efficiency" unit="%" registration={register('bank.chargeEfficiencyPct', num)} error={shown('bank.chargeEfficiencyPct')} hint="Share of charge current the bank keeps." />
           </div>
         </div>
 
         <details className="group">
           <summary className="cursor-pointer font-bold text-slate-text">More battery settings</summary>
           <div className="mt-3 grid gap-4 sm:grid-cols-2">
-            <NumberField id="bank-initialSocPct" label="State of charge when a trip starts" unit="%" registration={register('bank.initialSocPct', num)} error={errorAt(errors, 'bank.initialSocPct')} />
-            <NumberField id="bank-internalResistanceMilliohm" label="Internal resistance" unit="mΩ" registration={register('bank.internalResistanceMilliohm', num)} error={errorAt(errors, 'bank.internalResistanceMilliohm')} hint="Sets the voltage sag under load." />
-            <NumberField id="bank-thermalHours" label="Battery’s thermal lag" unit="h" registration={register('bank.thermalHours', num)} error={errorAt(errors, 'bank.thermalHours')} hint="Hours the battery takes to follow the air around it: about 6 h for a 20–30 kg battery in a box (common practice)." />
+            <NumberField id="bank-initialSocPct" label="State of charge when a trip starts" unit="%" registration={register('bank.initialSocPct', num)} error={shown('bank.initialSocPct')} />
+            <NumberField id="bank-internalResistanceMilliohm" label="Internal resistance" unit="mΩ" registration={register('bank.internalResistanceMilliohm', num)} error={shown('bank.internalResistanceMilliohm')} hint="Sets the voltage sag under load." />
+            <NumberField id="bank-thermalHours" label="Battery’s thermal lag" unit="h" registration={register('bank.thermalHours', num)} error={shown('bank.thermalHours')} hint="Hours the battery takes to follow the air around it: about 6 h for a 20–30 kg battery in a box (common practice)." />
           </div>
         </details>
       </section>
@@ -263,14 +277,14 @@ export function RigEditor({ rig }: RigEditorProps) {
         </label>
         {inverter != null ? (
           <div className="grid gap-4 sm:grid-cols-3">
-            <NumberField id="inverter-efficiencyPct" label="Efficiency" unit="%" registration={register('inverter.efficiencyPct', num)} error={errorAt(errors, 'inverter.efficiencyPct')} hint="Typical 85–92 %." />
-            <NumberField id="inverter-idleWatts" label="Idle draw" unit="W" registration={register('inverter.idleWatts', num)} error={errorAt(errors, 'inverter.idleWatts')} hint="10 W left on all day is about 20 Ah." />
+            <NumberField id="inverter-efficiencyPct" label="Efficiency" unit="%" registration={register('inverter.efficiencyPct', num)} error={shown('inverter.efficiencyPct')} hint="Typical 85–92 %." />
+            <NumberField id="inverter-idleWatts" label="Idle draw" unit="W" registration={register('inverter.idleWatts', num)} error={shown('inverter.idleWatts')} hint="10 W left on all day is about 20 Ah." />
             <label className="flex items-start gap-2 sm:pt-7">
               <input type="checkbox" className="mt-1.5 h-4 w-4 accent-ember" {...register('inverter.alwaysOn')} />
               <span><span className="font-bold">Left on all the time</span><br /><span className="field-hint">Otherwise it counts as on only in hours with AC loads.</span></span>
             </label>
-            <NumberField id="inverter-continuousWatts" label="Continuous rating" unit="W" registration={register('inverter.continuousWatts', numOrNull)} error={errorAt(errors, 'inverter.continuousWatts')} hint="AC watts it delivers without stopping, from its label. Empty: not checked." />
-            <NumberField id="inverter-surgeWatts" label="Surge rating" unit="W" registration={register('inverter.surgeWatts', numOrNull)} error={errorAt(errors, 'inverter.surgeWatts')} hint="AC watts it holds for a moment, e.g. a compressor starting. Empty: not checked." />
+            <NumberField id="inverter-continuousWatts" label="Continuous rating" unit="W" registration={register('inverter.continuousWatts', numOrNull)} error={shown('inverter.continuousWatts')} hint="AC watts it delivers without stopping, from its label. Empty: not checked." />
+            <NumberField id="inverter-surgeWatts" label="Surge rating" unit="W" registration={register('inverter.surgeWatts', numOrNull)} error={shown('inverter.surgeWatts')} hint="AC watts it holds for a moment, e.g. a compressor starting. Empty: not checked." />
           </div>
         ) : (
           <p className="text-slate-text">No inverter: every load runs on 12 V DC.</p>
@@ -282,8 +296,8 @@ export function RigEditor({ rig }: RigEditorProps) {
         <h2 id="limits-heading" className="text-xl">Weight and room (optional)</h2>
         <p className="text-sm text-slate-text">An installer’s upgrade sweep checks each bigger bank’s weight and size against these.</p>
         <div className="grid gap-4 sm:grid-cols-2">
-          <NumberField id="rig-payloadKg" label="Payload it may still carry" unit="kg" registration={register('payloadKg', numOrNull)} error={errorAt(errors, 'payloadKg')} hint="The rated payload less what it carries now. Empty: not stated." />
-          <NumberField id="rig-batterySpaceL" label="Room for batteries" unit="L" registration={register('batterySpaceL', numOrNull)} error={errorAt(errors, 'batterySpaceL')} hint="The battery box or bay’s inside volume. Empty: not stated." />
+          <NumberField id="rig-payloadKg" label="Payload it may still carry" unit="kg" registration={register('payloadKg', numOrNull)} error={shown('payloadKg')} hint="The rated payload less what it carries now. Empty: not stated." />
+          <NumberField id="rig-batterySpaceL" label="Room for batteries" unit="L" registration={register('batterySpaceL', numOrNull)} error={shown('batterySpaceL')} hint="The battery box or bay’s inside volume. Empty: not stated." />
         </div>
       </section>
 
@@ -334,7 +348,7 @@ function SeriesParallelHelper({ chemistry, onUse }: { chemistry: Chemistry; onUs
 }
 
 function ArrayCard({ index, ctx, onRemove }: { index: number; ctx: Ctx; onRemove: () => void }) {
-  const { register, control, errors, setValue } = ctx;
+  const { register, control, shown, setValue } = ctx;
   const p = (k: string) => `arrays.${index}.${k}` as const;
   const tiltDeg = useWatch({ control, name: `arrays.${index}.tiltDeg` });
   const azimuthDeg = useWatch({ control, name: `arrays.${index}.azimuthDeg` });
@@ -349,7 +363,7 @@ function ArrayCard({ index, ctx, onRemove }: { index: number; ctx: Ctx; onRemove
     setValue(`arrays.${index}.aim`, next.aim, { shouldDirty: true });
   };
   const id = (k: string) => fieldId(p(k));
-  const err = (k: string) => errorAt(errors, p(k));
+  const err = (k: string) => shown(p(k));
   const compassKnown = COMPASS.some((c) => c.deg === azimuthDeg);
 
   return (
@@ -398,7 +412,7 @@ function ArrayCard({ index, ctx, onRemove }: { index: number; ctx: Ctx; onRemove
         <div className="mt-3 grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
           <NumberField id={id('lossesPct')} label="System losses" unit="%" registration={register(`arrays.${index}.lossesPct`, num)} error={err('lossesPct')} hint="Wiring, dirt, mismatch: 14 % is usual." />
           <NumberField id={id('controllerEfficiencyPct')} label="Controller efficiency" unit="%" registration={register(`arrays.${index}.controllerEfficiencyPct`, num)} error={err('controllerEfficiencyPct')} />
-          <NumberField id={id('tempCoeffPctPerC')} label="Power temperature coefficient" unit="%/°C" registration={register(`arrays.${index}.tempCoeffPctPerC`, num)} error={err('tempCoeffPctPerC')} hint="From the panel's label; −0.4 is typical." />
+          <NumberField id={id('tempCoeffPctPerC')} label="Power temperature coefficient" unit="%/°C" signed registration={register(`arrays.${index}.tempCoeffPctPerC`, num)} error={err('tempCoeffPctPerC')} hint="From the panel's label; −0.4 is typical." />
           <NumberField id={id('nocC')} label="NOCT" unit="°C" registration={register(`arrays.${index}.nocC`, num)} error={err('nocC')} hint="Nominal operating cell temperature; 45 °C is typical." />
           {controller === 'pwm' ? (
             <NumberField id={id('vmpVolts')} label="Panel Vmp" unit="V" registration={register(`arrays.${index}.vmpVolts`, num)} error={err('vmpVolts')} hint="About 18 V for a “12 V” panel; PWM pulls it down to battery voltage." />
@@ -410,12 +424,12 @@ function ArrayCard({ index, ctx, onRemove }: { index: number; ctx: Ctx; onRemove
 }
 
 function ChargerCard({ index, ctx, onRemove }: { index: number; ctx: Ctx; onRemove: () => void }) {
-  const { register, control, errors } = ctx;
+  const { register, control, shown } = ctx;
   const kind = useWatch({ control, name: `chargers.${index}.kind` }) as 'alternator' | 'shore' | 'generator';
   const info = CHARGER_KINDS[kind] ?? CHARGER_KINDS.alternator;
   const p = (k: string) => `chargers.${index}.${k}`;
   const id = (k: string) => fieldId(p(k));
-  const err = (k: string) => errorAt(errors, p(k));
+  const err = (k: string) => shown(p(k));
   return (
     <fieldset className="rounded-xl border-2 border-sand-dark p-3 sm:p-4" aria-label={`Charger ${index + 1}`}>
       <div className="flex items-center justify-between gap-2">
