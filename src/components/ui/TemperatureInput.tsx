@@ -2,6 +2,7 @@ import { useEffect, useRef, useState } from 'react';
 import { useController, type Control, type FieldValues, type Path } from 'react-hook-form';
 import { Field, describedBy } from './Field';
 import { asNumber } from './form';
+import { SignToggle } from './SignToggle';
 import { fromDisplayTemp, tempRangeMessage, tempUnit, toDisplayTemp, type Units } from '../../lib/units';
 
 interface TemperatureInputProps<T extends FieldValues> {
@@ -23,7 +24,18 @@ interface TemperatureInputProps<T extends FieldValues> {
  * A temperature typed in the user's units (°C or °F) and kept in the form in °C, the unit the
  * API and the engine store. Range errors are restated in the user's units.
  */
-export function TemperatureInput<T extends FieldValues>({ control, name, id, label, units, minC, maxC, hint, className, errorName }: TemperatureInputProps<T>) {
+export function TemperatureInput<T extends FieldValues>({
+  control,
+  name,
+  id,
+  label,
+  units,
+  minC,
+  maxC,
+  hint,
+  className,
+  errorName,
+}: TemperatureInputProps<T>) {
   const { field, fieldState } = useController({ control, name });
   const shown = (c: unknown) => (typeof c === 'number' && Number.isFinite(c) ? String(toDisplayTemp(c, units)) : '');
   const [text, setText] = useState(() => shown(field.value));
@@ -44,24 +56,28 @@ export function TemperatureInput<T extends FieldValues>({ control, name, id, lab
 
   return (
     <Field id={id} label={`${label} (${unit})`} error={message} hint={hint} className={className} errorName={errorName ?? label}>
-      <input
-        id={id}
-        ref={field.ref}
-        name={field.name}
-        inputMode="decimal"
-        autoComplete="off"
-        className="field-input"
-        value={text}
-        onBlur={field.onBlur}
-        onChange={(e) => {
-          setText(e.target.value);
-          const n = asNumber(e.target.value);
-          const c = n === undefined || Number.isNaN(n) ? n : fromDisplayTemp(n, units);
-          lastSent.current = c;
-          field.onChange(c);
-        }}
-        {...describedBy(id, message, Boolean(hint))}
-      />
+      <div className="flex gap-1.5">
+        {/* Temperatures go below zero: the ± button stands in for the minus key a phone's decimal keypad lacks. */}
+        <SignToggle inputId={id} label={label} />
+        <input
+          id={id}
+          ref={field.ref}
+          name={field.name}
+          inputMode="decimal"
+          autoComplete="off"
+          className="field-input min-w-0 flex-1"
+          value={text}
+          onBlur={field.onBlur}
+          onChange={(e) => {
+            setText(e.target.value);
+            const n = asNumber(e.target.value);
+            const c = n === undefined || Number.isNaN(n) ? n : fromDisplayTemp(n, units);
+            lastSent.current = c;
+            field.onChange(c);
+          }}
+          {...describedBy(id, message, Boolean(hint))}
+        />
+      </div>
     </Field>
   );
 }

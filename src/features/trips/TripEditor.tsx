@@ -319,8 +319,8 @@ function StopLocation({ index: i, ctx }: { index: number; ctx: Ctx }) {
         <input id={id('name')} className="field-input" autoComplete="off" {...describedBy(id('name'), err('name'), true)} {...register(`stops.${i}.name`)} />
       </Field>
       <div className="grid grid-cols-2 gap-4 sm:col-span-2 lg:grid-cols-3">
-        <NumberField id={id('lat')} label="Latitude" unit="°" registration={register(`stops.${i}.lat`, num)} error={err('lat')} hint="North is +, e.g. 38.57" />
-        <NumberField id={id('lon')} label="Longitude" unit="°" registration={register(`stops.${i}.lon`, num)} error={err('lon')} hint="West is −, e.g. −109.55" />
+        <NumberField id={id('lat')} label="Latitude" unit="°" signed registration={register(`stops.${i}.lat`, num)} error={err('lat')} hint="North is +, e.g. 38.57" />
+        <NumberField id={id('lon')} label="Longitude" unit="°" signed registration={register(`stops.${i}.lon`, num)} error={err('lon')} hint="West is −, e.g. −109.55" />
         <Field id={id('timeZone')} label="Time zone" error={err('timeZone')} hint={tzNote ?? (tz ? undefined : 'Filled from the coordinates.')} className="col-span-2 lg:col-span-1">
           <input id={id('timeZone')} className="field-input" autoComplete="off" list="time-zones" {...describedBy(id('timeZone'), err('timeZone'), Boolean(tzNote || !tz))} {...register(`stops.${i}.timeZone`)} />
         </Field>
