@@ -33,6 +33,12 @@ export interface HourlyRow {
   minVolts: number;
   /** Added (Revision 2): the cabin's temperature, °C. */
   cabinC: number;
+  /** Added (optional: snapshots saved before it lack it): the part of `curtailedWatts` refused because the bank was too cold (a warm bank would have taken it). */
+  curtailedColdWatts?: number;
+  /** Added: the part of `curtailedWatts` refused because the bank was (nearly) full (its taper). */
+  curtailedFullWatts?: number;
+  /** Added: the part of `curtailedWatts` above the bank's maximum charge current, with room left. */
+  curtailedLimitWatts?: number;
 }
 
 /** One local day; Wh are sums of its hours, minimums use end-of-hour SOC. */
@@ -48,6 +54,10 @@ export interface DayRow {
   unmetWh: number;
   /** Added. */
   curtailedWh: number;
+  /** Added: curtailedWh by cause (too cold, full, charge-current limit), sums of the hours' parts. */
+  curtailedColdWh?: number;
+  curtailedFullWh?: number;
+  curtailedLimitWh?: number;
 }
 
 /** Whole-trip figures. */
@@ -77,6 +87,10 @@ export interface ForecastSummary {
   minVoltsAt: string;
   /** Added (Revision 2): the lowest end-of-hour usable charge, %. */
   minUsablePct: number;
+  /** Added: curtailedWh by cause (too cold, full, charge-current limit). */
+  curtailedColdWh?: number;
+  curtailedFullWh?: number;
+  curtailedLimitWh?: number;
 }
 
 /** The engine revision whose rules made a forecast (forecast-engine.md, "Revision 2"). */
@@ -149,12 +163,15 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
       usablePct: r1(sim.usablePct[r]!),
       minVolts: r2(sim.minVolts[r]!),
       cabinC: r1(sim.cabinC[r]!),
+      curtailedColdWatts: r0(sim.curtailedColdW[r]!),
+      curtailedFullWatts: r0(sim.curtailedFullW[r]!),
+      curtailedLimitWatts: r0(sim.curtailedLimitW[r]!),
     };
   }
 
   // Day sums come from unrounded values.
   const nd = prepared.days.length;
-  const acc = prepared.days.map(() => ({ load: 0, solar: 0, charge: 0, unmet: 0, curtailed: 0, min: Infinity, end: 0, seen: false }));
+  const acc = prepared.days.map(() => ({ load: 0, solar: 0, charge: 0, unmet: 0, curtailed: 0, cold: 0, full: 0, limit: 0, min: Infinity, end: 0, seen: false }));
   for (let r = 0; r < n; r++) {
     const d = acc[prepared.dayIndex[r]!]!;
     d.load += sim.loadW[r]!;
@@ -162,6 +179,9 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
     d.charge += sim.chargeW[r]!;
     d.unmet += sim.unmetW[r]!;
     d.curtailed += sim.curtailedW[r]!;
+    d.cold += sim.curtailedColdW[r]!;
+    d.full += sim.curtailedFullW[r]!;
+    d.limit += sim.curtailedLimitW[r]!;
     if (sim.socEndPct[r]! < d.min) d.min = sim.socEndPct[r]!;
     d.end = sim.socEndPct[r]!;
     d.seen = true;
@@ -180,6 +200,9 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
       endSocPct: r1(d.end),
       unmetWh: r0(d.unmet),
       curtailedWh: r0(d.curtailed),
+      curtailedColdWh: r0(d.cold),
+      curtailedFullWh: r0(d.full),
+      curtailedLimitWh: r0(d.limit),
     });
   }
 
@@ -203,6 +226,9 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
     minVolts: r2(s.minVolts),
     minVoltsAt: grid.time[s.minVoltsRow] ?? grid.time[0] ?? '',
     minUsablePct: r1(s.minUsablePct),
+    curtailedColdWh: r0(s.curtailedColdWh),
+    curtailedFullWh: r0(s.curtailedFullWh),
+    curtailedLimitWh: r0(s.curtailedLimitWh),
   };
 
   const all = [...prepared.warnings, ...sim.warnings];

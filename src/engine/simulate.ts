@@ -46,6 +46,10 @@ export interface SimSummary {
   unmetWh: number;
   solarWh: number;
   curtailedWh: number;
+  /** Parts of curtailedWh by cause (see SimResult.curtailedColdW). */
+  curtailedColdWh: number;
+  curtailedFullWh: number;
+  curtailedLimitWh: number;
   chargeWh: number;
   loadWh: number;
   generatorHours: number;
@@ -81,6 +85,12 @@ export interface SimResult {
   loadW: Float64Array;
   unmetW: Float64Array;
   curtailedW: Float64Array;
+  /** Why solar was curtailed, parts of `curtailedW`: the cold (a warm bank would have taken it: the
+   * LiFePO4 lockout, lead-acid's cold acceptance), the bank nearly full (the taper), and the bank's
+   * own charge-current limit (maxChargeAmps, with room left). */
+  curtailedColdW: Float64Array;
+  curtailedFullW: Float64Array;
+  curtailedLimitW: Float64Array;
   /** Ah delivered to the bank's terminals (before charge efficiency). */
   ahIn: Float64Array;
   /** Ah removed from the bank, Peukert-adjusted. */
@@ -130,6 +140,18 @@ function resolveVariant(prepared: PreparedTrip, variant: Variant | undefined) {
     arrayWatts: (v.arrayWatts ?? plan.arrays.map((a) => a.ratedWatts)).map((w) => w * scale),
     generatorHours: v.generatorHours ?? null,
   };
+}
+
+/**
+ * Charge Q after `t` hours of a bank offered `want` amps, accepting at most `acc` amps tapering to
+ * zero at full above the knee (forecast-engine.md, Revision 2): the free end point when the
+ * acceptance still covers `want` there, else the exact tapered charge.
+ */
+function acceptedQ(q: number, want: number, t: number, acc: number, cap: number, kneeAh: number, knee: number, eta: number): number {
+  if (acc <= 0) return q;
+  const qFree = q + eta * want * t;
+  if (want <= acc * (qFree <= kneeAh ? 1 : (cap - Math.min(qFree, cap)) / (cap - kneeAh))) return Math.min(qFree, cap);
+  return Math.min(qFree, taperedChargeAh(q, cap, acc, eta, knee, t), cap);
 }
 
 function fmt(x: number, digits: number): string {
@@ -214,6 +236,9 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
   const loadW = new Float64Array(n);
   const unmetW = new Float64Array(n);
   const curtailedW = new Float64Array(n);
+  const curtailedColdW = new Float64Array(n);
+  const curtailedFullW = new Float64Array(n);
+  const curtailedLimitW = new Float64Array(n);
   const ahIn = new Float64Array(n);
   const ahOut = new Float64Array(n);
   const ahOutRaw = new Float64Array(n);
@@ -261,6 +286,9 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
   let unmetWh = 0;
   let solarWh = 0;
   let curtailedWh = 0;
+  let curtailedColdWh = 0;
+  let curtailedFullWh = 0;
+  let curtailedLimitWh = 0;
   let chargeWh = 0;
   let loadWh = 0;
 
@@ -308,6 +336,9 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
     let solarSum = 0;
     let chargerSum = 0;
     let curtailedSum = 0;
+    let coldCutSum = 0;
+    let fullCutSum = 0;
+    let limitCutSum = 0;
     let servedSum = 0;
     let inAh = 0;
     let outAh = 0;
@@ -403,13 +434,10 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
           // Charging (or balanced): limited by the acceptance at each moment's SOC, solved exactly.
           const want = -iBank;
           if (lockout && want > EPS && q < cap - EPS) refused = true;
-          const qFree = q + eta * want * tLeft;
           // The acceptance falls as the bank fills: if it still covers `want` at the free end point it
           // covered it all along; otherwise the exact tapered charge bounds it.
-          let qNew: number;
-          if (accMax <= 0) qNew = q;
-          else if (want <= accMax * (qFree <= kneeAh ? 1 : (cap - Math.min(qFree, cap)) / (cap - kneeAh))) qNew = Math.min(qFree, cap);
-          else qNew = Math.min(qFree, taperedChargeAh(q, cap, accMax, eta, knee, tLeft), cap);
+          const q0 = q;
+          const qNew = acceptedQ(q0, want, tLeft, accMax, cap, kneeAh, knee, eta);
           const got = qNew > q ? (qNew - q) / (eta * tLeft) : 0;
           q = qNew > q ? qNew : q;
           const vc = ocv + got * ohms;
@@ -422,7 +450,22 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
             const cUsed = Math.max(0, Math.min(chgTot, needed - sUsed));
             solarSum += sUsed * tLeft;
             chargerSum += cUsed * tLeft;
-            curtailedSum += (solarTot - sUsed) * tLeft;
+            const cut = solarTot - sUsed;
+            curtailedSum += cut * tLeft;
+            if (cut > 0) {
+              // Why: solar a warm bank would have taken is the cold's; of the rest, what the bank's flat
+              // maximum current would have taken is the taper's (nearly full); what is left is that limit's.
+              let gotWarm = got;
+              if (accMax !== maxChargeA) {
+                const qWarm = acceptedQ(q0, want, tLeft, maxChargeA, cap, kneeAh, knee, eta);
+                gotWarm = qWarm > q0 ? (qWarm - q0) / (eta * tLeft) : 0;
+              }
+              const cutWarm = Math.min(cut, Math.max(0, solarTot - (load + gotWarm * vc)));
+              const cutFlat = Math.min(cutWarm, Math.max(0, solarTot - (load + Math.min(want, maxChargeA) * vc)));
+              coldCutSum += (cut - cutWarm) * tLeft;
+              fullCutSum += (cutWarm - cutFlat) * tLeft;
+              limitCutSum += cutFlat * tLeft;
+            }
             vSum += vc * tLeft;
           } else {
             solarSum += (pm + ipwm * vt) * tLeft;
@@ -507,6 +550,9 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
     loadW[r] = servedSum;
     unmetW[r] = unmet > 1e-9 ? unmet : 0;
     curtailedW[r] = curtailedSum > 0 ? curtailedSum : 0;
+    curtailedColdW[r] = coldCutSum > 0 ? coldCutSum : 0;
+    curtailedFullW[r] = fullCutSum > 0 ? fullCutSum : 0;
+    curtailedLimitW[r] = limitCutSum > 0 ? limitCutSum : 0;
     ahIn[r] = inAh;
     ahOut[r] = outAh;
     ahOutRaw[r] = outRawAh;
@@ -529,6 +575,9 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
     unmetWh += unmetW[r]!;
     solarWh += solarSum;
     curtailedWh += curtailedW[r]!;
+    curtailedColdWh += curtailedColdW[r]!;
+    curtailedFullWh += curtailedFullW[r]!;
+    curtailedLimitWh += curtailedLimitW[r]!;
     chargeWh += chargerSum;
     loadWh += servedSum;
 
@@ -552,6 +601,9 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
     loadW,
     unmetW,
     curtailedW,
+    curtailedColdW,
+    curtailedFullW,
+    curtailedLimitW,
     ahIn,
     ahOut,
     ahOutRaw,
@@ -571,6 +623,9 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
       unmetWh,
       solarWh,
       curtailedWh,
+      curtailedColdWh,
+      curtailedFullWh,
+      curtailedLimitWh,
       chargeWh,
       loadWh,
       generatorHours: genHours,

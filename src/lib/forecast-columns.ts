@@ -6,7 +6,7 @@ import type { Forecast, HourlyRow } from '../engine';
  * 230 KB of JSON). Asked with `POST /api/forecasts/preview?hourly=columns`; without the query the
  * preview answers the contract's row form. `fromColumns(toColumns(f))` equals `f`.
  */
-export type ColumnarForecast = Omit<Forecast, 'hourly'> & { hourlyColumns: { [K in keyof HourlyRow]: HourlyRow[K][] }; hours: number };
+export type ColumnarForecast = Omit<Forecast, 'hourly'> & { hourlyColumns: { [K in keyof HourlyRow]-?: HourlyRow[K][] }; hours: number };
 
 export function toColumns(f: Forecast): ColumnarForecast {
   const { hourly, ...rest } = f;

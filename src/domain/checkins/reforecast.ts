@@ -94,16 +94,19 @@ function rebuild(base: Forecast, hourly: HourlyRow[], warnings: Forecast['warnin
   // The engine's own cutoff events (floor or voltage), as its summary reads them.
   const cutoffs = warnings.filter((w) => w.code === 'floor-cutoff' || w.code === 'voltage-cutoff').map((w) => w.at);
   const cutoff = cutoffs.length ? cutoffs.reduce((a, b) => (Date.parse(b) < Date.parse(a) ? b : a)) : null;
-  const sum = { load: 0, solar: 0, charge: 0, unmet: 0, curtailed: 0, gen: 0 };
+  const sum = { load: 0, solar: 0, charge: 0, unmet: 0, curtailed: 0, cold: 0, full: 0, limit: 0, gen: 0 };
   hourly.forEach((r) => {
     const date = r.time.slice(0, 10);
-    const d = days.get(date) ?? { date, loadWh: 0, solarWh: 0, chargeWh: 0, netWh: 0, minSocPct: r.socPct, endSocPct: r.socPct, unmetWh: 0, curtailedWh: 0 };
+    const d = days.get(date) ?? { date, loadWh: 0, solarWh: 0, chargeWh: 0, netWh: 0, minSocPct: r.socPct, endSocPct: r.socPct, unmetWh: 0, curtailedWh: 0, curtailedColdWh: 0, curtailedFullWh: 0, curtailedLimitWh: 0 };
     d.loadWh += r.loadWatts;
     d.solarWh += r.solarWatts;
     d.chargeWh += r.chargeWatts;
     d.netWh += r.solarWatts + r.chargeWatts - r.loadWatts;
     d.unmetWh += r.unmetWatts;
     d.curtailedWh += r.curtailedWatts;
+    d.curtailedColdWh = (d.curtailedColdWh ?? 0) + (r.curtailedColdWatts ?? 0);
+    d.curtailedFullWh = (d.curtailedFullWh ?? 0) + (r.curtailedFullWatts ?? 0);
+    d.curtailedLimitWh = (d.curtailedLimitWh ?? 0) + (r.curtailedLimitWatts ?? 0);
     d.minSocPct = Math.min(d.minSocPct, r.socPct);
     d.endSocPct = r.socPct;
     days.set(date, d);
@@ -113,6 +116,9 @@ function rebuild(base: Forecast, hourly: HourlyRow[], warnings: Forecast['warnin
     sum.charge += r.chargeWatts;
     sum.unmet += r.unmetWatts;
     sum.curtailed += r.curtailedWatts;
+    sum.cold += r.curtailedColdWatts ?? 0;
+    sum.full += r.curtailedFullWatts ?? 0;
+    sum.limit += r.curtailedLimitWatts ?? 0;
     if (r.generatorOn) sum.gen++;
   });
   const last = hourly[hourly.length - 1];
@@ -131,6 +137,9 @@ function rebuild(base: Forecast, hourly: HourlyRow[], warnings: Forecast['warnin
       unmetWh: sum.unmet,
       solarWh: sum.solar,
       curtailedWh: sum.curtailed,
+      curtailedColdWh: sum.cold,
+      curtailedFullWh: sum.full,
+      curtailedLimitWh: sum.limit,
       generatorHours: sum.gen,
       endSocPct: last ? last.socPct : base.summary.startSocPct,
       hoursSimulated: hourly.length,
