@@ -240,6 +240,9 @@ export const ROUTES: RouteCase[] = [
     expect: DECIDE(200),
     fresh: true,
   },
+  // Development only (404 in production): the local fake's weather, for the /dev page's control.
+  { method: 'GET', route: '/api/dev/weather', url: () => '/api/dev/weather', expect: signedIn(200) },
+  { method: 'POST', route: '/api/dev/weather', url: () => '/api/dev/weather', body: () => ({ mode: 'normal' }), expect: signedIn(200) },
 ];
 
 /** Lists must show the fixture's rows to exactly these actors (and hide them from the rest). */
