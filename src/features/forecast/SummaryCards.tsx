@@ -1,5 +1,6 @@
 import type { Forecast } from '../../engine';
 import { formatLitres, formatRowTime, formatWh, pct } from '../../lib/format';
+import { unusedSolarSentence } from './hour-marks';
 
 
 function hoursShort(f: Forecast): number {
@@ -16,7 +17,7 @@ export default function SummaryCards({ forecast }: { forecast: Forecast }) {
       ? { label: 'First cutoff', value: formatRowTime(s.firstCutoffAt), sub: `The bank disconnects at its ${pct(s.floorSocPct)} floor or cutoff volts`, tone: 'alert' }
       : { label: 'First cutoff', value: 'Never', sub: `Stays above the ${pct(s.floorSocPct)} floor`, tone: 'good' },
     { label: 'Unmet energy', value: formatWh(s.unmetWh), sub: short > 0 ? `Over ${short} ${short === 1 ? 'hour' : 'hours'} without power` : 'Every load is served', tone: s.unmetWh > 0 ? 'alert' : undefined },
-    { label: 'Solar harvested', value: formatWh(s.solarWh), sub: s.curtailedWh > 0 ? `${formatWh(s.curtailedWh)} curtailed (bank full or too cold)` : 'None curtailed' },
+    { label: 'Solar harvested', value: formatWh(s.solarWh), sub: unusedSolarSentence(forecast) },
     {
       label: 'Generator',
       value: `${s.generatorHours} h`,
