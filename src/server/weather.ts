@@ -273,7 +273,9 @@ function failureMessage(failure: Failure, stops: StopFill[]): string {
   if (sources.has('forecast') || sources.has('past-year')) using.push('weather saved earlier');
   if (sources.has('typed')) using.push('your typed skies');
   if (sources.has('copied')) using.push("each stop's nearest day with weather for its days without any");
-  if (sources.has('assumed')) using.push('typical skies (partly cloudy, 4 oktas; 20 °C by day, 10 °C at night) where nothing else is known');
+  // No temperatures here: this sentence is stored with the forecast and read in either unit system; the
+  // day's "Assumed" badge and the warnings state the typical high and low in the reader's units.
+  if (sources.has('assumed')) using.push('typical skies (partly cloudy, mild) where nothing else is known');
   const list = using.length > 1 ? `${using.slice(0, -1).join(', ')} and ${using[using.length - 1]}` : (using[0] ?? 'your typed skies');
   return `Weather service unreachable — using ${list}. (It ${FAILURE_WORDS[failure]}; nothing you typed was changed.)`;
 }

@@ -1,9 +1,11 @@
 // The words of the advice, built from what the rules in advice.ts measured: the effect of a
 // change, a generator that is not enough, the forecast's warnings. Pure.
 import type { Forecast } from '../../engine';
+import { ASSUMED_WEATHER } from '../../engine/light';
 import { formatDay, formatRowTime, localParts, pct } from '../../lib/format';
 import type { AdviceChange, AdviceWarning, ColdFix } from './advice';
-import { CAUTIONS } from './cautions';
+import { CAUTIONS, coldCaution } from './cautions';
+import { formatTemp, type Units } from '../../lib/units';
 
 /** What a change does to the forecast, as figures. */
 export type Effect = { fixes: boolean; score: number } & (
@@ -62,8 +64,11 @@ export function notEnough(e: { text: string; score: number }, detail: string, le
   };
 }
 
-/** The forecast's warnings in plain words, with their cautions. */
-export function warningsOf(forecast: Forecast): AdviceWarning[] {
+/**
+ * The forecast's warnings in plain words, with their cautions, built from each warning's code and time
+ * (not the engine's own English message), so temperatures follow the user's units.
+ */
+export function warningsOf(forecast: Forecast, units: Units = 'metric'): AdviceWarning[] {
   const out: AdviceWarning[] = [];
   const byCode = new Map<string, Forecast['warnings']>();
   for (const w of forecast.warnings) {
@@ -77,8 +82,8 @@ export function warningsOf(forecast: Forecast): AdviceWarning[] {
     out.push({
       code: 'cold-charge-blocked',
       title: 'The bank refuses charge in the cold',
-      message: `In ${hours(forecast.summary.coldBlockedHours || cold.length)} the LiFePO4 bank is below 0 °C and takes no charge, first on ${formatRowTime(firstCold.at)}; the panels and chargers still run the loads.`,
-      caution: CAUTIONS.cold,
+      message: `In ${hours(forecast.summary.coldBlockedHours || cold.length)} the LiFePO4 bank is below ${formatTemp(0, units)} and takes no charge, first on ${formatRowTime(firstCold.at)}; the panels and chargers still run the loads.`,
+      caution: coldCaution(units),
     });
   }
   const assumed = byCode.get('weather-assumed');
@@ -87,7 +92,7 @@ export function warningsOf(forecast: Forecast): AdviceWarning[] {
     out.push({
       code: 'weather-assumed',
       title: 'Weather assumed',
-      message: `No weather was given for ${dates.join(', ')}: the forecast assumes partly cloudy skies (4 oktas), a high of 20 °C and a low of 10 °C. Add the expected weather for a truer answer.`,
+      message: `No weather was given for ${dates.join(', ')}: the forecast assumes partly cloudy skies (${ASSUMED_WEATHER.cloudOktas} oktas), a high of ${formatTemp(ASSUMED_WEATHER.highC, units)} and a low of ${formatTemp(ASSUMED_WEATHER.lowC, units)}. Add the expected weather for a truer answer.`,
     });
   }
   for (const w of byCode.get('weather-ignored') ?? []) out.push({ code: w.code, title: 'Weather not used', message: w.message });

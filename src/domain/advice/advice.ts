@@ -19,9 +19,10 @@ import {
 import { formatDay, formatLitres, formatRowTime, localParts, pct } from '../../lib/format';
 import { reserveOf } from '../forecasts/verdict';
 import { coldAloneText, effectText, joinAnd, notEnough, warningsOf, type Effect } from './advice-text';
-import { CAUTIONS } from './cautions';
+import { CAUTIONS, coldCaution } from './cautions';
 import { DEFAULT_GENERATOR_MARGIN_PTS, DEFAULT_GENERATOR_STOP_PCT, GENERATOR_MARGIN_STEP_PTS, generatorRule, generatorRuleText, worstStrandedPts, type GeneratorRule } from './generator-rule';
 import { at } from '../../lib/invariant';
+import { formatTemp, formatTempDelta, type Units } from '../../lib/units';
 
 
 /** Converter/charger amps assumed for generator advice when the plan names none (common practice: 30 A is a usual RV converter). */
@@ -404,8 +405,8 @@ interface ColdChange {
   plan: ResolvedPlan;
 }
 
-/** The cold fixes that apply to this rig, each as the whole plan with only that change. */
-export function coldChanges(plan: ResolvedPlan): ColdChange[] {
+/** The cold fixes that apply to this rig, each as the whole plan with only that change; temperatures in the user's units. */
+export function coldChanges(plan: ResolvedPlan, units: Units = 'metric'): ColdChange[] {
   const out: ColdChange[] = [];
   const bank = plan.bank;
   const heating = plan.loads.filter((l) => l.response === 'heating');
@@ -426,8 +427,8 @@ export function coldChanges(plan: ResolvedPlan): ColdChange[] {
       kind: 'self-heating',
       title: 'A self-heating LiFePO4 battery',
       short: 'a self-heating battery',
-      how: 'a bank that warms its cells and takes charge below 0 °C (its heater’s own draw is not modelled)',
-      caution: CAUTIONS.cold,
+      how: `a bank that warms its cells and takes charge below ${formatTemp(0, units)} (its heater’s own draw is not modelled)`,
+      caution: coldCaution(units),
       plan: { ...plan, bank: { ...bank, selfHeating: true } },
     });
   }
@@ -457,9 +458,9 @@ export function coldChanges(plan: ResolvedPlan): ColdChange[] {
     const names = joinAnd(heating.map((l) => l.name));
     out.push({
       kind: 'setpoint',
-      title: `Set the heating ${SETPOINT_STEP_C} °C lower`,
-      short: `heating ${SETPOINT_STEP_C} °C lower`,
-      how: `${names} at ${joinAnd([...new Set(heating.map((l) => `${Math.round(l.setpointC - SETPOINT_STEP_C)} °C`))])} instead of ${joinAnd([...new Set(heating.map((l) => `${Math.round(l.setpointC)} °C`))])}; a cabin bank then sits that much cooler too`,
+      title: `Set the heating ${formatTempDelta(SETPOINT_STEP_C, units)} lower`,
+      short: `heating ${formatTempDelta(SETPOINT_STEP_C, units)} lower`,
+      how: `${names} at ${joinAnd([...new Set(heating.map((l) => formatTemp(l.setpointC - SETPOINT_STEP_C, units)))])} instead of ${joinAnd([...new Set(heating.map((l) => formatTemp(l.setpointC, units)))])}; a cabin bank then sits that much cooler too`,
       plan: { ...plan, loads: plan.loads.map((l) => (l.response === 'heating' ? { ...l, setpointC: Math.max(-30, l.setpointC - SETPOINT_STEP_C) } : l)) },
     });
   }
@@ -467,10 +468,10 @@ export function coldChanges(plan: ResolvedPlan): ColdChange[] {
 }
 
 /** The cold fixes of a cold trip, each measured by running the forecast again; null on a trip that is not cold. */
-export function coldAdvice(plan: ResolvedPlan, base: Forecast, reservePct: number): ColdAdvice | null {
+export function coldAdvice(plan: ResolvedPlan, base: Forecast, reservePct: number, units: Units = 'metric'): ColdAdvice | null {
   if (!isColdTrip(base)) return null;
   const fixes: ColdFix[] = [];
-  for (const c of coldChanges(plan)) {
+  for (const c of coldChanges(plan, units)) {
     let alt: Forecast;
     try {
       alt = runEngine(c.plan);
@@ -500,8 +501,8 @@ export function coldAdvice(plan: ResolvedPlan, base: Forecast, reservePct: numbe
 
 // ---------------------------------------------------------------------------------------------
 
-/** The advice for a forecast: biggest loads, the two or three changes that matter most, and warnings with their cautions. */
-export function advise(plan: ResolvedPlan, forecast: Forecast, reserveSocPct?: number | null): Advice {
+/** The advice for a forecast: biggest loads, the two or three changes that matter most, and warnings with their cautions (temperatures in `units`). */
+export function advise(plan: ResolvedPlan, forecast: Forecast, reserveSocPct?: number | null, units: Units = 'metric'): Advice {
   const reservePct = reserveOf(forecast, plan, reserveSocPct);
   const prepared = prepareTrip(plan);
   const { loads, totalWhPerDay } = loadUse(prepared);
@@ -523,8 +524,8 @@ export function advise(plan: ResolvedPlan, forecast: Forecast, reserveSocPct?: n
     topLoads: loads.slice(0, 3),
     totalWhPerDay,
     changes: candidates.slice(0, 3),
-    cold: coldAdvice(plan, forecast, reservePct),
-    warnings: warningsOf(forecast),
+    cold: coldAdvice(plan, forecast, reservePct, units),
+    warnings: warningsOf(forecast, units),
   };
 }
 

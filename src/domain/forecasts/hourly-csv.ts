@@ -2,6 +2,7 @@
 // and for the button that builds it in the browser (a quick plan has no saved forecast to link to).
 import type { Forecast, HourlyRow } from '../../engine';
 import { needsFormulaEscape } from '../csv-cells';
+import { toDisplayTemp, type Units } from '../../lib/units';
 
 // usablePct and minVolts came with engine revision 2; a snapshot saved before has none (empty cells).
 export const CSV_COLUMNS: (keyof HourlyRow)[] = ['time', 'socPct', 'usablePct', 'volts', 'minVolts', 'solarWatts', 'chargeWatts', 'loadWatts', 'unmetWatts', 'curtailedWatts', 'ambientC', 'batteryC', 'sunAltitudeDeg', 'poaWm2', 'driving', 'generatorOn', 'disconnected'];
@@ -14,10 +15,19 @@ function cell(v: unknown): string {
   return /[",\n\r]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
 }
 
-/** The forecast's hourly rows as CSV text (CRLF lines), with the stop's name on each row; formula-like cells are escaped. */
-export function forecastCsv(f: Forecast): string {
-  const lines = [['stop', ...CSV_COLUMNS].join(',')];
-  for (const row of f.hourly) lines.push([cell(f.stops?.[row.stop]?.name ?? ''), ...CSV_COLUMNS.map((c) => cell(row[c]))].join(','));
+/** The temperature columns, stored in °C: with imperial units they are written in °F under their own names. */
+const TEMP_COLUMNS: Partial<Record<keyof HourlyRow, string>> = { ambientC: 'ambientF', batteryC: 'batteryF' };
+
+/**
+ * The forecast's hourly rows as CSV text (CRLF lines), with the stop's name on each row; formula-like cells
+ * are escaped. With imperial units the temperature columns are °F and named so (ambientF, batteryF).
+ */
+export function forecastCsv(f: Forecast, units: Units = 'metric'): string {
+  const imperial = units === 'imperial';
+  const header = CSV_COLUMNS.map((c) => (imperial ? (TEMP_COLUMNS[c] ?? c) : c));
+  const value = (row: HourlyRow, c: keyof HourlyRow) => (imperial && TEMP_COLUMNS[c] && typeof row[c] === 'number' ? toDisplayTemp(row[c] as number, units) : row[c]);
+  const lines = [['stop', ...header].join(',')];
+  for (const row of f.hourly) lines.push([cell(f.stops?.[row.stop]?.name ?? ''), ...CSV_COLUMNS.map((c) => cell(value(row, c)))].join(','));
   return lines.join('\r\n') + '\r\n';
 }
 

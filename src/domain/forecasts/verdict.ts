@@ -2,6 +2,8 @@
 import type { Forecast, ResolvedPlan } from '../../engine';
 import { formatClock, formatDay, formatRowTime, formatWh, localParts, pct } from '../../lib/format';
 import { assumedDays, type ForecastWithWeather } from '../weather/band';
+import { ASSUMED_WEATHER } from '../../engine/light';
+import { formatTemp, type Units } from '../../lib/units';
 
 export type VerdictStatus = 'makes-it' | 'below-reserve' | 'runs-out' | 'weather-assumed' | 'some-years-short';
 
@@ -44,9 +46,9 @@ export function stopNameAt(forecast: Forecast, plan: ResolvedPlan, rowIndex: num
 /**
  * The forecast's answer in words: whether the bank lasts, and if not, when and where it runs out.
  * Never a plain "Makes it" on assumed weather; with a band ("how sure is this?") it counts the
- * years (or skies) the bank makes it in.
+ * years (or skies) the bank makes it in. Temperatures in the words follow `units`.
  */
-export function verdict(forecast: Forecast, plan: ResolvedPlan, reserveSocPct?: number | null): Verdict {
+export function verdict(forecast: Forecast, plan: ResolvedPlan, reserveSocPct?: number | null, units: Units = 'metric'): Verdict {
   const v = engineVerdict(forecast, plan, reserveSocPct);
   const extra = forecast as ForecastWithWeather;
   const band = extra.band ?? null;
@@ -67,7 +69,7 @@ export function verdict(forecast: Forecast, plan: ResolvedPlan, reserveSocPct?: 
     const n = assumed.length;
     v.status = 'weather-assumed';
     v.headline = `Not sure yet — ${n === 1 ? '1 day has' : `${n} days have`} no real weather, ${v.headline.charAt(0).toLowerCase()}${v.headline.slice(1)} on typical skies`;
-    v.detail = `Those days use typical skies (4 oktas, 20 °C by day, 10 °C at night), not a forecast or past years. Type their skies on the trip, or use "Fill from the forecast" / "Use past years" there, then run the forecast again. ${v.detail}`;
+    v.detail = `Those days use typical skies (${ASSUMED_WEATHER.cloudOktas} oktas, ${formatTemp(ASSUMED_WEATHER.highC, units)} by day, ${formatTemp(ASSUMED_WEATHER.lowC, units)} at night), not a forecast or past years. Type their skies on the trip, or use "Fill from the forecast" / "Use past years" there, then run the forecast again. ${v.detail}`;
   }
   return v;
 }

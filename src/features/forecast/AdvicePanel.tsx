@@ -3,13 +3,14 @@ import { useSeen } from '../../components/ui/useSeen';
 import type { Forecast, ResolvedPlan } from '../../engine';
 import type { Advice } from '../../domain/advice/advice';
 import { CAUTIONS } from '../../domain/advice/cautions';
+import type { Units } from '../../lib/units';
 import { whPerDay } from '../../lib/format';
 import { useDelayed } from './useWidth';
 
 type State = { status: 'working' } | { status: 'done'; advice: Advice } | { status: 'error' };
 
 /** The two or three changes that matter most, where the energy goes, and the warnings with their cautions. */
-export default function AdvicePanel({ forecast, plan, reserveSocPct, now = false }: { forecast: Forecast; plan: ResolvedPlan; reserveSocPct?: number | null; now?: boolean }) {
+export default function AdvicePanel({ forecast, plan, reserveSocPct, now = false, units = 'metric' }: { forecast: Forecast; plan: ResolvedPlan; reserveSocPct?: number | null; now?: boolean; units?: Units }) {
   const [state, setState] = useState<State>({ status: 'working' });
   const slow = useDelayed(state.status === 'working');
   // Advice reruns the engine a few times (the engine's code loads for it): only once the panel is in view.
@@ -21,7 +22,7 @@ export default function AdvicePanel({ forecast, plan, reserveSocPct, now = false
     setState({ status: 'working' });
     import('../../domain/advice/advice')
       .then(({ advise }) => {
-        if (!gone) setState({ status: 'done', advice: advise(plan, forecast, reserveSocPct) });
+        if (!gone) setState({ status: 'done', advice: advise(plan, forecast, reserveSocPct, units) });
       })
       .catch(() => {
         if (!gone) setState({ status: 'error' });
@@ -29,7 +30,7 @@ export default function AdvicePanel({ forecast, plan, reserveSocPct, now = false
     return () => {
       gone = true;
     };
-  }, [seen, forecast, plan, reserveSocPct]);
+  }, [seen, forecast, plan, reserveSocPct, units]);
 
   return (
     <section ref={ref} aria-labelledby="advice-heading" className="card p-4 sm:p-5" data-testid="advice" data-pending={state.status === 'working' ? '' : undefined}>

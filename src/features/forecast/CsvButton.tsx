@@ -1,7 +1,8 @@
 import type { Forecast } from '../../engine';
+import type { Units } from '../../lib/units';
 
 /** Downloads the hourly numbers: the saved forecast's CSV route when there is an id, else a CSV built here. */
-export default function CsvButton({ forecast, forecastId, name }: { forecast: Forecast; forecastId?: string | null; name?: string }) {
+export default function CsvButton({ forecast, forecastId, name, units = 'metric' }: { forecast: Forecast; forecastId?: string | null; name?: string; units?: Units }) {
   if (forecastId) {
     return (
       <a className="btn btn-quiet no-print" href={`/api/forecasts/${encodeURIComponent(forecastId)}/hourly.csv`} download data-testid="csv-download">
@@ -12,7 +13,7 @@ export default function CsvButton({ forecast, forecastId, name }: { forecast: Fo
   const download = async () => {
     // The CSV writer (papaparse) loads on the first download.
     const { csvFileName, forecastCsv } = await import('../../domain/forecasts/hourly-csv');
-    const blob = new Blob([forecastCsv(forecast)], { type: 'text/csv;charset=utf-8' });
+    const blob = new Blob([forecastCsv(forecast, units)], { type: 'text/csv;charset=utf-8' });
     const url = URL.createObjectURL(blob);
     const a = document.createElement('a');
     a.href = url;

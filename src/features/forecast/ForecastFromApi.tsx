@@ -7,6 +7,7 @@ import { forecastQueries } from './forecast.queries';
 import type { SavedForecast } from './forecast.api';
 import { useDelayed } from './useWidth';
 import { IslandQueryProvider } from '../../components/ui/QueryProvider';
+import type { Units } from '../../lib/units';
 
 export interface ForecastFromApiProps {
   /** The saved forecast's id. */
@@ -19,6 +20,8 @@ export interface ForecastFromApiProps {
   currentEngineRevision?: number;
   /** Whether the user may run the trip's forecast again (not a viewer or an installer). */
   canRun?: boolean;
+  /** The reader's units setting (°C or °F in the table, warnings, advice and CSV). */
+  units?: Units;
 }
 
 /** A saved forecast loaded by id, with loading and error states — never a blank chart. */
@@ -67,7 +70,7 @@ function OlderRevision({ saved, current, canRun }: { saved: SavedForecast; curre
   );
 }
 
-function Loaded({ id, showMeta = true, initial, currentEngineRevision, canRun = false }: ForecastFromApiProps) {
+function Loaded({ id, showMeta = true, initial, currentEngineRevision, canRun = false, units }: ForecastFromApiProps) {
   const q = useQuery({ ...forecastQueries.detail(id), initialData: initial });
   const slow = useDelayed(q.isPending);
 
@@ -114,7 +117,7 @@ function Loaded({ id, showMeta = true, initial, currentEngineRevision, canRun = 
       {currentEngineRevision !== undefined && (f.forecast.engineRevision ?? f.engineRevision ?? 1) < currentEngineRevision ? (
         <OlderRevision saved={f} current={currentEngineRevision} canRun={canRun} />
       ) : null}
-      <ForecastView forecast={f.forecast} plan={f.plan} reserveSocPct={f.reserveSocPct} forecastId={f.id} name={f.name} />
+      <ForecastView forecast={f.forecast} plan={f.plan} reserveSocPct={f.reserveSocPct} forecastId={f.id} name={f.name} units={units} />
     </div>
   );
 }

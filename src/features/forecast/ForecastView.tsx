@@ -1,6 +1,7 @@
 import { lazy, Suspense, useState } from 'react';
 import { useSeen } from '../../components/ui/useSeen';
 import type { Forecast, ResolvedPlan } from '../../engine';
+import type { Units } from '../../lib/units';
 import AdvicePanel from './AdvicePanel';
 import CsvButton from './CsvButton';
 import HourlyTable from './HourlyTable';
@@ -41,6 +42,8 @@ export interface ForecastViewProps {
   forecastId?: string | null;
   /** The forecast's name, for the CSV file. */
   name?: string;
+  /** The reader's units setting: temperatures in the table, the words and the CSV follow it. */
+  units?: Units;
 }
 
 // Heights the two day charts take with their keys and captions, px (measured at phone width).
@@ -51,19 +54,19 @@ const HOURLY_SPACE = 380;
 export const PRINT_CHARTS = 'print:[&_.recharts-wrapper]:!w-full print:[&_.recharts-surface]:h-auto print:[&_.recharts-surface]:max-w-full';
 
 /** The whole forecast, top to bottom: verdict, SOC chart, summary, days, advice, details (ux.md). */
-export default function ForecastView({ forecast, plan, reserveSocPct = null, forecastId = null, name }: ForecastViewProps) {
+export default function ForecastView({ forecast, plan, reserveSocPct = null, forecastId = null, name, units = 'metric' }: ForecastViewProps) {
   const [everything, setEverything] = useState(false);
   const days = useSeen<HTMLElement>(everything);
   return (
     <div className={`space-y-5 ${PRINT_CHARTS}`} data-testid="forecast-view">
-      <VerdictBanner forecast={forecast} plan={plan} reserveSocPct={reserveSocPct} />
+      <VerdictBanner forecast={forecast} plan={plan} reserveSocPct={reserveSocPct} units={units} />
 
       <section aria-labelledby="soc-heading" className="card p-3 sm:p-5 print:break-inside-avoid">
         <h2 id="soc-heading" className="mb-1 text-xl">State of charge, hour by hour</h2>
         <SocChartOnDemand forecast={forecast} plan={plan} reserveSocPct={reserveSocPct} />
       </section>
 
-      <WeatherPanel forecast={forecast} plan={plan} />
+      <WeatherPanel forecast={forecast} plan={plan} units={units} />
 
       <section aria-labelledby="summary-heading" className="print:break-inside-avoid">
         <h2 id="summary-heading" className="mb-2 text-xl">The trip in numbers <span className="text-base font-semibold text-slate-text">(estimates)</span></h2>
@@ -89,17 +92,17 @@ export default function ForecastView({ forecast, plan, reserveSocPct = null, for
         )}
       </section>
 
-      <AdvicePanel forecast={forecast} plan={plan} reserveSocPct={reserveSocPct} now={everything} />
+      <AdvicePanel forecast={forecast} plan={plan} reserveSocPct={reserveSocPct} now={everything} units={units} />
 
       <section aria-labelledby="details-heading" className="card p-3 sm:p-5 print:hidden">
         <div className="flex flex-wrap items-center justify-between gap-2">
           <h2 id="details-heading" className="text-xl">Details</h2>
           <div className="no-print flex flex-wrap gap-2">
-            <CsvButton forecast={forecast} forecastId={forecastId} name={name} />
+            <CsvButton forecast={forecast} forecastId={forecastId} name={name} units={units} />
             <button type="button" className="btn btn-quiet" onClick={() => void printAll(() => setEverything(true))}>Print</button>
           </div>
         </div>
-        <HourlyTable forecast={forecast} plan={plan} />
+        <HourlyTable forecast={forecast} plan={plan} units={units} />
       </section>
     </div>
   );

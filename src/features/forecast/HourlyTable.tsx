@@ -1,9 +1,10 @@
 import { useState } from 'react';
 import type { Forecast, ResolvedPlan } from '../../engine';
 import { formatRowTimeWithZone } from '../../lib/format';
+import { tempUnit, toDisplayTemp, type Units } from '../../lib/units';
 
 /** Every hour as a table: the accessible view of the charts, folded under "Details". */
-export default function HourlyTable({ forecast, plan, open = false }: { forecast: Forecast; plan: ResolvedPlan; open?: boolean }) {
+export default function HourlyTable({ forecast, plan, open = false, units = 'metric' }: { forecast: Forecast; plan: ResolvedPlan; open?: boolean; units?: Units }) {
   // The rows (one per hour: hundreds on a long trip) are built when the table is first opened.
   const [opened, setOpened] = useState(open);
   return (
@@ -27,7 +28,7 @@ export default function HourlyTable({ forecast, plan, open = false }: { forecast
               <th scope="col" className="px-2 py-1.5 text-right">Loads W</th>
               <th scope="col" className="px-2 py-1.5 text-right">Unmet W</th>
               <th scope="col" className="px-2 py-1.5 text-right">Curtailed W</th>
-              <th scope="col" className="px-2 py-1.5 text-right">Air °C</th>
+              <th scope="col" className="px-2 py-1.5 text-right">Air {tempUnit(units)}</th>
             </tr>
           </thead>
           <tbody>
@@ -47,7 +48,7 @@ export default function HourlyTable({ forecast, plan, open = false }: { forecast
                   <td className="px-2 py-1 text-right">{r.loadWatts}</td>
                   <td className={`px-2 py-1 text-right ${r.unmetWatts > 0 ? 'font-bold text-alert' : ''}`}>{r.unmetWatts}</td>
                   <td className="px-2 py-1 text-right">{r.curtailedWatts}</td>
-                  <td className="px-2 py-1 text-right">{r.ambientC.toFixed(1)}</td>
+                  <td className="px-2 py-1 text-right">{toDisplayTemp(r.ambientC, units).toFixed(1)}</td>
                 </tr>
               );
             })}

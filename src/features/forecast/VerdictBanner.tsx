@@ -1,5 +1,6 @@
 import type { Forecast, ResolvedPlan } from '../../engine';
 import { verdict, type VerdictStatus } from '../../domain/forecasts/verdict';
+import type { Units } from '../../lib/units';
 
 const LOOK: Record<VerdictStatus, { box: string; badge: string; mark: string; label: string }> = {
   'makes-it': { box: 'border-moss bg-[#eef5ef]', badge: 'bg-moss-deep text-white', mark: '✓', label: 'Makes it' },
@@ -15,11 +16,13 @@ export interface VerdictBannerProps {
   reserveSocPct?: number | null;
   /** Heading level of the verdict sentence. */
   as?: 'h2' | 'h3';
+  /** The reader's units for temperatures in the words. */
+  units?: Units;
 }
 
 /** The verdict in words first; colour and mark only support them. */
-export default function VerdictBanner({ forecast, plan, reserveSocPct, as: H = 'h2' }: VerdictBannerProps) {
-  const v = verdict(forecast, plan, reserveSocPct);
+export default function VerdictBanner({ forecast, plan, reserveSocPct, as: H = 'h2', units = 'metric' }: VerdictBannerProps) {
+  const v = verdict(forecast, plan, reserveSocPct, units);
   const look = LOOK[v.status];
   return (
     <section className={`rounded-[14px] border-l-[6px] p-4 sm:p-5 ${look.box}`} data-testid="verdict" data-status={v.status} aria-live="polite">

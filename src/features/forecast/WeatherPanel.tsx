@@ -2,6 +2,8 @@ import type { Forecast, ResolvedPlan } from '../../engine';
 import type { Band, ForecastWithWeather, WeatherSources } from '../../domain/weather/band';
 import type { DayOrigin, DaySource } from '../../domain/weather/weather';
 import { formatDay } from '../../lib/format';
+import { formatTemp, type Units } from '../../lib/units';
+import { ASSUMED_WEATHER } from '../../engine/light';
 import { useWidth } from './useWidth';
 
 // Where each day's weather came from, and "How sure is this?" (the band), on the forecast page.
@@ -15,6 +17,11 @@ export const SOURCE_WORDS: Record<DaySource, { label: string; title: string; loo
   assumed: { label: 'Assumed', title: 'Nothing known for this stop: typical skies (partly cloudy, 4 oktas; 20 °C by day, 10 °C at night)', look: 'bg-[#fdf3dc] text-[#6b4e0e] border-[#e0bd6a]' },
 };
 
+/** The "Assumed" badge's explanation, with the typical high and low in the reader's units. */
+export function assumedTitle(units: Units): string {
+  return `Nothing known for this stop: typical skies (partly cloudy, ${ASSUMED_WEATHER.cloudOktas} oktas; ${formatTemp(ASSUMED_WEATHER.highC, units)} by day, ${formatTemp(ASSUMED_WEATHER.lowC, units)} at night)`;
+}
+
 /** Where a copied day's weather came from, in the badge's words. */
 const FROM_WORDS: Record<string, string> = { typed: 'typed', forecast: 'forecast', 'past-year': 'past years' };
 
@@ -22,12 +29,12 @@ const FROM_WORDS: Record<string, string> = { typed: 'typed', forecast: 'forecast
  * A day's source as a small badge with words (never colour alone): what the engine really used
  * for the day. A copied day names the day it copies ("Copied from Tue 21 Oct, typed").
  */
-export function SourceBadge({ day }: { day: Pick<DayOrigin, 'source' | 'from' | 'fromSource'> }) {
+export function SourceBadge({ day, units = 'metric' }: { day: Pick<DayOrigin, 'source' | 'from' | 'fromSource'>; units?: Units }) {
   const source: DaySource = day.source;
   const w = SOURCE_WORDS[source];
   const copied = source === 'copied' && day.from;
   const label = copied ? `Copied from ${formatDay(day.from!)}${day.fromSource ? `, ${FROM_WORDS[day.fromSource] ?? day.fromSource}` : ''}` : w.label;
-  const title = copied ? `No weather for this day: ${formatDay(day.from!)}'s is used, the stop's nearest day with weather` : w.title;
+  const title = copied ? `No weather for this day: ${formatDay(day.from!)}'s is used, the stop's nearest day with weather` : source === 'assumed' ? assumedTitle(units) : w.title;
   return (
     <span className={`inline-block rounded-full border px-2 py-0.5 text-xs font-bold ${w.look}`} title={title} data-source={source}>
       {label}
@@ -58,7 +65,7 @@ export function WeatherCredit() {
 }
 
 /** Per stop, each day with its source badge. */
-export function DaySources({ sources }: { sources: WeatherSources }) {
+export function DaySources({ sources, units = 'metric' }: { sources: WeatherSources; units?: Units }) {
   return (
     <ul className="space-y-2" data-testid="day-sources">
       {sources.stops.map((s, i) => (
@@ -68,7 +75,7 @@ export function DaySources({ sources }: { sources: WeatherSources }) {
             {s.days.map((d) => (
               <li key={d.date} className="flex items-center gap-1 text-sm">
                 <span className="text-dusk">{formatDay(d.date)}</span>
-                <SourceBadge day={d} />
+                <SourceBadge day={d} units={units} />
               </li>
             ))}
           </ul>
@@ -122,7 +129,7 @@ export function BandChart({ band, forecast, floorPct }: { band: Band; forecast: 
 }
 
 /** "How sure is this?" and where the weather came from; nothing for forecasts saved without them. */
-export default function WeatherPanel({ forecast, plan }: { forecast: Forecast; plan: ResolvedPlan }) {
+export default function WeatherPanel({ forecast, plan, units = 'metric' }: { forecast: Forecast; plan: ResolvedPlan; units?: Units }) {
   const f = forecast as ForecastWithWeather;
   const sources = f.weatherSources;
   const band = f.band ?? null;
@@ -147,7 +154,7 @@ export default function WeatherPanel({ forecast, plan }: { forecast: Forecast; p
         <div>
           <h3 className="mb-2 text-lg">Where each day's weather came from</h3>
           {sources.medianYear && <p className="mb-2 text-sm text-dusk">Past-year days use {sources.medianYear}, the median of the last ten years by sunshine.</p>}
-          <DaySources sources={sources} />
+          <DaySources sources={sources} units={units} />
           {usesService(sources) && <WeatherCredit />}
         </div>
       )}

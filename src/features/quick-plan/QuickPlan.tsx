@@ -11,6 +11,7 @@ import { PRINT_CHARTS } from '../forecast/ForecastView';
 import SocChart from '../forecast/SocChart';
 import SummaryCards from '../forecast/SummaryCards';
 import VerdictBanner from '../forecast/VerdictBanner';
+import type { Units } from '../../lib/units';
 import { previewForecast } from '../forecast/forecast.api';
 import { useDelayed } from '../forecast/useWidth';
 import {
@@ -253,7 +254,7 @@ function QuickPlanForm({ today }: QuickPlanProps) {
             Forecasting every hour of your trip…
           </div>
         ) : result ? (
-          <QuickResult result={result} onKeep={keep} />
+          <QuickResult result={result} onKeep={keep} units={tempUnit === 'F' ? 'imperial' : 'metric'} />
         ) : (
           <div className="rounded-[14px] border-2 border-dashed border-sand-dark bg-card/60 p-6 text-slate-text">
             <p className="text-lg font-extrabold text-dusk">Your forecast appears here</p>
@@ -265,11 +266,12 @@ function QuickPlanForm({ today }: QuickPlanProps) {
   );
 }
 
-function QuickResult({ result, onKeep }: { result: Result; onKeep: () => void }) {
+/** The answer, its temperatures (warnings, advice, CSV) in the unit the camper typed the weather in. */
+function QuickResult({ result, onKeep, units }: { result: Result; onKeep: () => void; units: Units }) {
   const { forecast, resolved } = result;
   return (
     <>
-      <VerdictBanner forecast={forecast} plan={resolved} as="h3" />
+      <VerdictBanner forecast={forecast} plan={resolved} as="h3" units={units} />
       <section className="card p-3 sm:p-5" aria-label="State of charge chart">
         <SocChart forecast={forecast} plan={resolved} />
       </section>
@@ -280,10 +282,10 @@ function QuickResult({ result, onKeep }: { result: Result; onKeep: () => void })
         </p>
         <div className="flex shrink-0 flex-wrap gap-2">
           <button type="button" className="btn btn-primary" onClick={onKeep} data-testid="keep-plan">Keep this plan</button>
-          <CsvButton forecast={forecast} name="quick plan" />
+          <CsvButton forecast={forecast} name="quick plan" units={units} />
         </div>
       </div>
-      <AdvicePanel forecast={forecast} plan={resolved} />
+      <AdvicePanel forecast={forecast} plan={resolved} units={units} />
     </>
   );
 }

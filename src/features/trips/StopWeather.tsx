@@ -89,7 +89,7 @@ export function StopWeather({ trip, index, units, canEdit, fallback }: { trip: T
           return (
             <li key={d.date} className="flex flex-wrap items-center gap-2 border-t border-sand py-0.5">
               <span className="w-24 font-semibold">{formatDate(d.date, false)}</span>
-              <SourceBadge day={d} />
+              <SourceBadge day={d} units={units} />
               <span className="text-slate-text">
                 {w ? `${sky(w.cloudOktas)}, ${formatTemp(w.highC, units)} / ${formatTemp(w.lowC, units)}` : 'typical skies'}
               </span>
