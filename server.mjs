@@ -100,6 +100,8 @@ async function serve() {
   const LANDING = Symbol.for('sunreckon.landing');
   const SESSION_COOKIE = /(?:^|;\s*)(?:__Secure-)?better-auth\.session_(?:token|data)=/;
   const HEALTH_OK = JSON.stringify({ ok: true, db: 'ok' });
+  // Set by the preview route's module (src/pages/api/forecasts/preview.ts) when it loads.
+  const PREVIEW = Symbol.for('sunreckon.preview');
   let health = null;
 
   // Behind a proxy without SUNRECKON_TRUST_PROXY=1 every client shares one rate-limit bucket; say so once.
@@ -156,7 +158,10 @@ async function serve() {
     }
     // Static files are answered above; this covers the rare answer the middleware does not see.
     res.setHeader('X-Content-Type-Options', 'nosniff');
-    compress(req, res, () => handler(req, res));
+    // The anonymous preview's plain case, answered without Astro's pipeline once its route has
+    // loaded (src/server/preview-direct.ts decides, and hands anything else to Astro untouched).
+    const direct = pathname === '/api/forecasts/preview' ? globalThis[PREVIEW] : undefined;
+    compress(req, res, () => (direct && direct(req, res) ? undefined : handler(req, res)));
   });
   server.keepAliveTimeout = 65_000;
   server.listen(port, host, () => {

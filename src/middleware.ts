@@ -3,6 +3,7 @@ import { defineMiddleware, sequence } from 'astro:middleware';
 import { auth } from './server/auth';
 import { env } from './server/env';
 import { errorResponse } from './server/http';
+import { policy, SECURITY_HEADERS } from './server/security-headers';
 
 const PUBLIC_PAGES = new Set(['/', '/sign-in', '/sign-up', '/reset-password', '/about']);
 const PUBLIC_API = [/^\/api\/auth\//, /^\/api\/health$/, /^\/api\/forecasts\/preview$/, /^\/api\/places$/, /^\/api\/timezone$/];
@@ -85,13 +86,6 @@ const sameOrigin = defineMiddleware(async (ctx, next) => {
 
 const INLINE_SCRIPT = /<script\b(?![^>]*\bsrc\s*=)[^>]*>([\s\S]*?)<\/script>/gi;
 
-/** The CSP with script-src limited to our files and the SHA-256 of each inline script on the page. */
-function policy(scriptHashes: Iterable<string>): string {
-  const scripts = ["'self'", ...[...scriptHashes].map((h) => `'sha256-${h}'`)].join(' ');
-  // Styles keep 'unsafe-inline': React islands and the chart set style attributes (see DEVELOPERS.md).
-  return `default-src 'self'; img-src 'self' data:; font-src 'self'; style-src 'self' 'unsafe-inline'; script-src ${scripts}; connect-src 'self'; frame-ancestors 'none'; base-uri 'self'; form-action 'self'; object-src 'none'`;
-}
-
 /**
  * Inline scripts are part of the build (Astro's island loader, its hydration directives, our own
  * small scripts): the same few texts on each render of a page. Each page (route pattern, signed in
@@ -126,9 +120,7 @@ const headers = defineMiddleware(async (ctx, next) => {
     }
   }
   const h = res.headers;
-  h.set('X-Content-Type-Options', 'nosniff');
-  h.set('Referrer-Policy', 'strict-origin-when-cross-origin');
-  h.set('X-Frame-Options', 'DENY');
+  for (const [k, v] of Object.entries(SECURITY_HEADERS)) h.set(k, v);
   if (!h.has('Content-Security-Policy')) h.set('Content-Security-Policy', policy([]));
   return res;
 });

@@ -2,7 +2,7 @@ import type { APIContext } from 'astro';
 import type { z } from 'zod';
 import { ERROR_STATUS, HttpError, type ErrorCode, type Issue } from './errors';
 
-const JSON_HEADERS = { 'content-type': 'application/json; charset=utf-8', 'cache-control': 'no-store' };
+export const JSON_HEADERS = { 'content-type': 'application/json; charset=utf-8', 'cache-control': 'no-store' };
 
 /** A JSON response. */
 export function json(body: unknown, status = 200, headers: Record<string, string> = {}): Response {
@@ -59,6 +59,11 @@ export function nulError(path: string): HttpError {
 
 /** Reads a JSON body (content type and size checked) as unknown; throws HttpError on bad input. */
 export async function readJson(request: Request, maxBytes = 256 * 1024, invalidCode: ErrorCode = 'invalid_request'): Promise<unknown> {
+  return parseJsonText(await readJsonText(request, maxBytes, invalidCode), invalidCode);
+}
+
+/** The body of a JSON request as text (content type and size checked, not yet parsed). */
+export async function readJsonText(request: Request, maxBytes = 256 * 1024, invalidCode: ErrorCode = 'invalid_request'): Promise<string> {
   const type = request.headers.get('content-type') ?? '';
   if (!/^application\/json\b/i.test(type.trim())) {
     throw new HttpError(invalidCode, 'Send the body as JSON with the header Content-Type: application/json.', [
@@ -66,7 +71,11 @@ export async function readJson(request: Request, maxBytes = 256 * 1024, invalidC
     ]);
   }
   const buf = await readLimited(request, maxBytes);
-  const text = new TextDecoder().decode(buf);
+  return new TextDecoder().decode(buf);
+}
+
+/** Parses a JSON body's text: an empty body, bad JSON or a NUL character anywhere is a 400 naming it. */
+export function parseJsonText(text: string, invalidCode: ErrorCode = 'invalid_request'): unknown {
   if (!text.trim()) throw new HttpError(invalidCode, 'The body is empty; send a JSON object.', [{ path: '(body)', message: 'empty body' }]);
   let data: unknown;
   try {

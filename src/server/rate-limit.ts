@@ -28,17 +28,23 @@ const limiters = new Map<string, RateLimiterAbstract>();
  * behind one (SUNRECKON_TRUST_PROXY=1) the last hop — the one our proxy appended — counts.
  */
 export function clientKey(ctx: APIContext): string {
-  const forwarded = ctx.request.headers.get('x-forwarded-for');
+  let address = 'unknown';
+  try {
+    address = ctx.clientAddress || 'unknown';
+  } catch {
+    // no address known
+  }
+  return clientKeyOf(ctx.request.headers.get('x-forwarded-for'), address);
+}
+
+/** `clientKey` from the X-Forwarded-For header (or null) and the connection's address. */
+export function clientKeyOf(forwarded: string | null, address: string): string {
   if (forwarded !== null) {
     if (env.SUNRECKON_TRUST_PROXY !== '1') return 'forwarded-untrusted';
     const hops = forwarded.split(',').map((h) => h.trim()).filter(Boolean);
     return hops.at(-1) ?? 'forwarded-empty';
   }
-  try {
-    return ctx.clientAddress || 'unknown';
-  } catch {
-    return 'unknown';
-  }
+  return address;
 }
 
 /**
@@ -46,6 +52,11 @@ export function clientKey(ctx: APIContext): string {
  * Retry-After. `perMinute` 0 turns the limit off.
  */
 export async function limit(ctx: APIContext, name: string, perMinute: number): Promise<void> {
+  return limitClient(clientKey(ctx), name, perMinute);
+}
+
+/** `limit` for a client key already known (the preview's direct path in server.mjs has no APIContext). */
+export async function limitClient(client: string, name: string, perMinute: number): Promise<void> {
   if (perMinute <= 0) return;
   const id = `${name}:${perMinute}`;
   let limiter = limiters.get(id);
@@ -54,7 +65,7 @@ export async function limit(ctx: APIContext, name: string, perMinute: number): P
     limiters.set(id, limiter);
   }
   try {
-    await limiter.consume(clientKey(ctx));
+    await limiter.consume(client);
   } catch (res) {
     if (!(res instanceof RateLimiterRes)) throw res;
     const retry = Math.max(1, Math.ceil(res.msBeforeNext / 1000));
