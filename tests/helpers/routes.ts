@@ -243,6 +243,7 @@ export const ROUTES: RouteCase[] = [
   // Development only (404 in production): the local fake's weather, for the /dev page's control.
   { method: 'GET', route: '/api/dev/weather', url: () => '/api/dev/weather', expect: signedIn(200) },
   { method: 'POST', route: '/api/dev/weather', url: () => '/api/dev/weather', body: () => ({ mode: 'normal' }), expect: signedIn(200) },
+  { method: 'POST', route: '/api/dev/watch/due', url: () => '/api/dev/watch/due', body: () => ({}), expect: signedIn(200) },
 ];
 
 /** Lists must show the fixture's rows to exactly these actors (and hide them from the rest). */

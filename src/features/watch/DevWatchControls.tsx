@@ -53,7 +53,13 @@ function Inner({ initial, problem }: Props) {
       apiFetch<Turn>('/api/dev/weather', { method: 'POST', json: mode === 'storm' && from ? { mode, from } : { mode } }),
     onSuccess: (t) => qc.setQueryData(key, t),
   });
-  const tick = useMutation({ mutationFn: () => apiFetch<TickResult>('/api/dev/watch/tick', { method: 'POST', json: {} }) });
+  // Every watched trip due now, then one tick: the watch runs at once instead of after its interval.
+  const tick = useMutation({
+    mutationFn: async () => {
+      await apiFetch<{ due: number }>('/api/dev/watch/due', { method: 'POST', json: {} });
+      return apiFetch<TickResult>('/api/dev/watch/tick', { method: 'POST', json: {} });
+    },
+  });
   const now = weather.data;
 
   return (
@@ -107,8 +113,8 @@ function Inner({ initial, problem }: Props) {
           Trip watch
         </h2>
         <p>
-          Runs the watch once now, as the server does every few hours: each watched trip that is due is forecast again with the latest
-          weather.
+          Runs the watch once now, as the server does every few hours: each watched trip inside its window is forecast again with the latest
+          weather, whenever it last ran. E-mails still go at most once per person per 12 hours.
         </p>
         <button type="button" className="btn btn-primary" disabled={tick.isPending} onClick={() => tick.mutate()}>
           {tick.isPending ? 'Running the watch…' : 'Run the watch now'}

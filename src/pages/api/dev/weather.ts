@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { db } from '../../../server/db';
 import { turnFakeWeather, readFakeWeather } from '../../../server/dev-weather';
 import { env } from '../../../server/env';
 import { HttpError } from '../../../server/errors';
@@ -30,7 +31,7 @@ export const GET = route(async (ctx) => {
   return json(await readFakeWeather(env.WEATHER_FORECAST_URL));
 });
 
-/** `{ mode: 'storm' | 'normal', from?: 'YYYY-MM-DD' }`: turns the fake's forecast weather; answers it as GET does. */
+/** `{ mode: 'storm' | 'normal', from?: 'YYYY-MM-DD' }`: turns the fake's forecast weather and forgets the cached forecasts; answers as GET does. */
 export const POST = route(async (ctx) => {
   devOnly();
   requireUser(ctx);
@@ -40,5 +41,9 @@ export const POST = route(async (ctx) => {
     'invalid_request',
     'Say which weather: { "mode": "storm" } or "normal".',
   );
-  return json(await turnFakeWeather(env.WEATHER_FORECAST_URL, body));
+  const turned = await turnFakeWeather(env.WEATHER_FORECAST_URL, body);
+  // The cached forecast answers came from the weather before the turn: drop them, so the next
+  // forecast or watch run asks the fake again (past years never turn and stay cached).
+  await db.deleteFrom('weather_cache').where('kind', '=', 'forecast').execute();
+  return json(turned);
 });
