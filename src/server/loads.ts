@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import type { Kysely } from 'kysely';
 import type { z } from 'zod';
 import type { DB, LoadAction, LoadRow } from '../../db/schema';
@@ -167,6 +168,52 @@ export async function createLoad(db: Kysely<DB>, rigId: string, userId: string, 
 /** Adds every load of an import in one transaction, each with an 'imported' activity row. */
 export async function importLoads(db: Kysely<DB>, rigId: string, userId: string, inputs: LoadValues[]): Promise<LoadDto[]> {
   return insertLoads(db, rigId, userId, inputs, 'imported');
+}
+
+/**
+ * The version of a rig's whole load list: a short digest of every load's id and version, so it
+ * changes whenever a load is added, changed or removed. A replacing import sends the one it read.
+ */
+export function listVersionOf(loads: readonly { id: string; version: number }[]): string {
+  const parts = loads.map((l) => `${l.id}:${l.version}`).sort();
+  return createHash('sha256').update(parts.join('\n')).digest('hex').slice(0, 20);
+}
+
+/** A rig's load list as a replacing import reads it: the loads and the list's version. */
+export async function loadList(db: Kysely<DB>, rigId: string): Promise<{ version: string; loads: LoadDto[] }> {
+  const loads = await listLoads(db, rigId);
+  return { version: listVersionOf(loads), loads };
+}
+
+/**
+ * Replaces a rig's whole load list with an import, in one transaction, while the list still has the
+ * version read (else 409 carrying the list as it is now): every load is removed with a 'removed'
+ * activity row, then the imported ones are added with 'imported' rows. Any failure keeps the old list.
+ */
+export async function replaceLoads(db: Kysely<DB>, rigId: string, userId: string, listVersion: string, inputs: LoadValues[]): Promise<{ removed: number; loads: LoadDto[] }> {
+  return db.transaction().execute(async (trx) => {
+    const current = await listLoads(trx, rigId);
+    if (listVersionOf(current) !== listVersion) throw listConflict(current);
+    const now = nowIso();
+    for (const l of current) {
+      // Each row goes only at the version read: a concurrent edit (on PostgreSQL, a row this
+      // transaction waited for) makes the whole replace a 409 instead of removing the newer load.
+      const res = await trx.deleteFrom('loads').where('id', '=', l.id).where('version', '=', l.version).executeTakeFirst();
+      if (res.numDeletedRows === 0n) throw listConflict(await listLoads(trx, rigId));
+    }
+    await logActivity(
+      trx,
+      current.map((l) => ({ rigId, loadId: l.id, userId, action: 'removed' as const, loadName: l.name, changes: snapshot(fieldsOf(l), 'before'), at: now })),
+    );
+    const loads = await insertLoads(trx, rigId, userId, inputs, 'imported');
+    return { removed: current.length, loads };
+  });
+}
+
+function listConflict(current: LoadDto[]): HttpError {
+  return new HttpError('conflict', 'Someone changed this load list since you checked the file. Check it again to see what would be removed now.', [], {
+    current: { version: listVersionOf(current), loads: current },
+  });
 }
 
 /** How many loads a rig has now. */

@@ -161,8 +161,8 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
 
     await page.getByLabel('Or paste the CSV').fill(CSV_GOOD);
     await page.getByRole('button', { name: 'Check the file' }).click();
-    await page.getByText('All 2 lines read cleanly. Check the preview, then import.').waitFor();
-    await page.getByRole('button', { name: 'Import 2 loads' }).click();
+    await page.getByText('All 2 lines read cleanly. Check the preview, then add them to the list.').waitFor();
+    await page.getByRole('button', { name: 'Add 2 loads to the list' }).click();
     await page.getByText('Imported 2 loads.').waitFor();
     await page.locator('tr[data-load-row="Furnace blower"]').waitFor();
 

@@ -145,10 +145,10 @@ function LoadsTable({ rigId, units: unitsProp }: { rigId: string; units: Units }
       ) : null}
       {panel === 'catalogue' ? <CataloguePicker units={units} rig={er} add={add} onClose={() => setPanel(null)} /> : null}
       {panel === 'csv' ? (
-        <CsvImport rigId={rigId} onClose={() => setPanel(null)} onImported={(n) => {
+        <CsvImport rigId={rigId} onClose={() => setPanel(null)} onImported={(n, removed) => {
           void qc.invalidateQueries({ queryKey: key });
           setPanel(null);
-          setStatus(`Imported ${n} ${n === 1 ? 'load' : 'loads'}.`);
+          setStatus(removed > 0 ? `Replaced ${removed} ${removed === 1 ? 'load' : 'loads'} with the ${n} imported.` : `Imported ${n} ${n === 1 ? 'load' : 'loads'}.`);
         }} />
       ) : null}
 

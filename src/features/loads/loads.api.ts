@@ -1,6 +1,7 @@
 // Plain fetchers for a rig's load list; hooks live in loads.queries.ts and the islands.
 import { apiFetch } from '../../lib/query-client';
 import type { LoadDto, LoadInput, LoadPatch } from '../../domain/loads/loads.schema';
+import type { ImportMode } from '../../domain/loads/import-choice';
 
 const rigPath = (rigId: string) => `/api/rigs/${encodeURIComponent(rigId)}`;
 
@@ -25,15 +26,25 @@ export interface CsvLineError {
 export interface CsvPreview {
   rows: (Partial<LoadInput> & { line?: number })[];
   errors: CsvLineError[];
+  /** The list as it was when the file was checked: a replacing import sends its version back. */
+  list: { version: string; loads: { id: string; name: string; version: number }[] };
+  /** The file's rows whose names are already in the list. */
+  alreadyListed: { line: number; name: string }[];
 }
 
-/** Checks a CSV load list without saving anything: the rows it would add and each line's errors. */
-export const previewCsv = (rigId: string, csv: string) =>
-  apiFetch<CsvPreview>(`${rigPath(rigId)}/loads/import?preview=1`, { method: 'POST', headers: { 'content-type': 'text/csv' }, body: csv });
+const importPath = (rigId: string, params: Record<string, string>) => `${rigPath(rigId)}/loads/import?${new URLSearchParams(params).toString()}`;
 
-/** Imports a CSV load list: all lines or none. */
-export const importCsv = (rigId: string, csv: string) =>
-  apiFetch<{ imported: number; loads: LoadDto[] }>(`${rigPath(rigId)}/loads/import`, { method: 'POST', headers: { 'content-type': 'text/csv' }, body: csv });
+/** Checks a CSV load list without saving anything: the rows it would add, each line's errors, and the list it meets. */
+export const previewCsv = (rigId: string, csv: string, mode: ImportMode = 'add') =>
+  apiFetch<CsvPreview>(importPath(rigId, { preview: '1', mode }), { method: 'POST', headers: { 'content-type': 'text/csv' }, body: csv });
+
+/** Imports a CSV load list: all lines or none, added to the list or replacing it (as of `listVersion`; a changed list is a 409). */
+export const importCsv = (rigId: string, csv: string, mode: ImportMode = 'add', listVersion?: string) =>
+  apiFetch<{ imported: number; removed: number; loads: LoadDto[] }>(importPath(rigId, { mode, ...(listVersion ? { listVersion } : {}) }), {
+    method: 'POST',
+    headers: { 'content-type': 'text/csv' },
+    body: csv,
+  });
 
 /** Where the rig's load list downloads as CSV. */
 export const loadsCsvUrl = (rigId: string) => `${rigPath(rigId)}/loads.csv`;
