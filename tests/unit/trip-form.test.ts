@@ -52,7 +52,7 @@ describe('trip planner rules', () => {
       drives: [{ date: '2027-11-01', startHour: 9, hours: 4 }],
     });
     expect(issues(t).sort()).toEqual([
-      'drives.0.date: Drive 1 starts at 09:00 on Mon 1 Nov, after the trip ends (11:00 on Sun 24 Oct). Move it inside the trip.',
+      'drives.0.date: Drive 1 starts at 09:00 on Mon 1 Nov, after the trip ends (11:00 on Sun 24 Oct): a drive must start inside the trip.',
       'stops.0.generatorHours: Generator hours must start before they stop.',
       'stops.0.weather.0.lowC: must not be above the high',
     ]);

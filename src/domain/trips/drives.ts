@@ -67,11 +67,11 @@ export function driveIssues(stops: readonly DriveStop[], drives: readonly DriveT
     const label = `Drive ${i + 1}`;
     const starts = when(d.startHour, d.date);
     if (t.startMs < tl.startMs) {
-      issues.push({ path: ['drives', i, 'date'], message: `${label} starts at ${starts}, before the trip begins (arrival at ${first.name || 'the first stop'} at ${when(first.arriveHour, first.arrive)}). Move it inside the trip.` });
+      issues.push({ path: ['drives', i, 'date'], message: `${label} starts at ${starts}, before the trip begins (arrival at ${first.name || 'the first stop'} at ${when(first.arriveHour, first.arrive)}): a drive must start inside the trip.` });
       return;
     }
     if (t.startMs >= tl.endMs) {
-      issues.push({ path: ['drives', i, 'date'], message: `${label} starts at ${starts}, after the trip ends (11:00 on ${formatDate(lastMorning, false)}). Move it inside the trip.` });
+      issues.push({ path: ['drives', i, 'date'], message: `${label} starts at ${starts}, after the trip ends (11:00 on ${formatDate(lastMorning, false)}): a drive must start inside the trip.` });
       return;
     }
     const next = tl.arrivals.findIndex((a, k) => k > 0 && a > t.startMs);
