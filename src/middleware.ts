@@ -5,8 +5,12 @@ import { env } from './server/env';
 import { errorResponse } from './server/http';
 import { policy, SECURITY_HEADERS } from './server/security-headers';
 
-const PUBLIC_PAGES = new Set(['/', '/sign-in', '/sign-up', '/reset-password', '/about']);
-const PUBLIC_API = [/^\/api\/auth\//, /^\/api\/health$/, /^\/api\/forecasts\/preview$/, /^\/api\/places$/, /^\/api\/timezone$/];
+// Loaded at start so the background process runs the trip watch (not with WATCH=off or in tests).
+import './server/watch-scheduler';
+
+const PUBLIC_PAGES = new Set(['/', '/sign-in', '/sign-up', '/reset-password', '/about', '/watch/unsubscribe']);
+// The dev watch tick answers 404 in production (the route checks); elsewhere it needs no sign-in, like /dev pages.
+const PUBLIC_API = [/^\/api\/dev\/watch\/tick$/, /^\/api\/auth\//, /^\/api\/health$/, /^\/api\/forecasts\/preview$/, /^\/api\/places$/, /^\/api\/timezone$/];
 
 /**
  * An address holding the NUL character (%00) never reaches a route: no id, place or token of ours

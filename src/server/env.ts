@@ -39,6 +39,10 @@ const schema = z.object({
   WEATHER_ARCHIVE_URL: z.string().url().default('https://archive-api.open-meteo.com/v1/archive'),
   /** How long one fill of a trip's weather waits for the service before using what it has, ms (at most 5 s). */
   WEATHER_TIMEOUT_MS: z.coerce.number().int().min(100).max(5000).default(5000),
+  /** Trip watch: `off` stops the background re-runs (the API and the dev tick still answer). */
+  WATCH: z.enum(['on', 'off'], { error: 'must be on or off' }).default('on'),
+  /** Trip watch: minutes between two runs of one trip (default 6 hours). */
+  WATCH_INTERVAL_MINUTES: z.coerce.number().int().min(1).max(10_080).default(360),
 });
 
 const parsed = schema.safeParse(process.env);

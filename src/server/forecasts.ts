@@ -159,13 +159,15 @@ const listColumns = [
   'user.name as creator_name',
 ] as const;
 
-/** Saved forecasts of a trip, newest first, without their hourly series. */
+/** Saved forecasts of a trip run by people, newest first, without their hourly series. */
 export async function listForecasts(db: Kysely<DB>, tripId: string): Promise<ForecastListItem[]> {
   const rows = await db
     .selectFrom('forecasts')
     .leftJoin('user', 'user.id', 'forecasts.created_by')
     .select(listColumns)
     .where('forecasts.trip_id', '=', tripId)
+    // The trip watch's runs (kind 'watch') have their own timeline (GET /api/trips/:id/watch).
+    .where('forecasts.kind', '=', 'plan')
     .orderBy('forecasts.created_at', 'desc')
     .execute();
   return rows.map(toListItem);

@@ -163,6 +163,8 @@ async function overlappingForecasts(db: Kysely<DB>, rigId: string, fromMs: numbe
     .innerJoin('trips', 'trips.id', 'forecasts.trip_id')
     .select(['forecasts.id', 'forecasts.name', 'forecasts.trip_id', 'forecasts.plan', 'forecasts.created_at', 'trips.name as trip_name'])
     .where('forecasts.rig_id', '=', rigId)
+    .where('forecasts.kind', '=', 'plan')
+    .where('trips.deleted_at', 'is', null)
     .orderBy('forecasts.created_at', 'desc')
     .limit(200)
     .execute();

@@ -199,6 +199,12 @@ export const ROUTES: RouteCase[] = [
   { method: 'DELETE', route: '/api/monitor-logs/[id]', url: (w) => `/api/monitor-logs/${w.monitorLog.id}?version=${w.monitorLog.version}`, expect: RIG_WRITE(204), fresh: true },
   { method: 'GET', route: '/api/trips/[id]/check-ins', url: (w) => `/api/trips/${w.trip.id}/check-ins`, expect: RIG_READ },
   { method: 'POST', route: '/api/trips/[id]/check-ins', url: (w) => `/api/trips/${w.trip.id}/check-ins`, body: () => CHECK_IN_INPUT(), expect: RIG_WRITE(201) },
+  // Trip watch: anyone who sees the trip reads it; owners and editors turn it on or off; crew members follow it.
+  { method: 'GET', route: '/api/trips/[id]/watch', url: (w) => `/api/trips/${w.trip.id}/watch`, expect: RIG_READ },
+  { method: 'PUT', route: '/api/trips/[id]/watch', url: (w) => `/api/trips/${w.trip.id}/watch`, body: () => ({ enabled: true }), expect: RIG_WRITE(200) },
+  { method: 'PUT', route: '/api/trips/[id]/watch/follow', url: (w) => `/api/trips/${w.trip.id}/watch/follow`, body: () => ({ following: true }), expect: { ...RIG_READ, installer: 403 } },
+  // The dev tick (404 in production) needs no sign-in; a clock long before any trip's window runs nothing.
+  { method: 'POST', route: '/api/dev/watch/tick', url: () => '/api/dev/watch/tick', body: () => ({ now: '2001-01-01T00:00:00Z' }), expect: all(200) },
   { method: 'GET', route: '/api/trips/[id]/weather', url: (w) => `/api/trips/${w.trip.id}/weather`, expect: RIG_READ },
   { method: 'DELETE', route: '/api/check-ins/[id]', url: (w) => `/api/check-ins/${w.checkIn.id}?version=${w.checkIn.version}`, expect: RIG_WRITE(204), fresh: true },
 

@@ -18,7 +18,8 @@ export interface WatchMailInput {
   unsubscribeUrl: string;
 }
 
-const REASON_WORDS: Record<WatchChangeReason, string> = {
+/** Each reason in words (the e-mail and the watch's timeline). */
+export const REASON_WORDS: Record<WatchChangeReason, string> = {
   verdict: 'the verdict changed',
   'cutoff-moved': 'the cutoff moved by 3 hours or more',
   'cutoff-appeared': 'the bank now cuts off',

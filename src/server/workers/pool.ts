@@ -7,6 +7,7 @@ import { HttpError } from '../errors';
 import type { MonitorLogOutcome, MonitorLogTask, SaveLogOutcome, SaveLogTask } from './monitor-task';
 import type { HandPlanTask, LogDetailTask, LogSeries, SweepTask, handPlan, sweep } from './tasks';
 import type { BandTask, RunOutcome } from '../../domain/weather/band';
+import type { WatchRunOutcome, WatchRunTask } from './watch-task';
 
 // The worker pool for CPU-heavy work (upgrade sweeps, reading monitor logs): the request thread only
 // hands the task over and waits, so /api/health and every other request keep answering.
@@ -114,4 +115,9 @@ export function logSeriesInPool(task: LogDetailTask): Promise<LogSeries> {
 /** A trip re-run under each weather of its band, off the request thread (the plans are built there too). */
 export function weatherBandInPool(task: BandTask): Promise<RunOutcome[]> {
   return run('weatherBand', task);
+}
+
+/** One trip watch run (engine and advice), off the serving thread. */
+export function watchRunInPool(task: WatchRunTask): Promise<WatchRunOutcome> {
+  return run('watchRun', task);
 }

@@ -9,6 +9,7 @@ import { readMonitorLog, saveMonitorLog, type MonitorLogTask, type MonitorLogOut
 import { storedOverview, type DbTarget, type LogSeries } from './log-store';
 import { runBandTask } from '../../domain/weather/band-run';
 import type { BandTask, RunOutcome } from '../../domain/weather/band';
+import { runWatchTask, type WatchRunOutcome, type WatchRunTask } from './watch-task';
 
 export interface SweepTask {
   forecastId: string;
@@ -48,6 +49,11 @@ export function handPlan(task: HandPlanTask): { ok: true; result: HandPlanResult
 /** A trip re-run under each weather of its band ("how sure is this?"): its plans built here, one engine run each. */
 export function weatherBand(task: BandTask): RunOutcome[] {
   return runBandTask(task);
+}
+
+/** One trip watch run: the engine with fresh weather (from the latest check-in during the trip) and the advice. */
+export function watchRun(task: WatchRunTask): WatchRunOutcome {
+  return runWatchTask(task);
 }
 
 /** Reads an uploaded monitor log's form, then decodes, detects and parses it within the caps. */
