@@ -4,6 +4,8 @@ import { auth } from './server/auth';
 import { env } from './server/env';
 import { errorResponse } from './server/http';
 import { policy, SECURITY_HEADERS } from './server/security-headers';
+// Loaded at start so the background process purges rigs and trips deleted more than 30 days ago.
+import './server/purge';
 
 // Loaded at start so the background process runs the trip watch (not with WATCH=off or in tests).
 import './server/watch-scheduler';

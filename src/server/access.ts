@@ -19,8 +19,12 @@ import { HttpError } from './errors';
 // crew reads a proposal once it is sent (a draft is 404 to them), and only the crew's owners accept
 // or decline it.
 
-/** read and write: the rig's data; manage: who may see the rig (installer grants) — crew owners only. */
-export type Need = 'read' | 'write' | 'manage';
+/**
+ * read and write: the rig's data; manage: who may see the rig (installer grants) — crew owners only;
+ * delete: deleting (and restoring) a rig or a trip — crew owners only, since it takes saved forecasts
+ * and check-ins with it.
+ */
+export type Need = 'read' | 'write' | 'manage' | 'delete';
 
 /** How a user reaches a rig: their role in the rig's crew, or 'installer' through a grant. */
 export type RigRole = CrewRole | 'installer';
@@ -43,8 +47,8 @@ export interface RigGrant {
  * Rigs the user can see — through crew membership or an installer grant — with the role that
  * lets them: the base of every rig lookup and list.
  */
-function visibleRigs(db: Kysely<DB>, userId: string) {
-  return db
+function visibleRigs(db: Kysely<DB>, userId: string, withDeleted = false) {
+  const q = db
     .selectFrom('rigs')
     .leftJoin('crew_members', (j) => j.onRef('crew_members.crew_id', '=', 'rigs.crew_id').on('crew_members.user_id', '=', userId))
     .leftJoin('rig_grants', (j) => j.onRef('rig_grants.rig_id', '=', 'rigs.id').on('rig_grants.installer_id', '=', userId))
@@ -52,6 +56,8 @@ function visibleRigs(db: Kysely<DB>, userId: string) {
     .selectAll('rigs')
     // An installer is never a crew member, so at most one of the two joins matches.
     .select((eb) => eb.fn.coalesce('crew_members.role', eb.val('installer')).$castTo<RigRole>().as('role'));
+  // A deleted rig (restorable for 30 days) is hidden from every list and lookup; only the restore path sees it.
+  return withDeleted ? q : q.where('rigs.deleted_at', 'is', null);
 }
 
 /** Every rig the user can see with their role on it, oldest first. */
@@ -74,6 +80,10 @@ function forbidden(what: string, role: RigRole): HttpError {
 function grant(rig: RigRow, role: RigRole, need: Need, what: string): RigGrant {
   const canWrite = WRITES[role];
   if (need === 'write' && !canWrite) throw forbidden(what, role);
+  if (need === 'delete' && role !== 'owner') {
+    if (role === 'installer' || role === 'viewer') throw forbidden(what, role);
+    throw new HttpError('forbidden', `Only the crew's owners can delete a ${what}: it takes its saved forecasts and check-ins with it. Your role is ${role}; ask an owner to delete it.`);
+  }
   if (need === 'manage' && role !== 'owner') {
     throw new HttpError('forbidden', `Only the crew's owners can decide who else sees this ${what}${role === 'installer' ? '' : `; your role is ${role}`}.`);
   }
@@ -109,12 +119,30 @@ export async function loadAccess(db: Kysely<DB>, user: Actor, loadId: string, ne
 
 /** A trip and its rig, when the user may do `need` with the rig's trips. */
 export async function tripAccess(db: Kysely<DB>, user: Actor, tripId: string, need: Need): Promise<RigGrant & { trip: TripRow }> {
-  const trip = await db.selectFrom('trips').selectAll().where('id', '=', tripId).executeTakeFirst();
+  const trip = await db.selectFrom('trips').selectAll().where('id', '=', tripId).where('deleted_at', 'is', null).executeTakeFirst();
   if (!trip) throw notFound('trip');
   const access = await rigAccess(db, user, trip.rig_id, need, 'trip').catch((e: unknown) => {
     throw e instanceof HttpError && e.code === 'not_found' ? notFound('trip') : e;
   });
   return { ...access, trip };
+}
+
+/** A rig even while it is deleted, for restoring it: its crew's owners only (404 outside the user's crews and grants). */
+export async function deletedRigAccess(db: Kysely<DB>, user: Actor, rigId: string): Promise<RigGrant> {
+  const row = await visibleRigs(db, user.id, true).where('rigs.id', '=', rigId).executeTakeFirst();
+  if (!row) throw notFound('rig');
+  const { role, ...rig } = row;
+  return grant(rig, role, 'delete', 'rig');
+}
+
+/** A trip even while it (or its rig) is deleted, for restoring it: owners of its rig's crew only. */
+export async function deletedTripAccess(db: Kysely<DB>, user: Actor, tripId: string): Promise<RigGrant & { trip: TripRow }> {
+  const trip = await db.selectFrom('trips').selectAll().where('id', '=', tripId).executeTakeFirst();
+  if (!trip) throw notFound('trip');
+  const row = await visibleRigs(db, user.id, true).where('rigs.id', '=', trip.rig_id).executeTakeFirst();
+  if (!row) throw notFound('trip');
+  const { role, ...rig } = row;
+  return { ...grant(rig, role, 'delete', 'trip'), trip };
 }
 
 /**

@@ -181,9 +181,11 @@ export async function listInstallerRigs(db: Kysely<DB>, installerId: string): Pr
       'granter.name as grantedBy',
       'rig_grants.created_at as grantedAt',
       eb.selectFrom('loads').select((e) => e.fn.countAll<number>().as('n')).whereRef('loads.rig_id', '=', 'rigs.id').as('loadCount'),
-      eb.selectFrom('trips').select((e) => e.fn.countAll<number>().as('n')).whereRef('trips.rig_id', '=', 'rigs.id').as('tripCount'),
+      eb.selectFrom('trips').select((e) => e.fn.countAll<number>().as('n')).whereRef('trips.rig_id', '=', 'rigs.id').where('trips.deleted_at', 'is', null).as('tripCount'),
     ])
     .where('rig_grants.installer_id', '=', installerId)
+    // A deleted rig (restorable by its crew for 30 days) is hidden from installers meanwhile.
+    .where('rigs.deleted_at', 'is', null)
     .orderBy('rig_grants.created_at', 'desc')
     .orderBy('rig_grants.id')
     .execute();

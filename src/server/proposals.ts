@@ -200,7 +200,8 @@ export async function listProposals(db: Kysely<DB>, user: Actor & { kind?: strin
       .innerJoin('crew_members', (j) => j.onRef('crew_members.crew_id', '=', 'rigs.crew_id').on('crew_members.user_id', '=', user.id))
       .where('proposals.status', '!=', 'draft');
   }
-  const rows = await q.orderBy('proposals.created_at', 'desc').orderBy('proposals.id').execute();
+  // Proposals on a deleted rig are hidden with it (and come back when it is restored).
+  const rows = await q.where('rigs.deleted_at', 'is', null).orderBy('proposals.created_at', 'desc').orderBy('proposals.id').execute();
   return rows.map(toListItem);
 }
 

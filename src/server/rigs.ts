@@ -6,7 +6,7 @@ import { HttpError } from './errors';
 import { conflict, nowIso } from './versions';
 
 /** A rig row as the API shows it. */
-export function toRigDto(row: RigRow, canEdit: boolean): RigDto {
+export function toRigDto(row: RigRow, canEdit: boolean, canDelete = false): RigDto {
   return {
     id: row.id,
     crewId: row.crew_id,
@@ -18,6 +18,7 @@ export function toRigDto(row: RigRow, canEdit: boolean): RigDto {
     payloadKg: row.payload_kg ?? null,
     batterySpaceL: row.battery_space_l ?? null,
     canEdit,
+    canDelete,
     version: row.version,
     createdAt: row.created_at,
     updatedAt: row.updated_at,
@@ -26,7 +27,7 @@ export function toRigDto(row: RigRow, canEdit: boolean): RigDto {
 
 /** The rigs of every crew the user is in. */
 export async function listRigs(db: Kysely<DB>, userId: string): Promise<RigDto[]> {
-  return (await listVisibleRigs(db, userId)).map((g) => toRigDto(g.rig, g.canWrite));
+  return (await listVisibleRigs(db, userId)).map((g) => toRigDto(g.rig, g.canWrite, g.role === 'owner'));
 }
 
 async function rigRow(db: Kysely<DB>, id: string): Promise<RigRow> {
@@ -36,7 +37,7 @@ async function rigRow(db: Kysely<DB>, id: string): Promise<RigRow> {
 }
 
 /** Adds a rig to a crew the caller may write to. */
-export async function createRig(db: Kysely<DB>, userId: string, crewId: string, input: RigValues): Promise<RigDto> {
+export async function createRig(db: Kysely<DB>, userId: string, crewId: string, input: RigValues, canDelete = false): Promise<RigDto> {
   const now = nowIso();
   const id = crypto.randomUUID();
   await db
@@ -56,11 +57,11 @@ export async function createRig(db: Kysely<DB>, userId: string, crewId: string, 
       updated_at: now,
     })
     .execute();
-  return toRigDto(await rigRow(db, id), true);
+  return toRigDto(await rigRow(db, id), true, canDelete);
 }
 
 /** Changes the fields sent, only while the rig still has the version the caller read (else 409 with the current rig). */
-export async function updateRig(db: Kysely<DB>, rigId: string, patch: RigChanges): Promise<RigDto> {
+export async function updateRig(db: Kysely<DB>, rigId: string, patch: RigChanges, canDelete = false): Promise<RigDto> {
   const { version, ...f } = patch;
   return db.transaction().execute(async (trx) => {
     const res = await trx
@@ -80,15 +81,25 @@ export async function updateRig(db: Kysely<DB>, rigId: string, patch: RigChanges
       .where('version', '=', version)
       .executeTakeFirst();
     const row = await rigRow(trx, rigId);
-    if (res.numUpdatedRows === 0n) throw conflict('rig', toRigDto(row, true));
-    return toRigDto(row, true);
+    if (res.numUpdatedRows === 0n) throw conflict('rig', toRigDto(row, true, canDelete));
+    return toRigDto(row, true, canDelete);
   });
 }
 
-/** Deletes a rig (its loads, activity and trips go with it) while it still has the version read. */
-export async function deleteRig(db: Kysely<DB>, rigId: string, version: number): Promise<void> {
+/**
+ * Deletes a rig softly while it still has the version read: it (and with it its loads, trips, saved
+ * forecasts, check-ins and logs) is hidden at once and can be restored by a crew owner for 30 days,
+ * after which the purge removes it for good (`server/deletion.ts`).
+ */
+export async function deleteRig(db: Kysely<DB>, rigId: string, version: number, userId: string): Promise<void> {
   await db.transaction().execute(async (trx) => {
-    const res = await trx.deleteFrom('rigs').where('id', '=', rigId).where('version', '=', version).executeTakeFirst();
-    if (res.numDeletedRows === 0n) throw conflict('rig', toRigDto(await rigRow(trx, rigId), true));
+    const res = await trx
+      .updateTable('rigs')
+      .set((eb) => ({ deleted_at: nowIso(), deleted_by: userId, version: eb('version', '+', 1) }))
+      .where('id', '=', rigId)
+      .where('version', '=', version)
+      .where('deleted_at', 'is', null)
+      .executeTakeFirst();
+    if (res.numUpdatedRows === 0n) throw conflict('rig', toRigDto(await rigRow(trx, rigId), true, true));
   });
 }

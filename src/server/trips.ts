@@ -13,7 +13,7 @@ type Stop = z.output<typeof stopSchema>;
 type Drive = z.output<typeof driveSchema>;
 
 /** A trip row as the API shows it. */
-export function toTripDto(row: TripRow, canEdit: boolean): TripDto {
+export function toTripDto(row: TripRow, canEdit: boolean, canDelete = false): TripDto {
   return {
     id: row.id,
     crewId: row.crew_id,
@@ -23,6 +23,7 @@ export function toTripDto(row: TripRow, canEdit: boolean): TripDto {
     drives: JSON.parse(row.drives),
     reserveSocPct: row.reserve_soc_pct,
     canEdit,
+    canDelete,
     version: row.version,
     createdAt: row.created_at,
     updatedAt: row.updated_at,
@@ -50,9 +51,10 @@ export async function listTrips(db: Kysely<DB>, userId: string, rigId?: string):
   const grants = (await listVisibleRigs(db, userId)).filter((g) => rigId === undefined || g.rig.id === rigId);
   if (grants.length === 0) return [];
   const canWrite = new Map(grants.map((g) => [g.rig.id, g.canWrite]));
-  const rows = await db.selectFrom('trips').selectAll().where('rig_id', 'in', [...canWrite.keys()]).execute();
+  const owns = new Set(grants.filter((g) => g.role === 'owner').map((g) => g.rig.id));
+  const rows = await db.selectFrom('trips').selectAll().where('rig_id', 'in', [...canWrite.keys()]).where('deleted_at', 'is', null).execute();
   return rows
-    .map((r) => toTripDto(r, canWrite.get(r.rig_id) ?? false))
+    .map((r) => toTripDto(r, canWrite.get(r.rig_id) ?? false, owns.has(r.rig_id)))
     .sort((a, b) => (a.stops[0]?.arrive ?? '').localeCompare(b.stops[0]?.arrive ?? '') || a.name.localeCompare(b.name) || a.id.localeCompare(b.id));
 }
 
@@ -63,7 +65,7 @@ async function tripRow(db: Kysely<DB>, id: string): Promise<TripRow> {
 }
 
 /** Saves a new trip on a rig the caller may write to; the trip belongs to the rig's crew. */
-export async function createTrip(db: Kysely<DB>, userId: string, rig: { id: string; crew_id: string }, input: TripValues): Promise<TripDto> {
+export async function createTrip(db: Kysely<DB>, userId: string, rig: { id: string; crew_id: string }, input: TripValues, canDelete = false): Promise<TripDto> {
   const now = nowIso();
   const id = crypto.randomUUID();
   await db
@@ -81,7 +83,7 @@ export async function createTrip(db: Kysely<DB>, userId: string, rig: { id: stri
       updated_at: now,
     })
     .execute();
-  return toTripDto(await tripRow(db, id), true);
+  return toTripDto(await tripRow(db, id), true, canDelete);
 }
 
 /**
@@ -89,11 +91,11 @@ export async function createTrip(db: Kysely<DB>, userId: string, rig: { id: stri
  * read: a stale version is a 409 with the current trip before anything else is checked; the
  * itinerary rules then run on the trip as it would be after the change.
  */
-export async function updateTrip(db: Kysely<DB>, tripId: string, rig: { id: string; crew_id: string; bank: string }, patch: TripChanges): Promise<TripDto> {
+export async function updateTrip(db: Kysely<DB>, tripId: string, rig: { id: string; crew_id: string; bank: string }, patch: TripChanges, canDelete = false): Promise<TripDto> {
   const { version, rigId: _rigId, ...f } = patch;
   return db.transaction().execute(async (trx) => {
     const before = await tripRow(trx, tripId);
-    if (before.version !== version) throw conflict('trip', toTripDto(before, true));
+    if (before.version !== version) throw conflict('trip', toTripDto(before, true, canDelete));
     checkItinerary(rig.bank, f.stops ?? JSON.parse(before.stops), f.drives ?? JSON.parse(before.drives));
     const res = await trx
       .updateTable('trips')
@@ -111,15 +113,24 @@ export async function updateTrip(db: Kysely<DB>, tripId: string, rig: { id: stri
       .where('version', '=', version)
       .executeTakeFirst();
     const row = await tripRow(trx, tripId);
-    if (res.numUpdatedRows === 0n) throw conflict('trip', toTripDto(row, true));
-    return toTripDto(row, true);
+    if (res.numUpdatedRows === 0n) throw conflict('trip', toTripDto(row, true, canDelete));
+    return toTripDto(row, true, canDelete);
   });
 }
 
-/** Deletes a trip while it still has the version read. */
-export async function deleteTrip(db: Kysely<DB>, tripId: string, version: number): Promise<void> {
+/**
+ * Deletes a trip softly while it still has the version read: it, its saved forecasts and check-ins are
+ * hidden at once; a crew owner can restore it for 30 days, then the purge removes it for good.
+ */
+export async function deleteTrip(db: Kysely<DB>, tripId: string, version: number, userId: string): Promise<void> {
   await db.transaction().execute(async (trx) => {
-    const res = await trx.deleteFrom('trips').where('id', '=', tripId).where('version', '=', version).executeTakeFirst();
-    if (res.numDeletedRows === 0n) throw conflict('trip', toTripDto(await tripRow(trx, tripId), true));
+    const res = await trx
+      .updateTable('trips')
+      .set((eb) => ({ deleted_at: nowIso(), deleted_by: userId, version: eb('version', '+', 1) }))
+      .where('id', '=', tripId)
+      .where('version', '=', version)
+      .where('deleted_at', 'is', null)
+      .executeTakeFirst();
+    if (res.numUpdatedRows === 0n) throw conflict('trip', toTripDto(await tripRow(trx, tripId), true, true));
   });
 }

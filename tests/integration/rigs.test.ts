@@ -152,14 +152,15 @@ describe('PATCH /api/rigs/:id', () => {
 });
 
 describe('DELETE /api/rigs/:id', () => {
-  it('deletes with ?version=N, taking loads and trips with it', async () => {
+  it('deletes with ?version=N, hiding its loads with it (kept, restorable for 30 days)', async () => {
     const rig = await createRig(owner);
     await createLoad(owner, rig.id, { name: 'Fridge', watts: 45 });
     const res = await api(`/api/rigs/${rig.id}?version=1`, { method: 'DELETE', session: owner });
     expect(res.status).toBe(204);
-    expect(dbGet('select id from rigs where id = ?', rig.id)).toBeUndefined();
-    expect(dbAll('select id from loads where rig_id = ?', rig.id)).toEqual([]);
+    expect(dbGet('select deleted_by from rigs where id = ?', rig.id)).toEqual({ deleted_by: owner.userId });
+    expect(dbAll('select id from loads where rig_id = ?', rig.id)).toHaveLength(1);
     expect((await api(`/api/rigs/${rig.id}`, { session: owner })).status).toBe(404);
+    expect((await api(`/api/rigs/${rig.id}/loads`, { session: owner })).status).toBe(404);
   });
 
   it('accepts the version as an If-Match header', async () => {
@@ -233,9 +234,11 @@ describe.each([
     expect(load.status).toBe(write === 200 ? 201 : write);
   });
 
-  it(`deletes the rig (${write === 200 ? 204 : write})`, async () => {
+  // Deleting takes the rig's trips, saved forecasts and check-ins with it: crew owners only.
+  it(`deletes the rig (${role === 'owner' ? 204 : 403})`, async () => {
     const current = await (await api(`/api/rigs/${rig.id}`, { session: member })).json();
+    expect(current.canDelete).toBe(role === 'owner');
     const res = await api(`/api/rigs/${rig.id}?version=${current.version}`, { method: 'DELETE', session: member });
-    expect(res.status).toBe(write === 200 ? 204 : write);
+    expect(res.status).toBe(role === 'owner' ? 204 : 403);
   });
 });

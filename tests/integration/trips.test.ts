@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { api, signUp, type Session } from '../helpers/api';
-import { addMember, createRig, dbAll, dbGet } from '../helpers/fixtures';
+import { addMember, createRig, dbGet } from '../helpers/fixtures';
 
 let owner: Session;
 let stranger: Session;
@@ -204,7 +204,9 @@ describe('DELETE /api/trips/:id', () => {
     const t = await createTrip(owner, trip());
     const res = await api(`/api/trips/${t.id}?version=1`, { method: 'DELETE', session: owner });
     expect(res.status).toBe(204);
-    expect(dbGet('select id from trips where id = ?', t.id)).toBeUndefined();
+    // Kept for 30 days (restorable), hidden meanwhile.
+    expect(dbGet('select deleted_by from trips where id = ?', t.id)).toEqual({ deleted_by: owner.userId });
+    expect((await api(`/api/trips/${t.id}`, { session: owner })).status).toBe(404);
   });
 
   it('answers 409 with the current trip on a stale version, and deletes nothing', async () => {
@@ -229,6 +231,7 @@ describe('DELETE /api/trips/:id', () => {
     const r = await createRig(owner, { name: 'Short-lived' });
     const t = await createTrip(owner, { ...trip(), rigId: r.id });
     expect((await api(`/api/rigs/${r.id}?version=1`, { method: 'DELETE', session: owner })).status).toBe(204);
-    expect(dbAll('select id from trips where id = ?', t.id)).toEqual([]);
+    expect((await api(`/api/trips/${t.id}`, { session: owner })).status).toBe(404);
+    expect((await (await api('/api/trips', { session: owner })).json()).some((x: { id: string }) => x.id === t.id)).toBe(false);
   });
 });

@@ -1,7 +1,8 @@
-import { useState } from 'react';
+import type { ReactNode } from 'react';
 import type { FieldValues, UseFormSetError } from 'react-hook-form';
 import { ApiError, isConflict, type ApiIssue } from '../../lib/query-client';
 import { applyServerIssues } from './form';
+import { AskFirst } from './AskFirst';
 
 /** A save's problem shown at the top of a form: the message, and the issues that have no field on the page. */
 export interface FormProblem {
@@ -53,20 +54,14 @@ export function deleteProblem(err: unknown, what: string): FormProblem {
   return { message: err instanceof Error ? err.message : `Could not delete the ${what}.`, issues: [] };
 }
 
-/** The foot of an editor: "Delete …" asks once more before it deletes. */
-export function DeleteRow({ label, question, onDelete, busy }: { label: string; question: string; onDelete: () => void; busy: boolean }) {
-  const [asking, setAsking] = useState(false);
+/**
+ * The foot of an editor: "Delete …" asks once more before it deletes, in place (AskFirst). `onAsk` runs
+ * when the question opens, so the question can say what goes with the deletion once it is known.
+ */
+export function DeleteRow({ label, question, onDelete, busy, onAsk }: { label: string; question: ReactNode; onDelete: () => void; busy: boolean; onAsk?: () => void }) {
   return (
     <div className="flex justify-end border-t border-sand-dark pt-4">
-      {asking ? (
-        <span className="flex flex-wrap items-center justify-end gap-2">
-          <span className="text-sm font-semibold">{question}</span>
-          <button type="button" className="btn btn-primary" onClick={onDelete} disabled={busy}>Delete</button>
-          <button type="button" className="btn btn-quiet" onClick={() => setAsking(false)}>Cancel</button>
-        </span>
-      ) : (
-        <button type="button" className="btn btn-quiet" onClick={() => setAsking(true)}>{label}</button>
-      )}
+      <AskFirst label={label} question={question} confirmLabel="Delete" onConfirm={onDelete} onAsk={onAsk} busy={busy} />
     </div>
   );
 }

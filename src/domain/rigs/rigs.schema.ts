@@ -61,6 +61,8 @@ export interface RigDto {
   batterySpaceL: number | null;
   /** Whether the signed-in user may change this rig, its loads and its trips (false for a crew viewer). */
   canEdit: boolean;
+  /** Whether the signed-in user may delete (and restore) this rig: the crew's owners only. */
+  canDelete: boolean;
   version: number;
   createdAt: string;
   updatedAt: string;

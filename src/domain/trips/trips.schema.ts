@@ -32,6 +32,8 @@ export interface TripDto {
   reserveSocPct: number | null;
   /** Whether the signed-in user may change this trip (false for a crew viewer). */
   canEdit: boolean;
+  /** Whether the signed-in user may delete (and restore) this trip: the owners of its rig's crew only. */
+  canDelete: boolean;
   version: number;
   createdAt: string;
   updatedAt: string;

@@ -15,6 +15,7 @@ import { rigKeys } from './rigs.queries';
 import { BANK_LOCATION_CHOICES, CHARGER_KINDS, bankToSave, emptyRig, newArray, newCharger, newInverter, rigFormSchema, rigToForm, type RigFormOutput, type RigFormValues } from '../../domain/rigs/rig-form';
 import { COMPASS, CHEMISTRY_PRESETS, MOUNTINGS, applyMounting, maxChargeAmpsFor, mountingOf, nominalForChemistry, presetBank, seriesParallel, type Mounting } from '../../domain/rigs/presets';
 import { DeleteRow, FormProblemBox } from '../../components/ui/SaveProblems';
+import { DeletionQuestion } from '../deleted/DeletionQuestion';
 
 interface RigEditorProps {
   rig?: RigDto;
@@ -310,7 +311,13 @@ export function RigEditor({ rig }: RigEditorProps) {
           {rig && isDirty && !busy ? <span className="text-sm text-slate-text">Unsaved changes</span> : null}
         </div>
       ) : null}
-      {rig && !readOnly ? <DeleteRow label="Delete rig…" question={`Delete ${rig.name} and its loads?`} onDelete={() => remove.mutate()} busy={remove.isPending} /> : null}
+      {rig && !readOnly ? (
+        rig.canDelete === true ? (
+          <DeleteRow label="Delete rig…" question={<DeletionQuestion kind="rig" id={rig.id} name={rig.name} />} onDelete={() => remove.mutate()} busy={remove.isPending} />
+        ) : (
+          <p className="border-t border-sand-dark pt-4 text-right text-sm text-slate-text">Only the crew’s owners can delete this rig: it takes its trips, saved forecasts and check-ins with it.</p>
+        )
+      ) : null}
     </form>
   );
 }

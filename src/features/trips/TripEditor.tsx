@@ -18,6 +18,8 @@ import { createTrip, deleteTrip, updateTrip } from './trips.api';
 import { timeZoneQuery, tripKeys } from './trips.queries';
 import { describeSpan, emptyTrip, newDrive, newStop, stopDays, tripFormSchema, tripSpan, tripToForm, type TripFormOutput, type TripFormValues } from '../../domain/trips/trip-form';
 import { DeleteRow, FormProblemBox } from '../../components/ui/SaveProblems';
+import { Confirmation } from '../../components/ui/AskFirst';
+import { DeletionQuestion } from '../deleted/DeletionQuestion';
 
 type Ctx = {
   register: UseFormRegister<TripFormValues>;
@@ -104,8 +106,10 @@ export function TripEditor({ trip, units, initialRigId, initialRigs, onClose }: 
   useEffect(() => {
     if (openedFromItinerary.current) formRef.current?.focus({ preventScroll: true });
   }, []);
+  // Closing with unsaved changes asks in place first (the app's one confirmation pattern).
+  const [askClose, setAskClose] = useState(false);
   const close = () => {
-    if (isDirty && !window.confirm('Close the editor and drop the unsaved changes?')) return;
+    if (isDirty) return setAskClose(true);
     onClose?.();
   };
 
@@ -186,10 +190,20 @@ export function TripEditor({ trip, units, initialRigId, initialRigs, onClose }: 
           <button type="submit" className="btn btn-primary" disabled={busy}>{busy ? 'Saving…' : trip ? 'Save trip' : 'Create trip'}</button>
           {savedAt && !isDirty ? <span role="status" className="font-semibold text-moss-deep">Saved.</span> : null}
           {trip && isDirty && !busy ? <span className="text-sm text-slate-text">Unsaved changes</span> : null}
-          {onClose ? <button type="button" className="btn btn-quiet ml-auto" onClick={close} disabled={busy}>Close the editor</button> : null}
+          {onClose && askClose ? (
+            <Confirmation className="ml-auto" question="Close the editor and drop the unsaved changes?" confirmLabel="Drop changes" keepLabel="Keep editing" onConfirm={() => { setAskClose(false); onClose(); }} onKeep={() => setAskClose(false)} />
+          ) : onClose ? (
+            <button type="button" className="btn btn-quiet ml-auto" onClick={close} disabled={busy}>Close the editor</button>
+          ) : null}
         </div>
       ) : null}
-      {trip && !readOnly ? <DeleteRow label="Delete trip…" question="Delete this trip?" onDelete={() => remove.mutate()} busy={remove.isPending} /> : null}
+      {trip && !readOnly ? (
+        trip.canDelete === true ? (
+          <DeleteRow label="Delete trip…" question={<DeletionQuestion kind="trip" id={trip.id} name={trip.name} />} onDelete={() => remove.mutate()} busy={remove.isPending} />
+        ) : (
+          <p className="border-t border-sand-dark pt-4 text-right text-sm text-slate-text">Only the crew’s owners can delete this trip: it takes its saved forecasts and check-ins with it.</p>
+        )
+      ) : null}
     </form>
   );
 }

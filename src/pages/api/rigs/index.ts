@@ -1,4 +1,4 @@
-import { crewForNewRig } from '../../../server/access';
+import { crewAccess, crewForNewRig } from '../../../server/access';
 import { db } from '../../../server/db';
 import { json, parseWith, readJson, requireUser, route } from '../../../server/http';
 import { createRig, listRigs } from '../../../server/rigs';
@@ -15,6 +15,6 @@ export const POST = route(async (ctx) => {
   const user = requireUser(ctx);
   const input = parseWith(rigInputSchema, await readJson(ctx.request));
   const crewId = await crewForNewRig(db, user, input.crewId);
-  const rig = await createRig(db, user.id, crewId, input);
+  const rig = await createRig(db, user.id, crewId, input, (await crewAccess(db, user, crewId, 'read')) === 'owner');
   return json(rig, 201, { location: `/api/rigs/${rig.id}` });
 });

@@ -19,8 +19,8 @@ export const GET = route(async (ctx) => {
 export const POST = route(async (ctx) => {
   const user = requireUser(ctx);
   const input = parseWith(tripInputSchema, await readJson(ctx.request));
-  const { rig } = await rigAccessByField(db, user, input.rigId, 'write');
+  const { rig, role } = await rigAccessByField(db, user, input.rigId, 'write');
   checkItinerary(rig.bank, input.stops, input.drives);
-  const trip = await createTrip(db, user.id, rig, input);
+  const trip = await createTrip(db, user.id, rig, input, role === 'owner');
   return json(trip, 201, { location: `/api/trips/${trip.id}` });
 });

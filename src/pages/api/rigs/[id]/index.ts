@@ -8,22 +8,25 @@ import { rigPatchSchema } from '../../../../domain/rigs/rigs.schema';
 /** One rig. */
 export const GET = route(async (ctx) => {
   const user = requireUser(ctx);
-  const { rig, canWrite } = await rigAccess(db, user, ctx.params.id!, 'read');
-  return json(toRigDto(rig, canWrite));
+  const { rig, canWrite, role } = await rigAccess(db, user, ctx.params.id!, 'read');
+  return json(toRigDto(rig, canWrite, role === 'owner'));
 });
 
 /** Changes the fields sent; `version` is the one read (409 with the current rig when stale). */
 export const PATCH = route(async (ctx) => {
   const user = requireUser(ctx);
-  const { rig } = await rigAccess(db, user, ctx.params.id!, 'write');
+  const { rig, role } = await rigAccess(db, user, ctx.params.id!, 'write');
   const patch = parseWith(rigPatchSchema, await readJson(ctx.request));
-  return json(await updateRig(db, rig.id, patch));
+  return json(await updateRig(db, rig.id, patch, role === 'owner'));
 });
 
-/** Deletes the rig with its loads and trips; `?version=N` (or If-Match) is the one read. */
+/**
+ * Deletes the rig with its loads, trips, saved forecasts and check-ins (crew owners only; restorable for
+ * 30 days); `?version=N` (or If-Match) is the one read.
+ */
 export const DELETE = route(async (ctx) => {
   const user = requireUser(ctx);
-  const { rig } = await rigAccess(db, user, ctx.params.id!, 'write');
-  await deleteRig(db, rig.id, versionFrom(ctx.url, ctx.request.headers));
+  const { rig } = await rigAccess(db, user, ctx.params.id!, 'delete');
+  await deleteRig(db, rig.id, versionFrom(ctx.url, ctx.request.headers), user.id);
   return new Response(null, { status: 204 });
 });
