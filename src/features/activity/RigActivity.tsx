@@ -7,6 +7,7 @@ import { ApiError } from '../../lib/query-client';
 import type { ActivityDto } from '../../domain/crews/crews.schema';
 import { loadKeys } from '../loads/loads.queries';
 import { activityKeys, activityQuery } from './activity.queries';
+import { formatTemp, type Units } from '../../lib/units';
 
 const FIELD_LABEL: Record<string, string> = {
   name: 'name',
@@ -23,12 +24,12 @@ const FIELD_LABEL: Record<string, string> = {
   position: 'position in the list',
 };
 
-function show(field: string, v: unknown): string {
+function show(field: string, v: unknown, units: Units): string {
   if (v === null || v === undefined || v === '') return '—';
   if (field === 'windows' && Array.isArray(v)) return (v as [number, number][]).map(([a, b]) => `${String(a).padStart(2, '0')}:00–${String(b).padStart(2, '0')}:00`).join(', ');
   if (field === 'watts') return `${v} W`;
   if (field === 'dutyPct') return `${v} %`;
-  if (field === 'setpointC') return `${v} °C`;
+  if (field === 'setpointC') return typeof v === 'number' ? formatTemp(v, units) : String(v);
   if (field === 'supply') return String(v).toUpperCase();
   if (typeof v === 'boolean') return v ? 'yes' : 'no';
   return String(v);
@@ -37,7 +38,7 @@ function show(field: string, v: unknown): string {
 const VERB: Record<ActivityDto['action'], string> = { added: 'added', changed: 'changed', removed: 'removed', imported: 'imported' };
 const DOT: Record<ActivityDto['action'], string> = { added: 'bg-moss', imported: 'bg-moss', changed: 'bg-sun', removed: 'bg-ember' };
 
-function Entry({ e }: { e: ActivityDto }) {
+function Entry({ e, units }: { e: ActivityDto; units: Units }) {
   const changed = e.action === 'changed' ? Object.entries(e.changes) : [];
   return (
     <li className="relative pl-6" data-activity={e.action}>
@@ -50,7 +51,7 @@ function Entry({ e }: { e: ActivityDto }) {
         <ul className="mt-0.5 text-sm text-slate-text">
           {changed.map(([field, [before, after]]) => (
             <li key={field}>
-              {FIELD_LABEL[field] ?? field}: {show(field, before)} → <span className="font-semibold text-dusk">{show(field, after)}</span>
+              {FIELD_LABEL[field] ?? field}: {show(field, before, units)} → <span className="font-semibold text-dusk">{show(field, after, units)}</span>
             </li>
           ))}
         </ul>
@@ -63,7 +64,7 @@ function Entry({ e }: { e: ActivityDto }) {
  * The rig page's Activity section: who added, changed or removed which load, and when, newest
  * first. Mount it with `<RigActivity client:load rigId={id} />`.
  */
-function RigActivity({ rigId }: { rigId: string }) {
+function RigActivity({ rigId, units = 'metric' }: { rigId: string; units?: Units }) {
   const q = useInfiniteQuery(activityQuery(rigId));
   const qc = useQueryClient();
   // Every load write adds an entry: when the rig's load list changes on this page, read the trail again.
@@ -106,7 +107,7 @@ function RigActivity({ rigId }: { rigId: string }) {
             {days.map((d) => (
               <li key={d.day.toISOString()}>
                 <h3 className="mb-2 text-sm font-extrabold uppercase tracking-wide text-slate-text">{format(d.day, 'EEE d MMM yyyy')}</h3>
-                <ul className="space-y-2 border-l-2 border-sand-dark pl-3">{d.items.map((e) => <Entry key={e.id} e={e} />)}</ul>
+                <ul className="space-y-2 border-l-2 border-sand-dark pl-3">{d.items.map((e) => <Entry key={e.id} e={e} units={units} />)}</ul>
               </li>
             ))}
           </ol>

@@ -4,6 +4,7 @@ import { isConflict } from '../../lib/query-client';
 import { checkInInputSchema, type CheckInDto, type CheckInOutcome, type PreviousOutcome } from '../../domain/checkins/checkins.schema';
 import { restingAdvice } from '../../domain/checkins/ocv';
 import { EmptyState, ErrorState } from '../../components/ui/States';
+import { AskFirst } from '../../components/ui/AskFirst';
 import SocChart from '../forecast/SocChart';
 import { forecastQueries } from '../forecast/forecast.queries';
 import { formatRowTime } from '../../lib/format';
@@ -396,9 +397,7 @@ function EntryRow({ entry, canEdit, onDelete, deleting }: { entry: Entry; canEdi
       </div>
       {badge ? <span className={`self-start rounded-full px-3 py-1 text-sm font-bold sm:self-center ${badge.cls}`}>{badge.text}</span> : null}
       {canEdit && entry.status === 'saved' ? (
-        <button type="button" className="btn btn-quiet self-start text-sm sm:self-center" onClick={() => { if (confirm('Delete this check-in?')) onDelete(); }} disabled={deleting}>
-          {deleting ? 'Deleting…' : 'Delete'}
-        </button>
+        <AskFirst className="self-start sm:self-center" buttonClassName="btn btn-quiet self-start text-sm sm:self-center" label={deleting ? 'Deleting…' : 'Delete'} ariaLabel="Delete this check-in" question="Delete this check-in and its re-forecast?" confirmLabel="Delete" onConfirm={onDelete} busy={deleting} />
       ) : null}
     </li>
   );

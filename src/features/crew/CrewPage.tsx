@@ -5,6 +5,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { formatDistanceToNowStrict } from 'date-fns';
 import { withQueryClient } from '../../components/ui/QueryProvider';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
+import { AskFirst } from '../../components/ui/AskFirst';
 import { ConflictNotice } from '../../components/ui/ConflictNotice';
 import { Field, describedBy } from '../../components/ui/Field';
 import { ApiError, isConflict } from '../../lib/query-client';
@@ -190,10 +191,7 @@ function MemberRow({ crew, member, onNotice }: { crew: CrewDetailDto; member: Me
       void refresh();
     },
   });
-  const confirmRemove = () => {
-    const text = member.isYou ? `Leave the crew “${crew.name}”? You will no longer see its rigs and trips.` : `Remove ${member.name} from “${crew.name}”? They will no longer see its rigs and trips.`;
-    if (window.confirm(text)) remove.mutate();
-  };
+  const removeQuestion = member.isYou ? `Leave the crew “${crew.name}”? You will no longer see its rigs and trips.` : `Remove ${member.name} from “${crew.name}”? They will no longer see its rigs and trips.`;
 
   return (
     <li className="flex flex-col gap-3 py-4 sm:flex-row sm:items-center sm:justify-between" data-member={member.email}>
@@ -222,9 +220,7 @@ function MemberRow({ crew, member, onNotice }: { crew: CrewDetailDto; member: Me
           <RoleBadge role={member.role} />
         )}
         {(isOwner || member.isYou) && !lastOwner ? (
-          <button type="button" className="btn btn-quiet text-alert" onClick={confirmRemove} disabled={remove.isPending}>
-            {member.isYou ? 'Leave crew' : 'Remove'}
-          </button>
+          <AskFirst buttonClassName="btn btn-quiet text-alert" label={member.isYou ? 'Leave crew' : 'Remove'} question={removeQuestion} confirmLabel={member.isYou ? 'Leave crew' : 'Remove'} onConfirm={() => remove.mutate()} busy={remove.isPending} />
         ) : null}
       </div>
     </li>

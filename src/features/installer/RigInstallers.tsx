@@ -5,6 +5,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { format } from 'date-fns';
 import { withQueryClient } from '../../components/ui/QueryProvider';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
+import { AskFirst } from '../../components/ui/AskFirst';
 import { Field, describedBy } from '../../components/ui/Field';
 import { ApiError } from '../../lib/query-client';
 import { grantCreateSchema, type GrantCreateInput, type GrantDto, type ShareInviteDto } from '../../domain/crews/crews.schema';
@@ -35,16 +36,14 @@ function GrantRow({ grant, canManage, onDone }: { grant: GrantDto; canManage: bo
         </p>
       </div>
       {canManage ? (
-        <button
-          type="button"
-          className="btn btn-quiet text-alert"
-          disabled={revoke.isPending}
-          onClick={() => {
-            if (window.confirm(`Take ${grant.installer.name}’s access to this rig away? They will no longer see it, its loads, trips or forecasts.`)) revoke.mutate();
-          }}
-        >
-          {revoke.isPending ? 'Revoking…' : 'Revoke access'}
-        </button>
+        <AskFirst
+          buttonClassName="btn btn-quiet text-alert"
+          label={revoke.isPending ? 'Revoking…' : 'Revoke access'}
+          question={`Take ${grant.installer.name}’s access to this rig away? They will no longer see it, its loads, trips or forecasts.`}
+          confirmLabel="Revoke access"
+          onConfirm={() => revoke.mutate()}
+          busy={revoke.isPending}
+        />
       ) : null}
     </li>
   );
@@ -73,16 +72,14 @@ function InvitedRow({ invite, canManage, onDone }: { invite: ShareInviteDto; can
         </p>
       </div>
       {canManage ? (
-        <button
-          type="button"
-          className="btn btn-quiet text-alert"
-          disabled={withdraw.isPending}
-          onClick={() => {
-            if (window.confirm(`Withdraw the share with ${invite.email}? If an installer has this e-mail, they will no longer see this rig.`)) withdraw.mutate();
-          }}
-        >
-          {withdraw.isPending ? 'Withdrawing…' : 'Withdraw'}
-        </button>
+        <AskFirst
+          buttonClassName="btn btn-quiet text-alert"
+          label={withdraw.isPending ? 'Withdrawing…' : 'Withdraw'}
+          question={`Withdraw the share with ${invite.email}? If an installer has this e-mail, they will no longer see this rig.`}
+          confirmLabel="Withdraw"
+          onConfirm={() => withdraw.mutate()}
+          busy={withdraw.isPending}
+        />
       ) : null}
     </li>
   );

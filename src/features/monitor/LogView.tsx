@@ -3,6 +3,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { ApiError, isConflict } from '../../lib/query-client';
 import { ConflictNotice } from '../../components/ui/ConflictNotice';
 import { ErrorState, LoadingState } from '../../components/ui/States';
+import { AskFirst } from '../../components/ui/AskFirst';
 import type { Plan } from '../../engine';
 import { parasiticWorking, plannedNightDraw, readParasiticWatts, type NightBaseline } from '../../domain/monitor/baseline';
 import type { MonitorLogDetail } from '../../domain/monitor/monitor.schema';
@@ -18,10 +19,11 @@ import { deleteLog, fetchReadings, originalUrl } from './monitor.api';
 import { monitorKeys, monitorQueries } from './monitor.queries';
 import { formatBytes, formatDay, formatReadingTime } from '../../lib/format';
 import MeasuredChart from './MeasuredChart';
+import { formatTemp, tempUnit, toDisplayTemp, type Units } from '../../lib/units';
 import { at } from '../../lib/invariant';
 
 /** One saved log: what it tells about the rig, and how it compares with a saved forecast. */
-export default function LogView({ id, rig, onDeleted }: { id: string; rig: RigDto; onDeleted: () => void }) {
+export default function LogView({ id, rig, onDeleted, units = 'metric' }: { id: string; rig: RigDto; onDeleted: () => void; units?: Units }) {
   const qc = useQueryClient();
   const q = useQuery(monitorQueries.detail(id));
   const remove = useMutation({
@@ -45,17 +47,15 @@ export default function LogView({ id, rig, onDeleted }: { id: string; rig: RigDt
         </div>
         <div className="flex gap-2"><a className="btn btn-quiet text-sm" href={originalUrl(d.id)} download>Download the file</a>
         {rig.canEdit ? (
-          <button type="button" className="btn btn-quiet text-sm" disabled={remove.isPending} onClick={() => { if (confirm(`Delete the log "${d.name}" and its readings?`)) remove.mutate(d.version); }}>
-            {remove.isPending ? 'Deleting…' : 'Delete'}
-          </button>
+          <AskFirst buttonClassName="btn btn-quiet text-sm" label={remove.isPending ? 'Deleting…' : 'Delete'} ariaLabel={`Delete the log ${d.name}`} question={`Delete the log “${d.name}” and its readings?`} confirmLabel="Delete" onConfirm={() => remove.mutate(d.version)} busy={remove.isPending} />
         ) : null}
         </div>
       </header>
       {remove.isError ? <ErrorState error={remove.error} title="The log was not deleted." /> : null}
-      <NightDraw log={d} rig={rig} />
+      <NightDraw log={d} rig={rig} units={units} />
       <Days log={d} rig={rig} />
       <AgainstForecast log={d} />
-      <Readings log={d} />
+      <Readings log={d} units={units} />
     </article>
   );
 }
@@ -64,17 +64,17 @@ function w(x: number): string {
   return `${Math.round(x)} W`;
 }
 
-function NightDraw({ log, rig }: { log: MonitorLogDetail; rig: RigDto }) {
+function NightDraw({ log, rig, units }: { log: MonitorLogDetail; rig: RigDto; units: Units }) {
   const b = log.baseline;
   return (
     <section className="card space-y-3 p-4" aria-labelledby={`night-${log.id}`}>
       <h4 id={`night-${log.id}`} className="text-base font-extrabold">Night-time draw</h4>
-      {b.ok ? <Baseline baseline={b.baseline} log={log} rig={rig} /> : <p className="text-slate-text">{b.reason}</p>}
+      {b.ok ? <Baseline baseline={b.baseline} log={log} rig={rig} units={units} /> : <p className="text-slate-text">{b.reason}</p>}
     </section>
   );
 }
 
-function Baseline({ baseline, log, rig }: { baseline: NightBaseline; log: MonitorLogDetail; rig: RigDto }) {
+function Baseline({ baseline, log, rig, units }: { baseline: NightBaseline; log: MonitorLogDetail; rig: RigDto; units: Units }) {
   const nominal = rig.bank.nominalVolts ?? (rig.bank.chemistry === 'lifepo4' ? 12.8 : 12);
   const measuredW = baseline.drawA * nominal;
   const loads = useQuery(loadsQuery(rig.id));
@@ -93,12 +93,12 @@ function Baseline({ baseline, log, rig }: { baseline: NightBaseline; log: Monito
           ))}
         </ul>
       ) : null}
-      {loads.data ? <Parasitic baseline={baseline} log={log} rig={rig} loads={loads.data} nominal={nominal} /> : loads.isError ? <ErrorState error={loads.error} title="Couldn't load the rig's loads." /> : null}
+      {loads.data ? <Parasitic baseline={baseline} log={log} rig={rig} loads={loads.data} nominal={nominal} units={units} /> : loads.isError ? <ErrorState error={loads.error} title="Couldn't load the rig's loads." /> : null}
     </>
   );
 }
 
-function Parasitic({ baseline, log, rig, loads, nominal }: { baseline: NightBaseline; log: MonitorLogDetail; rig: RigDto; loads: LoadDto[]; nominal: number }) {
+function Parasitic({ baseline, log, rig, loads, nominal, units }: { baseline: NightBaseline; log: MonitorLogDetail; rig: RigDto; loads: LoadDto[]; nominal: number; units: Units }) {
   const qc = useQueryClient();
   const target = loads.find((l) => l.standby) ?? null;
   const others = loads.filter((l) => l.id !== target?.id);
@@ -184,7 +184,7 @@ function Parasitic({ baseline, log, rig, loads, nominal }: { baseline: NightBase
         </div>
       </dl>
       <p className="text-sm">
-        Your load list schedules <strong>{w(planned.watts)}</strong> in those hours without {target ? `“${target.name}”` : 'a standby load'} (CPAP, furnace, fridge and the like, at {planned.ambientC} °C{log.nightTempC === null ? ', as the log has no temperature' : ', the log’s night temperature'}).{' '}
+        Your load list schedules <strong>{w(planned.watts)}</strong> in those hours without {target ? `“${target.name}”` : 'a standby load'} (CPAP, furnace, fridge and the like, at {formatTemp(planned.ambientC, units)}{log.nightTempC === null ? ', as the log has no temperature' : ', the log’s night temperature'}).{' '}
         {suggestion > 0 ? (
           <>The rest is draw the list does not explain: detectors, control boards, radio memory, an inverter left on.</>
         ) : (
@@ -340,7 +340,7 @@ function AgainstForecast({ log }: { log: MonitorLogDetail }) {
 const PAGE = 24;
 
 /** The readings as stored, a page at a time (the server never sends them all at once). */
-function Readings({ log }: { log: MonitorLogDetail }) {
+function Readings({ log, units }: { log: MonitorLogDetail; units: Units }) {
   // Cursors of the pages seen so far: [null] is the first page; the last entry is the page shown.
   const [cursors, setCursors] = useState<(number | null)[]>([null]);
   const after = cursors.at(-1) ?? null;
@@ -375,7 +375,7 @@ function Readings({ log }: { log: MonitorLogDetail }) {
                   {log.has.volts ? <th scope="col" className="py-1 pr-3 text-right">V</th> : null}
                   {log.has.amps ? <th scope="col" className="py-1 pr-3 text-right">A</th> : null}
                   {log.has.soc ? <th scope="col" className="py-1 pr-3 text-right">SOC %</th> : null}
-                  {log.has.temperature ? <th scope="col" className="py-1 text-right">°C</th> : null}
+                  {log.has.temperature ? <th scope="col" className="py-1 text-right">{tempUnit(units)}</th> : null}
                 </tr>
               </thead>
               <tbody>
@@ -385,7 +385,7 @@ function Readings({ log }: { log: MonitorLogDetail }) {
                     {log.has.volts ? <td className="py-1 pr-3 text-right">{r.volts?.toFixed(2) ?? '–'}</td> : null}
                     {log.has.amps ? <td className="py-1 pr-3 text-right">{r.amps?.toFixed(2) ?? '–'}</td> : null}
                     {log.has.soc ? <td className="py-1 pr-3 text-right">{r.socPct?.toFixed(1) ?? '–'}</td> : null}
-                    {log.has.temperature ? <td className="py-1 text-right">{r.tempC?.toFixed(1) ?? '–'}</td> : null}
+                    {log.has.temperature ? <td className="py-1 text-right">{typeof r.tempC === 'number' ? toDisplayTemp(r.tempC, units).toFixed(1) : '–'}</td> : null}
                   </tr>
                 ))}
               </tbody>

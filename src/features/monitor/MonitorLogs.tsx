@@ -7,17 +7,18 @@ import LogView from './LogView';
 import { monitorQueries } from './monitor.queries';
 import UploadLog from './UploadLog';
 import { IslandQueryProvider } from '../../components/ui/QueryProvider';
+import type { Units } from '../../lib/units';
 
 /** The rig's Logs section: battery-monitor uploads and what they tell about the rig. */
-export default function MonitorLogs({ rigId }: { rigId: string }) {
+export default function MonitorLogs({ rigId, units = 'metric' }: { rigId: string; units?: Units }) {
   return (
     <IslandQueryProvider>
-      <Inner rigId={rigId} />
+      <Inner rigId={rigId} units={units} />
     </IslandQueryProvider>
   );
 }
 
-function Inner({ rigId }: { rigId: string }) {
+function Inner({ rigId, units }: { rigId: string; units: Units }) {
   const rig = useQuery(rigQuery(rigId));
   const logs = useQuery(monitorQueries.list(rigId));
   const [selected, setSelected] = useState<string | null>(null);
@@ -33,7 +34,7 @@ function Inner({ rigId }: { rigId: string }) {
         <h2 className="text-xl">Logs</h2>
         <p className="mt-1 text-slate-text">Your battery monitor knows what really happened. Upload its log after a trip to lay it over a forecast, read the night-time draw and each day’s amp-hours, and correct the rig’s parasitic draw.</p>
       </div>
-      {rig.data.canEdit ? <UploadLog rigId={rigId} onSaved={setSelected} /> : null}
+      {rig.data.canEdit ? <UploadLog rigId={rigId} onSaved={setSelected} units={units} /> : null}
       {logs.data.length === 0 ? (
         <EmptyState title="No monitor logs yet">{rig.data.canEdit ? 'Upload a CSV export from your battery monitor above.' : 'Logs your crew uploads show here.'}</EmptyState>
       ) : (
@@ -51,7 +52,7 @@ function Inner({ rigId }: { rigId: string }) {
               </ul>
             </nav>
           ) : null}
-          {current ? <LogView key={current} id={current} rig={rig.data} onDeleted={() => setSelected(null)} /> : null}
+          {current ? <LogView key={current} id={current} rig={rig.data} onDeleted={() => setSelected(null)} units={units} /> : null}
         </>
       )}
     </div>

@@ -8,6 +8,7 @@ import { timeExample } from '../../domain/monitor/time';
 import { previewLog, saveLog, type PreviewAnswer } from './monitor.api';
 import { monitorKeys } from './monitor.queries';
 import { formatBytes, formatReadingTime } from '../../lib/format';
+import { tempUnit, toDisplayTemp, type Units } from '../../lib/units';
 
 /** The browser's own IANA zone (the camper's, usually), for a new upload. */
 function browserTimeZone(): string {
@@ -30,7 +31,7 @@ const FORMAT_NAMES: Record<TimeFormat, string> = {
 };
 
 /** Step 1 and 2 of a monitor-log upload: read the file, confirm or change the columns, save. */
-export default function UploadLog({ rigId, onSaved }: { rigId: string; onSaved: (id: string) => void }) {
+export default function UploadLog({ rigId, onSaved, units = 'metric' }: { rigId: string; onSaved: (id: string) => void; units?: Units }) {
   const qc = useQueryClient();
   const [file, setFile] = useState<File | null>(null);
   const [fileError, setFileError] = useState<string | null>(null);
@@ -140,7 +141,7 @@ export default function UploadLog({ rigId, onSaved }: { rigId: string; onSaved: 
           <Detected preview={preview} />
           <MappingForm mapping={mapping} headers={preview.headers} onChange={change} />
           {mappingIssues.length ? <IssueList issues={mappingIssues} /> : null}
-          <PreviewTable preview={preview} timeZone={mapping.timeZone} />
+          <PreviewTable preview={preview} timeZone={mapping.timeZone} units={units} />
           <div className="flex flex-wrap items-center gap-3">
             <button type="button" className="btn btn-primary" disabled={!canSave || save.isPending} onClick={() => save.mutate()}>
               {save.isPending ? 'Saving…' : `Save this log (${preview.count.toLocaleString('en-GB')} readings)`}
@@ -266,7 +267,7 @@ function MappingForm({ mapping: m, headers, onChange }: { mapping: DetectedMappi
   );
 }
 
-function PreviewTable({ preview, timeZone }: { preview: PreviewAnswer; timeZone: string }) {
+function PreviewTable({ preview, timeZone, units }: { preview: PreviewAnswer; timeZone: string; units: Units }) {
   const n = (x: number | null, d: number) => (x === null ? '—' : x.toFixed(d));
   return (
     <div className="space-y-2">
@@ -286,7 +287,7 @@ function PreviewTable({ preview, timeZone }: { preview: PreviewAnswer; timeZone:
                 <th scope="col" className="py-1 pr-3 text-right">Volts</th>
                 <th scope="col" className="py-1 pr-3 text-right">Amps (+ charging)</th>
                 <th scope="col" className="py-1 pr-3 text-right">SOC %</th>
-                <th scope="col" className="py-1 text-right">°C</th>
+                <th scope="col" className="py-1 text-right">{tempUnit(units)}</th>
               </tr>
             </thead>
             <tbody>
@@ -297,7 +298,7 @@ function PreviewTable({ preview, timeZone }: { preview: PreviewAnswer; timeZone:
                   <td className="py-1 pr-3 text-right">{n(s.volts, 2)}</td>
                   <td className="py-1 pr-3 text-right">{s.amps === null ? '—' : `${s.amps > 0 ? '+' : ''}${s.amps.toFixed(2)}`}</td>
                   <td className="py-1 pr-3 text-right">{n(s.socPct, 1)}</td>
-                  <td className="py-1 text-right">{n(s.tempC, 1)}</td>
+                  <td className="py-1 text-right">{n(s.tempC === null ? null : toDisplayTemp(s.tempC, units), 1)}</td>
                 </tr>
               ))}
             </tbody>

@@ -3,6 +3,7 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { ConflictNotice } from '../../components/ui/ConflictNotice';
 import { withQueryClient } from '../../components/ui/QueryProvider';
 import { ErrorState, LoadingState } from '../../components/ui/States';
+import { AskFirst } from '../../components/ui/AskFirst';
 import { asNumber } from '../../components/ui/form';
 import { formatDate, formatMoney, formatNumber } from '../../lib/format';
 import { ApiError, isConflict, type ApiIssue } from '../../lib/query-client';
@@ -540,7 +541,7 @@ function DraftEditor({ p, units }: { p: ProposalDto; units: Units }) {
         <button type="button" className="btn btn-primary" disabled={send.isPending || dirty || nothingToSend} onClick={() => send.mutate()} aria-describedby={nothingToSend ? 'send-needs' : undefined} title={dirty ? 'Save your changes first' : undefined}>
           {send.isPending ? 'Sending…' : 'Send to the crew'}
         </button>
-        <button type="button" className="btn btn-quiet" disabled={remove.isPending} onClick={() => { if (confirm('Delete this draft?')) remove.mutate(); }}>Delete draft</button>
+        <AskFirst label="Delete draft" question="Delete this draft?" confirmLabel="Delete" onConfirm={() => remove.mutate()} busy={remove.isPending} />
         <p role="status" aria-live="polite" className="font-semibold text-moss-deep">{dirty ? 'Unsaved changes.' : status ?? ''}</p>
       </div>
       {nothingToSend ? <p id="send-needs" className="field-hint">Add at least one part or labour line, and save, before sending: an empty proposal is not sent.</p> : null}

@@ -15,10 +15,13 @@ import { rigKeys } from './rigs.queries';
 import { BANK_LOCATION_CHOICES, CHARGER_KINDS, bankToSave, emptyRig, newArray, newCharger, newInverter, rigFormSchema, rigToForm, type RigFormOutput, type RigFormValues } from '../../domain/rigs/rig-form';
 import { COMPASS, CHEMISTRY_PRESETS, MOUNTINGS, applyMounting, maxChargeAmpsFor, mountingOf, nominalForChemistry, presetBank, seriesParallel, type Mounting } from '../../domain/rigs/presets';
 import { DeleteRow, FormProblemBox } from '../../components/ui/SaveProblems';
+import { formatTemp, type Units } from '../../lib/units';
 import { DeletionQuestion } from '../deleted/DeletionQuestion';
 
 interface RigEditorProps {
   rig?: RigDto;
+  /** The reader's units: freezing and typical panel temperatures are stated in them. */
+  units?: Units;
 }
 
 type Ctx = {
@@ -27,6 +30,7 @@ type Ctx = {
   /** A field's message once the camper has left the field or tried to save; nothing before. */
   shown: (path: string) => string | undefined;
   setValue: UseFormSetValue<RigFormValues>;
+  units: Units;
 };
 
 /** Whether the field at a dot path has been left (react-hook-form's touched tree). */
@@ -46,7 +50,7 @@ const rigBody = (v: RigFormOutput) => ({ name: v.name, bank: bankToSave(v.bank),
 const numOrNull = { setValueAs: asNumberOrNull };
 
 /** The power-system form: bank (with chemistry presets and a series/parallel helper), solar arrays, chargers, inverter. */
-export function RigEditor({ rig }: RigEditorProps) {
+export function RigEditor({ rig, units = 'metric' }: RigEditorProps) {
   const qc = useQueryClient();
   const [presetNote, setPresetNote] = useState<string | null>(null);
   const readOnly = rig?.canEdit === false;
@@ -61,7 +65,7 @@ export function RigEditor({ rig }: RigEditorProps) {
   // Adding a panel or charger re-checks the whole list (react-hook-form's field-array rule): its empty
   // boxes would show red before a single key. A message waits until its field is left or the rig is saved.
   const shown = (path: string) => (isSubmitted || touchedAt(touchedFields, path) ? errorAt(errors, path) : undefined);
-  const ctx: Ctx = { register, control, shown, setValue };
+  const ctx: Ctx = { register, control, shown, setValue, units };
 
   const chemistry = useWatch({ control, name: 'bank.chemistry' }) as Chemistry;
   const bankLocation = useWatch({ control, name: 'bank.location' });
@@ -195,11 +199,11 @@ export function RigEditor({ rig }: RigEditorProps) {
         {chemistry === 'lifepo4' ? (
           <label className="flex items-start gap-2">
             <input type="checkbox" className="mt-1.5 h-4 w-4 accent-ember" {...register('bank.selfHeating')} />
-            <span><span className="font-bold">Self-heating LiFePO4</span><br /><span className="field-hint">It warms its cells before charging, so it takes charge below 0 °C.</span></span>
+            <span><span className="font-bold">Self-heating LiFePO4</span><br /><span className="field-hint">It warms its cells before charging, so it takes charge below {formatTemp(0, units)}.</span></span>
           </label>
         ) : null}
         {chemistry === 'lifepo4' && bankLocation !== 'cabin' && !selfHeating ? (
-          <p className="caution text-sm">LiFePO4 must not be charged below freezing: outside in the cold, this bank refuses charge until it warms above 0 °C.</p>
+          <p className="caution text-sm">LiFePO4 must not be charged below freezing: outside in the cold, this bank refuses charge until it warms above {formatTemp(0, units)}.</p>
         ) : null}
 
         <SeriesParallelHelper chemistry={chemistry} onUse={(v, ah) => {
@@ -355,7 +359,7 @@ function SeriesParallelHelper({ chemistry, onUse }: { chemistry: Chemistry; onUs
 }
 
 function ArrayCard({ index, ctx, onRemove }: { index: number; ctx: Ctx; onRemove: () => void }) {
-  const { register, control, shown, setValue } = ctx;
+  const { register, control, shown, setValue, units } = ctx;
   const p = (k: string) => `arrays.${index}.${k}` as const;
   const tiltDeg = useWatch({ control, name: `arrays.${index}.tiltDeg` });
   const azimuthDeg = useWatch({ control, name: `arrays.${index}.azimuthDeg` });
@@ -419,8 +423,8 @@ function ArrayCard({ index, ctx, onRemove }: { index: number; ctx: Ctx; onRemove
         <div className="mt-3 grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
           <NumberField id={id('lossesPct')} label="System losses" unit="%" registration={register(`arrays.${index}.lossesPct`, num)} error={err('lossesPct')} hint="Wiring, dirt, mismatch: 14 % is usual." />
           <NumberField id={id('controllerEfficiencyPct')} label="Controller efficiency" unit="%" registration={register(`arrays.${index}.controllerEfficiencyPct`, num)} error={err('controllerEfficiencyPct')} />
-          <NumberField id={id('tempCoeffPctPerC')} label="Power temperature coefficient" unit="%/°C" signed registration={register(`arrays.${index}.tempCoeffPctPerC`, num)} error={err('tempCoeffPctPerC')} hint="From the panel's label; −0.4 is typical." />
-          <NumberField id={id('nocC')} label="NOCT" unit="°C" registration={register(`arrays.${index}.nocC`, num)} error={err('nocC')} hint="Nominal operating cell temperature; 45 °C is typical." />
+          <NumberField id={id('tempCoeffPctPerC')} label="Power temperature coefficient" unit="%/°C" signed registration={register(`arrays.${index}.tempCoeffPctPerC`, num)} error={err('tempCoeffPctPerC')} hint="From the panel's label, per °C as labels state it; −0.4 is typical." />
+          <NumberField id={id('nocC')} label="NOCT" unit="°C" registration={register(`arrays.${index}.nocC`, num)} error={err('nocC')} hint={`Nominal operating cell temperature, in °C as the panel's label states it; 45 °C${units === 'imperial' ? ` (${formatTemp(45, units)})` : ''} is typical.`} />
           {controller === 'pwm' ? (
             <NumberField id={id('vmpVolts')} label="Panel Vmp" unit="V" registration={register(`arrays.${index}.vmpVolts`, num)} error={err('vmpVolts')} hint="About 18 V for a “12 V” panel; PWM pulls it down to battery voltage." />
           ) : null}

@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { ApiError } from '../../lib/query-client';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
+import { AskFirst } from '../../components/ui/AskFirst';
 import { useDelayed } from '../forecast/useWidth';
 import { formatRowTime } from '../../lib/format';
 import { forecastKeys } from '../forecast/forecast.queries';
@@ -134,9 +135,7 @@ function ForecastRow({ f, tripId, canEdit, picked, onPick, onDelete, deleting }:
       </div>
       <span className={`self-start rounded-full px-3 py-1 text-sm font-bold sm:self-center ${outcome.cls}`}>{outcome.text}</span>
       {canEdit ? (
-        <button type="button" className="btn btn-quiet text-sm" onClick={() => { if (confirm(`Delete the saved forecast "${f.name}"?`)) onDelete(); }} disabled={deleting}>
-          {deleting ? 'Deleting…' : 'Delete'}
-        </button>
+        <AskFirst buttonClassName="btn btn-quiet text-sm" label={deleting ? 'Deleting…' : 'Delete'} ariaLabel={`Delete the saved forecast ${f.name}`} question={`Delete the saved forecast “${f.name}”?`} confirmLabel="Delete" onConfirm={onDelete} busy={deleting} />
       ) : null}
     </li>
   );
