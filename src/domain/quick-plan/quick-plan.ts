@@ -6,6 +6,7 @@ import type { LoadInput } from '../../domain/loads/loads.schema';
 import type { RigInput } from '../../domain/rigs/rigs.schema';
 import type { TripInput } from '../../domain/trips/trips.schema';
 import { SKY_CHOICES } from '../../domain/trips/trips.schema';
+import { typicalLoad } from '../../domain/loads/typical';
 
 // ---------------------------------------------------------------------------------------------
 // Choices
@@ -25,60 +26,36 @@ export const MOUNTINGS = [
 ] as const;
 export type Mounting = (typeof MOUNTINGS)[number]['value'];
 
+/** The engine load of a typical figure (./domain/loads/typical.ts), named as the quick plan names it. */
+function typicalAsLoad(id: string, name: string) {
+  const t = typicalLoad(id);
+  return {
+    name,
+    watts: t.watts,
+    ...(t.quantity !== undefined && t.quantity !== 1 ? { quantity: t.quantity } : {}),
+    ...(t.supply === 'ac' ? { supply: 'ac' as const } : {}),
+    windows: t.windows.map(([a, b]) => [a, b] as [number, number]),
+    dutyPct: t.dutyPct,
+    ...(t.response && t.response !== 'none' ? { response: t.response, setpointC: t.setpointC ?? 18 } : {}),
+  };
+}
+
 /**
- * Common loads with typical draws (trade-notes.md ranges, labelled "typical" on screen: the camper
- * checks the appliance's label). Each is an engine load.
+ * Common loads, each one of the typical figures the load catalogue also uses (labelled "typical" on
+ * screen, with the figure's own line: the camper checks the appliance's label).
  */
-export const LOAD_CATALOGUE = [
-  {
-    id: 'fridge',
-    label: '12 V compressor fridge',
-    typical: '45 W while running, about a third of the time at 20 °C; more in heat',
-    load: { name: 'Compressor fridge', watts: 45, dutyPct: 35, response: 'cooling' as const },
-  },
-  {
-    id: 'lights',
-    label: 'LED lights',
-    typical: '6 fixtures at about 0.1 A, mornings and evenings',
-    load: { name: 'LED lights', watts: 1.5, quantity: 6, windows: [[6, 8], [18, 23]] as [number, number][] },
-  },
-  {
-    id: 'pump',
-    label: 'Water pump',
-    typical: 'about 4 A, a few minutes an hour at mealtimes',
-    load: { name: 'Water pump', watts: 50, windows: [[7, 9], [18, 21]] as [number, number][], dutyPct: 8 },
-  },
-  {
-    id: 'furnace',
-    label: 'Furnace blower',
-    typical: 'about 3 A while it runs; runs more the colder the night',
-    load: { name: 'Furnace blower', watts: 36, response: 'heating' as const, setpointC: 17 },
-  },
-  {
-    id: 'cpap',
-    label: 'CPAP (no humidifier)',
-    typical: 'about 25 W, 22:00–06:00',
-    load: { name: 'CPAP', watts: 25, windows: [[22, 6]] as [number, number][] },
-  },
-  {
-    id: 'phones',
-    label: 'Phones charging',
-    typical: '2 phones at about 0.5 A, 2 hours each evening',
-    load: { name: 'Phones', watts: 6, quantity: 2, windows: [[19, 21]] as [number, number][] },
-  },
-  {
-    id: 'laptop',
-    label: 'Laptop via inverter',
-    typical: 'about 60 W AC through the inverter, working hours',
-    load: { name: 'Laptop (via inverter)', watts: 60, supply: 'ac' as const, windows: [[9, 12], [13, 17]] as [number, number][], dutyPct: 70 },
-  },
-  {
-    id: 'parasitic',
-    label: 'Parasitic draw',
-    typical: 'about 1 A all day: detectors, control boards, radio standby',
-    load: { name: 'Parasitic draw', watts: 13 },
-  },
-] as const;
+export const LOAD_CATALOGUE = (
+  [
+    { id: 'fridge', typicalId: 'compressor-fridge', label: '12 V compressor fridge', name: 'Compressor fridge' },
+    { id: 'lights', typicalId: 'led-lights', label: 'LED lights', name: 'LED lights' },
+    { id: 'pump', typicalId: 'water-pump', label: 'Water pump', name: 'Water pump' },
+    { id: 'furnace', typicalId: 'furnace-blower', label: 'Furnace blower', name: 'Furnace blower' },
+    { id: 'cpap', typicalId: 'cpap-dry', label: 'CPAP (no humidifier)', name: 'CPAP' },
+    { id: 'phones', typicalId: 'phone', label: 'Phones charging', name: 'Phones' },
+    { id: 'laptop', typicalId: 'laptop', label: 'Laptop via inverter', name: 'Laptop (via inverter)' },
+    { id: 'parasitic', typicalId: 'standby', label: 'Parasitic draw', name: 'Parasitic draw' },
+  ] as const
+).map((l) => ({ id: l.id, typicalId: l.typicalId, label: l.label, typical: typicalLoad(l.typicalId).about, load: typicalAsLoad(l.typicalId, l.name) }));
 export type LoadId = (typeof LOAD_CATALOGUE)[number]['id'];
 const LOAD_IDS = LOAD_CATALOGUE.map((l) => l.id) as [LoadId, ...LoadId[]];
 

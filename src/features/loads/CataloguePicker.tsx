@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { formatNumber } from '../../lib/format';
 import type { Units } from '../../lib/units';
-import { CATALOGUE, SURGE_TYPICAL, catalogueToLoad, type CatalogueItem } from '../../domain/loads/catalogue';
+import { CATALOGUE, SURGE_TYPICAL, basisLabel, catalogueToLoad, type CatalogueItem } from '../../domain/loads/catalogue';
 import type { EnergyRig } from '../../domain/loads/energy';
 import { LoadEditor } from './LoadEditor';
 import { loadToForm, type LoadFormOutput } from '../../domain/loads/load-form';
@@ -28,7 +28,8 @@ export function CataloguePicker({ units, rig, add, onClose }: { units: Units; ri
         intro={
           <div className="caution mt-2 text-sm">
             <p><span className="font-bold">Typical — check the label.</span> {picked.about}</p>
-            <p className="mt-1">Typical draw {range(picked)}; we filled in {formatNumber(picked.watts, 1)} W and a usual schedule ({describeWindows(picked.windows)}). Change them to match yours, then confirm.</p>
+            <p className="mt-1">Typical draw {range(picked)}; we filled in {formatNumber(picked.watts, 1)} W and a usual schedule ({describeWindows(picked.windows)}{picked.days === 'drive' ? ', on drive days' : ''}). Change them to match yours, then confirm.</p>
+            <p className="mt-1 text-slate-text">{basisLabel(picked)}.</p>
             {picked.surgeWatts ? (
               <p className="mt-1"><span className="font-bold">Surge {formatNumber(picked.surgeWatts)} W{picked.supply === 'ac' ? ' AC' : ''}: {SURGE_TYPICAL}</span> {picked.surgeAbout}</p>
             ) : null}
