@@ -4,6 +4,7 @@ import { validatePlan, type Forecast, type HourlyRow, type Plan, type ResolvedPl
 import type { LoadDto } from '../domain/loads/loads.schema';
 import type { RigDto } from '../domain/rigs/rigs.schema';
 import type { TripDto } from '../domain/trips/trips.schema';
+import { defaultSnapshotName } from '../domain/forecasts/snapshot-name';
 import { cachedForecast } from './sun-cache';
 import { tripAccess, type Actor, type Need } from './access';
 import { HttpError } from './errors';
@@ -100,7 +101,7 @@ export async function createForecast(
   const result = cachedForecast(plan);
   const id = crypto.randomUUID();
   const createdAt = new Date().toISOString();
-  const name = input.name?.trim() || `Forecast of ${formatStamp(createdAt)}`;
+  const name = input.name?.trim() || defaultSnapshotName(createdAt, plan);
   const { hourly, ...rest } = result;
   const extras = input.extras ? await input.extras(plan, result) : {};
   await db
@@ -139,10 +140,6 @@ export async function forecastTrip(db: Kysely<DB>, input: { trip: TripRow; rig: 
     name: input.name,
     extras: async (plan, result) => ({ weatherSources: sources, band: await bandFor(typed, fill, plan, result) }),
   });
-}
-
-function formatStamp(iso: string): string {
-  return iso.slice(0, 16).replace('T', ' ') + ' UTC';
 }
 
 const listColumns = [

@@ -1,0 +1,27 @@
+// Saved forecasts are named by when they were made, in the local time of the trip's first stop (the
+// camper thinks in camp time, not UTC): "Forecast of Sat 12 Dec, 10:08 (local time at Mesa camp)".
+// The zone is explicit, so the server and the browser print the same words.
+import type { ResolvedPlan } from '../../engine';
+import { formatInstant, isTimeZone } from '../../lib/clock';
+
+/** Names the server gave before names used camp time: "Forecast of 2026-12-12 15:08 UTC". */
+const OLD_DEFAULT = /^Forecast of \d{4}-\d{2}-\d{2} \d{2}:\d{2} UTC$/;
+
+type FirstStop = Pick<ResolvedPlan['stops'][number], 'name' | 'timeZone'>;
+
+/** "Sat 12 Dec, 10:08 (local time at Mesa camp)": an instant in the first stop's zone, named in plain words. */
+export function snapshotTime(createdAt: string, plan: { stops: FirstStop[] }): string {
+  const stop = plan.stops[0];
+  if (!stop || !isTimeZone(stop.timeZone)) return `${formatInstant(createdAt, 'UTC')} (UTC)`;
+  return `${formatInstant(createdAt, stop.timeZone)} (local time at ${stop.name})`;
+}
+
+/** The name a forecast gets when nobody names it. */
+export function defaultSnapshotName(createdAt: string, plan: { stops: FirstStop[] }): string {
+  return `Forecast of ${snapshotTime(createdAt, plan)}`;
+}
+
+/** How a saved forecast is called on the page: its own name, or, for an old UTC default name, the camp-time one. */
+export function snapshotLabel(name: string, createdAt: string, plan: { stops: FirstStop[] }): string {
+  return OLD_DEFAULT.test(name) ? defaultSnapshotName(createdAt, plan) : name;
+}
