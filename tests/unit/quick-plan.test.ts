@@ -139,14 +139,15 @@ describe('quickPlanToRigAndTrip', () => {
 });
 
 describe('toPlace', () => {
-  it('reads the place search’s rows, naming region and country, leaving out numeric region codes', () => {
-    expect(toPlace({ name: 'Moab', country: 'US', adminCode: 'UT', lat: 38.57332, lon: -109.54984, population: 5235, timeZone: 'America/Denver' })).toEqual({
+  it('reads the place search’s rows, naming region and country in words, leaving out numeric region codes it cannot name', () => {
+    expect(toPlace({ name: 'Moab', country: 'US', countryName: 'United States', adminCode: 'UT', region: 'Utah', lat: 38.57332, lon: -109.54984, population: 5235, timeZone: 'America/Denver' })).toEqual({
       name: 'Moab',
-      where: 'UT, US',
+      where: 'Utah, United States',
       lat: 38.57332,
       lon: -109.54984,
       timeZone: 'America/Denver',
     });
-    expect(toPlace({ name: 'Springs', country: 'ZA', adminCode: '06', lat: -26.25, lon: 28.4, population: 1, timeZone: 'Africa/Johannesburg' }).where).toBe('ZA');
+    expect(toPlace({ name: 'Springs', country: 'ZA', countryName: 'South Africa', adminCode: '06', region: '', lat: -26.25, lon: 28.4, population: 1, timeZone: 'Africa/Johannesburg' }).where).toBe('South Africa');
+    expect(toPlace({ name: 'Sault Ste. Marie', country: 'CA', countryName: 'Canada', adminCode: '08', region: 'Ontario', lat: 46.5, lon: -84.3, population: 1, timeZone: 'America/Toronto' }).where).toBe('Ontario, Canada');
   });
 });

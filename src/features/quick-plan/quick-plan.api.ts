@@ -13,10 +13,16 @@ export interface PlaceChoice {
   timeZone: string;
 }
 
-/** A found place for the quick plan. Numeric region codes ("06") mean nothing to a camper and are left out. */
+/** A found place for the quick plan: region and country by name ("Ontario, Canada"); a bare numeric region code ("06") is left out. */
 export function toPlace(p: FoundPlace): PlaceChoice {
-  const where = [p.adminCode, p.country].filter((x) => x && !/^\d+$/.test(x)).join(', ');
+  const where = placeWhere(p);
   return { name: p.name, where, lat: p.lat, lon: p.lon, timeZone: p.timeZone };
+}
+
+/** "Ontario, Canada" — a place's region and country in words; a region the gazetteer cannot name shows its code unless it is a bare number. */
+export function placeWhere(p: Pick<FoundPlace, 'region' | 'adminCode' | 'countryName' | 'country'>): string {
+  const region = p.region || (/^\d+$/.test(p.adminCode) ? '' : p.adminCode);
+  return [region, p.countryName || p.country].filter(Boolean).join(', ');
 }
 
 /** Searches places by name (`GET /api/places?q=`). */

@@ -3,6 +3,7 @@ import { useQuery } from '@tanstack/react-query';
 import { formatNumber } from '../../lib/format';
 import type { Place } from './trips.api';
 import { placesQuery } from './trips.queries';
+import { placeWhere } from '../quick-plan/quick-plan.api';
 
 /** Waits until typing pauses before a value is used. */
 function useDebounced<T>(value: T, ms: number): T {
@@ -14,7 +15,8 @@ function useDebounced<T>(value: T, ms: number): T {
   return v;
 }
 
-export const placeLabel = (p: Place) => [p.name, p.adminCode, p.country].filter(Boolean).join(', ');
+/** "Sault Ste. Marie, Ontario, Canada": the name, then region and country in words. */
+export const placeLabel = (p: Place) => [p.name, placeWhere(p)].filter(Boolean).join(', ');
 
 /**
  * A place search box (an accessible combobox): types ahead against the offline gazetteer after a
@@ -95,7 +97,7 @@ export function PlaceSearch({ id, label, onPick }: { id: string; label: string; 
               onClick={() => pick(p)}
             >
               <span className="font-bold">{p.name}</span>
-              <span className="text-slate-text">, {[p.adminCode, p.country].filter(Boolean).join(', ')}</span>
+              <span className="text-slate-text">, {placeWhere(p)}</span>
               <span className="block text-xs text-slate-text">{formatNumber(p.lat, 3)}, {formatNumber(p.lon, 3)} · {p.timeZone}{p.population ? ` · ${formatNumber(p.population)} people` : ''}</span>
             </li>
           ))}
