@@ -1,10 +1,10 @@
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
 import { useQuery } from '@tanstack/react-query';
 import { runTripForecast } from '../trip-forecasts/trip-forecasts.api';
 import { ApiError } from '../../lib/query-client';
 import ForecastView from './ForecastView';
 import { forecastQueries } from './forecast.queries';
-import type { SavedForecast } from './forecast.api';
+import { savedForecastFromJson, type SavedForecast } from './forecast.api';
 import { useDelayed } from './useWidth';
 import { IslandQueryProvider } from '../../components/ui/QueryProvider';
 import type { Units } from '../../lib/units';
@@ -16,6 +16,8 @@ export interface ForecastFromApiProps {
   showMeta?: boolean;
   /** The forecast as the page read it on the server: rendered at once, no loading state. */
   initial?: SavedForecast;
+  /** The same as one string (`savedForecastToJson`: hours as columns), as the forecast page sends it. */
+  initialJson?: string;
   /** The engine's revision now (the page passes it, so this island does not load the engine). */
   currentEngineRevision?: number;
   /** Whether the user may run the trip's forecast again (not a viewer or an installer). */
@@ -26,9 +28,11 @@ export interface ForecastFromApiProps {
 
 /** A saved forecast loaded by id, with loading and error states — never a blank chart. */
 export default function ForecastFromApi(props: ForecastFromApiProps) {
+  const { initialJson, initial: given } = props;
+  const initial = useMemo(() => given ?? (initialJson ? savedForecastFromJson(initialJson) : undefined), [given, initialJson]);
   return (
     <IslandQueryProvider>
-      <Loaded {...props} />
+      <Loaded {...props} initial={initial} />
     </IslandQueryProvider>
   );
 }

@@ -1,6 +1,6 @@
 // Plain fetchers of the forecast area (no React).
 import type { Forecast, Plan, ResolvedPlan } from '../../engine';
-import { fromColumns, type ColumnarForecast } from '../../lib/forecast-columns';
+import { fromColumns, toColumns, type ColumnarForecast } from '../../lib/forecast-columns';
 import { apiFetch } from '../../lib/query-client';
 
 /** A saved forecast as `GET /api/forecasts/:id` returns it. */
@@ -25,4 +25,20 @@ export function fetchForecast(id: string, signal?: AbortSignal): Promise<SavedFo
 /** Forecasts a plan without saving it (anonymous, rate limited): `POST /api/forecasts/preview`, hours as columns. */
 export async function previewForecast(plan: Plan, signal?: AbortSignal): Promise<Forecast> {
   return fromColumns(await apiFetch<ColumnarForecast>('/api/forecasts/preview?hourly=columns', { method: 'POST', json: plan, signal }));
+}
+
+/**
+ * A saved forecast as one JSON string with its hours as columns (src/lib/forecast-columns.ts): how
+ * the forecast page hands it to its island. Astro writes an object prop value by value, each
+ * tagged, into the page (about 5 times the JSON, and the largest cost of rendering the page); a
+ * string prop is written once.
+ */
+export function savedForecastToJson(saved: SavedForecast): string {
+  return JSON.stringify({ ...saved, forecast: toColumns(saved.forecast) });
+}
+
+/** The saved forecast back from `savedForecastToJson`. */
+export function savedForecastFromJson(text: string): SavedForecast {
+  const s = JSON.parse(text) as Omit<SavedForecast, 'forecast'> & { forecast: ColumnarForecast };
+  return { ...s, forecast: fromColumns(s.forecast) };
 }
