@@ -15,7 +15,7 @@ export type LoadChanges = z.output<typeof loadPatchSchema>;
 const FIELDS = ['name', 'watts', 'quantity', 'supply', 'windows', 'dutyPct', 'days', 'response', 'setpointC', 'location', 'surgeWatts', 'note', 'standby', 'position'] as const;
 type Field = (typeof FIELDS)[number];
 
-type LoadWithAuthor = LoadRow & { added_by_name: string | null };
+type LoadWithAuthor = LoadRow & { added_by_name: string | null; updated_by_name?: string | null };
 
 /** A load row (with its author's name) as the API shows it. */
 export function toLoadDto(row: LoadWithAuthor): LoadDto {
@@ -37,6 +37,8 @@ export function toLoadDto(row: LoadWithAuthor): LoadDto {
     standby: row.standby === 1,
     position: row.position,
     addedBy: row.added_by === null ? null : { id: row.added_by, name: row.added_by_name ?? '' },
+    // Who saved it last (migration 0010), so a stale edit can say whose change it met; null before it was recorded.
+    updatedBy: row.updated_by == null ? null : { id: row.updated_by, name: row.updated_by_name ?? '' },
     version: row.version,
     createdAt: row.created_at,
     updatedAt: row.updated_at,
@@ -44,7 +46,12 @@ export function toLoadDto(row: LoadWithAuthor): LoadDto {
 }
 
 function withAuthor(db: Kysely<DB>) {
-  return db.selectFrom('loads').leftJoin('user', 'user.id', 'loads.added_by').selectAll('loads').select('user.name as added_by_name');
+  return db
+    .selectFrom('loads')
+    .leftJoin('user', 'user.id', 'loads.added_by')
+    .leftJoin('user as changer', 'changer.id', 'loads.updated_by')
+    .selectAll('loads')
+    .select(['user.name as added_by_name', 'changer.name as updated_by_name']);
 }
 
 async function loadDto(db: Kysely<DB>, id: string): Promise<LoadDto | null> {
@@ -144,6 +151,7 @@ async function insertLoads(db: Kysely<DB>, rigId: string, userId: string, values
       standby: v.standby ? 1 : 0,
       position: v.position ?? position++,
       added_by: userId,
+      updated_by: userId,
       created_at: now,
       updated_at: now,
     }));
@@ -238,7 +246,7 @@ export async function updateLoad(db: Kysely<DB>, loadId: string, userId: string,
     const now = nowIso();
     const res = await trx
       .updateTable('loads')
-      .set((eb) => ({ ...columnsOf(values), version: eb('version', '+', 1), updated_at: now }))
+      .set((eb) => ({ ...columnsOf(values), version: eb('version', '+', 1), updated_at: now, updated_by: userId }))
       .where('id', '=', loadId)
       .where('version', '=', version)
       .executeTakeFirst();

@@ -1,9 +1,11 @@
 import { useState, type MutableRefObject, type ReactNode } from 'react';
 import { formatDistanceToNowStrict } from 'date-fns';
+import { deviceZone, formatInstant } from '../../lib/clock';
 
 interface ConflictNoticeProps {
   what: string;
-  theirs: { version: number; updatedAt?: string };
+  /** The row as it is now; `updatedBy` names who saved it (loads record it), so the notice can say who. */
+  theirs: { version: number; updatedAt?: string; updatedBy?: { name: string } | null };
   onKeepMine: () => void;
   onTakeTheirs: () => void;
   busy?: boolean;
@@ -17,9 +19,12 @@ interface ConflictNoticeProps {
 export function ConflictNotice({ what, theirs, onKeepMine, onTakeTheirs, busy, children }: ConflictNoticeProps) {
   const age = theirs.updatedAt ? Date.now() - new Date(theirs.updatedAt).getTime() : NaN;
   const when = !Number.isFinite(age) ? 'while you were editing' : age < 60_000 ? 'just now' : formatDistanceToNowStrict(new Date(theirs.updatedAt!), { addSuffix: true });
+  // Shown only after a save in the browser (never server-rendered), so the browser's own zone is the reader's.
+  const who = theirs.updatedBy?.name?.trim();
+  const at = theirs.updatedAt && Number.isFinite(age) ? formatInstant(theirs.updatedAt, deviceZone(), age < 20 * 3_600_000 ? 'time' : 'dayTime') : null;
   return (
     <div role="alert" className="caution my-3" data-conflict>
-      <p className="font-bold">Someone else saved this {what} {when} (version {theirs.version}).</p>
+      <p className="font-bold">{who ? `${who} changed this ${what}${at ? ` at ${at}` : ` ${when}`} (version ${theirs.version}).` : `Someone else saved this ${what} ${when} (version ${theirs.version}).`}</p>
       <p className="mt-1">Your changes are not saved yet. Keep yours to save them over the other version, or take theirs and drop your edit.</p>
       {children}
       <div className="mt-3 flex flex-wrap gap-2">

@@ -27,6 +27,8 @@ export interface LoadDto extends z.output<typeof loadSchema> {
   standby: boolean;
   position: number;
   addedBy: { id: string; name: string } | null;
+  /** Who saved the load last (null before it was recorded): a stale edit's notice names them. */
+  updatedBy: { id: string; name: string } | null;
   version: number;
   createdAt: string;
   updatedAt: string;

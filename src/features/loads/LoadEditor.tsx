@@ -30,6 +30,8 @@ interface LoadEditorProps {
   onCancel: () => void;
   /** The other version won: show it and close. */
   onTakeTheirs?: (current: LoadDto) => void;
+  /** Someone deleted the load meanwhile: add the camper's edit again as a new load. */
+  addAsNew?: (values: LoadFormOutput) => Promise<void>;
 }
 
 const num = { setValueAs: asNumber };
@@ -47,8 +49,10 @@ function show(key: string, v: unknown, units: Units): string {
 }
 
 /** One load's fields, in place in the table: used to add, edit, and confirm a catalogue item. */
-export function LoadEditor({ idPrefix, initial, units, rig, title, intro, submitLabel, save, onCancel, onTakeTheirs }: LoadEditorProps) {
+export function LoadEditor({ idPrefix, initial, units, rig, title, intro, submitLabel, save, onCancel, onTakeTheirs, addAsNew }: LoadEditorProps) {
   const [formError, setFormError] = useState<string | null>(null);
+  // The camper's edit of a load someone deleted meanwhile, kept for "Add it again as a new load".
+  const [gone, setGone] = useState<LoadFormOutput | null>(null);
   const [conflict, setConflict] = useState<{ current: LoadDto; mine: LoadFormOutput } | null>(null);
   const schema = useMemo(() => loadFormSchemaFor(rig.nominalVolts), [rig.nominalVolts]);
   const form = useForm<LoadFormValues, unknown, LoadFormOutput>({ resolver: zodResolver(schema), defaultValues: initial, mode: 'onTouched' });
@@ -89,6 +93,7 @@ export function LoadEditor({ idPrefix, initial, units, rig, title, intro, submit
 
   const run = async (out: LoadFormOutput, version?: number) => {
     setFormError(null);
+    setGone(null);
     try {
       await save(out, version);
     } catch (e) {
@@ -96,7 +101,7 @@ export function LoadEditor({ idPrefix, initial, units, rig, title, intro, submit
         const current = e.current<LoadDto>();
         if (current) return setConflict({ current, mine: out });
       }
-      if (isNotFound(e)) return setFormError('Someone deleted this load while you were editing it. Cancel, or add it again as a new load.');
+      if (isNotFound(e)) return addAsNew ? setGone(out) : setFormError('Someone deleted this load while you were editing it. Cancel to close the editor.');
       if (e instanceof ApiError) {
         const loose = applyServerIssues(e.issues, setError, `${idPrefix}-`);
         setFormError(loose.length ? `${e.message} ${loose.map((i) => `${i.path}: ${i.message}`).join('; ')}` : e.message);
@@ -111,6 +116,29 @@ export function LoadEditor({ idPrefix, initial, units, rig, title, intro, submit
       <h3 className="text-base font-extrabold">{title}</h3>
       {intro}
       {formError ? <p role="alert" className="caution mt-2 font-semibold text-alert">{formError}</p> : null}
+      {gone && addAsNew ? (
+        <div role="alert" className="caution mt-2" data-load-gone>
+          <p className="font-bold">Someone deleted this load while you were editing it.</p>
+          <p className="mt-1">Your changes are not saved. Add them again as a new load, or cancel to leave it deleted.</p>
+          <div className="mt-3 flex flex-wrap gap-2">
+            <button
+              type="button"
+              className="btn btn-primary"
+              disabled={isSubmitting}
+              onClick={() => {
+                const mine = gone;
+                void addAsNew(mine).then(
+                  () => setGone(null),
+                  (e: unknown) => setFormError(e instanceof Error ? e.message : 'Could not add the load. Try again.'),
+                );
+              }}
+            >
+              Add it again as a new load
+            </button>
+            <button type="button" className="btn btn-quiet" onClick={onCancel}>Cancel</button>
+          </div>
+        </div>
+      ) : null}
       {conflict ? (
         <ConflictNotice
           what="load"

@@ -206,6 +206,11 @@ function LoadsTable({ rigId, units: unitsProp }: { rigId: string; units: Units }
                           setEditing(null);
                           setStatus(`Showing the other version of ${current.name}.`);
                         }}
+                        addAsNew={async (v) => {
+                          setList((old) => old.filter((x) => x.id !== l.id));
+                          await add(v);
+                          setEditing(null);
+                        }}
                       />
                     </td>
                   </tr>
