@@ -5,18 +5,71 @@ import { formatRowTime, formatWh, pct } from '../../lib/format';
 import { verdict } from '../../domain/forecasts/verdict';
 import type { ForecastWithWeather } from '../../domain/weather/band';
 import { BandChart } from './WeatherPanel';
+import { snapshotDiff, type SnapshotSection } from '../../domain/forecasts/snapshot-diff';
+import { snapshotLabel, snapshotTime } from '../../domain/forecasts/snapshot-name';
+import type { Units } from '../../lib/units';
 
 /** One side of a comparison. */
 export interface CompareSide {
   name: string;
   forecast: Forecast;
   plan: ResolvedPlan;
+  /** When a saved forecast was made (ISO instant): with it, the page names it in the first stop's local time and lists what changed. */
+  createdAt?: string;
+  /** The engine revision that made a saved forecast. */
+  engineRevision?: number;
 }
 
 export interface CompareViewProps {
   a: CompareSide;
   b: CompareSide;
   reserveSocPct?: number | null;
+  /** The reader's units setting (temperatures in the list of changes). */
+  units?: Units;
+}
+
+/** What changed from the earlier saved forecast to the later one, above the overlay. */
+function Changes({ a, b, units }: { a: CompareSide; b: CompareSide; units: Units }) {
+  if (!a.createdAt || !b.createdAt) return null;
+  const [older, newer] = Date.parse(a.createdAt) <= Date.parse(b.createdAt) ? [a, b] : [b, a];
+  const inputs = (s: CompareSide) => ({ plan: s.plan, engineRevision: s.engineRevision ?? s.forecast.engineRevision, weatherSources: (s.forecast as ForecastWithWeather).weatherSources });
+  const sections: SnapshotSection[] = snapshotDiff(inputs(older), inputs(newer), units);
+  const kindWords = { added: 'Added', removed: 'Removed', changed: 'Changed' } as const;
+  return (
+    <section aria-labelledby="compare-changes" className="card p-3 sm:p-5" data-testid="compare-changes">
+      <h2 id="compare-changes" className="mb-1 text-xl">What changed</h2>
+      <p className="mb-2 text-sm text-slate-text">
+        From <strong>{older.name}</strong> (made {snapshotTime(older.createdAt!, older.plan)}) to <strong>{newer.name}</strong> (made {snapshotTime(newer.createdAt!, newer.plan)}).
+      </p>
+      {sections.length === 0 ? (
+        <p data-testid="compare-no-changes">Nothing in the rig, the loads, the trip or its weather changed between the two: the same inputs gave both.</p>
+      ) : (
+        <div className="grid gap-x-6 gap-y-3 md:grid-cols-2">
+          {sections.map((s) => (
+            <div key={s.title} className="min-w-0">
+              <h3 className="text-base font-bold">{s.title}</h3>
+              <ul className="mt-1 space-y-1 text-sm" data-testid={`changes-${s.title.toLowerCase()}`}>
+                {s.changes.map((c, i) => (
+                  <li key={i} className="break-words">
+                    <span className={`mr-1.5 inline-block rounded px-1.5 text-xs font-bold ${c.kind === 'added' ? 'bg-moss/15 text-moss-deep' : c.kind === 'removed' ? 'bg-ember/15 text-alert' : 'bg-sand-dark/60 text-dusk'}`}>
+                      {kindWords[c.kind]}
+                    </span>
+                    <strong>{c.what}</strong>
+                    {c.detail ? `: ${c.detail}` : ''}
+                  </li>
+                ))}
+              </ul>
+            </div>
+          ))}
+        </div>
+      )}
+    </section>
+  );
+}
+
+/** A side named for the page: a saved forecast's old UTC default name becomes the first stop's local time. */
+function named(s: CompareSide): CompareSide {
+  return s.createdAt ? { ...s, name: snapshotLabel(s.name, s.createdAt, s.plan) } : s;
 }
 
 const rows = (reserve: number | null): { label: string; value: (s: CompareSide) => string }[] => [
@@ -55,9 +108,12 @@ function Bands({ a, b }: { a: CompareSide; b: CompareSide }) {
 }
 
 /** Two forecasts: SOC lines overlaid (the second ember dashed) and their summaries side by side. */
-export default function CompareView({ a, b, reserveSocPct = null }: CompareViewProps) {
+export default function CompareView({ a: sideA, b: sideB, reserveSocPct = null, units = 'metric' }: CompareViewProps) {
+  const a = named(sideA);
+  const b = named(sideB);
   return (
     <div className={`space-y-5 ${PRINT_CHARTS}`} data-testid="compare-view">
+      <Changes a={a} b={b} units={units} />
       <section aria-labelledby="compare-soc" className="card p-3 sm:p-5">
         <h2 id="compare-soc" className="mb-1 text-xl">State of charge: {a.name} and {b.name}</h2>
         <SocChart forecast={a.forecast} plan={a.plan} name={a.name} compare={b} reserveSocPct={reserveSocPct} />
