@@ -126,7 +126,8 @@ describe('quickPlanToRigAndTrip', () => {
       ['Parasitic draw', true],
     ]);
     expect(trip.stops).toEqual(plan.stops);
-    expect(trip.name).toBe('Your camp, 2027-10-21');
+    // Named from the place and the month; the form's placeholder place gives the plain fallback (issue 16, item 16).
+    expect(trip.name).toBe('My trip, October 2027');
   });
 
   it('reads the stored plan back, and nothing from empty or broken storage', () => {

@@ -272,6 +272,23 @@ export function readStoredQuickPlan(storage: Pick<Storage, 'getItem'> | undefine
  * Splits a quick plan into what the rig pages save after sign-up: the rig (bank, panels, chargers,
  * inverter), its loads (the parasitic draw marked as standby) and the trip (without its rig id).
  */
+const MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'] as const;
+
+/**
+ * A kept quick plan's trip name: the place and the month it starts ("Lake Verna, December 2026"). The place
+ * is the stop's name up to its first comma (a search result's "Lake Verna, Ontario" reads as Lake Verna); the
+ * form's own placeholder name, or none, gives the plain "My trip, December 2026".
+ */
+export function keptTripName(stopName: string | undefined, arrive: string | undefined): string {
+  const place = (stopName ?? '').split(',')[0]?.trim() ?? '';
+  const known = place !== '' && place.toLowerCase() !== defaultQuickPlan('2000-01-01').placeName.toLowerCase();
+  const m = /^(\d{4})-(\d{2})-\d{2}$/.exec(arrive ?? '');
+  const month = m ? MONTHS[Number(m[2]) - 1] : undefined;
+  const when = m && month ? `${month} ${m[1]}` : '';
+  const name = [known ? place : 'My trip', when].filter(Boolean).join(', ');
+  return name.slice(0, 80);
+}
+
 export function quickPlanToRigAndTrip(plan: Plan): { rig: RigInput; loads: LoadInput[]; trip: Omit<TripInput, 'rigId'> } {
   const stop = plan.stops[0];
   return {
@@ -290,7 +307,7 @@ export function quickPlanToRigAndTrip(plan: Plan): { rig: RigInput; loads: LoadI
       position: i,
     })),
     trip: {
-      name: stop ? `${(stop.name ?? 'Stop 1').slice(0, 80)}, ${stop.arrive}` : 'My trip',
+      name: keptTripName(stop?.name, stop?.arrive),
       stops: plan.stops.map((s) => ({ ...s })),
       drives: (plan.drives ?? []).map((d) => ({ ...d })),
       reserveSocPct: null,
