@@ -77,9 +77,9 @@ function join(crewId: string, who: Who, role: 'editor' | 'viewer'): void {
 let place = 0;
 /**
  * A crew's rig (100 Ah LiFePO4, 300 W of panel, a fridge) and a trip starting two
- * days from the clock at a place of its own (its own weather cache rows).
+ * days (or `arriveInDays`) from the clock at a place of its own (its own weather cache rows).
  */
-async function watchedTrip(owner: Who): Promise<string> {
+async function watchedTrip(owner: Who, arriveInDays = 2): Promise<string> {
   const rig = await call(a, '/api/rigs', {
     method: 'POST',
     who: owner,
@@ -96,7 +96,7 @@ async function watchedTrip(owner: Who): Promise<string> {
     expect(r.status, await r.clone().text()).toBe(201);
   }
   place += 1;
-  const arrive = new Date(clock + 2 * DAY).toISOString().slice(0, 10);
+  const arrive = new Date(clock + arriveInDays * DAY).toISOString().slice(0, 10);
   const trip = await call(a, '/api/trips', {
     method: 'POST',
     who: owner,
@@ -342,6 +342,49 @@ describe('trip watch', () => {
     expect((await watchOf(tripId, owner)).runs).toHaveLength(2);
 
     await turnFakeWeather(weather.url, 'normal');
+    await setWatch(tripId, owner, false);
+  });
+
+  it('compares its first run with the forecast the crew last ran themselves', async () => {
+    const owner = await signUp('Ines Owner');
+    const tripId = await watchedTrip(owner);
+    await turnFakeWeather(weather.url, 'normal');
+    const ran = await call(a, `/api/trips/${tripId}/forecasts`, { method: 'POST', who: owner });
+    expect(ran.status).toBe(201);
+    const theirs = (await ran.json()) as { id: string; forecast: { summary: { firstCutoffAt: string | null } } };
+    expect(theirs.forecast.summary.firstCutoffAt).toBeNull();
+
+    await turnFakeWeather(weather.url, 'storm');
+    expect(await tick(a, advance(6))).toEqual({ ran: 1, changed: 1, mailed: 1 });
+    const w = await watchOf(tripId, owner);
+    expect(w.notice).toMatchObject({ previousVerdict: 'makes-it', forecastId: w.runs[0]!.forecastId });
+    expect(w.notice!.summary).toContain(w.runs[0]!.verdict === 'runs-out' ? 'Runs out' : 'below your');
+    // Their own forecast stays in the trip's list, alone.
+    const list = (await (await call(a, `/api/trips/${tripId}/forecasts`, { who: owner })).json()) as { id: string }[];
+    expect(list.map((f) => f.id)).toEqual([theirs.id]);
+
+    await turnFakeWeather(weather.url, 'normal');
+    await setWatch(tripId, owner, false);
+  });
+
+  it('starts a run during the trip from the latest check-in’s state of charge', async () => {
+    const owner = await signUp('Ana Owner');
+    // Arrived two days ago (15:00 local), four nights.
+    const tripId = await watchedTrip(owner, -2);
+    const at = new Date(clock - 2 * HOUR);
+    for (const [when, socPct] of [[new Date(clock - 20 * HOUR), 90], [at, 35]] as const) {
+      const res = await call(a, `/api/trips/${tripId}/check-ins`, { method: 'POST', who: owner, json: { id: crypto.randomUUID(), at: when.toISOString(), socPct } });
+      expect(res.status, await res.clone().text()).toBe(201);
+    }
+    await turnFakeWeather(weather.url, 'normal');
+    expect(await tick(a, advance(1))).toMatchObject({ ran: 1 });
+    const run = (await watchOf(tripId, owner)).runs[0]!;
+    const saved = (await (await call(a, `/api/forecasts/${run.forecastId}`, { who: owner })).json()) as {
+      forecast: { hourly: { time: string; socPct: number }[]; watch: { fromCheckIn: { socPct: number; atMs: number } | null } };
+    };
+    expect(saved.forecast.watch.fromCheckIn).toMatchObject({ socPct: 35, atMs: at.getTime() });
+    // The run starts at the check-in's hour (Phoenix keeps whole-hour offsets), not at the arrival.
+    expect(Date.parse(saved.forecast.hourly[0]!.time)).toBe(Math.floor(at.getTime() / HOUR) * HOUR);
     await setWatch(tripId, owner, false);
   });
 
