@@ -21,7 +21,7 @@ export interface ChemistryPreset {
  * usually stop at the inverter's 10.5 V default, where furnace and fridge boards also drop out.
  */
 export const CHEMISTRY_PRESETS: Record<Chemistry, ChemistryPreset> = {
-  lifepo4: { ...CHEMISTRY_DEFAULTS.lifepo4, cutoffVolts: 10.0, why: 'Can run near empty (the BMS protects it); must not be charged below 0 °C.' },
+  lifepo4: { ...CHEMISTRY_DEFAULTS.lifepo4, cutoffVolts: 10.0, why: 'Can run near empty (the BMS protects it); must not be charged below freezing.' },
   agm: { ...CHEMISTRY_DEFAULTS.agm, cutoffVolts: 10.5, why: 'Plan on half the rated Ah; the last 20 % charges slowly.' },
   flooded: { ...CHEMISTRY_DEFAULTS.flooded, cutoffVolts: 10.5, why: 'Plan on half the rated Ah; check water levels; charges least efficiently.' },
   gel: { ...CHEMISTRY_DEFAULTS.gel, cutoffVolts: 10.5, why: 'Plan on half the rated Ah; charge gently (lower charge current).' },

@@ -37,7 +37,7 @@ export default function HourlyTable({ forecast, plan, open = false, units = 'met
               return (
                 <tr key={r.time + r.stop} className={`border-t border-sand ${r.unmetWatts > 0 ? 'bg-[#fbebe2]' : ''}`}>
                   <th scope="row" className="whitespace-nowrap px-2 py-1 text-left font-semibold">{formatRowTimeWithZone(r.time, stop?.timeZone)}</th>
-                  <td className="whitespace-nowrap px-2 py-1">{stop?.name}{r.driving ? ' (driving)' : ''}{r.generatorOn ? ' (generator)' : ''}</td>
+                  <td className="min-w-[7rem] px-2 py-1">{stop?.name}{r.driving ? ' (driving)' : ''}{r.generatorOn ? ' (generator)' : ''}</td>
                   <td className="px-2 py-1 text-right">{r.socPct.toFixed(1)}</td>
                   {/* Snapshots saved before engine revision 2 carry no usable charge or lowest volts. */}
                   <td className="px-2 py-1 text-right">{r.usablePct === undefined ? '–' : r.usablePct.toFixed(1)}</td>
