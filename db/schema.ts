@@ -9,6 +9,8 @@ export interface UserTable {
   image: string | null;
   kind: 'camper' | 'installer';
   units: Generated<'metric' | 'imperial'>;
+  /** The zone app-event times are shown in; null until the browser tells it or the user chooses (migration 0016). */
+  timeZone: ColumnType<string | null, string | null | undefined, string | null>;
   createdAt: ColumnType<string | Date, string | Date, string | Date>;
   updatedAt: ColumnType<string | Date, string | Date, string | Date>;
 }

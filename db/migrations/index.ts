@@ -13,6 +13,7 @@ import * as watchLeases from './2026_12_04_0012_watch_leases';
 import * as logOverview from './2026_12_04_0013_log_overview';
 import * as rigLimits from './2026_12_04_0014_rig_limits';
 import * as proposalDocument from './2026_12_04_0011_proposal_document';
+import * as userTimeZone from './2026_12_04_0016_user_time_zone';
 import * as sharedLimits from './2026_12_04_0018_shared_limits';
 import * as tripWatch from './2026_12_04_0015_trip_watch';
 
@@ -36,5 +37,6 @@ export const migrations: Record<string, Migration> = {
   '2026_12_04_0013_log_overview': logOverview,
   '2026_12_04_0014_rig_limits': rigLimits,
   '2026_12_04_0015_trip_watch': tripWatch,
+  '2026_12_04_0016_user_time_zone': userTimeZone,
   '2026_12_04_0018_shared_limits': sharedLimits,
 };

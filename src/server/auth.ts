@@ -41,6 +41,8 @@ export const auth = betterAuth({
     additionalFields: {
       kind: { type: 'string', required: false, defaultValue: 'camper', input: true },
       units: { type: 'string', required: false, defaultValue: 'metric', input: false },
+      // The zone app-event times are shown in (Settings, or the browser's own, sent once); null until then.
+      timeZone: { type: 'string', required: false, input: false },
     },
   },
   session: { expiresIn: 60 * 60 * 24 * 30, updateAge: 60 * 60 * 24 },

@@ -1,5 +1,6 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import { env } from './env';
+import { withZoneName } from '../lib/clock';
 
 // E-mail: every message has a plain-text and an HTML part in Sunreckon's look, and is sent by
 // nodemailer over SMTP (SMTP_URL). Nothing calls `deliver` directly except the outbox, so a
@@ -100,7 +101,8 @@ export function invitationMail(p: { crewName: string; inviterName: string; role:
     ],
     action: { label: 'Join the crew', url: p.url },
     outro: [
-      `The link works once and expires on ${p.expiresAt.toUTCString().replace(/:\d\d GMT$/, ' UTC')}.`,
+      // The invitee's zone is not known yet (they may have no account): the time says it is UTC.
+      `The link works once and expires on ${withZoneName(p.expiresAt, 'UTC', 'dayTimeYear')}.`,
       'If you were not expecting this, ignore this e-mail: nothing happens unless you open the link.',
     ],
   });

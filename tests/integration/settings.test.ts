@@ -13,7 +13,7 @@ describe('PATCH /api/settings', () => {
     const other = await signUp({ name: 'Other Camper' });
     const res = await api('/api/settings', { method: 'PATCH', session: me, json: { units: 'imperial', name: '  Ada R.  ' } });
     expect(res.status).toBe(200);
-    expect(await res.json()).toEqual({ name: 'Ada R.', units: 'imperial' });
+    expect(await res.json()).toEqual({ name: 'Ada R.', units: 'imperial', timeZone: null });
     const db = openTestDb();
     const rows = db.prepare('select id, name, units from user where id in (?, ?)').all(me.userId, other.userId) as { id: string; name: string; units: string }[];
     db.close();
@@ -30,14 +30,14 @@ describe('PATCH /api/settings', () => {
     const me = await signUp({ name: 'Bea' });
     await api('/api/settings', { method: 'PATCH', session: me, json: { units: 'imperial' } });
     const res = await api('/api/settings', { method: 'PATCH', session: me, json: { name: 'Bea K.' } });
-    expect(await res.json()).toEqual({ name: 'Bea K.', units: 'imperial' });
+    expect(await res.json()).toEqual({ name: 'Bea K.', units: 'imperial', timeZone: null });
   });
 
   it.each([
     [{ units: 'kelvin' }, 'units', 'Choose metric or imperial.'],
     [{ name: '   ' }, 'name', 'Enter your name.'],
     [{ name: 'x'.repeat(81) }, 'name', 'Use at most 80 characters.'],
-    [{}, '(body)', 'Send a name or units to change.'],
+    [{}, '(body)', 'Send a name, units or time zone to change.'],
   ])('refuses %j with 400 naming %s', async (body, path, message) => {
     const me = await signUp();
     const res = await api('/api/settings', { method: 'PATCH', session: me, json: body });

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { UNIT_SYSTEMS } from '../../lib/units';
+import { isTimeZone } from '../../lib/clock';
 
 // Accounts: sign-up, sign-in, password reset and the signed-in user's settings. The one place the
 // e-mail and password rules are written; better-auth's own limits (src/server/auth.ts) read these.
@@ -36,16 +37,21 @@ export const newPasswordSchema = z
   .refine((v) => v.password === v.confirm, { path: ['confirm'], message: 'The two passwords differ: type the same password twice.' });
 export type NewPasswordInput = z.input<typeof newPasswordSchema>;
 
-/** PATCH /api/settings: the signed-in user's name and units; send either or both. */
+/** PATCH /api/settings: the signed-in user's name, units and time zone; send any of them. */
 export const settingsSchema = z
   .object({
     name: z.string({ error: 'must be text' }).trim().min(1, { error: 'Enter your name.' }).max(80, { error: 'Use at most 80 characters.' }).optional(),
     units: z.enum(UNIT_SYSTEMS, { error: 'Choose metric or imperial.' }).optional(),
+    timeZone: z.string({ error: 'must be text' }).trim().refine(isTimeZone, { error: 'Choose a time zone from the list, such as America/Vancouver.' }).optional(),
+    /** The browser's own zone, sent once: stored only while the user has none (a choice made in Settings stays). */
+    deviceTimeZone: z.string({ error: 'must be text' }).trim().refine(isTimeZone, { error: 'This device sent a time zone the server does not know.' }).optional(),
   })
-  .refine((s) => s.name !== undefined || s.units !== undefined, { error: 'Send a name or units to change.', path: ['(body)'] });
+  .refine((s) => s.name !== undefined || s.units !== undefined || s.timeZone !== undefined || s.deviceTimeZone !== undefined, { error: 'Send a name, units or time zone to change.', path: ['(body)'] });
 
 export type SettingsInput = z.input<typeof settingsSchema>;
 export interface SettingsDto {
   name: string;
   units: 'metric' | 'imperial';
+  /** The zone app-event times are shown in; null until the browser tells it or the user chooses. */
+  timeZone: string | null;
 }

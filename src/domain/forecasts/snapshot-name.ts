@@ -9,11 +9,17 @@ const OLD_DEFAULT = /^Forecast of \d{4}-\d{2}-\d{2} \d{2}:\d{2} UTC$/;
 
 type FirstStop = Pick<ResolvedPlan['stops'][number], 'name' | 'timeZone'>;
 
+/** An instant in the first stop's zone and where that clock is: { time: "Sat 12 Dec, 10:08", where: "local time at Mesa camp" }. */
+export function snapshotClock(createdAt: string, plan: { stops: FirstStop[] }): { time: string; where: string } {
+  const stop = plan.stops[0];
+  if (!stop || !isTimeZone(stop.timeZone)) return { time: formatInstant(createdAt, 'UTC'), where: 'UTC' };
+  return { time: formatInstant(createdAt, stop.timeZone), where: `local time at ${stop.name}` };
+}
+
 /** "Sat 12 Dec, 10:08 (local time at Mesa camp)": an instant in the first stop's zone, named in plain words. */
 export function snapshotTime(createdAt: string, plan: { stops: FirstStop[] }): string {
-  const stop = plan.stops[0];
-  if (!stop || !isTimeZone(stop.timeZone)) return `${formatInstant(createdAt, 'UTC')} (UTC)`;
-  return `${formatInstant(createdAt, stop.timeZone)} (local time at ${stop.name})`;
+  const c = snapshotClock(createdAt, plan);
+  return `${c.time} (${c.where})`;
 }
 
 /** The name a forecast gets when nobody names it. */

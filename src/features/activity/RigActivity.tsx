@@ -1,9 +1,10 @@
 import { useEffect } from 'react';
 import { hashKey, useInfiniteQuery, useQueryClient } from '@tanstack/react-query';
-import { format, isSameDay } from 'date-fns';
 import { withQueryClient } from '../../components/ui/QueryProvider';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
 import { ApiError } from '../../lib/query-client';
+import { formatInstant, type ZoneClock } from '../../lib/clock';
+import { useUserZone } from '../../components/ui/useUserZone';
 import type { ActivityDto } from '../../domain/crews/crews.schema';
 import { loadKeys } from '../loads/loads.queries';
 import { activityKeys, activityQuery } from './activity.queries';
@@ -38,14 +39,14 @@ function show(field: string, v: unknown, units: Units): string {
 const VERB: Record<ActivityDto['action'], string> = { added: 'added', changed: 'changed', removed: 'removed', imported: 'imported' };
 const DOT: Record<ActivityDto['action'], string> = { added: 'bg-moss', imported: 'bg-moss', changed: 'bg-sun', removed: 'bg-ember' };
 
-function Entry({ e, units }: { e: ActivityDto; units: Units }) {
+function Entry({ e, zone, units }: { e: ActivityDto; zone: ZoneClock; units: Units }) {
   const changed = e.action === 'changed' ? Object.entries(e.changes) : [];
   return (
     <li className="relative pl-6" data-activity={e.action}>
       <span aria-hidden="true" className={`absolute left-0 top-2 h-3 w-3 rounded-full ${DOT[e.action]}`} />
       <p>
         <strong>{e.by ?? 'A former member'}</strong> {VERB[e.action]} <strong>{e.loadName}</strong>{' '}
-        <span className="text-sm text-slate-text">· <time dateTime={e.at}>{format(new Date(e.at), 'HH:mm')}</time></span>
+        <span className="text-sm text-slate-text">· <time dateTime={e.at}>{formatInstant(e.at, zone, 'time')}</time></span>
       </p>
       {changed.length ? (
         <ul className="mt-0.5 text-sm text-slate-text">
@@ -62,9 +63,10 @@ function Entry({ e, units }: { e: ActivityDto; units: Units }) {
 
 /**
  * The rig page's Activity section: who added, changed or removed which load, and when, newest
- * first. Mount it with `<RigActivity client:load rigId={id} />`.
+ * first, grouped by day in the user's zone. Mount it with `<RigActivity client:load rigId={id} clock={…} />`.
  */
-function RigActivity({ rigId, units = 'metric' }: { rigId: string; units?: Units }) {
+function RigActivity({ rigId, clock, units = 'metric' }: { rigId: string; clock?: ZoneClock | null; units?: Units }) {
+  const zone = useUserZone(clock);
   const q = useInfiniteQuery(activityQuery(rigId));
   const qc = useQueryClient();
   // Every load write adds an entry: when the rig's load list changes on this page, read the trail again.
@@ -77,12 +79,12 @@ function RigActivity({ rigId, units = 'metric' }: { rigId: string; units?: Units
     });
   }, [qc, rigId]);
   const items = q.data?.pages.flatMap((p) => p.items) ?? [];
-  const days: { day: Date; items: ActivityDto[] }[] = [];
+  const days: { day: string; first: string; items: ActivityDto[] }[] = [];
   for (const e of items) {
-    const d = new Date(e.at);
+    const day = formatInstant(e.at, zone, 'dayKey');
     const last = days[days.length - 1];
-    if (last && isSameDay(last.day, d)) last.items.push(e);
-    else days.push({ day: d, items: [e] });
+    if (last && last.day === day) last.items.push(e);
+    else days.push({ day, first: e.at, items: [e] });
   }
   return (
     <section className="card p-5 sm:p-6" aria-labelledby="activity-h">
@@ -105,9 +107,9 @@ function RigActivity({ rigId, units = 'metric' }: { rigId: string; units?: Units
         <>
           <ol className="mt-4 space-y-5" aria-label="Load activity, newest first">
             {days.map((d) => (
-              <li key={d.day.toISOString()}>
-                <h3 className="mb-2 text-sm font-extrabold uppercase tracking-wide text-slate-text">{format(d.day, 'EEE d MMM yyyy')}</h3>
-                <ul className="space-y-2 border-l-2 border-sand-dark pl-3">{d.items.map((e) => <Entry key={e.id} e={e} units={units} />)}</ul>
+              <li key={d.day}>
+                <h3 className="mb-2 text-sm font-extrabold uppercase tracking-wide text-slate-text">{formatInstant(d.first, zone, 'dayDate')}</h3>
+                <ul className="space-y-2 border-l-2 border-sand-dark pl-3">{d.items.map((e) => <Entry key={e.id} e={e} zone={zone} units={units} />)}</ul>
               </li>
             ))}
           </ol>

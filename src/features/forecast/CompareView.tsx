@@ -5,8 +5,9 @@ import { formatRowTime, formatWh, pct } from '../../lib/format';
 import { verdict } from '../../domain/forecasts/verdict';
 import type { ForecastWithWeather } from '../../domain/weather/band';
 import { BandChart } from './WeatherPanel';
+import { unusedSolarSentence } from './hour-marks';
 import { snapshotDiff, type SnapshotSection } from '../../domain/forecasts/snapshot-diff';
-import { snapshotLabel, snapshotTime } from '../../domain/forecasts/snapshot-name';
+import { snapshotClock, snapshotLabel } from '../../domain/forecasts/snapshot-name';
 import type { Units } from '../../lib/units';
 
 /** One side of a comparison. */
@@ -38,8 +39,20 @@ function Changes({ a, b, units }: { a: CompareSide; b: CompareSide; units: Units
   return (
     <section aria-labelledby="compare-changes" className="card p-3 sm:p-5" data-testid="compare-changes">
       <h2 id="compare-changes" className="mb-1 text-xl">What changed</h2>
-      <p className="mb-2 text-sm text-slate-text">
-        From <strong>{older.name}</strong> (made {snapshotTime(older.createdAt!, older.plan)}) to <strong>{newer.name}</strong> (made {snapshotTime(newer.createdAt!, newer.plan)}).
+      <p className="mb-2 text-sm text-slate-text" data-testid="compare-changes-from">
+        {(() => {
+          const o = snapshotClock(older.createdAt!, older.plan);
+          const n = snapshotClock(newer.createdAt!, newer.plan);
+          return o.where === n.where ? (
+            <>
+              From <strong>{older.name}</strong>, made {o.time}, to <strong>{newer.name}</strong>, made {n.time} ({n.where}).
+            </>
+          ) : (
+            <>
+              From <strong>{older.name}</strong>, made {o.time} ({o.where}), to <strong>{newer.name}</strong>, made {n.time} ({n.where}).
+            </>
+          );
+        })()}
       </p>
       {sections.length === 0 ? (
         <p data-testid="compare-no-changes">Nothing in the rig, the loads, the trip or its weather changed between the two: the same inputs gave both.</p>
@@ -78,7 +91,7 @@ const rows = (reserve: number | null): { label: string; value: (s: CompareSide) 
   { label: 'First cutoff', value: (s) => (s.forecast.summary.firstCutoffAt ? formatRowTime(s.forecast.summary.firstCutoffAt) : 'Never') },
   { label: 'Unmet energy', value: (s) => formatWh(s.forecast.summary.unmetWh) },
   { label: 'Solar harvested', value: (s) => formatWh(s.forecast.summary.solarWh) },
-  { label: 'Solar curtailed', value: (s) => formatWh(s.forecast.summary.curtailedWh) },
+  { label: 'Solar left unused', value: (s) => unusedSolarSentence(s.forecast).replace(/^None left unused$/, '0 Wh') },
   { label: 'Generator', value: (s) => `${s.forecast.summary.generatorHours} h · ${s.forecast.summary.generatorLitres} L` },
   { label: 'At the end', value: (s) => pct(s.forecast.summary.endSocPct) },
   { label: 'How sure is this?', value: (s) => (s.forecast as ForecastWithWeather).band?.sentence ?? 'No band saved' },

@@ -8,6 +8,8 @@ import { savedForecastFromJson, type SavedForecast } from './forecast.api';
 import { useDelayed } from './useWidth';
 import { IslandQueryProvider } from '../../components/ui/QueryProvider';
 import type { Units } from '../../lib/units';
+import { useUserZone } from '../../components/ui/useUserZone';
+import { formatInstant, type ZoneClock } from '../../lib/clock';
 
 export interface ForecastFromApiProps {
   /** The saved forecast's id. */
@@ -24,6 +26,8 @@ export interface ForecastFromApiProps {
   canRun?: boolean;
   /** The reader's units setting (°C or °F in the table, warnings, advice and CSV). */
   units?: Units;
+  /** The signed-in user's zone for when the forecast was saved (null until known). */
+  clock?: ZoneClock | null;
 }
 
 /** A saved forecast loaded by id, with loading and error states — never a blank chart. */
@@ -74,7 +78,8 @@ function OlderRevision({ saved, current, canRun }: { saved: SavedForecast; curre
   );
 }
 
-function Loaded({ id, showMeta = true, initial, currentEngineRevision, canRun = false, units }: ForecastFromApiProps) {
+function Loaded({ id, showMeta = true, initial, currentEngineRevision, canRun = false, clock, units }: ForecastFromApiProps) {
+  const zone = useUserZone(clock);
   const q = useQuery({ ...forecastQueries.detail(id), initialData: initial });
   const slow = useDelayed(q.isPending);
 
@@ -114,7 +119,7 @@ function Loaded({ id, showMeta = true, initial, currentEngineRevision, canRun = 
     <div className="space-y-4">
       {showMeta ? (
         <p className="text-sm text-slate-text">
-          <span className="font-bold text-dusk">{f.name}</span> · saved {f.createdAt.slice(0, 10)}
+          <span className="font-bold text-dusk">{f.name}</span> · saved <time dateTime={f.createdAt}>{formatInstant(f.createdAt, zone)}</time>
           {f.createdBy ? ` by ${f.createdBy.name}` : ''} · a snapshot: later changes to the rig or loads do not change it.
         </p>
       ) : null}

@@ -111,11 +111,15 @@ export default function HourlyFlowChart({ forecast, height = 240 }: { forecast: 
             />
             <YAxis yAxisId="w" tickFormatter={(v: number) => `${v}\u00a0W`} width={56} tick={{ fontSize: 12, fill: COLORS.axis }} stroke={COLORS.axis} />
             <YAxis yAxisId="soc" orientation="right" domain={[0, 100]} ticks={[0, 50, 100]} tickFormatter={(v: number) => `${v}%`} width={40} tick={{ fontSize: 12, fill: COLORS.axis }} stroke={COLORS.axis} />
-            {drives.map((b) => (
-              <ReferenceArea key={`d${b.x1}`} yAxisId="w" x1={b.x1} x2={b.x2} fill={DRIVE_FILL} fillOpacity={0.14} stroke={DRIVE_FILL} strokeOpacity={0.5} strokeDasharray="2 3" ifOverflow="hidden" className="drive-band" />
-            ))}
             {cutOff.map((b) => (
               <ReferenceArea key={`c${b.x1}`} yAxisId="w" x1={b.x1} x2={b.x2} fill={CUTOFF_FILL} fillOpacity={0.12} stroke="none" ifOverflow="hidden" className="cutoff-band" />
+            ))}
+            {/* Drive hours: a green strip along the top (SOC axis 92–100) with dashed edges down the chart, so it reads on top of a cut-off band too. */}
+            {drives.map((b) => (
+              <ReferenceArea key={`d${b.x1}`} yAxisId="soc" x1={b.x1} x2={b.x2} y1={0} y2={100} fill="none" stroke={DRIVE_FILL} strokeWidth={1.5} strokeDasharray="4 3" ifOverflow="hidden" className="drive-band" />
+            ))}
+            {drives.map((b) => (
+              <ReferenceArea key={`s${b.x1}`} yAxisId="soc" x1={b.x1} x2={b.x2} y1={92} y2={100} fill={DRIVE_FILL} fillOpacity={0.9} stroke="none" ifOverflow="hidden" className="drive-strip" />
             ))}
             <Tooltip
               formatter={(v, name) => [name === 'State of charge' ? `${v} %` : `${v} W`, String(name)]}
@@ -158,7 +162,10 @@ export default function HourlyFlowChart({ forecast, height = 240 }: { forecast: 
         ) : null}
         <li className="flex items-center gap-1.5"><svg width="18" height="8" aria-hidden="true"><line x1="0" y1="4" x2="18" y2="4" stroke={COLORS.soc} strokeWidth="1.5" strokeDasharray="3 3" /></svg>State of charge (right axis)</li>
         {drives.length > 0 ? (
-          <li className="flex items-center gap-1.5"><span aria-hidden="true" className="inline-block h-3 w-4 rounded-sm border border-dashed" style={{ background: 'rgba(79,127,88,0.14)', borderColor: 'rgba(79,127,88,0.5)' }} />Shaded green: driving (alternator charging)</li>
+          <li className="flex items-center gap-1.5">
+            <svg width="18" height="12" aria-hidden="true"><rect x="0.75" y="0.75" width="16.5" height="10.5" fill="none" stroke={DRIVE_FILL} strokeWidth="1.5" strokeDasharray="3 2" /><rect x="0" y="0" width="18" height="3.5" fill={DRIVE_FILL} /></svg>
+            Green strip and dashed edges: driving (alternator charging)
+          </li>
         ) : null}
         {cutOff.length > 0 ? (
           <li className="flex items-center gap-1.5"><span aria-hidden="true" className="inline-block h-3 w-4 rounded-sm" style={{ background: 'rgba(217,100,46,0.2)' }} />Shaded orange: bank cut off</li>

@@ -1,5 +1,6 @@
 import { useQuery } from '@tanstack/react-query';
-import { format } from 'date-fns';
+import { formatInstant, type ZoneClock } from '../../lib/clock';
+import { useUserZone } from '../../components/ui/useUserZone';
 import { withQueryClient } from '../../components/ui/QueryProvider';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
 import type { InstallerRigDto } from '../../domain/crews/crews.schema';
@@ -14,7 +15,8 @@ function bankLine(bank: InstallerRigDto['bank']): string {
 }
 
 /** The /installer page: every rig a crew has shared with the signed-in installer. */
-function InstallerRigs() {
+function InstallerRigs({ clock }: { clock?: ZoneClock | null }) {
+  const zone = useUserZone(clock);
   const rigs = useQuery(installerRigsQuery());
   if (rigs.isPending) return <LoadingState label="Loading the rigs shared with you…" />;
   if (rigs.isError) return <ErrorState error={rigs.error} title="The rigs shared with you could not be loaded." onRetry={() => void rigs.refetch()} />;
@@ -35,7 +37,7 @@ function InstallerRigs() {
           <p className="text-sm text-slate-text">
             {r.loadCount} load{r.loadCount === 1 ? '' : 's'} · {r.tripCount} trip{r.tripCount === 1 ? '' : 's'}
           </p>
-          <p className="mt-3 text-sm text-slate-text">Shared {r.grantedBy ? `by ${r.grantedBy} ` : ''}on {format(new Date(r.grantedAt), 'd MMM yyyy')}</p>
+          <p className="mt-3 text-sm text-slate-text">Shared {r.grantedBy ? `by ${r.grantedBy} ` : ''}on {formatInstant(r.grantedAt, zone, 'date')}</p>
           <div className="mt-4"><a className="btn btn-primary" href={`/rigs/${encodeURIComponent(r.rigId)}`}>Open rig</a></div>
         </li>
       ))}

@@ -2,7 +2,8 @@ import { useState } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { format } from 'date-fns';
+import { formatInstant, type ZoneClock } from '../../lib/clock';
+import { useUserZone } from '../../components/ui/useUserZone';
 import { withQueryClient } from '../../components/ui/QueryProvider';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
 import { AskFirst } from '../../components/ui/AskFirst';
@@ -12,7 +13,7 @@ import { grantCreateSchema, type GrantCreateInput, type GrantDto, type ShareInvi
 import { grantRig, revokeGrant } from './installer.api';
 import { grantKeys, rigGrantsQuery } from './installer.queries';
 
-function GrantRow({ grant, canManage, onDone }: { grant: GrantDto; canManage: boolean; onDone: (t: string, tone?: 'ok' | 'alert') => void }) {
+function GrantRow({ grant, canManage, onDone, zone }: { grant: GrantDto; zone: ZoneClock; canManage: boolean; onDone: (t: string, tone?: 'ok' | 'alert') => void }) {
   const qc = useQueryClient();
   const revoke = useMutation({
     mutationFn: () => revokeGrant(grant.id),
@@ -31,7 +32,7 @@ function GrantRow({ grant, canManage, onDone }: { grant: GrantDto; canManage: bo
         <p className="font-bold">{grant.installer.name}</p>
         <p className="truncate text-sm text-slate-text">{grant.installer.email}</p>
         <p className="text-sm text-slate-text">
-          Since {format(new Date(grant.createdAt), 'd MMM yyyy')}
+          Since {formatInstant(grant.createdAt, zone, 'date')}
           {grant.grantedBy ? <> · shared by {grant.grantedBy}</> : null}
         </p>
       </div>
@@ -49,7 +50,7 @@ function GrantRow({ grant, canManage, onDone }: { grant: GrantDto; canManage: bo
   );
 }
 
-function InvitedRow({ invite, canManage, onDone }: { invite: ShareInviteDto; canManage: boolean; onDone: (t: string, tone?: 'ok' | 'alert') => void }) {
+function InvitedRow({ invite, canManage, onDone, zone }: { invite: ShareInviteDto; zone: ZoneClock; canManage: boolean; onDone: (t: string, tone?: 'ok' | 'alert') => void }) {
   const qc = useQueryClient();
   const withdraw = useMutation({
     mutationFn: () => revokeGrant(invite.id),
@@ -67,7 +68,7 @@ function InvitedRow({ invite, canManage, onDone }: { invite: ShareInviteDto; can
       <div className="min-w-0">
         <p className="font-bold [overflow-wrap:anywhere]">Invited {invite.email}</p>
         <p className="text-sm text-slate-text">
-          Since {format(new Date(invite.createdAt), 'd MMM yyyy')}
+          Since {formatInstant(invite.createdAt, zone, 'date')}
           {invite.invitedBy ? <> · shared by {invite.invitedBy}</> : null} · shows as theirs once an installer with this e-mail opens it
         </p>
       </div>
@@ -117,7 +118,8 @@ function GrantForm({ rigId, onDone }: { rigId: string; onDone: (t: string) => vo
  * The rig page's Installers section: who the rig is shared with, and (for crew owners) sharing
  * and revoking. Mount it with `<RigInstallers client:load rigId={id} />`.
  */
-function RigInstallers({ rigId }: { rigId: string }) {
+function RigInstallers({ rigId, clock }: { rigId: string; clock?: ZoneClock | null }) {
+  const zone = useUserZone(clock);
   const grants = useQuery(rigGrantsQuery(rigId));
   const [notice, setNotice] = useState<{ text: string; tone: 'ok' | 'alert' } | null>(null);
   const onDone = (text: string, tone: 'ok' | 'alert' = 'ok') => setNotice({ text, tone });
@@ -136,19 +138,21 @@ function RigInstallers({ rigId }: { rigId: string }) {
       ) : grants.isError ? (
         <ErrorState error={grants.error} title="The installers could not be loaded." onRetry={() => void grants.refetch()} />
       ) : (
-        <GrantsBody rigId={rigId} grants={grants.data.grants} invited={grants.data.invited} canManage={grants.data.canManage} onDone={onDone} />
+        <GrantsBody zone={zone} rigId={rigId} grants={grants.data.grants} invited={grants.data.invited} canManage={grants.data.canManage} onDone={onDone} />
       )}
     </section>
   );
 }
 
 function GrantsBody({
+  zone,
   rigId,
   grants,
   invited,
   canManage,
   onDone,
 }: {
+  zone: ZoneClock;
   rigId: string;
   grants: GrantDto[];
   invited: ShareInviteDto[];
@@ -161,8 +165,8 @@ function GrantsBody({
         <div className="mt-4"><EmptyState title="Not shared with an installer">{canManage ? <p>Add your installer’s e-mail below to let them size an upgrade from your real loads and trips.</p> : null}</EmptyState></div>
       ) : (
         <ul className="mt-3 divide-y divide-sand-dark" aria-label="Installers with access">
-          {grants.map((g) => <GrantRow key={g.id} grant={g} canManage={canManage} onDone={onDone} />)}
-          {invited.map((i) => <InvitedRow key={i.id} invite={i} canManage={canManage} onDone={onDone} />)}
+          {grants.map((g) => <GrantRow key={g.id} zone={zone} grant={g} canManage={canManage} onDone={onDone} />)}
+          {invited.map((i) => <InvitedRow key={i.id} zone={zone} invite={i} canManage={canManage} onDone={onDone} />)}
         </ul>
       )}
       {canManage ? (

@@ -1,13 +1,16 @@
 // On every page: the service worker (production builds only), the "offline — showing saved copy"
 // banner, and sending check-ins that waited on the phone as soon as there is a connection.
 import { flushOutbox, listQueued, onOutboxChange } from './outbox';
+import { deviceZone, formatInstant } from '../../lib/clock';
 
 const userId = document.querySelector<HTMLMetaElement>('meta[name="sunreckon-user"]')?.content ?? '';
 const savedAt = document.querySelector<HTMLMetaElement>('meta[name="sunreckon-saved-copy"]')?.content ?? null;
 
+// The user's zone from their settings (this device's own until one is stored), as on every other page.
+const userZone = document.querySelector<HTMLMetaElement>('meta[name="sunreckon-time-zone"]')?.content || deviceZone();
+
 function formatSaved(iso: string): string {
-  const d = new Date(iso);
-  return Number.isNaN(d.getTime()) ? '' : d.toLocaleString('en-GB', { weekday: 'short', day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
+  return Number.isNaN(Date.parse(iso)) ? '' : formatInstant(iso, userZone);
 }
 
 function banner(): HTMLElement {

@@ -18,22 +18,23 @@ import { Cautions, DocumentHead, PartsTable, quoteDate } from './ProposalTables'
 import { decideProposal, deleteProposal, patchProposal, sendProposal } from './proposals.api';
 import { proposalKeys, proposalQueries } from './proposals.queries';
 import { STATUS_LOOK } from './status';
+import { formatInstant, type ZoneClock } from '../../lib/clock';
+import { useUserZone } from '../../components/ui/useUserZone';
 
 
-/** A stored UTC time as "Fri 4 Dec 2026, 18:20 UTC". */
-const dayTime = (iso: string) => `${formatDate(iso.slice(0, 10))}, ${iso.slice(11, 16)} UTC`;
 const outcome = (s: { minSocPct: number; firstCutoffAt: string | null; unmetWh: number }) =>
   s.firstCutoffAt ? `runs out, ${formatNumber(s.unmetWh)} Wh short` : `lowest ${formatNumber(s.minSocPct)} %, no cutoff`;
 
 /** One proposal: before/after forecasts, parts, cables, cautions; the installer edits and sends a draft, the crew's owner answers. */
-function ProposalView({ id, units }: { id: string; units: Units }) {
+function ProposalView({ id, units, clock }: { id: string; units: Units; clock?: ZoneClock | null }) {
+  const zone = useUserZone(clock);
   const q = useQuery(proposalQueries.detail(id));
   if (q.isPending) return <LoadingState label="Loading the proposal…" />;
   if (q.isError) return <ErrorState error={q.error} title="This proposal could not be loaded." onRetry={() => void q.refetch()} />;
-  return <Loaded p={q.data} units={units} />;
+  return <Loaded p={q.data} units={units} zone={zone} />;
 }
 
-function Loaded({ p, units }: { p: ProposalDto; units: Units }) {
+function Loaded({ p, units, zone }: { p: ProposalDto; units: Units; zone: ZoneClock }) {
   const s = STATUS_LOOK[p.status];
   return (
     <article className="proposal-doc space-y-6" data-testid="proposal" data-status={p.status}>
@@ -53,7 +54,7 @@ function Loaded({ p, units }: { p: ProposalDto; units: Units }) {
       {p.decision ? (
         <section className={`rounded-[14px] border-l-[6px] p-4 ${p.status === 'accepted' ? 'border-moss bg-[#eef5ef]' : 'border-ember bg-[#fbebe2]'}`} data-testid="decision">
           <p className="font-extrabold">
-            {p.status === 'accepted' ? `Accepted by ${p.decision.name ?? p.decision.by ?? 'the crew'}` : `Declined${p.decision.by ? ` by ${p.decision.by}` : ''}`} on {dayTime(p.decision.at)}
+            {p.status === 'accepted' ? `Accepted by ${p.decision.name ?? p.decision.by ?? 'the crew'}` : `Declined${p.decision.by ? ` by ${p.decision.by}` : ''}`} on {formatInstant(p.decision.at, zone, 'dayTimeYear')}
           </p>
           {p.status === 'accepted' && p.decision.by && p.decision.name && p.decision.name !== p.decision.by ? <p className="text-sm">Signed in as {p.decision.by}.</p> : null}
           {p.decision.comment ? <p className="mt-1 whitespace-pre-line">“{p.decision.comment}”</p> : null}

@@ -1,17 +1,21 @@
 import { useQuery } from '@tanstack/react-query';
 import { withQueryClient } from '../../components/ui/QueryProvider';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
-import { formatDate, formatMoney } from '../../lib/format';
+import { formatMoney } from '../../lib/format';
 import type { ProposalListItem } from '../../domain/proposals/proposals.schema';
 import { formatRowTime } from '../../lib/format';
 import PriceListForm from './PriceListForm';
 import { STATUS_LOOK } from './status';
 import { proposalQueries } from './proposals.queries';
+import { formatInstant, type ZoneClock } from '../../lib/clock';
+import { useUserZone } from '../../components/ui/useUserZone';
 
 const outcome = (s: ProposalListItem['before']) => (s.firstCutoffAt ? `runs out ${formatRowTime(s.firstCutoffAt)}` : `lowest ${Math.round(s.minSocPct)} %`);
 
 /** /proposals: an installer's proposals and price list, or the proposals sent to the user's crews. */
-function ProposalsPage({ installer, showPrices = true }: { installer: boolean; showPrices?: boolean }) {
+function ProposalsPage({ installer, showPrices = true, clock }: { installer: boolean; showPrices?: boolean; clock?: ZoneClock | null }) {
+  const zone = useUserZone(clock);
+  const day = (iso: string) => formatInstant(iso, zone, 'dayDate');
   const q = useQuery(proposalQueries.list());
   return (
     <div className="space-y-8">
@@ -41,7 +45,7 @@ function ProposalsPage({ installer, showPrices = true }: { installer: boolean; s
                   <div className="min-w-0 flex-1">
                     <a className="font-bold text-dusk underline decoration-sand-dark underline-offset-4 hover:decoration-ember" href={`/proposals/${encodeURIComponent(p.id)}`}>{p.title}</a>
                     <p className="text-sm text-slate-text">
-                      {p.rigName} · {p.crewName} · {installer ? (p.sentAt ? `sent ${formatDate(p.sentAt.slice(0, 10))}` : `drafted ${formatDate(p.createdAt.slice(0, 10))}`) : `from ${p.installerName}, ${formatDate((p.sentAt ?? p.createdAt).slice(0, 10))}`}
+                      {p.rigName} · {p.crewName} · {installer ? (p.sentAt ? `sent ${day(p.sentAt)}` : `drafted ${day(p.createdAt)}`) : `from ${p.installerName}, ${day(p.sentAt ?? p.createdAt)}`}
                     </p>
                     <p className="text-sm">Before: {outcome(p.before)} → after: {outcome(p.after)}</p>
                   </div>

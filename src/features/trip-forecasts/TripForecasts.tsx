@@ -9,12 +9,16 @@ import { forecastKeys } from '../forecast/forecast.queries';
 import { deleteSavedForecast, runTripForecast, type ForecastListItem } from './trip-forecasts.api';
 import { tripForecastKeys, tripForecastQueries } from './trip-forecasts.queries';
 import { IslandQueryProvider } from '../../components/ui/QueryProvider';
+import { useUserZone } from '../../components/ui/useUserZone';
+import { formatInstant, type ZoneClock } from '../../lib/clock';
 
 interface Props {
   tripId: string;
   canEdit: boolean;
   /** The list as the page read it on the server. */
   initial?: ForecastListItem[];
+  /** The signed-in user's zone for when each forecast was saved (null until known). */
+  clock?: ZoneClock | null;
 }
 
 /** A trip's saved forecasts: run a new one, open, compare two, delete. */
@@ -26,7 +30,8 @@ export default function TripForecasts(props: Props) {
   );
 }
 
-function Inner({ tripId, canEdit, initial }: Props) {
+function Inner({ tripId, canEdit, initial, clock }: Props) {
+  const zone = useUserZone(clock);
   const qc = useQueryClient();
   const list = useQuery({ ...tripForecastQueries.list(tripId), initialData: initial });
   const [name, setName] = useState('');
@@ -91,7 +96,7 @@ function Inner({ tripId, canEdit, initial }: Props) {
         <>
           <ul className="space-y-2" aria-label="Saved forecasts">
             {list.data.map((f) => (
-              <ForecastRow key={f.id} f={f} tripId={tripId} canEdit={canEdit} picked={picked.includes(f.id)} onPick={() => toggle(f.id)} onDelete={() => remove.mutate(f.id)} deleting={remove.isPending && remove.variables === f.id} />
+              <ForecastRow key={f.id} f={f} tripId={tripId} zone={zone} canEdit={canEdit} picked={picked.includes(f.id)} onPick={() => toggle(f.id)} onDelete={() => remove.mutate(f.id)} deleting={remove.isPending && remove.variables === f.id} />
             ))}
           </ul>
           {remove.isError ? <ErrorState error={remove.error} title="Couldn't delete that forecast." /> : null}
@@ -113,7 +118,7 @@ function Inner({ tripId, canEdit, initial }: Props) {
   );
 }
 
-function ForecastRow({ f, tripId, canEdit, picked, onPick, onDelete, deleting }: { f: ForecastListItem; tripId: string; canEdit: boolean; picked: boolean; onPick: () => void; onDelete: () => void; deleting: boolean }) {
+function ForecastRow({ f, tripId, canEdit, picked, onPick, onDelete, deleting, zone }: { f: ForecastListItem; tripId: string; zone: ZoneClock; canEdit: boolean; picked: boolean; onPick: () => void; onDelete: () => void; deleting: boolean }) {
   const s = f.summary;
   const reserve = f.reserveSocPct ?? s.floorSocPct;
   const outcome = s.firstCutoffAt
@@ -129,7 +134,7 @@ function ForecastRow({ f, tripId, canEdit, picked, onPick, onDelete, deleting }:
       <div className="min-w-0 flex-1">
         <a className="font-bold text-dusk underline decoration-sand-dark underline-offset-4 hover:decoration-ember" href={`/trips/${encodeURIComponent(tripId)}/forecasts/${encodeURIComponent(f.id)}`}>{f.name}</a>
         <p className="text-sm text-slate-text">
-          {new Date(f.createdAt).toLocaleString('en-GB', { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' })}
+          <time dateTime={f.createdAt}>{formatInstant(f.createdAt, zone)}</time>
           {f.createdBy ? ` · by ${f.createdBy.name}` : ''}
         </p>
       </div>
