@@ -317,11 +317,11 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     await shot(page, `trip-errors-${viewport}`);
     await page.locator('#stops-1-arrive').fill('2027-10-24');
 
-    // A drive at noon on the last day is after the trip ends (11:00): only the server knows the hours.
+    // A drive at noon on the last day is after the trip ends (11:00): the trip schema's drive rule says so by the field.
     await page.locator('#drives-0-date').fill('2027-10-26');
     await page.locator('#drives-0-startHour').selectOption('12');
     await page.getByRole('button', { name: 'Save trip' }).click();
-    await expect(page.locator('#drives-0-date-error').textContent()).resolves.toMatch(/^The drive must start inside the trip/);
+    await expect(page.locator('#drives-0-date-error').textContent()).resolves.toMatch(/^Drive 1 starts at 12:00 on Tue 26 Oct, after the trip ends \(11:00 on Tue 26 Oct\): a drive must start inside the trip/);
     const unchanged = await (await page.request.get(`${baseUrl()}/api/trips/${tripId}`)).json();
     expect(unchanged.drives).toEqual([{ date: '2027-10-24', startHour: 9, hours: 4 }]);
   });
@@ -377,8 +377,10 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     await hydrated(page);
     await page.getByRole('button', { name: 'Edit the itinerary' }).click();
     await page.getByRole('button', { name: 'Delete trip…' }).click();
-    await page.getByText('Delete this trip?').waitFor();
-    await page.getByRole('button', { name: 'Cancel' }).click();
+    // The question says what goes with the trip (counted by the server) and where to get it back.
+    await page.getByText(/Delete High desert, mine\? With it go (nothing else|\d+ saved forecasts?)/).waitFor();
+    await page.getByText(/restore it under “Recently deleted” on the Trips page for 30 days/).waitFor();
+    await page.getByRole('button', { name: 'Keep' }).click();
     expect((await page.request.get(`${baseUrl()}/api/trips/${tripId}`)).status()).toBe(200);
     await page.getByRole('button', { name: 'Delete trip…' }).click();
     await page.getByRole('button', { name: 'Delete', exact: true }).click();
