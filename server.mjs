@@ -39,6 +39,13 @@ const concurrency = (() => {
 async function primary(n) {
   const { RateLimiterClusterMaster } = await import('rate-limiter-flexible');
   new RateLimiterClusterMaster();
+  // A worker that ends a kept session (sign-out, a password change; src/server/session-cache.ts)
+  // tells the primary, which tells every worker.
+  cluster.on('message', (_from, msg) => {
+    if (msg && typeof msg === 'object' && msg.type === 'sunreckon:session-drop') {
+      for (const w of Object.values(cluster.workers ?? {})) if (w?.isConnected()) w.send(msg);
+    }
+  });
   const roles = new Map();
   let stopping = false;
   const started = new Map();

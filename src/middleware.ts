@@ -4,6 +4,7 @@ import { auth } from './server/auth';
 import { env } from './server/env';
 import { errorResponse } from './server/http';
 import { policy, SECURITY_HEADERS } from './server/security-headers';
+import { cachedSession, dropSession, sessionKey } from './server/session-cache';
 // Loaded at start so the background process purges rigs and trips deleted more than 30 days ago.
 import './server/purge';
 
@@ -39,21 +40,38 @@ function skipsSession(path: string): boolean {
   return path.startsWith('/_astro/') || path.startsWith('/api/auth/') || NO_SESSION_API.has(path) || (!path.startsWith('/api/') && /\.[a-z0-9]+$/i.test(path));
 }
 
-/** Resolves the session once per request and puts it on Astro.locals. */
+/**
+ * Resolves the session once per request and puts it on Astro.locals; a lookup is kept for a few
+ * seconds per process (session-cache.ts), and a write ends it in every worker: a write with the
+ * session's cookie ends that one (sign-out, settings, password), a write to /api/auth/* or
+ * /sign-out ends all (a password reset revokes sessions without a cookie).
+ */
 const session = defineMiddleware(async (ctx, next) => {
   ctx.locals.user = null;
   ctx.locals.session = null;
-  if (skipsSession(ctx.url.pathname)) return next();
-  try {
-    const s = await auth.api.getSession({ headers: ctx.request.headers });
-    if (s) {
-      ctx.locals.user = s.user;
-      ctx.locals.session = s.session;
+  const path = ctx.url.pathname;
+  const key = sessionKey(ctx.request.headers.get('cookie'));
+  const authWrite = path.startsWith('/api/auth/') || path === '/sign-out';
+  const ends = WRITE_METHODS.has(ctx.request.method) && (key !== null || authWrite);
+  if (ends) dropSession(authWrite ? null : key);
+  if (!skipsSession(path)) {
+    try {
+      const s = await cachedSession(key, () => auth.api.getSession({ headers: ctx.request.headers }));
+      if (s && new Date(s.session.expiresAt).getTime() > Date.now()) {
+        ctx.locals.user = s.user;
+        ctx.locals.session = s.session;
+      }
+    } catch (err) {
+      console.error('[sunreckon] session lookup failed', err);
     }
-  } catch (err) {
-    console.error('[sunreckon] session lookup failed', err);
   }
-  return next();
+  if (!ends) return next();
+  try {
+    return await next();
+  } finally {
+    // Again once the write has run: a lookup made meanwhile may have read the session before it ended.
+    dropSession(authWrite ? null : key);
+  }
 });
 
 /** Anonymous visitors: app pages redirect to /sign-in, API routes answer 401 JSON. */

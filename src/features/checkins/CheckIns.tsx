@@ -5,6 +5,7 @@ import { checkInInputSchema, type CheckInDto, type CheckInOutcome, type Previous
 import { restingAdvice } from '../../domain/checkins/ocv';
 import { EmptyState, ErrorState } from '../../components/ui/States';
 import { AskFirst } from '../../components/ui/AskFirst';
+import { noBasisText, storedOnPhone } from '../offline/stored';
 import SocChart from '../forecast/SocChart';
 import { forecastQueries } from '../forecast/forecast.queries';
 import { formatRowTime } from '../../lib/format';
@@ -84,6 +85,25 @@ function useOnline(): boolean {
   return useSyncExternalStore(subscribeOnline, () => navigator.onLine, () => true);
 }
 
+/** The pages the service worker says it keeps (null until it has answered). */
+function useOfflinePages(): string[] | null {
+  const [pages, setPages] = useState<string[] | null>(null);
+  useEffect(() => {
+    const check = () => {
+      try {
+        const raw = document.documentElement.dataset.offlinePages;
+        setPages(raw ? (JSON.parse(raw) as string[]) : null);
+      } catch {
+        setPages(null);
+      }
+    };
+    check();
+    window.addEventListener('sunreckon:offline-ready', check);
+    return () => window.removeEventListener('sunreckon:offline-ready', check);
+  }, []);
+  return pages;
+}
+
 function useOfflineReady(): boolean {
   const [ready, setReady] = useState(false);
   useEffect(() => {
@@ -99,6 +119,7 @@ function Inner({ tripId, canEdit, initial }: Props) {
   const qc = useQueryClient();
   const online = useOnline();
   const offlineReady = useOfflineReady();
+  const offlinePages = useOfflinePages();
   const list = useQuery({ ...checkInQueries.list(tripId), initialData: initial?.checkIns });
   const forecasts = useQuery({ ...tripForecastQueries.list(tripId), initialData: initial?.forecasts });
   const latestId = forecasts.data?.[0]?.id ?? null;
@@ -146,9 +167,16 @@ function Inner({ tripId, canEdit, initial }: Props) {
   return (
     <div className="space-y-4">
       <p className="text-sm text-slate-text" data-testid="offline-status">
-        {online ? (offlineReady ? 'This trip and its latest forecast are saved on this phone for use without signal.' : 'Saving this trip on this phone for use without signal…') : 'No signal: check-ins are worked out on this phone and sent when the signal is back.'}
+        {storedOnPhone({
+          online,
+          pages: offlinePages,
+          savedCopy: offlineReady && offlinePages === null,
+          tripId,
+          latest: forecasts.data?.[0] ? { id: forecasts.data[0].id, name: forecasts.data[0].name } : null,
+          forecastCount: forecasts.data?.length ?? 0,
+        })}
       </p>
-      {canEdit ? <CheckInForm tripId={tripId} basis={basis} basisLoading={forecasts.isPending || (latestId !== null && latest.isPending)} onMade={setJustMade} /> : null}
+      {canEdit ? <CheckInForm tripId={tripId} basis={basis} basisLoading={forecasts.isPending || (latestId !== null && latest.isPending)} forecastCount={forecasts.data?.length ?? 0} onMade={setJustMade} /> : null}
 
       {featured ? <Featured entry={featured} basis={basis} /> : null}
 
@@ -174,7 +202,7 @@ function Inner({ tripId, canEdit, initial }: Props) {
   );
 }
 
-function CheckInForm({ tripId, basis, basisLoading, onMade }: { tripId: string; basis: Basis | null; basisLoading: boolean; onMade: (id: string) => void }) {
+function CheckInForm({ tripId, basis, basisLoading, forecastCount, onMade }: { tripId: string; basis: Basis | null; basisLoading: boolean; forecastCount: number; onMade: (id: string) => void }) {
   const [when, setWhen] = useState('');
   const [mode, setMode] = useState<'soc' | 'volts'>('soc');
   const [value, setValue] = useState('');
@@ -269,7 +297,7 @@ function CheckInForm({ tripId, basis, basisLoading, onMade }: { tripId: string; 
       {mode === 'volts' && chem === 'lifepo4' ? (
         <p className="caution text-sm">This rig’s bank is LiFePO4: its voltage is nearly flat over most of its charge, so the SOC from a battery monitor gives a far better check-in.</p>
       ) : null}
-      {!basis && !basisLoading ? <p className="text-sm text-slate-text">This trip has no saved forecast on this phone, so the re-forecast is worked out when the check-in reaches the server.</p> : null}
+      {!basis && !basisLoading ? <p className="text-sm text-slate-text">{noBasisText(forecastCount)}</p> : null}
       <button type="submit" className="btn btn-primary" disabled={busy}>
         {busy ? 'Checking in…' : 'Check in'}
       </button>

@@ -97,6 +97,8 @@ if ('serviceWorker' in navigator && import.meta.env.PROD) {
   navigator.serviceWorker.addEventListener('message', (e: MessageEvent<{ type: string; pages?: string[] }>) => {
     if (e.data?.type === 'warmed') {
       document.documentElement.dataset.offlineReady = 'true';
+      // What is kept, for the trip page's "kept on this phone" sentence (features/offline/stored.ts).
+      document.documentElement.dataset.offlinePages = JSON.stringify(e.data.pages ?? []);
       window.dispatchEvent(new CustomEvent('sunreckon:offline-ready', { detail: e.data.pages ?? [] }));
     }
   });
