@@ -2,6 +2,7 @@ import { useId } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { IslandQueryProvider } from '../../components/ui/QueryProvider';
 import { ErrorState, LoadingState } from '../../components/ui/States';
+import { withZoneName, zonePlainName } from '../../lib/clock';
 import { formatDay, pct } from '../../lib/format';
 import { setWatchEnabled, setWatchFollowing, type TripWatch as Watch, type WatchRun } from './watch.api';
 import { watchKeys, watchQueries } from './watch.queries';
@@ -135,7 +136,7 @@ function Status({ w, state, timeZone }: { w: Watch; state: ReturnType<typeof win
       : 'The watch is off for this trip; the owner or an editor can turn it on.';
   else if (state === 'before') text = startsSentence(w.window, timeZone);
   else if (state === 'after') text = `The trip ended on ${formatDay(dateIn(w.window.to, timeZone))}; the watch has stopped.`;
-  else if (w.nextRunAt) text = `Next run: ${formatInstant(w.nextRunAt, timeZone)}.`;
+  else if (w.nextRunAt) text = `Next run: ${withZoneName(w.nextRunAt, timeZone)}.`;
   else text = 'The watch is on; the next run is due shortly.';
   return (
     <div className="space-y-2">
@@ -188,7 +189,7 @@ function Notice({ w, tripId, runs, timeZone }: { w: Watch; tripId: string; runs:
               : `The answer changed: ${look.label.toLowerCase()}`}
           </h3>
           <p className="text-sm text-slate-text">
-            Noticed {formatInstant(n.at, timeZone)}
+            Noticed {withZoneName(n.at, timeZone)}
             {worse ? ' · worse than before' : n.previousVerdict && n.previousVerdict !== n.verdict ? ' · better than before' : ''}
           </p>
           {cutoff ? (
@@ -229,6 +230,7 @@ function Timeline({ runs, timeZone }: { runs: WatchRun[]; timeZone: string }) {
       <h3 id="watch-timeline-h" className="text-base">
         The answer, run by run
       </h3>
+      <p className="text-sm text-slate-text">Times of runs in {zonePlainName(timeZone)}; cutoffs in the stop&apos;s local time.</p>
       {/* The strip is the picture; the list under it says the same in words. */}
       <div aria-hidden="true" className="mt-2 flex h-9 items-center gap-[3px]">
         {runs.map((r) => {
@@ -275,17 +277,13 @@ function Timeline({ runs, timeZone }: { runs: WatchRun[]; timeZone: string }) {
   );
 }
 
-const CHART = { w: 640, h: 180, left: 34, right: 8, top: 10, bottom: 24 };
+const DOT: Record<WatchRun['verdict'], string> = { 'makes-it': 'bg-moss-deep', 'below-reserve': 'bg-[#7a5a12]', 'runs-out': 'bg-alert' };
 
+/** Each run as a column on a 0–100 % scale: the band as a bar, the run's own lowest as a dot (HTML, so text keeps its size on a phone). */
 function BandChart({ runs, timeZone }: { runs: WatchRun[]; timeZone: string }) {
   const sentence = bandSentence(runs);
   if (!sentence) return null;
-  const plotW = CHART.w - CHART.left - CHART.right;
-  const plotH = CHART.h - CHART.top - CHART.bottom;
-  const y = (socPct: number) => CHART.top + plotH * (1 - Math.min(100, Math.max(0, socPct)) / 100);
-  const step = plotW / runs.length;
-  const barW = Math.max(3, Math.min(28, step * 0.6));
-  const x = (i: number) => CHART.left + step * (i + 0.5);
+  const clamp = (v: number) => Math.min(100, Math.max(0, v));
   const first = runs[0]!;
   const last = runs[runs.length - 1]!;
   return (
@@ -293,58 +291,41 @@ function BandChart({ runs, timeZone }: { runs: WatchRun[]; timeZone: string }) {
       <h3 id="watch-band-h" className="text-base">
         How sure, run by run
       </h3>
-      <svg viewBox={`0 0 ${CHART.w} ${CHART.h}`} className="mt-2 h-auto w-full" role="img" aria-label={sentence}>
-        {[0, 50, 100].map((v) => (
-          <g key={v}>
-            <line
-              x1={CHART.left}
-              x2={CHART.w - CHART.right}
-              y1={y(v)}
-              y2={y(v)}
-              stroke="#e6d8c1"
-              strokeDasharray={v === 0 ? undefined : '4 4'}
-            />
-            <text x={CHART.left - 6} y={y(v) + 4} textAnchor="end" fontSize="11" fill="#4a6280">
-              {v} %
-            </text>
-          </g>
-        ))}
-        {runs.map((r, i) =>
-          r.band ? (
-            <rect
-              key={`b-${r.forecastId}`}
-              x={x(i) - barW / 2}
-              width={barW}
-              y={y(r.band.highSocPct)}
-              height={Math.max(2, y(r.band.lowSocPct) - y(r.band.highSocPct))}
-              rx={Math.min(6, barW / 2)}
-              fill="#55708f"
-              fillOpacity={0.35}
-              stroke="#55708f"
-            />
-          ) : null,
-        )}
-        {runs.map((r, i) => (
-          <circle
-            key={`m-${r.forecastId}`}
-            cx={x(i)}
-            cy={y(r.minSocPct)}
-            r={Math.max(3, Math.min(6, barW / 3))}
-            fill={r.verdict === 'makes-it' ? '#3e6646' : r.verdict === 'runs-out' ? '#a4341b' : '#7a5a12'}
-            stroke="white"
-            strokeWidth={1.5}
-          />
-        ))}
-        <text x={CHART.left} y={CHART.h - 6} fontSize="11" fill="#4a6280">
-          {formatDay(dateIn(first.ranAt, timeZone))}
-        </text>
-        {runs.length > 1 ? (
-          <text x={CHART.w - CHART.right} y={CHART.h - 6} textAnchor="end" fontSize="11" fill="#4a6280">
-            {formatDay(dateIn(last.ranAt, timeZone))}
-          </text>
-        ) : null}
-      </svg>
-      <figcaption className="mt-1 text-sm text-slate-text" data-testid="watch-band-sentence">
+      <div className="mt-2 flex gap-2" role="img" aria-label={sentence}>
+        <div aria-hidden="true" className="relative h-36 w-10 shrink-0 text-right text-xs text-slate-text">
+          <span className="absolute right-0 top-0 -translate-y-1/2">100 %</span>
+          <span className="absolute right-0 top-1/2 -translate-y-1/2">50 %</span>
+          <span className="absolute bottom-0 right-0 translate-y-1/2">0 %</span>
+        </div>
+        <div aria-hidden="true" className="relative h-36 min-w-0 flex-1 border-b border-sand-dark">
+          <div className="absolute inset-x-0 top-0 border-t border-dashed border-sand-dark" />
+          <div className="absolute inset-x-0 top-1/2 border-t border-dashed border-sand-dark" />
+          <div className="absolute inset-0 flex items-stretch gap-[3px]">
+            {runs.map((r) => (
+              <div key={r.forecastId} className="relative flex-1" title={runSentence(r, timeZone)}>
+                {r.band ? (
+                  <div
+                    className="absolute left-1/2 w-[60%] max-w-7 min-w-[4px] -translate-x-1/2 rounded-md border border-slate bg-slate/35"
+                    style={{
+                      bottom: `${clamp(r.band.lowSocPct)}%`,
+                      height: `max(3px, ${clamp(r.band.highSocPct) - clamp(r.band.lowSocPct)}%)`,
+                    }}
+                  />
+                ) : null}
+                <div
+                  className={`absolute left-1/2 h-3 w-3 -translate-x-1/2 translate-y-1/2 rounded-full border-2 border-white ${DOT[r.verdict]}`}
+                  style={{ bottom: `${clamp(r.minSocPct)}%` }}
+                />
+              </div>
+            ))}
+          </div>
+        </div>
+      </div>
+      <div aria-hidden="true" className="ml-12 mt-2 flex justify-between text-xs text-slate-text">
+        <span>{formatInstant(first.ranAt, timeZone)}</span>
+        {runs.length > 1 ? <span>{formatInstant(last.ranAt, timeZone)}</span> : null}
+      </div>
+      <figcaption className="mt-2 text-sm text-slate-text" data-testid="watch-band-sentence">
         {sentence} Bars: the lowest state of charge across the band; dots: each run&apos;s own lowest.
       </figcaption>
     </figure>
