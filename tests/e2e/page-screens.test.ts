@@ -130,6 +130,8 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rig, trip, forecast and
       await page.getByTestId('hourly-details').locator('summary').click();
     }
     if (name === 'rig') await page.locator('#arrays-0-ratedWatts').waitFor();
+    // Compare reads both snapshots in the browser: judge the page once they are drawn.
+    if (name === 'compare') await page.locator('[data-testid="compare-view"] table').first().waitFor();
     await page.evaluate(() => window.scrollTo(0, 0));
     await page.screenshot({ path: path.join(SCREENS, `${name}-${viewport}.png`), fullPage: true });
     expect(await clipped(page, viewport === 'desktop')).toEqual([]);
