@@ -1,5 +1,6 @@
 // The daily chart's bars: demand = loads served + loads not served, per local day (#16 item 9).
 import { describe, expect, it } from 'vitest';
+import { daysSummaryText } from '../../src/features/forecast/chart-data';
 import { dayEnergy, unmetDays } from '../../src/features/forecast/day-energy';
 import { basePlan, run } from '../reference/plan-helpers';
 
@@ -48,5 +49,15 @@ describe('daily demand with loads not served', () => {
     expect(unmetDays(full)).toEqual([]);
     // 9 + 11 hours × 10 W, all served (loadWh is the served part).
     expect(dayEnergy(full).map((d) => d.demandWh)).toEqual([90, 110]);
+  });
+});
+
+describe('the daily chart’s summary', () => {
+  it('says what the loads asked for and got, and judges the hardest day by what it asked', () => {
+    const text = daysSummaryText(run(plan));
+    // Asked 1,152 + 1,408 = 2,560 Wh; served 63.54 → 64 Wh (loadWh rounded). Neither day is whole (9 and 11 hours),
+    // so both are judged: day two is short by 1,408 Wh (nothing charges), all of it not served.
+    expect(text).toContain('Over 2 days the loads ask for 2,560 Wh and get 64 Wh;');
+    expect(text).toContain('The hardest day is Fri 11 Jun: 1,408 Wh more asked for than charged (1,408 Wh of it not served).');
   });
 });

@@ -4,6 +4,7 @@
 import type { Forecast, HourlyRow, ResolvedPlan } from '../../engine';
 import { formatDay, formatRowTime, formatWh, localParts, pct } from '../../lib/format';
 import { reserveOf, stopNameAt } from '../../domain/forecasts/verdict';
+import { dayEnergy, type DayEnergy } from './day-energy';
 
 /** Colours of ux.md ("Charts"). */
 export const COLORS = {
@@ -147,7 +148,7 @@ export function socSummaryText(f: Forecast, plan: ResolvedPlan, reserveSocPct?: 
   return parts.join(' ');
 }
 
-/** Text summary of the daily energy chart. */
+/** Text summary of the daily energy chart: demand (served and not served) against charging. */
 export function daysSummaryText(f: Forecast): string {
   if (f.days.length === 0) return 'No days to show.';
   // Partial first and last days would look easy or hard only for being short: judge whole days.
@@ -156,11 +157,20 @@ export function daysSummaryText(f: Forecast): string {
     const d = localParts(r.time)?.date ?? '';
     hours.set(d, (hours.get(d) ?? 0) + 1);
   }
-  const whole = f.days.filter((d) => (hours.get(d.date) ?? 0) >= 23);
-  const pool = whole.length > 0 ? whole : f.days;
-  const worst = pool.reduce((a, b) => (b.netWh < a.netWh ? b : a));
-  const net = worst.netWh < 0 ? `${formatWh(-worst.netWh)} more used than charged` : `${formatWh(worst.netWh)} more charged than used`;
-  return `Over ${f.days.length} days the loads use ${formatWh(f.summary.loadWh)}; solar delivers ${formatWh(f.summary.solarWh)} and other charging ${formatWh(f.summary.chargeWh)}. The hardest ${whole.length > 0 ? 'whole ' : ''}day is ${formatDay(worst.date)}: ${net}.`;
+  const energy = dayEnergy(f);
+  const whole = energy.filter((d) => (hours.get(d.date) ?? 0) >= 23);
+  const pool = whole.length > 0 ? whole : energy;
+  // A day's balance against what the loads asked for, so a day spent cut off counts as hard as it is.
+  const balance = (d: DayEnergy) => d.netWh - d.unmetWh;
+  const worst = pool.reduce((a, b) => (balance(b) < balance(a) ? b : a));
+  const wb = balance(worst);
+  const net =
+    wb < 0
+      ? `${formatWh(-wb)} more ${worst.unmetWh >= 1 ? 'asked for' : 'used'} than charged${worst.unmetWh >= 1 ? ` (${formatWh(worst.unmetWh)} of it not served)` : ''}`
+      : `${formatWh(wb)} more charged than used`;
+  const unmet = energy.reduce((s, d) => s + d.unmetWh, 0);
+  const loads = unmet >= 1 ? `the loads ask for ${formatWh(f.summary.loadWh + unmet)} and get ${formatWh(f.summary.loadWh)}` : `the loads use ${formatWh(f.summary.loadWh)}`;
+  return `Over ${f.days.length} days ${loads}; solar delivers ${formatWh(f.summary.solarWh)} and other charging ${formatWh(f.summary.chargeWh)}. The hardest ${whole.length > 0 ? 'whole ' : ''}day is ${formatDay(worst.date)}: ${net}.`;
 }
 
 /** Rows of one local day (by the row's own local date). */

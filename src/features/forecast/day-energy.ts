@@ -14,6 +14,8 @@ export interface DayEnergy {
   demandWh: number;
   solarWh: number;
   chargeWh: number;
+  /** The day's net against what was served (`netWh`: solar + charging − served), from unrounded sums. */
+  netWh: number;
 }
 
 /**
@@ -33,7 +35,7 @@ export function dayEnergy(f: Forecast): DayEnergy[] {
   }
   return f.days.map((d) => {
     const unmet = typeof d.unmetWh === 'number' ? d.unmetWh : (fromHours?.get(d.date) ?? 0);
-    return { date: d.date, servedWh: d.loadWh, unmetWh: unmet, demandWh: d.loadWh + unmet, solarWh: d.solarWh, chargeWh: d.chargeWh };
+    return { date: d.date, servedWh: d.loadWh, unmetWh: unmet, demandWh: d.loadWh + unmet, solarWh: d.solarWh, chargeWh: d.chargeWh, netWh: d.netWh };
   });
 }
 
