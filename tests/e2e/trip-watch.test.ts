@@ -3,7 +3,7 @@ import path from 'node:path';
 import type { Page } from 'playwright-core';
 import { api, baseUrl, signUp, type Session } from '../helpers/api';
 import { browserPool, hydrated, SCREENSHOTS, seriousViolations, shot, signIn } from '../helpers/browser';
-import { createLoad, createRig } from '../helpers/fixtures';
+import { addMember, createLoad, createRig, personalCrewId } from '../helpers/fixtures';
 import { waitForMail } from '../helpers/mail';
 import { demoPlan } from '../../src/engine';
 import { watchedTripInput } from '../../scripts/seed-demo';
@@ -111,6 +111,8 @@ describe('trip watch: the weather turns and the crew is told', () => {
     await expect.poll(() => page.getByTestId('dev-weather-now').textContent()).toMatch(/forecasts a storm on every day/);
     const said = await runWatchFromDev();
     expect(said).toMatch(/[1-9]\d* answers? changed/);
+    await shot(page, 'dev-controls-desktop');
+    expect(await seriousViolations(page)).toEqual([]);
 
     const w = await watchOf();
     expect(w.runs.map((r) => r.verdict)).toEqual(['makes-it', 'runs-out']);
@@ -171,18 +173,32 @@ describe('trip watch: the weather turns and the crew is told', () => {
     await page.getByTestId('trip-watch').screenshot({ path: path.join(SCREENSHOTS, 'trip-watch-panel-waiting.png') });
   });
 
-  it('shows the same panel on a phone, readable and without serious accessibility findings', async () => {
+  it('shows a viewer of the crew the same panel on a phone, with "Follow by e-mail" instead of the on/off switch', async () => {
+    const viewer = await signUp({ name: 'Watch Viewer', password: PASSWORD });
+    addMember(personalCrewId(camper.userId), viewer.userId, 'viewer');
     const phone = await pool.open('phone', { timezoneId: 'America/Mazatlan' });
-    await signIn(phone, camper.email, PASSWORD, `/trips/${tripId}`);
+    await signIn(phone, viewer.email, PASSWORD, `/trips/${tripId}`);
     const panel = phone.getByTestId('trip-watch');
     await panel.waitFor();
     await panel.getByTestId('watch-notice').waitFor();
+    expect(await panel.getByRole('switch', { name: 'Watch this trip' }).count()).toBe(0);
+    const follow = panel.getByRole('switch', { name: 'Follow by e-mail' });
+    expect(await follow.getAttribute('aria-checked')).toBe('false');
+    await follow.click();
+    await expect.poll(() => follow.getAttribute('aria-checked')).toBe('true');
+    expect(((await (await api(`/api/trips/${tripId}/watch`, { session: viewer })).json()) as { following: boolean }).following).toBe(true);
     const box = await panel.boundingBox();
     // Nothing of the panel spills past the phone's 390 px.
     expect(box!.x + box!.width).toBeLessThanOrEqual(390);
     await panel.scrollIntoViewIfNeeded();
     await shot(phone, 'trip-watch-phone');
     await panel.screenshot({ path: path.join(SCREENSHOTS, 'trip-watch-panel-phone.png') });
+    expect(await seriousViolations(phone)).toEqual([]);
+
+    await phone.goto(`${baseUrl()}/dev`);
+    await hydrated(phone);
+    await phone.getByTestId('dev-weather-now').waitFor();
+    await shot(phone, 'dev-controls-phone');
     expect(await seriousViolations(phone)).toEqual([]);
   });
 });
