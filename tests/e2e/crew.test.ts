@@ -155,8 +155,11 @@ describe('installer and crew pages at both widths (Chromium)', () => {
 
       // The owner revokes; the installer's list is empty again.
       await signIn(page, owner.email, PASSWORD, `/rigs/${rig.id}#installers`);
-      page.once('dialog', (d) => void d.accept());
+      // Asked in the page (no browser box): the question names what the installer loses.
       await page.getByRole('button', { name: 'Revoke access' }).click();
+      const ask = page.getByRole('group', { name: 'Confirm' });
+      await ask.getByText('Take Wren’s access to this rig away?').waitFor();
+      await ask.getByRole('button', { name: 'Revoke access' }).click();
       await page.getByText('Wren no longer has access to this rig.').waitFor();
       expect(await (await api('/api/installer/rigs', { session: installer })).json()).toEqual([]);
     } finally {
