@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { api, baseUrl, signUp, type Session } from '../helpers/api';
+import { api, signUp, type Session } from '../helpers/api';
 import { createLoad, createRig } from '../helpers/fixtures';
 import { launch, seriousViolations, shot, signIn, VIEWPORTS, type ViewportName } from '../helpers/browser';
 
@@ -72,5 +72,19 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('importing the load list
     await page.getByText('Replaced 3 loads with the 2 imported.').waitFor();
     expect(await names()).toEqual(['Compressor fridge', 'LED lights']);
     await shot(page, `loads-import-replaced-${viewport}`);
+  });
+
+  it('offers at least 40 typical appliances, each saying where its figure comes from; a slide-out runs on drive days', async () => {
+    await page.getByRole('button', { name: '+ From the catalogue' }).click();
+    const picker = page.getByRole('region', { name: 'Typical appliances' });
+    await picker.waitFor();
+    expect(await picker.getByRole('listitem').count()).toBeGreaterThanOrEqual(40);
+    await shot(page, `loads-catalogue-${viewport}`);
+    await picker.getByRole('button', { name: /Slide-out motor/ }).click();
+    await page.getByText(/on drive days\)/).waitFor();
+    await page.getByText('From memory — the roughest kind of typical figure.').waitFor();
+    await shot(page, `loads-catalogue-slide-out-${viewport}`);
+    expect(await seriousViolations(page)).toEqual([]);
+    await page.getByRole('button', { name: 'Cancel' }).click();
   });
 });

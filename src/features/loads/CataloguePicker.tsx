@@ -49,7 +49,7 @@ export function CataloguePicker({ units, rig, add, onClose }: { units: Units; ri
         <h3 id="catalogue-heading" className="text-base font-extrabold">Typical appliances</h3>
         <button type="button" className="btn btn-quiet min-h-[36px] px-3 py-1 text-sm" onClick={onClose}>Close</button>
       </div>
-      <p className="field-hint">Typical draws from common practice and published measurements — check your appliance’s label. You confirm the number before it is added.</p>
+      <p className="field-hint">Typical draws from published measurements, common practice and, where an item says so, memory — check your appliance’s label. You confirm the number before it is added.</p>
       <ul className="mt-3 grid gap-2 sm:grid-cols-2 lg:grid-cols-3">
         {CATALOGUE.map((item) => (
           <li key={item.id}>
