@@ -55,7 +55,12 @@ export const LOAD_CATALOGUE = (
     { id: 'laptop', typicalId: 'laptop', label: 'Laptop via inverter', name: 'Laptop (via inverter)' },
     { id: 'parasitic', typicalId: 'standby', label: 'Parasitic draw', name: 'Parasitic draw' },
   ] as const
-).map((l) => ({ id: l.id, typicalId: l.typicalId, label: l.label, typical: typicalLoad(l.typicalId).about, load: typicalAsLoad(l.typicalId, l.name) }));
+).map((l) => ({ id: l.id, typicalId: l.typicalId, label: l.label, typical: afterColon(typicalLoad(l.typicalId).about), load: typicalAsLoad(l.typicalId, l.name) }));
+
+/** The catalogue's line as it reads after "Typical:" (a leading "About" in lower case). */
+function afterColon(about: string): string {
+  return /^[A-Z][a-z]/.test(about) ? about.charAt(0).toLowerCase() + about.slice(1) : about;
+}
 export type LoadId = (typeof LOAD_CATALOGUE)[number]['id'];
 const LOAD_IDS = LOAD_CATALOGUE.map((l) => l.id) as [LoadId, ...LoadId[]];
 
