@@ -8,10 +8,11 @@ import type { Kysely } from 'kysely';
 import type { DB, RigRow, TripRow } from '../../db/schema';
 import type { Forecast, ForecastSummary, ResolvedPlan } from '../engine';
 import { dueForRun, inWatchWindow, mayMail, watchChanges, type WatchAnswer, type WatchChangeReason } from '../domain/watch/change';
+import { changedDay } from '../domain/watch/changed-day';
 import { REASON_WORDS, watchMail } from '../domain/watch/mail';
 import { reserveOf, verdict } from '../domain/forecasts/verdict';
 import type { StopLike } from '../domain/weather/weather';
-import { formatDay, formatRowTime } from '../lib/format';
+import { formatDay, formatRowTime, localParts } from '../lib/format';
 import { env } from './env';
 import { assemblePlan, getForecast, packHourly } from './forecasts';
 import { listLoads } from './loads';
@@ -180,30 +181,6 @@ async function seenAnswer(db: Kysely<DB>, trip: TripRow): Promise<{ forecastId: 
   return { forecastId: f.id, stored: false, answer: answerOf(watchVerdictOf(f.forecast.summary, f.plan, f.reserveSocPct), f.forecast.summary) };
 }
 
-/** Daily sunlight of a stop-day's weather (Wh/m² from its hours, or its cloud oktas when it has none). */
-function daySun(w: { cloudOktas: number; hourly?: { ghiWm2?: number }[] }): number {
-  if (w.hourly?.some((h) => h.ghiWm2 !== undefined)) return w.hourly.reduce((t, h) => t + (h.ghiWm2 ?? 0), 0);
-  return (8 - w.cloudOktas) * 600;
-}
-
-/** The stop-day whose sunlight moved the most between two plans' weather, or null. */
-export function changedDay(before: ResolvedPlan | null, after: ResolvedPlan): { date: string; stop: string } | null {
-  if (!before) return null;
-  let best: { date: string; stop: string; delta: number } | null = null;
-  after.stops.forEach((s, i) => {
-    const old = before.stops[i];
-    if (!old) return;
-    for (const w of s.weather) {
-      const o = old.weather.find((x) => x.date === w.date);
-      if (!o) continue;
-      const delta = Math.abs(daySun(w) - daySun(o));
-      if (delta > 0 && (!best || delta > best.delta)) best = { date: w.date, stop: s.name || `Stop ${i + 1}`, delta };
-    }
-  });
-  const b = best as { date: string; stop: string; delta: number } | null;
-  return b ? { date: b.date, stop: b.stop } : null;
-}
-
 /** The latest check-in taken during the trip and not after `now`. */
 async function latestCheckIn(db: Kysely<DB>, tripId: string, nowMs: number, startMs: number): Promise<{ atMs: number; socPct: number; id: string } | null> {
   const c = await db
@@ -311,7 +288,7 @@ async function runTrip(db: Kysely<DB>, trip: TripRow, rig: RigRow, now: Date, or
   }
 
   // A change that matters: the notice, the answer seen and the e-mails, in one transaction.
-  const day = changedDay(seen?.forecastId ? ((await getForecast(db, seen.forecastId))?.plan ?? null) : null, plan);
+  const day = changedDay(seen?.forecastId ? ((await getForecast(db, seen.forecastId))?.plan ?? null) : null, plan, cutoffAt ? (localParts(cutoffAt)?.date ?? null) : null);
   const why = day ? ` The weather for ${formatDay(day.date)} at ${day.stop} changed the most.` : '';
   const reasonText = reasons.map((r) => REASON_WORDS[r]).join('; ');
   const summary = `${v.headline}.${why}`;
@@ -348,14 +325,15 @@ async function runTrip(db: Kysely<DB>, trip: TripRow, rig: RigRow, now: Date, or
       const unsubscribeUrl = `${origin}/watch/unsubscribe?token=${signUnsubscribe(env.authSecret, { tripId: trip.id, userId: p.userId })}`;
       const m = watchMail({ tripName: trip.name, headline: v.headline, cutoffAt: v.cutoffAt, cutoffStop: v.cutoffStop, reasons, changedDay: day, advice, tripUrl, unsubscribeUrl });
       const greeting = `Hello ${p.name || 'there'},`;
-      const body = m.text.split('\n\n');
+      const lines = m.text.split('\n').filter((line) => line.trim() && !line.startsWith('Open the trip:') && !line.startsWith('Stop these e-mails'));
+      // The unsubscribe address as a link in the HTML part too (renderMail links only the button).
       const html = renderMail({
         subject: m.subject,
         greeting,
-        intro: body.filter((para) => !para.startsWith('Open the trip:')).map((para) => para.replace(/\n/g, ' ')),
+        intro: lines,
         action: { label: 'Open the trip', url: tripUrl },
         outro: [`Stop these e-mails for this trip: ${unsubscribeUrl}`],
-      }).html;
+      }).html.replace(`: ${unsubscribeUrl}`, `: <a href="${unsubscribeUrl}" style="color:inherit;">${unsubscribeUrl}</a>`);
       await enqueueMail(trx, 'trip-watch', p.email, { subject: m.subject, text: `${greeting}\n\n${m.text}`, html });
       await trx
         .insertInto('watch_people')

@@ -3,6 +3,7 @@
 // advice that goes into the e-mail when the answer changed.
 import { forecast, validatePlan, type Forecast, type Plan, type ResolvedPlan } from '../../engine';
 import { advise } from '../../domain/advice/advice';
+import { CAUTIONS } from '../../domain/advice/cautions';
 import { reforecastFrom } from '../../domain/checkins/reforecast';
 
 export interface WatchRunTask {
@@ -21,6 +22,8 @@ export function adviceLines(plan: ResolvedPlan, f: Forecast, reserveSocPct: numb
     const a = advise(plan, f, reserveSocPct);
     const lines = a.changes.map((c) => `${c.title}: ${c.effect}${c.caution ? ` (${c.caution})` : ''}`);
     if (a.cold) lines.push(a.cold.alone);
+    // Sizing and generator advice carries the short cautions (product.md, Safety).
+    if (lines.length > 0) lines.push(CAUTIONS.estimate);
     return lines;
   } catch {
     return [];
