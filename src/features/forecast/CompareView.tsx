@@ -29,13 +29,32 @@ export interface CompareViewProps {
   units?: Units;
 }
 
+/** Changes shown at once per section; the rest fold away (a month of re-fetched weather is many lines). */
+const SHOWN = 6;
+const KIND_WORDS = { added: 'Added', removed: 'Removed', changed: 'Changed' } as const;
+
+function ChangeList({ changes, testId }: { changes: SnapshotSection['changes']; testId?: string }) {
+  return (
+    <ul className="mt-1 space-y-1 text-sm" data-testid={testId}>
+      {changes.map((c, i) => (
+        <li key={i} className="break-words">
+          <span className={`mr-1.5 inline-block rounded px-1.5 text-xs font-bold ${c.kind === 'added' ? 'bg-moss/15 text-moss-deep' : c.kind === 'removed' ? 'bg-ember/15 text-alert' : 'bg-sand-dark/60 text-dusk'}`}>
+            {KIND_WORDS[c.kind]}
+          </span>
+          <strong>{c.what}</strong>
+          {c.detail ? `: ${c.detail}` : ''}
+        </li>
+      ))}
+    </ul>
+  );
+}
+
 /** What changed from the earlier saved forecast to the later one, above the overlay. */
 function Changes({ a, b, units }: { a: CompareSide; b: CompareSide; units: Units }) {
   if (!a.createdAt || !b.createdAt) return null;
   const [older, newer] = Date.parse(a.createdAt) <= Date.parse(b.createdAt) ? [a, b] : [b, a];
   const inputs = (s: CompareSide) => ({ plan: s.plan, engineRevision: s.engineRevision ?? s.forecast.engineRevision, weatherSources: (s.forecast as ForecastWithWeather).weatherSources });
   const sections: SnapshotSection[] = snapshotDiff(inputs(older), inputs(newer), units);
-  const kindWords = { added: 'Added', removed: 'Removed', changed: 'Changed' } as const;
   return (
     <section aria-labelledby="compare-changes" className="card p-3 sm:p-5" data-testid="compare-changes">
       <h2 id="compare-changes" className="mb-1 text-xl">What changed</h2>
@@ -61,17 +80,13 @@ function Changes({ a, b, units }: { a: CompareSide; b: CompareSide; units: Units
           {sections.map((s) => (
             <div key={s.title} className="min-w-0">
               <h3 className="text-base font-bold">{s.title}</h3>
-              <ul className="mt-1 space-y-1 text-sm" data-testid={`changes-${s.title.toLowerCase()}`}>
-                {s.changes.map((c, i) => (
-                  <li key={i} className="break-words">
-                    <span className={`mr-1.5 inline-block rounded px-1.5 text-xs font-bold ${c.kind === 'added' ? 'bg-moss/15 text-moss-deep' : c.kind === 'removed' ? 'bg-ember/15 text-alert' : 'bg-sand-dark/60 text-dusk'}`}>
-                      {kindWords[c.kind]}
-                    </span>
-                    <strong>{c.what}</strong>
-                    {c.detail ? `: ${c.detail}` : ''}
-                  </li>
-                ))}
-              </ul>
+              <ChangeList changes={s.changes.slice(0, SHOWN)} testId={`changes-${s.title.toLowerCase()}`} />
+              {s.changes.length > SHOWN ? (
+                <details className="mt-1">
+                  <summary className="cursor-pointer text-sm font-bold">{s.changes.length - SHOWN} more</summary>
+                  <ChangeList changes={s.changes.slice(SHOWN)} />
+                </details>
+              ) : null}
             </div>
           ))}
         </div>
