@@ -61,8 +61,8 @@ export function watchedTripInput(rigId: string, today = new Date()) {
     name: WATCHED_TRIP,
     // Nothing typed: every day comes from the (fake) weather service's forecast, so turning the
     // weather on /dev changes the watch's answer. In the fake's normal December weather the van
-    // makes it (lowest roughly 40–70 %); under its storm the outside bank goes cold and cuts off
-    // during the first night.
+    // makes it (lowest roughly 40–70 % in runs of 4 Dec 2026); under its storm (a tenth of the light,
+    // 12 °C colder) the bank, outside and cold, cuts off within the first two nights.
     stops: [
       {
         name: 'Cardón Flat',
