@@ -87,7 +87,7 @@ describe('a trip kept on the phone, offline', () => {
     await page.goto(`${baseUrl()}/trips/${tripId}`);
     await hydrated(page);
     await page.waitForFunction(() => document.documentElement.dataset.offlineReady === 'true', undefined, { timeout: 60_000 });
-    await page.getByTestId('offline-status').filter({ hasText: 'saved on this phone' }).waitFor();
+    await page.getByTestId('offline-status').filter({ hasText: 'its latest saved forecast, “Before leaving”' }).waitFor();
     const cached = await page.evaluate(async () => {
       const out: string[] = [];
       for (const name of await caches.keys()) for (const r of await (await caches.open(name)).keys()) out.push(new URL(r.url).pathname);
