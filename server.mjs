@@ -93,6 +93,12 @@ async function serve() {
   process.env.ASTRO_NODE_AUTOSTART = 'disabled';
   const dist = path.resolve(import.meta.dirname, process.env.SUNRECKON_DIST ?? 'dist');
   const { handler, options } = await import(pathToFileURL(path.join(dist, 'server/entry.mjs')).href);
+  // Astro loads the middleware on the first request; the background process loads it now, so its
+  // timers (the outbox's retries, the trip watch, the purge) run after a restart with no traffic.
+  if (process.env.SUNRECKON_BACKGROUND !== '0') {
+    const middleware = path.join(dist, 'server/_astro-internal_middleware.mjs');
+    if (existsSync(middleware)) await import(pathToFileURL(middleware).href);
+  }
 
   const host = process.env.HOST ?? (typeof options.host === 'string' ? options.host : '127.0.0.1');
   const port = Number(process.env.PORT ?? options.port ?? 4321);

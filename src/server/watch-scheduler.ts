@@ -39,6 +39,7 @@ export function startWatchScheduler(): boolean {
   if (timer || env.WATCH === 'off' || env.SUNRECKON_ENV === 'test') return false;
   timer = setInterval(() => void tick(), pollMs());
   timer.unref();
+  console.log(`[sunreckon] trip watch on: trips re-run every ${env.WATCH_INTERVAL_MINUTES} minutes, due trips looked for every ${pollMs() / 60_000} minutes`);
   // The first look soon after start, not a whole poll later.
   setTimeout(() => void tick(), 20_000).unref();
   return true;
