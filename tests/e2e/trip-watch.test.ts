@@ -201,4 +201,26 @@ describe('trip watch: the weather turns and the crew is told', () => {
     await shot(phone, 'dev-controls-phone');
     expect(await seriousViolations(phone)).toEqual([]);
   });
+
+  it('goes back to normal on /dev: the next run tells the better answer on the page, and no second e-mail goes within 12 hours', async () => {
+    await page.goto(`${baseUrl()}/dev`);
+    await hydrated(page);
+    await page.getByRole('button', { name: 'Back to normal' }).click();
+    await expect
+      .poll(() => page.getByTestId('dev-weather-now').textContent())
+      .toBe('The local fake weather service forecasts its normal weather.');
+    expect(await runWatchFromDev()).toMatch(/[1-9]\d* answers? changed/);
+    const w = await watchOf();
+    expect(w.runs.map((r) => r.verdict)).toEqual(['makes-it', 'runs-out', 'makes-it']);
+    expect(w.notice).toMatchObject({ verdict: 'makes-it', previousVerdict: 'runs-out', forecastId: w.runs[2]!.forecastId });
+    await page.goto(`${baseUrl()}/trips/${tripId}`);
+    await hydrated(page);
+    const notice = page.getByTestId('watch-notice');
+    await notice.waitFor();
+    expect(await notice.getByRole('heading').textContent()).toBe('The answer changed: makes it, no longer runs out');
+    expect(await notice.textContent()).toContain('better than before');
+    // Still the one e-mail of the first change (at most one per person and trip in 12 hours).
+    await new Promise((r) => setTimeout(r, 1500));
+    expect(await waitForMail(camper.email)).toHaveLength(1);
+  });
 });
