@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { api, signUp, type Session } from '../helpers/api';
+import { api, baseUrl, signUp, type Session } from '../helpers/api';
 import { makeRig, makeTrip } from '../helpers/crew';
-import { launch, signIn } from '../helpers/browser';
+import { hydrated, launch, signIn } from '../helpers/browser';
 
 // A phone's decimal keypad (inputMode="decimal" on an iPhone) has digits and the decimal sign but no
 // minus. A camper west of Greenwich or expecting a frost types the digits and taps the ± button beside
@@ -59,5 +59,30 @@ describe('signed fields at 390 px: a ± button where the keypad has no minus', (
     expect(trip.stops[0]?.lon).toBe(-109.55);
     expect(trip.stops[0]?.lat).toBe(36.1);
     expect(trip.stops[0]?.weather[0]).toMatchObject({ highC: 9, lowC: -4 });
+  });
+
+  it('on the quick plan too: a western longitude and a low below zero from digits and ±, sent as negative numbers', async () => {
+    const anon = await launch('phone', { locale: 'en-US' });
+    try {
+      const p = anon.page;
+      await p.goto(baseUrl() + '/');
+      await hydrated(p);
+      const lon = p.locator('#qp-lon');
+      expect(await lon.getAttribute('inputmode')).toBe('decimal');
+      await lon.fill('109.55');
+      await p.getByRole('button', { name: 'Switch Longitude between plus and minus' }).click();
+      expect(await lon.inputValue()).toBe('-109.55');
+      await p.locator('#qp-high').fill('9');
+      await p.locator('#qp-low').fill('4');
+      await p.getByRole('button', { name: 'Switch Low between plus and minus' }).click();
+      expect(await p.locator('#qp-low').inputValue()).toBe('-4');
+      const sent = p.waitForRequest((r) => new URL(r.url()).pathname === '/api/forecasts/preview' && r.method() === 'POST');
+      await p.getByRole('button', { name: 'Forecast my trip' }).click();
+      const plan = (await sent).postDataJSON() as { stops: { lon: number; weather: { lowC: number; highC: number }[] }[] };
+      expect(plan.stops[0]?.lon).toBe(-109.55);
+      expect(plan.stops[0]?.weather[0]).toMatchObject({ highC: 9, lowC: -4 });
+    } finally {
+      await anon.close();
+    }
   });
 });

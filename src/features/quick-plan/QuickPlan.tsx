@@ -12,6 +12,8 @@ import SocChart from '../forecast/SocChart';
 import SummaryCards from '../forecast/SummaryCards';
 import VerdictBanner from '../forecast/VerdictBanner';
 import type { Units } from '../../lib/units';
+import { SignToggle } from '../../components/ui/SignToggle';
+import { asNumber } from '../../components/ui/form';
 import { previewForecast } from '../forecast/forecast.api';
 import { useDelayed } from '../forecast/useWidth';
 import {
@@ -129,6 +131,8 @@ function QuickPlanForm({ today }: QuickPlanProps) {
   };
 
   const num = { valueAsNumber: true } as const;
+  // Signed boxes are text read by the locale, with a ± button: phone decimal keypads have no minus key.
+  const typed = { setValueAs: asNumber } as const;
   const err = (k: keyof QuickPlanForm) => errors[k]?.message as string | undefined;
 
   return (
@@ -220,10 +224,16 @@ function QuickPlanForm({ today }: QuickPlanProps) {
           </Field>
           <div className="grid grid-cols-[1fr_1fr_auto] items-start gap-3">
             <Field id="qp-high" label={`High (°${tempUnit})`} errorName="High" error={err('high')}>
-              <input id="qp-high" type="number" inputMode="decimal" step="any" className="field-input" {...describedBy('qp-high', err('high'))} {...register('high', num)} {...start('high')} />
+              <div className="flex gap-1.5">
+                <SignToggle inputId="qp-high" label="High" />
+                <input id="qp-high" inputMode="decimal" autoComplete="off" className="field-input min-w-0 flex-1" {...describedBy('qp-high', err('high'))} {...register('high', typed)} {...start('high')} />
+              </div>
             </Field>
             <Field id="qp-low" label={`Low (°${tempUnit})`} errorName="Low" error={err('low')}>
-              <input id="qp-low" type="number" inputMode="decimal" step="any" className="field-input" {...describedBy('qp-low', err('low'))} {...register('low', num)} {...start('low')} />
+              <div className="flex gap-1.5">
+                <SignToggle inputId="qp-low" label="Low" />
+                <input id="qp-low" inputMode="decimal" autoComplete="off" className="field-input min-w-0 flex-1" {...describedBy('qp-low', err('low'))} {...register('low', typed)} {...start('low')} />
+              </div>
             </Field>
             <div role="group" aria-label="Temperature unit" className="mt-6 flex overflow-hidden rounded-[10px] border-[1.5px] border-[#b9ab95]">
               {(['C', 'F'] as const).map((u) => (
@@ -369,8 +379,8 @@ function PlaceFields({ register, setValue, getValues, errors, start }: FormApi) 
   };
 
   const placeReg = register('placeName');
-  const latReg = register('lat', { valueAsNumber: true });
-  const lonReg = register('lon', { valueAsNumber: true });
+  const latReg = register('lat', { setValueAs: asNumber });
+  const lonReg = register('lon', { setValueAs: asNumber });
   const err = (k: keyof QuickPlanForm) => errors[k]?.message as string | undefined;
 
   return (
@@ -415,12 +425,13 @@ function PlaceFields({ register, setValue, getValues, errors, start }: FormApi) 
       ) : null}
       <div className="grid grid-cols-2 gap-3">
         <Field id="qp-lat" label="Latitude" error={err('lat')}>
+          <div className="flex gap-1.5">
+          <SignToggle inputId="qp-lat" label="Latitude" />
           <input
             id="qp-lat"
-            type="number"
             inputMode="decimal"
-            step="any"
-            className="field-input"
+            autoComplete="off"
+            className="field-input min-w-0 flex-1"
             {...describedBy('qp-lat', err('lat'))}
             {...latReg}
             {...start('lat')}
@@ -429,14 +440,16 @@ function PlaceFields({ register, setValue, getValues, errors, start }: FormApi) 
               void findZone();
             }}
           />
+          </div>
         </Field>
         <Field id="qp-lon" label="Longitude" error={err('lon')}>
+          <div className="flex gap-1.5">
+          <SignToggle inputId="qp-lon" label="Longitude" />
           <input
             id="qp-lon"
-            type="number"
             inputMode="decimal"
-            step="any"
-            className="field-input"
+            autoComplete="off"
+            className="field-input min-w-0 flex-1"
             {...describedBy('qp-lon', err('lon'))}
             {...lonReg}
             {...start('lon')}
@@ -445,6 +458,7 @@ function PlaceFields({ register, setValue, getValues, errors, start }: FormApi) 
               void findZone();
             }}
           />
+          </div>
         </Field>
       </div>
       <Field id="qp-timeZone" label="Time zone" error={err('timeZone')} hint={zoneNote ?? 'Times in the forecast are the camp’s local time.'}>
