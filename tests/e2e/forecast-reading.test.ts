@@ -55,6 +55,11 @@ describe('reading the forecast of a trip that runs out', () => {
   it('draws the cut-off days as tall as the loads asked, with the unserved part striped and named', async () => {
     forecastUrl = await runForecast(page, 'Before the bigger pump');
     await hydrated(page);
+    // The trip's SOC chart (drawn on the server) marks the drive and the hours the bank is cut off as strips.
+    const sketch = page.locator('[data-testid="soc-chart"][data-sketch]');
+    expect(await sketch.locator('.drive-strip').count()).toBe(1);
+    expect(await sketch.locator('.cutoff-strip').count()).toBeGreaterThan(0);
+    expect(await sketch.getByRole('list', { name: 'Chart key' }).textContent()).toContain('Green strip at the bottom: drivingOrange strip: bank cut off');
     await page.locator('#days-heading').scrollIntoViewIfNeeded();
     const daily = page.getByTestId('daily-chart');
     await daily.locator('.recharts-surface').first().waitFor();

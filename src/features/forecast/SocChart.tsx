@@ -4,7 +4,8 @@ import type { Forecast, ResolvedPlan } from '../../engine';
 import { COLORS, cutoffX, dayTicks, nightBands, socSeries, socSummaryText, stopSegments, usableSeries, voltageMarks } from './chart-data';
 import { formatClock, formatRowTimeWithZone } from '../../lib/format';
 import { reserveOf } from '../../domain/forecasts/verdict';
-import { SOC_PLOT, SocKey, SocSketchPlot } from './SocSketch';
+import { SOC_PLOT, SocKey, SocSketchPlot, stripKinds } from './SocSketch';
+import { STRIPS, tripBands } from './hour-marks';
 import { useWidth } from './useWidth';
 
 /** A second forecast drawn over the first (compare). */
@@ -80,6 +81,8 @@ export default function SocChart({ forecast, plan, reserveSocPct, name, compare,
   const cx2 = compare ? cutoffX(compare.forecast) : null;
   const hasUsable = !compare && usableSeries(forecast) !== null;
   const marks = useMemo(() => (compare ? [] : voltageMarks(forecast)), [forecast, compare]);
+  // Drive and cut-off hours as strips along the bottom (one forecast only: an overlay would need two).
+  const strips = useMemo(() => (compare ? { drives: [], cutOff: [] } : tripBands(forecast)), [forecast, compare]);
   const summary = useMemo(() => {
     const main = socSummaryText(forecast, plan, reserveSocPct);
     if (!compare) return main;
@@ -182,6 +185,12 @@ export default function SocChart({ forecast, plan, reserveSocPct, name, compare,
  {hasUsable ? (
               <Line dataKey="usable" name="Usable in the cold" className="usable-line" stroke={COLORS.usable} strokeWidth={2} strokeDasharray="5 4" dot={false} activeDot={false} isAnimationActive={false} connectNulls={false} />
             ) : null}
+            {strips.drives.map((b) => (
+              <ReferenceArea key={`d${b.x1}`} x1={b.x1} x2={b.x2} y1={STRIPS.drive[0]} y2={STRIPS.drive[1]} fill={COLORS.charging} fillOpacity={0.9} stroke="none" ifOverflow="hidden" className="drive-strip" />
+            ))}
+            {strips.cutOff.map((b) => (
+              <ReferenceArea key={`c${b.x1}`} x1={b.x1} x2={b.x2} y1={STRIPS.cutOff[0]} y2={STRIPS.cutOff[1]} fill={COLORS.cutoff} fillOpacity={0.9} stroke="none" ifOverflow="hidden" className="cutoff-strip" />
+            ))}
             {marks.map((m) => (
               <ReferenceArea key={`v${m.x}`} x1={m.x} x2={m.x + 1} y1={0} y2={12} fill={COLORS.cutoffText} fillOpacity={0.85} stroke="none" ifOverflow="hidden" className="voltage-mark" />
             ))}
@@ -216,7 +225,7 @@ export default function SocChart({ forecast, plan, reserveSocPct, name, compare,
           <SocSketchPlot forecast={forecast} plan={plan} reserveSocPct={reserveSocPct} height={height} label={summary} />
         )}
       </div>
-      <SocKey compareName={compare?.name} name={name} narrow={narrow} hasCutoff={cx !== null || cx2 !== null} hasUsable={hasUsable} markKinds={marks.map((m) => m.kind)} />
+      <SocKey compareName={compare?.name} name={name} narrow={narrow} hasCutoff={cx !== null || cx2 !== null} hasUsable={hasUsable} markKinds={marks.map((m) => m.kind)} {...(compare ? {} : stripKinds(forecast))} />
       <figcaption className={showSummary ? 'mt-2 text-sm text-slate-text' : 'sr-only'} data-testid="soc-summary">
         {summary}
       </figcaption>

@@ -2,6 +2,7 @@ import type { Forecast, ResolvedPlan } from '../../engine';
 import { COLORS, cutoffX, dayTicks, nightBands, socSeries, socSummaryText, stopSegments, usableSeries, voltageMarks, VOLTAGE_MARK_WORDS, type VoltageCutoffKind } from './chart-data';
 import { formatClock } from '../../lib/format';
 import { reserveOf } from '../../domain/forecasts/verdict';
+import { STRIPS, tripBands } from './hour-marks';
 
 export interface SocSketchProps {
   forecast: Forecast;
@@ -45,7 +46,7 @@ export default function SocSketch({ forecast: f, plan, reserveSocPct, height = 2
         ))}
       </div>
       <SocSketchPlot forecast={f} plan={plan} reserveSocPct={reserveSocPct} height={height} label={summary} />
-      <SocKey hasCutoff={cx !== null} hasUsable={usableSeries(f) !== null} markKinds={voltageMarks(f).map((m) => m.kind)} />
+      <SocKey hasCutoff={cx !== null} hasUsable={usableSeries(f) !== null} markKinds={voltageMarks(f).map((m) => m.kind)} {...stripKinds(f)} />
       <figcaption className={showSummary ? 'mt-2 text-sm text-slate-text' : 'sr-only'} data-testid="soc-summary">
         {summary}
       </figcaption>
@@ -54,6 +55,12 @@ export default function SocSketch({ forecast: f, plan, reserveSocPct, height = 2
 }
 
 const pctOf = (x: number, n: number) => `${((x / n) * 100).toFixed(3)}%`;
+
+/** Which strips the key names. */
+export function stripKinds(f: Forecast): { hasDrive: boolean; hasCutOffHours: boolean } {
+  const b = tripBands(f);
+  return { hasDrive: b.drives.length > 0, hasCutOffHours: b.cutOff.length > 0 };
+}
 
 /** The plot alone (axes, bands, line, cutoff, day labels) in a box of the given height. */
 export function SocSketchPlot({ forecast: f, plan, reserveSocPct, height, label }: { forecast: Forecast; plan: ResolvedPlan; reserveSocPct?: number | null; height: number; label: string }) {
@@ -72,6 +79,7 @@ export function SocSketchPlot({ forecast: f, plan, reserveSocPct, height, label 
   const usable = usableSeries(f);
   const usableLine = usable?.map((p, i) => `${i ? 'L' : 'M'}${p.x.toFixed(2)},${y(p.soc).toFixed(2)}`).join(' ');
   const marks = voltageMarks(f);
+  const strips = tripBands(f);
 
   return (
     <div className="relative" style={{ height }}>
@@ -92,6 +100,12 @@ export function SocSketchPlot({ forecast: f, plan, reserveSocPct, height, label 
           <line data-testid="reserve-edge" x1="0" x2={n} y1={y(reserve)} y2={y(reserve)} stroke={COLORS.reserveEdge} strokeWidth="1.5" strokeDasharray="6 4" vectorEffect="non-scaling-stroke" />
           {stops.slice(1).map((s) => (
             <line key={`s${s.x1}`} x1={s.x1} x2={s.x1} y1="0" y2="100" stroke={COLORS.loads} strokeOpacity="0.6" strokeDasharray="2 3" vectorEffect="non-scaling-stroke" />
+          ))}
+          {strips.drives.map((b) => (
+            <rect key={`d${b.x1}`} className="drive-strip" x={b.x1} y={y(STRIPS.drive[1])} width={b.x2 - b.x1} height={STRIPS.drive[1] - STRIPS.drive[0]} fill={COLORS.charging} fillOpacity="0.9" />
+          ))}
+          {strips.cutOff.map((b) => (
+            <rect key={`c${b.x1}`} className="cutoff-strip" x={b.x1} y={y(STRIPS.cutOff[1])} width={b.x2 - b.x1} height={STRIPS.cutOff[1] - STRIPS.cutOff[0]} fill={COLORS.cutoff} fillOpacity="0.9" />
           ))}
           {usableLine ? (
             <g className="usable-line" data-testid="usable-line">
@@ -137,7 +151,25 @@ export function SocSketchPlot({ forecast: f, plan, reserveSocPct, height, label 
 }
 
 /** The chart's key (one line or a second dashed line when comparing). */
-export function SocKey({ hasCutoff, compareName, name, narrow = false, hasUsable = false, markKinds = [] }: { hasCutoff: boolean; compareName?: string; name?: string; narrow?: boolean; hasUsable?: boolean; markKinds?: VoltageCutoffKind[] }) {
+export function SocKey({
+  hasCutoff,
+  compareName,
+  name,
+  narrow = false,
+  hasUsable = false,
+  markKinds = [],
+  hasDrive = false,
+  hasCutOffHours = false,
+}: {
+  hasCutoff: boolean;
+  compareName?: string;
+  name?: string;
+  narrow?: boolean;
+  hasUsable?: boolean;
+  markKinds?: VoltageCutoffKind[];
+  hasDrive?: boolean;
+  hasCutOffHours?: boolean;
+}) {
   const kinds = [...new Set(markKinds)];
   return (
     <ul className={`mt-2 flex flex-wrap gap-x-4 gap-y-1 text-xs text-slate-text ${narrow ? '' : 'sm:text-sm'}`} aria-label="Chart key">
@@ -169,6 +201,18 @@ export function SocKey({ hasCutoff, compareName, name, narrow = false, hasUsable
         <li className="flex items-center gap-1.5">
           <span aria-hidden="true" className="inline-block h-3 w-0.5" style={{ background: COLORS.cutoff }} />
           Cutoff
+        </li>
+      ) : null}
+      {hasDrive ? (
+        <li className="flex items-center gap-1.5">
+          <span aria-hidden="true" className="inline-block h-1.5 w-5" style={{ background: COLORS.charging }} />
+          Green strip at the bottom: driving
+        </li>
+      ) : null}
+      {hasCutOffHours ? (
+        <li className="flex items-center gap-1.5">
+          <span aria-hidden="true" className="inline-block h-1.5 w-5" style={{ background: COLORS.cutoff }} />
+          Orange strip: bank cut off
         </li>
       ) : null}
       {kinds.length > 0 ? (

@@ -24,6 +24,14 @@ export function hourBands(rows: HourlyRow[], pick: (r: HourlyRow) => boolean): H
 export const isDriving = (r: HourlyRow): boolean => r.driving === true;
 export const isCutOff = (r: HourlyRow): boolean => r.disconnected === true;
 
+/** The whole trip's drive hours and cut-off hours, as bands of row positions (the SOC chart's strips). */
+export function tripBands(f: Forecast): { drives: HourBand[]; cutOff: HourBand[] } {
+  return { drives: hourBands(f.hourly, isDriving), cutOff: hourBands(f.hourly, isCutOff) };
+}
+
+/** Strips along the bottom of the SOC chart, in SOC % from the axis: drive hours lowest, cut-off hours above them. */
+export const STRIPS = { drive: [0, 3], cutOff: [3, 6] } as const;
+
 /** Why solar went unused, in Wh: the bank was (nearly) full, too cold to charge, or at its charge-current limit. */
 export interface UnusedSolar {
   full: number;
