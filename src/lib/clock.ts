@@ -53,6 +53,8 @@ export function deviceZone(): string {
 const PATTERNS = {
   /** "03:08" */
   time: 'HH:mm',
+  /** "Fri 4 Dec" */
+  day: 'EEE d MMM',
   /** "Fri 4 Dec, 03:08" */
   dayTime: 'EEE d MMM, HH:mm',
   /** "Fri 4 Dec 2026, 03:08" */

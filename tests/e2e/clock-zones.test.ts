@@ -62,6 +62,7 @@ describe.each(['America/Vancouver', 'Pacific/Auckland'])('pages with times in a 
 
   it.each([
     ['trips list', () => '/trips'],
+    ['rigs list', () => '/rigs'],
     ['trip (saved forecasts, check-ins)', () => `/trips/${world.trip.id}`],
     ['saved forecast', () => `/trips/${world.trip.id}/forecasts/${world.forecast.id}`],
     ['compare', () => `/trips/${world.trip.id}/compare?a=${world.forecast.id}&b=${second.id}`],

@@ -1,11 +1,14 @@
 import { useQuery } from '@tanstack/react-query';
 import { loadingFallback, withQueryClient } from '../../components/ui/QueryProvider';
 import { EmptyState, ErrorState, LoadingState } from '../../components/ui/States';
-import { formatDate, plural, rigSummary } from '../../lib/format';
+import { plural, rigSummary } from '../../lib/format';
+import { formatInstant, type ZoneClock } from '../../lib/clock';
+import { useUserZone } from '../../components/ui/useUserZone';
 import { rigsQuery } from './rigs.queries';
 
 /** The crew's rigs as cards, each with its bank and solar in one line. */
-function RigList() {
+function RigList({ clock }: { clock?: ZoneClock | null }) {
+  const zone = useUserZone(clock);
   const rigs = useQuery(rigsQuery());
   if (rigs.isPending) return <LoadingState label="Loading your rigs…" />;
   if (rigs.isError) return <ErrorState title="Could not load your rigs." error={rigs.error} onRetry={() => void rigs.refetch()} />;
@@ -25,7 +28,7 @@ function RigList() {
             <span className="block text-lg font-extrabold">{r.name}</span>
             <span className="mt-1 block font-semibold">{rigSummary(r)}</span>
             <span className="mt-1 block text-sm text-slate-text">
-              {r.chargers.length ? plural(r.chargers.length, 'charger') : 'no other chargers'} · {r.inverter ? 'inverter' : 'no inverter'} · updated {formatDate(r.updatedAt.slice(0, 10), false)}
+              {r.chargers.length ? plural(r.chargers.length, 'charger') : 'no other chargers'} · {r.inverter ? 'inverter' : 'no inverter'} · updated {formatInstant(r.updatedAt, zone, 'day')}
             </span>
           </a>
         </li>
