@@ -89,3 +89,12 @@ export function formatTempDelta(dc: number, units: Units): string {
   const v = Math.round(units === 'imperial' ? (dc * 9) / 5 : dc);
   return `${v} ${tempUnit(units)}`;
 }
+
+/**
+ * A sentence written in °C (catalogue notes, typical figures) with each temperature reading in the user's
+ * units: "near 4 °C" → "near 39 °F". Only "N °C" readings change; "per °C" rates are left as written.
+ */
+export function tempsInUnits(text: string, units: Units): string {
+  if (units === 'metric') return text;
+  return text.replace(/([−-]?\d+(?:\.\d+)?) °C/g, (_, n: string) => formatTemp(Number(n.replace('−', '-')), units));
+}

@@ -19,17 +19,36 @@ export const SCREENS = path.join(tmpdir(), 'sunreckon-page-screens');
 const RIG = {
   name: 'Desert van with a long name for the header',
   bank: { chemistry: 'lifepo4', capacityAh: 300, nominalVolts: 12.8 },
-  arrays: [{ name: 'Roof', ratedWatts: 400 }, { name: 'Portable panel on the long lead', ratedWatts: 200, tiltDeg: 30, aim: 'follow' }],
+  arrays: [
+    { name: 'Roof', ratedWatts: 400 },
+    { name: 'Portable panel on the long lead', ratedWatts: 200, tiltDeg: 30, aim: 'follow' },
+  ],
   chargers: [{ kind: 'alternator', amps: 30 }],
   inverter: { efficiencyPct: 90, idleWatts: 12, alwaysOn: false },
 };
 const LOADS = [
   { name: 'Compressor fridge', watts: 45, dutyPct: 45, response: 'cooling' },
   { name: 'Furnace blower', watts: 60, response: 'heating', setpointC: 18, windows: [[18, 8]], dutyPct: 40 },
-  { name: 'Water pump', watts: 60, windows: [[7, 8], [19, 20]], dutyPct: 20 },
+  {
+    name: 'Water pump',
+    watts: 60,
+    windows: [
+      [7, 8],
+      [19, 20],
+    ],
+    dutyPct: 20,
+  },
   { name: 'Reading lights', watts: 12, windows: [[19, 23]] },
   { name: 'Laptop charging', watts: 65, supply: 'ac', windows: [[9, 12]] },
-  { name: 'CPAP with humidifier', watts: 40, supply: 'ac', windows: [[22, 24], [0, 6]] },
+  {
+    name: 'CPAP with humidifier',
+    watts: 40,
+    supply: 'ac',
+    windows: [
+      [22, 24],
+      [0, 6],
+    ],
+  },
   { name: 'Roof vent fan, medium speed', watts: 18, windows: [[12, 18]], dutyPct: 50 },
   { name: 'Router and phone chargers', watts: 10 },
   { name: 'Standby draw (detectors, control boards)', watts: 4, standby: true },
@@ -38,8 +57,24 @@ const trip = (rigId: string) => ({
   rigId,
   name: 'High desert loop, late October',
   stops: [
-    { name: 'Mesa camp above the wash', lat: 36.1, lon: -111.5, timeZone: 'America/Phoenix', arrive: '2027-10-20', nights: 2, weather: [{ date: '2027-10-20', cloudOktas: 2, highC: 18, lowC: -2 }] },
-    { name: 'Juniper flat', lat: 37.2, lon: -112.9, timeZone: 'America/Denver', arrive: '2027-10-22', nights: 2, weather: [{ date: '2027-10-22', cloudOktas: 5, highC: 12, lowC: -5 }] },
+    {
+      name: 'Mesa camp above the wash',
+      lat: 36.1,
+      lon: -111.5,
+      timeZone: 'America/Phoenix',
+      arrive: '2027-10-20',
+      nights: 2,
+      weather: [{ date: '2027-10-20', cloudOktas: 2, highC: 18, lowC: -2 }],
+    },
+    {
+      name: 'Juniper flat',
+      lat: 37.2,
+      lon: -112.9,
+      timeZone: 'America/Denver',
+      arrive: '2027-10-22',
+      nights: 2,
+      weather: [{ date: '2027-10-22', cloudOktas: 5, highC: 12, lowC: -5 }],
+    },
   ],
   drives: [{ date: '2027-10-22', startHour: 9, hours: 4 }],
 });
@@ -58,8 +93,11 @@ async function clipped(page: Page, wide: boolean): Promise<string[]> {
     const out: string[] = [];
     const doc = document.documentElement;
     if (doc.scrollWidth > window.innerWidth) out.push(`page scrolls sideways: ${doc.scrollWidth} > ${window.innerWidth}`);
-    const describe = (el: Element) => `${el.tagName.toLowerCase()}${el.id ? `#${el.id}` : ''}${el.getAttribute('data-testid') ? `[${el.getAttribute('data-testid')}]` : ''} “${(el.textContent ?? '').trim().slice(0, 40)}”`;
-    for (const el of document.querySelectorAll('main table, main input, main select, main button, main a, main h1, main h2, main h3, main p, main dl, main svg')) {
+    const describe = (el: Element) =>
+      `${el.tagName.toLowerCase()}${el.id ? `#${el.id}` : ''}${el.getAttribute('data-testid') ? `[${el.getAttribute('data-testid')}]` : ''} “${(el.textContent ?? '').trim().slice(0, 40)}”`;
+    for (const el of document.querySelectorAll(
+      'main table, main input, main select, main button, main a, main h1, main h2, main h3, main p, main dl, main svg',
+    )) {
       const r = el.getBoundingClientRect();
       if (r.width === 0 || r.height === 0) continue;
       if (el.closest('details:not([open])')) continue;
@@ -72,17 +110,22 @@ async function clipped(page: Page, wide: boolean): Promise<string[]> {
         }
         if (cs.overflowX === 'hidden' || cs.overflowX === 'clip') {
           const b = box.getBoundingClientRect();
-          if (r.right > b.right + 1 || r.left < b.left - 1) out.push(`${describe(el)} clipped by ${describe(box).slice(0, 30)}: ${Math.round(r.left)}–${Math.round(r.right)} outside ${Math.round(b.left)}–${Math.round(b.right)}`);
+          if (r.right > b.right + 1 || r.left < b.left - 1)
+            out.push(
+              `${describe(el)} clipped by ${describe(box).slice(0, 30)}: ${Math.round(r.left)}–${Math.round(r.right)} outside ${Math.round(b.left)}–${Math.round(b.right)}`,
+            );
           break;
         }
       }
-      if (!scrolls && r.right > doc.clientWidth + 1) out.push(`${describe(el)} ends at ${Math.round(r.right)} past the screen (${doc.clientWidth})`);
+      if (!scrolls && r.right > doc.clientWidth + 1)
+        out.push(`${describe(el)} ends at ${Math.round(r.right)} past the screen (${doc.clientWidth})`);
     }
     // On a wide screen a table fits its card: no column hidden behind a sideways scroll.
     if (wideScreen) {
       for (const t of document.querySelectorAll('main table')) {
         const box = t.parentElement;
-        if (box && t.getBoundingClientRect().width > 0 && box.scrollWidth > box.clientWidth + 1) out.push(`${describe(t)} needs a sideways scroll: ${box.scrollWidth} > ${box.clientWidth}`);
+        if (box && t.getBoundingClientRect().width > 0 && box.scrollWidth > box.clientWidth + 1)
+          out.push(`${describe(t)} needs a sideways scroll: ${box.scrollWidth} > ${box.clientWidth}`);
       }
     }
     return [...new Set(out)];
@@ -99,12 +142,29 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rig, trip, forecast and
     owner = await signUp({ name: 'Rosa Mesquite' });
     const crewId = (await activeCrew(owner)).id;
     const rig = await ok<{ id: string }>(await api('/api/rigs', { method: 'POST', session: owner, json: RIG }), 201, 'rig');
-    for (const l of LOADS) await ok(await api(`/api/rigs/${rig.id}/loads`, { method: 'POST', session: owner, json: l }), 201, `load ${l.name}`);
+    for (const l of LOADS)
+      await ok(await api(`/api/rigs/${rig.id}/loads`, { method: 'POST', session: owner, json: l }), 201, `load ${l.name}`);
     const t = await ok<{ id: string }>(await api('/api/trips', { method: 'POST', session: owner, json: trip(rig.id) }), 201, 'trip');
-    const a = await ok<{ id: string }>(await api(`/api/trips/${t.id}/forecasts`, { method: 'POST', session: owner, json: {} }), 201, 'forecast a');
+    const a = await ok<{ id: string }>(
+      await api(`/api/trips/${t.id}/forecasts`, { method: 'POST', session: owner, json: {} }),
+      201,
+      'forecast a',
+    );
     // A second snapshot after a change, so compare has something to show.
-    await ok(await api(`/api/rigs/${rig.id}/loads`, { method: 'POST', session: owner, json: { name: 'Coffee maker', watts: 900, supply: 'ac', windows: [[7, 8]], dutyPct: 25 } }), 201, 'coffee');
-    const b = await ok<{ id: string }>(await api(`/api/trips/${t.id}/forecasts`, { method: 'POST', session: owner, json: {} }), 201, 'forecast b');
+    await ok(
+      await api(`/api/rigs/${rig.id}/loads`, {
+        method: 'POST',
+        session: owner,
+        json: { name: 'Coffee maker', watts: 900, supply: 'ac', windows: [[7, 8]], dutyPct: 25 },
+      }),
+      201,
+      'coffee',
+    );
+    const b = await ok<{ id: string }>(
+      await api(`/api/trips/${t.id}/forecasts`, { method: 'POST', session: owner, json: {} }),
+      201,
+      'forecast b',
+    );
     // The crew member who looks: an editor who joined by the invitation e-mail.
     const email = uniqueEmail('editor');
     const token = await inviteToken(owner, crewId, email, 'editor');

@@ -21,7 +21,12 @@ const coldTrip = (rigId: string) => ({
   name: 'Frost weekend',
   stops: [
     {
-      name: 'Frost camp', lat: 39, lon: -106, timeZone: 'America/Denver', arrive: '2027-11-20', nights: 2,
+      name: 'Frost camp',
+      lat: 39,
+      lon: -106,
+      timeZone: 'America/Denver',
+      arrive: '2027-11-20',
+      nights: 2,
       weather: ['2027-11-20', '2027-11-21', '2027-11-22'].map((date) => ({ date, cloudOktas: 1, highC: -2, lowC: -14 })),
     },
   ],
@@ -43,8 +48,11 @@ describe('a phone user switches to °F and reads the trip’s forecast in °F', 
     camper = await signUp({ name: 'Ada Roadwell', password: PASSWORD });
     const rig = await created<{ id: string }>(await api('/api/rigs', { method: 'POST', session: camper, json: COLD_RIG }), 'rig');
     await created(await api(`/api/rigs/${rig.id}/loads`, { method: 'POST', session: camper, json: FURNACE }), 'load');
-    tripId = (await created<{ id: string }>(await api('/api/trips', { method: 'POST', session: camper, json: coldTrip(rig.id) }), 'trip')).id;
-    forecastId = (await created<{ id: string }>(await api(`/api/trips/${tripId}/forecasts`, { method: 'POST', session: camper, json: {} }), 'forecast')).id;
+    tripId = (await created<{ id: string }>(await api('/api/trips', { method: 'POST', session: camper, json: coldTrip(rig.id) }), 'trip'))
+      .id;
+    forecastId = (
+      await created<{ id: string }>(await api(`/api/trips/${tripId}/forecasts`, { method: 'POST', session: camper, json: {} }), 'forecast')
+    ).id;
     ({ page, close } = await launch('phone', { locale: 'en-US' }));
     await signIn(page, camper.email, PASSWORD, `/trips/${tripId}`);
   });
@@ -74,7 +82,9 @@ describe('a phone user switches to °F and reads the trip’s forecast in °F', 
     const headers = await table.locator('thead th').allTextContents();
     expect(headers).toContain('Air °F');
     expect(headers.join(' ')).not.toContain('°C');
-    const saved = (await (await api(`/api/forecasts/${forecastId}`, { session: camper })).json()) as { forecast: { hourly: { ambientC: number }[] } };
+    const saved = (await (await api(`/api/forecasts/${forecastId}`, { session: camper })).json()) as {
+      forecast: { hourly: { ambientC: number }[] };
+    };
     const air = headers.indexOf('Air °F');
     const firstRow = await table.locator('tbody tr').first().locator('th, td').allTextContents();
     expect(Number(firstRow[air])).toBeCloseTo((saved.forecast.hourly[0]!.ambientC * 9) / 5 + 32, 1);

@@ -53,7 +53,10 @@ describe('signed fields at 390 px: a ± button where the keypad has no minus', (
     expect(await low.inputValue()).toBe('-4');
 
     await page.getByRole('button', { name: 'Save trip' }).click();
-    await page.getByRole('status').filter({ hasText: /^Saved\.$/ }).waitFor();
+    await page
+      .getByRole('status')
+      .filter({ hasText: /^Saved\.$/ })
+      .waitFor();
     const res = await api(`/api/trips/${tripId}`, { session: camper });
     const trip = (await res.json()) as { stops: { lat: number; lon: number; weather: { highC: number; lowC: number }[] }[] };
     expect(trip.stops[0]?.lon).toBe(-109.55);

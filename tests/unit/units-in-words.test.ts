@@ -9,6 +9,7 @@ import { warningsOf } from '../../src/domain/advice/advice-text';
 import { coldCaution } from '../../src/domain/advice/cautions';
 import { verdict } from '../../src/domain/forecasts/verdict';
 import { forecastCsv } from '../../src/domain/forecasts/hourly-csv';
+import { tempsInUnits } from '../../src/lib/units';
 
 function resolve(plan: Plan): ResolvedPlan {
   const v = validatePlan(plan);
@@ -24,7 +25,17 @@ const frost: Plan = {
     { name: 'Furnace blower', watts: 60, response: 'heating', setpointC: 18, windows: [[18, 8]], dutyPct: 40 },
     { name: 'Standby', watts: 13 },
   ],
-  stops: [{ name: 'Frost camp', lat: 39, lon: -106, timeZone: 'America/Denver', arrive: '2027-11-20', nights: 2, weather: [{ date: '2027-11-20', cloudOktas: 1, highC: -2, lowC: -14 }] }],
+  stops: [
+    {
+      name: 'Frost camp',
+      lat: 39,
+      lon: -106,
+      timeZone: 'America/Denver',
+      arrive: '2027-11-20',
+      nights: 2,
+      weather: [{ date: '2027-11-20', cloudOktas: 1, highC: -2, lowC: -14 }],
+    },
+  ],
 };
 
 /** The same rig on a stop with no weather at all: the engine assumes its typical day (20 °C / 10 °C). */
@@ -77,5 +88,15 @@ describe('temperatures in the forecast’s words follow the units setting', () =
       const c = Number(metricRows[i]!.split(',')[a]);
       expect(Number(rows[i]!.split(',')[a])).toBeCloseTo((c * 9) / 5 + 32, 1);
     }
+  });
+});
+
+describe('tempsInUnits: catalogue notes written in °C, read in the user’s units', () => {
+  it('turns each reading into °F and leaves rates per °C alone', () => {
+    // 4 °C = 39.2 °F → 39 °F; 20 °C = 68 °F; 25 °C = 77 °F; −18 °C = −0.4 °F → 0 °F.
+    expect(tempsInUnits('a thermostat near 4 °C; 45 % of the time at 20 °C, about half at 25 °C', 'imperial')).toBe('a thermostat near 39 °F; 45 % of the time at 68 °F, about half at 77 °F');
+    expect(tempsInUnits('down to −18 °C', 'imperial')).toBe('down to 0 °F');
+    expect(tempsInUnits('3 % per °C above 20 °C', 'imperial')).toBe('3 % per °C above 68 °F');
+    expect(tempsInUnits('near 4 °C', 'metric')).toBe('near 4 °C');
   });
 });

@@ -102,7 +102,7 @@ export const LOAD_FIELDS: { key: keyof LoadInput; label: string }[] = [
   { key: 'dutyPct', label: 'Duty %' },
   { key: 'days', label: 'Days' },
   { key: 'response', label: 'Temperature response' },
-  { key: 'setpointC', label: 'Setpoint °C' },
+  { key: 'setpointC', label: 'Setpoint' }, // the value shows with its unit (°C or °F)
   { key: 'location', label: 'Where it sits' },
   { key: 'surgeWatts', label: 'Surge watts' },
   { key: 'standby', label: 'Standby' },

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { formatNumber } from '../../lib/format';
-import type { Units } from '../../lib/units';
+import { tempsInUnits, type Units } from '../../lib/units';
 import { CATALOGUE, SURGE_TYPICAL, basisLabel, catalogueToLoad, type CatalogueItem } from '../../domain/loads/catalogue';
 import type { EnergyRig } from '../../domain/loads/energy';
 import { LoadEditor } from './LoadEditor';
@@ -27,7 +27,7 @@ export function CataloguePicker({ units, rig, add, onClose }: { units: Units; ri
         submitLabel="Confirm and add"
         intro={
           <div className="caution mt-2 text-sm">
-            <p><span className="font-bold">Typical — check the label.</span> {picked.about}</p>
+            <p><span className="font-bold">Typical — check the label.</span> {tempsInUnits(picked.about, units)}</p>
             <p className="mt-1">Typical draw {range(picked)}; we filled in {formatNumber(picked.watts, 1)} W and a usual schedule ({describeWindows(picked.windows)}{picked.days === 'drive' ? ', on drive days' : ''}). Change them to match yours, then confirm.</p>
             <p className="mt-1 text-slate-text">{basisLabel(picked)}.</p>
             {picked.surgeWatts ? (
