@@ -97,10 +97,10 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('landing and quick plan 
 
   it('finds a camp’s town by name and fills its coordinates and time zone', async () => {
     await page.locator('#qp-placeName').fill('Moab');
-    const hit = page.getByRole('button', { name: /^Moab, UT/ });
+    const hit = page.getByRole('button', { name: /^Moab, Utah/ });
     await hit.waitFor();
     await hit.click();
-    expect(await page.locator('#qp-placeName').inputValue()).toBe('Moab, UT, US');
+    expect(await page.locator('#qp-placeName').inputValue()).toBe('Moab, Utah, United States');
     expect(Number(await page.locator('#qp-lat').inputValue())).toBeCloseTo(38.573, 2);
     expect(Number(await page.locator('#qp-lon').inputValue())).toBeCloseTo(-109.55, 2);
     expect(await page.locator('#qp-timeZone').inputValue()).toBe('America/Denver');

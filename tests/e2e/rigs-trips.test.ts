@@ -238,7 +238,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
 
     // Stop 1 by place search.
     await page.locator('#stops-0-place').fill('Moab, UT');
-    await page.getByRole('listbox').getByRole('option', { name: /^Moab, UT, US/ }).click();
+    await page.getByRole('listbox').getByRole('option', { name: /^Moab, Utah, United States/ }).click();
     expect(Number(await page.locator('#stops-0-lat').inputValue())).toBeCloseTo(38.57, 1);
     expect(Number(await page.locator('#stops-0-lon').inputValue())).toBeCloseTo(-109.55, 1);
     expect(await page.locator('#stops-0-timeZone').inputValue()).toBe('America/Denver');
