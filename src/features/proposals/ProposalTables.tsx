@@ -5,6 +5,7 @@ import { AMPACITY_TABLE_NAMES, DROP_METHOD_NAMES, DROP_METHOD_SHORT, conductor, 
 import { validUntil } from '../../domain/proposals/document';
 import type { ProposalDto } from '../../domain/proposals/proposals.schema';
 import { formatLength, type Units } from '../../lib/units';
+import { CAUTIONS, coldCaution } from '../../domain/advice/cautions';
 import { formatDate, formatMoney, formatNumber } from '../../lib/format';
 
 const qty = (p: { quantity: number; unit: string }) => `${formatNumber(p.quantity, 2)}${p.unit ? ` ${p.unit}` : ''}`;
@@ -214,13 +215,13 @@ export function PartsTable({ p, units }: { p: Pick<ProposalDto, 'parts' | 'runni
   );
 }
 
-/** The cautions, as a list with the caution look. */
-export function Cautions({ items }: { items: string[] }) {
+/** The cautions, as a list with the caution look; the cold-charging one states freezing in the reader's units. */
+export function Cautions({ items, units = 'metric' }: { items: string[]; units?: Units }) {
   return (
     <div className="caution print:break-inside-avoid" data-testid="cautions">
       <p className="font-bold">Before any work</p>
       <ul className="mt-1 list-inside list-disc space-y-1">
-        {items.map((c) => <li key={c}>{c}</li>)}
+        {items.map((c) => <li key={c}>{c === CAUTIONS.cold ? coldCaution(units) : c}</li>)}
       </ul>
     </div>
   );

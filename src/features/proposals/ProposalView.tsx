@@ -92,7 +92,7 @@ function Loaded({ p, units, zone }: { p: ProposalDto; units: Units; zone: ZoneCl
           <p className="whitespace-pre-line text-sm" data-testid="terms">{p.document.terms}</p>
         </section>
       ) : null}
-      <Cautions items={p.cautions} />
+      <Cautions items={p.cautions} units={units} />
       {p.status !== 'accepted' ? (
         <section className="hidden print:block print:break-inside-avoid" aria-label="Acceptance">
           <p className="text-sm">Accepted on behalf of {p.crewName}:</p>
