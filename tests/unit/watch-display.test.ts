@@ -1,9 +1,11 @@
 import { describe, expect, it } from 'vitest';
+import { zoneClock } from '../../src/lib/clock';
 import {
   bandSentence,
   dateIn,
   formatCutoff,
   formatInstant,
+  formatInstantNamed,
   isWorse,
   runSentence,
   startsSentence,
@@ -36,6 +38,13 @@ describe('trip watch panel words', () => {
     expect(formatInstant('2026-12-05T16:00:00.000Z', 'Australia/Sydney')).toBe('Sun 6 Dec, 03:00');
     expect(dateIn('2026-12-05T16:00:00.000Z', 'Australia/Sydney')).toBe('2026-12-06');
     expect(dateIn('2026-12-05', 'Australia/Sydney')).toBe('2026-12-05');
+    // The same from a zone clock handed over by the server (its offsets as plain JSON).
+    const denver = zoneClock('America/Denver', Date.parse('2026-12-04T00:00:00Z'));
+    expect(formatInstant('2026-12-05T16:00:00.000Z', denver)).toBe('Sat 5 Dec, 09:00');
+    expect(formatInstantNamed('2026-12-05T16:00:00.000Z', denver)).toBe('Sat 5 Dec, 09:00 Denver time (UTC−07:00)');
+    // In July Denver keeps daylight time, UTC−06:00: 16:00 UTC is 10:00.
+    expect(formatInstantNamed('2027-07-05T16:00:00.000Z', denver)).toBe('Mon 5 Jul, 10:00 Denver time (UTC−06:00)');
+    expect(formatInstantNamed('2026-12-05T16:00:00.000Z', 'UTC')).toBe('Sat 5 Dec, 16:00 UTC');
   });
 
   it('reads the cutoff from the row time’s own wall clock and offset, not the zone of the page', () => {

@@ -2,7 +2,8 @@ import { useId } from 'react';
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { IslandQueryProvider } from '../../components/ui/QueryProvider';
 import { ErrorState, LoadingState } from '../../components/ui/States';
-import { withZoneName, zonePlainName } from '../../lib/clock';
+import { zonePlainName, type ZoneClock } from '../../lib/clock';
+import { useUserZone } from '../../components/ui/useUserZone';
 import { formatDay, pct } from '../../lib/format';
 import { setWatchEnabled, setWatchFollowing, type TripWatch as Watch, type WatchRun } from './watch.api';
 import { watchKeys, watchQueries } from './watch.queries';
@@ -16,12 +17,15 @@ import {
   startsSentence,
   VERDICT_LOOK,
   windowState,
+  formatInstantNamed,
 } from './watch-display';
 
 interface Props {
   tripId: string;
-  /** The trip's first stop's zone: every time on the panel is written in it (and so renders the same on server and browser). */
-  timeZone: string;
+  /** The user's clock (`userClock(Astro.locals.user)`): runs, the notice and the next run are app events, shown in the user's zone. */
+  clock?: ZoneClock | null;
+  /** The trip's first stop's clock: the day the watch starts and the trip ends are the trip's own dates. */
+  stopClock: ZoneClock;
   /** The server's clock when it rendered the page (ms), so the first render in the browser matches it. */
   renderedAt: number;
   /** The watch as the page read it on the server. */
@@ -37,8 +41,9 @@ export default function TripWatch(props: Props) {
   );
 }
 
-function Inner({ tripId, timeZone, renderedAt, initial }: Props) {
+function Inner({ tripId, clock, stopClock, renderedAt, initial }: Props) {
   const qc = useQueryClient();
+  const timeZone = useUserZone(clock);
   // The page's copy counts as read when the server rendered it, so "now" (when the answer was read)
   // is the same on the server and in the browser's first render; each refetch moves it on.
   const watch = useQuery({ ...watchQueries.trip(tripId), initialData: initial, initialDataUpdatedAt: initial ? renderedAt : undefined });
@@ -77,7 +82,7 @@ function Inner({ tripId, timeZone, renderedAt, initial }: Props) {
       {toggle.isError ? <ErrorState error={toggle.error} title="The watch could not be changed." /> : null}
       {follow.isError ? <ErrorState error={follow.error} title="Following could not be changed." /> : null}
 
-      <Status w={w} state={state} timeZone={timeZone} />
+      <Status w={w} state={state} timeZone={timeZone} stopClock={stopClock} />
       {w.notice ? <Notice w={w} tripId={tripId} runs={runs} timeZone={timeZone} /> : null}
       {runs.length > 0 ? (
         <>
@@ -128,15 +133,25 @@ function Switch({
   );
 }
 
-function Status({ w, state, timeZone }: { w: Watch; state: ReturnType<typeof windowState>; timeZone: string }) {
+function Status({
+  w,
+  state,
+  timeZone,
+  stopClock,
+}: {
+  w: Watch;
+  state: ReturnType<typeof windowState>;
+  timeZone: ZoneClock;
+  stopClock: ZoneClock;
+}) {
   let text: string;
   if (!w.enabled)
     text = w.canToggle
       ? 'The watch is off for this trip. Turn it on to hear when the forecast changes.'
       : 'The watch is off for this trip; the owner or an editor can turn it on.';
-  else if (state === 'before') text = startsSentence(w.window, timeZone);
-  else if (state === 'after') text = `The trip ended on ${formatDay(dateIn(w.window.to, timeZone))}; the watch has stopped.`;
-  else if (w.nextRunAt) text = `Next run: ${withZoneName(w.nextRunAt, timeZone)}.`;
+  else if (state === 'before') text = startsSentence(w.window, stopClock);
+  else if (state === 'after') text = `The trip ended on ${formatDay(dateIn(w.window.to, stopClock))}; the watch has stopped.`;
+  else if (w.nextRunAt) text = `Next run: ${formatInstantNamed(w.nextRunAt, timeZone)}.`;
   else text = 'The watch is on; the next run is due shortly.';
   return (
     <div className="space-y-2">
@@ -162,7 +177,7 @@ function Status({ w, state, timeZone }: { w: Watch; state: ReturnType<typeof win
   );
 }
 
-function Notice({ w, tripId, runs, timeZone }: { w: Watch; tripId: string; runs: WatchRun[]; timeZone: string }) {
+function Notice({ w, tripId, runs, timeZone }: { w: Watch; tripId: string; runs: WatchRun[]; timeZone: ZoneClock }) {
   const n = w.notice!;
   const look = VERDICT_LOOK[n.verdict];
   const run = runs.find((r) => r.forecastId === n.forecastId) ?? null;
@@ -189,7 +204,7 @@ function Notice({ w, tripId, runs, timeZone }: { w: Watch; tripId: string; runs:
               : `The answer changed: ${look.label.toLowerCase()}`}
           </h3>
           <p className="text-sm text-slate-text">
-            Noticed {withZoneName(n.at, timeZone)}
+            Noticed {formatInstantNamed(n.at, timeZone)}
             {worse ? ' · worse than before' : n.previousVerdict && n.previousVerdict !== n.verdict ? ' · better than before' : ''}
           </p>
           {cutoff ? (
@@ -223,14 +238,14 @@ function stretches(runs: WatchRun[]): { verdict: WatchRun['verdict']; runs: Watc
   return out;
 }
 
-function Timeline({ runs, timeZone }: { runs: WatchRun[]; timeZone: string }) {
+function Timeline({ runs, timeZone }: { runs: WatchRun[]; timeZone: ZoneClock }) {
   const groups = stretches(runs);
   return (
     <section aria-labelledby="watch-timeline-h" data-testid="watch-timeline">
       <h3 id="watch-timeline-h" className="text-base">
         The answer, run by run
       </h3>
-      <p className="text-sm text-slate-text">Times of runs in {zonePlainName(timeZone)}; cutoffs in the stop&apos;s local time.</p>
+      <p className="text-sm text-slate-text">Times of runs in {zonePlainName(timeZone.zone)}; cutoffs in the stop&apos;s local time.</p>
       {/* The strip is the picture; the list under it says the same in words. */}
       <div aria-hidden="true" className="mt-2 flex h-9 items-center gap-[3px]">
         {runs.map((r) => {
@@ -280,7 +295,7 @@ function Timeline({ runs, timeZone }: { runs: WatchRun[]; timeZone: string }) {
 const DOT: Record<WatchRun['verdict'], string> = { 'makes-it': 'bg-moss-deep', 'below-reserve': 'bg-[#7a5a12]', 'runs-out': 'bg-alert' };
 
 /** Each run as a column on a 0–100 % scale: the band as a bar, the run's own lowest as a dot (HTML, so text keeps its size on a phone). */
-function BandChart({ runs, timeZone }: { runs: WatchRun[]; timeZone: string }) {
+function BandChart({ runs, timeZone }: { runs: WatchRun[]; timeZone: ZoneClock }) {
   const sentence = bandSentence(runs);
   if (!sentence) return null;
   const clamp = (v: number) => Math.min(100, Math.max(0, v));

@@ -1,8 +1,8 @@
 // What the trip watch panel says, as pure functions: the verdicts' words and marks, times in an
 // explicit zone (lib/clock.ts: app events such as runs in the user's zone, trip events such as the
-// cutoff in the stop's own offset, so the server's and the browser's renders agree), where "now"
-// stands against the watch window, and the band's narrowing in a sentence.
-import { formatInstant as clockInstant } from '../../lib/clock';
+// cutoff in the stop's own offset, a ZoneClock from the server so the server's and the browser's
+// renders agree), where "now" stands against the watch window, and the band's narrowing in a sentence.
+import { formatInstant as clockInstant, zoneOffset, zonePlainName, type ZoneClock } from '../../lib/clock';
 import { formatDay, formatOffset, formatRowTime, localParts, pct } from '../../lib/format';
 import type { TripWatch, WatchRun, WatchVerdict } from './watch.api';
 
@@ -28,14 +28,23 @@ export function msOf(isoOrDate: string): number {
 }
 
 /** The calendar date (YYYY-MM-DD) of an instant in a zone; a bare date stays itself. */
-export function dateIn(isoOrDate: string, timeZone: string): string {
+export function dateIn(isoOrDate: string, timeZone: string | ZoneClock): string {
   if (DATE_ONLY.test(isoOrDate)) return isoOrDate;
   return clockInstant(isoOrDate, timeZone, 'dayKey');
 }
 
 /** "Sat 5 Dec, 09:12": an instant in an explicit zone. */
-export function formatInstant(iso: string, timeZone: string): string {
+export function formatInstant(iso: string, timeZone: string | ZoneClock): string {
   return clockInstant(iso, timeZone, 'dayTime');
+}
+
+/** "Sat 5 Dec, 09:12 Berlin time (UTC+01:00)": an instant with its zone named. */
+export function formatInstantNamed(iso: string, timeZone: string | ZoneClock): string {
+  const name = zonePlainName(typeof timeZone === 'string' ? timeZone : timeZone.zone, iso);
+  const offset = zoneOffset(iso, timeZone);
+  return name === 'UTC' || name.startsWith('UTC')
+    ? `${formatInstant(iso, timeZone)} ${name}`
+    : `${formatInstant(iso, timeZone)} ${name} (${offset})`;
 }
 
 /**
@@ -58,12 +67,12 @@ export function windowState(w: TripWatch['window'], nowMs: number): WindowState 
 }
 
 /** "The watch starts 16 days before you arrive: on Thu 3 Dec." */
-export function startsSentence(w: TripWatch['window'], timeZone: string): string {
+export function startsSentence(w: TripWatch['window'], timeZone: string | ZoneClock): string {
   return `The watch starts 16 days before you arrive: on ${formatDay(dateIn(w.from, timeZone))}.`;
 }
 
 /** One run in words, for the timeline's list and its screen-reader text. */
-export function runSentence(run: WatchRun, timeZone: string): string {
+export function runSentence(run: WatchRun, timeZone: string | ZoneClock): string {
   const cutoff = formatCutoff(run);
   const what =
     run.verdict === 'runs-out' && cutoff ? `Runs out ${cutoff}` : `${VERDICT_LOOK[run.verdict].label}, lowest ${pct(run.minSocPct)}`;
