@@ -225,7 +225,7 @@ async function runTrip(db: Kysely<DB>, trip: TripRow, rig: RigRow, now: Date, or
     await recordError(db, trip.id, now, out.message);
     return nothing;
   }
-  const { plan, forecast: result, advice } = out;
+  const { plan, forecast: result, advice, adviceImperial } = out;
   const band = from ? null : await bandFor(typed, fill, plan, result).catch(() => null);
   const sources: WeatherSources = {
     kind: fill.kind,
@@ -323,7 +323,7 @@ async function runTrip(db: Kysely<DB>, trip: TripRow, rig: RigRow, now: Date, or
       if (!mayMail(p.lastMailedAt ? Date.parse(p.lastMailedAt) : null, nowMs)) continue;
       const tripUrl = `${origin}/trips/${trip.id}`;
       const unsubscribeUrl = `${origin}/watch/unsubscribe?token=${signUnsubscribe(env.authSecret, { tripId: trip.id, userId: p.userId })}`;
-      const m = watchMail({ tripName: trip.name, headline: v.headline, cutoffAt: v.cutoffAt, cutoffStop: v.cutoffStop, reasons, changedDay: day, advice, tripUrl, unsubscribeUrl });
+      const m = watchMail({ tripName: trip.name, headline: v.headline, cutoffAt: v.cutoffAt, cutoffStop: v.cutoffStop, reasons, changedDay: day, advice: p.units === 'imperial' ? adviceImperial : advice, tripUrl, unsubscribeUrl });
       const greeting = `Hello ${p.name || 'there'},`;
       const lines = m.text.split('\n').filter((line) => line.trim() && !line.startsWith('Open the trip:') && !line.startsWith('Stop these e-mails'));
       // The unsubscribe address as a link in the HTML part too (renderMail links only the button).

@@ -8,6 +8,7 @@ import { dueForRun, inWatchWindow, WATCH_LEAD_DAYS, watchedByDefault } from '../
 import type { RigRole } from './access';
 import { env } from './env';
 import { HttpError } from './errors';
+import { toUnits, type Units } from '../lib/units';
 
 const DAY_MS = 86_400_000;
 /** The timeline shows at most this many runs. */
@@ -163,6 +164,8 @@ export interface Recipient {
   name: string;
   email: string;
   lastMailedAt: string | null;
+  /** The person's units setting: temperatures in their e-mail follow it. */
+  units: Units;
 }
 
 /** Who gets a trip's watch e-mail: owners and editors of its crew and following members, less anyone who stopped it. */
@@ -171,11 +174,11 @@ export async function watchRecipients(db: Kysely<DB>, trip: Pick<TripRow, 'id' |
     .selectFrom('crew_members')
     .innerJoin('user', 'user.id', 'crew_members.user_id')
     .leftJoin('watch_people', (j) => j.onRef('watch_people.user_id', '=', 'crew_members.user_id').on('watch_people.trip_id', '=', trip.id))
-    .select(['user.id as userId', 'user.name as name', 'user.email as email', 'crew_members.role as role', 'watch_people.choice as choice', 'watch_people.last_mailed_at as lastMailedAt'])
+    .select(['user.id as userId', 'user.name as name', 'user.email as email', 'crew_members.role as role', 'watch_people.choice as choice', 'watch_people.last_mailed_at as lastMailedAt', 'user.units as units'])
     .where('crew_members.crew_id', '=', trip.crew_id)
     .orderBy('user.email')
     .execute();
   return rows
     .filter((r) => mailsPerson(r.role, r.choice))
-    .map((r) => ({ userId: r.userId, name: r.name, email: r.email, lastMailedAt: r.lastMailedAt ? new Date(r.lastMailedAt).toISOString() : null }));
+    .map((r) => ({ userId: r.userId, name: r.name, email: r.email, lastMailedAt: r.lastMailedAt ? new Date(r.lastMailedAt).toISOString() : null, units: toUnits(r.units) }));
 }

@@ -10,6 +10,7 @@ import { coldCaution } from '../../src/domain/advice/cautions';
 import { verdict } from '../../src/domain/forecasts/verdict';
 import { forecastCsv } from '../../src/domain/forecasts/hourly-csv';
 import { tempsInUnits } from '../../src/lib/units';
+import { runWatchTask } from '../../src/server/workers/watch-task';
 
 function resolve(plan: Plan): ResolvedPlan {
   const v = validatePlan(plan);
@@ -98,5 +99,26 @@ describe('tempsInUnits: catalogue notes written in °C, read in the user’s uni
     expect(tempsInUnits('down to −18 °C', 'imperial')).toBe('down to 0 °F');
     expect(tempsInUnits('3 % per °C above 20 °C', 'imperial')).toBe('3 % per °C above 68 °F');
     expect(tempsInUnits('near 4 °C', 'metric')).toBe('near 4 °C');
+  });
+});
+
+describe('the trip watch e-mail’s advice for someone who chose °F', () => {
+  it('works the advice out again in °F when it names a temperature, and keeps one list when it names none', () => {
+    // An invented cabin-bank weekend whose advice names the furnace setpoint (found by trying a few sizes).
+    const cabin: Plan = {
+      bank: { chemistry: 'lifepo4', capacityAh: 100, floorSocPct: 10, location: 'cabin' },
+      arrays: [{ name: 'Roof', ratedWatts: 200 }],
+      loads: [{ name: 'Furnace blower', watts: 80, response: 'heating', setpointC: 18, windows: [[0, 24]], dutyPct: 40 }, { name: 'Standby', watts: 13 }],
+      stops: [{ name: 'Frost camp', lat: 39, lon: -106, timeZone: 'America/Denver', arrive: '2027-11-20', nights: 3, weather: [{ date: '2027-11-20', cloudOktas: 4, highC: 8, lowC: -4 }] }],
+    };
+    const cold = runWatchTask({ plan: cabin, reserveSocPct: null, from: null });
+    if (!cold.ok) throw new Error(cold.message);
+    expect(cold.advice.join('\n')).toContain('°C');
+    expect(cold.adviceImperial.join('\n')).toContain('°F');
+    expect(cold.adviceImperial.join('\n')).not.toContain('°C');
+    const mild = runWatchTask({ plan: { ...unknownSkies, stops: [{ ...unknownSkies.stops[0]!, weather: [{ date: '2027-11-20', cloudOktas: 2, highC: 24, lowC: 12 }] }] }, reserveSocPct: null, from: null });
+    if (!mild.ok) throw new Error(mild.message);
+    expect(mild.advice.join('\n')).not.toContain('°C');
+    expect(mild.adviceImperial).toBe(mild.advice);
   });
 });
