@@ -66,7 +66,7 @@ export async function runWatchTick(db: Kysely<DB>, opts: TickOptions): Promise<T
       await breathe();
       if (!(await claimTrip(db, trip.id, lastRunAt, now))) continue;
       try {
-        const r = await runTrip(db, trip, rig, now, opts.origin);
+        const r = await runWatchedTrip(db, trip, rig, now, opts.origin);
         if (r.ran) total.ran++;
         if (r.changed) total.changed++;
         total.mailed += r.mailed;
@@ -127,11 +127,7 @@ async function dueTrips(db: Kysely<DB>, now: Date, intervalMinutes: number): Pro
 /** Marks the trip as run at `now` unless another instance did since it was picked; true when this one may run it. */
 async function claimTrip(db: Kysely<DB>, tripId: string, lastRunAt: string | null, now: Date): Promise<boolean> {
   const iso = now.toISOString();
-  await db
-    .insertInto('trip_watches')
-    .values({ trip_id: tripId, updated_at: iso })
-    .onConflict((oc) => oc.column('trip_id').doNothing())
-    .execute();
+  await ensureWatchRow(db, tripId, iso);
   const res = await db
     .updateTable('trip_watches')
     .set({ last_run_at: iso, updated_at: iso })
@@ -139,6 +135,15 @@ async function claimTrip(db: Kysely<DB>, tripId: string, lastRunAt: string | nul
     .where((eb) => (lastRunAt === null ? eb('last_run_at', 'is', null) : eb('last_run_at', '=', lastRunAt)))
     .executeTakeFirst();
   return Number(res.numUpdatedRows) === 1;
+}
+
+/** The trip's watch row, made when missing (every later write is a conditional update of it). */
+async function ensureWatchRow(db: Kysely<DB>, tripId: string, iso: string): Promise<void> {
+  await db
+    .insertInto('trip_watches')
+    .values({ trip_id: tripId, updated_at: iso })
+    .onConflict((oc) => oc.column('trip_id').doNothing())
+    .execute();
 }
 
 async function recordError(db: Kysely<DB>, tripId: string, now: Date, message: string): Promise<void> {
@@ -195,10 +200,23 @@ async function latestCheckIn(db: Kysely<DB>, tripId: string, nowMs: number, star
   return c ? { atMs: Number(c.at_ms), socPct: Number(c.soc_pct), id: c.id } : null;
 }
 
-/** Re-runs one trip and tells the crew when the answer changed in a way that matters. */
-async function runTrip(db: Kysely<DB>, trip: TripRow, rig: RigRow, now: Date, origin: string): Promise<{ ran: boolean; changed: boolean; mailed: number }> {
+/**
+ * Re-runs one trip and tells the crew when the answer changed in a way that matters. The tick calls
+ * it after claiming the lease and the trip; on its own (as the race test does) the transaction's
+ * check of the answer seen still keeps one change from being told twice.
+ */
+export async function runWatchedTrip(
+  db: Kysely<DB>,
+  trip: TripRow,
+  rig: RigRow,
+  now: Date,
+  origin: string,
+  /** `compared`: awaited between reading the answer seen and writing (the race test holds runs there together). */
+  hooks: { compared?: () => Promise<void> } = {},
+): Promise<{ ran: boolean; changed: boolean; mailed: number }> {
   const nothing = { ran: false, changed: false, mailed: 0 };
   const nowMs = now.getTime();
+  await ensureWatchRow(db, trip.id, now.toISOString());
   const frame = tripFrame(trip);
   if (!frame) return nothing;
   const typed = toTripDto(trip, true);
@@ -264,6 +282,7 @@ async function runTrip(db: Kysely<DB>, trip: TripRow, rig: RigRow, now: Date, or
   const cutoffAt = result.summary.firstCutoffAt;
   const seen = await seenAnswer(db, trip);
   const reasons: WatchChangeReason[] = watchChanges(seen?.answer ?? null, answer);
+  await hooks.compared?.();
   const run = {
     forecast_id: forecastId,
     trip_id: trip.id,

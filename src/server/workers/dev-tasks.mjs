@@ -5,4 +5,4 @@ import { register } from 'tsx/esm/api';
 register();
 const tasks = await import('./tasks.ts');
 
-export const { sweep, monitorLog, logSeries, handPlan } = tasks;
+export const { sweep, monitorLog, logSeries, handPlan, weatherBand, watchRun } = tasks;
