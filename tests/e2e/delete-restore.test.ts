@@ -98,6 +98,35 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('delete, restore and con
     expect(dialogs).toBe(0);
   });
 
+  it('asks in the page before closing the trip editor with unsaved changes, and restores a deleted trip from Recently deleted', async () => {
+    const page = await pool.open(viewport);
+    await signIn(page, owner.email, PASSWORD, `/trips/${trip.id}`);
+    await page.getByRole('button', { name: 'Edit the itinerary' }).click();
+    await page.getByLabel('Trip name').fill('Renamed but not saved');
+    await page.getByRole('button', { name: 'Close the editor' }).click();
+    const ask = page.getByRole('group', { name: 'Confirm' });
+    await ask.getByText('Close the editor and drop the unsaved changes?').waitFor();
+    await ask.getByRole('button', { name: 'Keep editing' }).click();
+    expect(await page.getByLabel('Trip name').inputValue()).toBe('Renamed but not saved');
+    await page.getByRole('button', { name: 'Close the editor' }).click();
+    await ask.getByRole('button', { name: 'Drop changes' }).click();
+    await page.getByRole('button', { name: 'Edit the itinerary' }).waitFor();
+
+    await page.getByRole('button', { name: 'Edit the itinerary' }).click();
+    await page.getByRole('button', { name: 'Delete trip…' }).click();
+    await page.getByText('Delete Test trip? With it go 2 saved forecasts, 1 check-in.').waitFor();
+    await view(page, `trip-delete-question-${viewport}`);
+    await page.getByRole('group', { name: 'Confirm' }).getByRole('button', { name: 'Delete', exact: true }).click();
+    await page.waitForURL((u) => u.pathname === '/trips');
+    const deleted = page.locator('[data-recently-deleted="trip"]');
+    await deleted.getByText('on Test van · deleted by Ines Owner · 30 days left').waitFor();
+    expect(await seriousViolations(page)).toEqual([]);
+    await shot(page, `trips-recently-deleted-${viewport}`);
+    await deleted.getByRole('button', { name: 'Restore Test trip' }).click();
+    await page.getByText('Restored Test trip.').waitFor();
+    expect((await api(`/api/trips/${trip.id}`, { session: owner })).status).toBe(200);
+  });
+
   it('names who changed a load and when on a stale edit, and offers to add a load deleted meanwhile again', async () => {
     const page = await pool.open(viewport);
     await signIn(page, owner.email, PASSWORD, `/rigs/${rig.id}`);
