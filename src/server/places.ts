@@ -39,7 +39,11 @@ interface Entry {
 
 /** Lower case without accents, so "sao" finds "São Paulo". */
 export function foldName(s: string): string {
-  return s.normalize('NFKD').replace(/[\u0300-\u036f]/g, '').toLowerCase().trim();
+  return s
+    .normalize('NFKD')
+    .replace(/[\u0300-\u036f]/g, '')
+    .toLowerCase()
+    .trim();
 }
 
 // Short forms in place names, each read as its long form on both sides of the search (GeoNames
@@ -99,8 +103,19 @@ export function regionName(country: string, adminCode: string): string {
 // The postal abbreviations Canadians write after a town ("Sault Ste. Marie, ON"); GeoNames numbers
 // the provinces instead. US states need none: GeoNames' codes are the postal ones ("MI").
 const CA_POSTAL: Record<string, string> = {
-  ab: 'Alberta', bc: 'British Columbia', mb: 'Manitoba', nb: 'New Brunswick', nl: 'Newfoundland and Labrador', ns: 'Nova Scotia',
-  on: 'Ontario', pe: 'Prince Edward Island', qc: 'Quebec', sk: 'Saskatchewan', yt: 'Yukon', nt: 'Northwest Territories', nu: 'Nunavut',
+  ab: 'Alberta',
+  bc: 'British Columbia',
+  mb: 'Manitoba',
+  nb: 'New Brunswick',
+  nl: 'Newfoundland and Labrador',
+  ns: 'Nova Scotia',
+  on: 'Ontario',
+  pe: 'Prince Edward Island',
+  qc: 'Quebec',
+  sk: 'Saskatchewan',
+  yt: 'Yukon',
+  nt: 'Northwest Territories',
+  nu: 'Nunavut',
 };
 
 const countryNames = new Intl.DisplayNames(['en'], { type: 'region' });
@@ -143,16 +158,6 @@ function inRegion(c: City, region: string): boolean {
   );
 }
 
-function prefixMatches(entries: Entry[], key: string): City[] {
-  const found: City[] = [];
-  for (let i = lowerBound(entries, key); i < entries.length; i++) {
-    const entry = entries[i];
-    if (!entry?.key.startsWith(key)) break;
-    found.push(entry.city);
-  }
-  return found;
-}
-
 /**
  * Places whose name starts with `q` (any case, accents, punctuation and "St"/"Saint"-style short
  * forms ignored), most populous first. "Moab, UT", "Sault Ste Marie, Ontario" or "…, ON" narrow by
@@ -166,30 +171,39 @@ export function searchPlaces(q: string, limit = 10): Place[] {
   if (!typed) return [];
   const entries = cities();
   // A last word that may be a short form or the start of a word ("St", "Mt") is looked up both ways.
+  // One pass keeps the `limit` most populous (a short prefix such as "sa" matches thousands; no full sort).
+  const better = (a: City, b: City) => b.population - a.population || a.name.localeCompare(b.name);
   const seen = new Set<City>();
-  const matches: City[] = [];
+  const best: City[] = [];
   for (const key of spelled === typed ? [typed] : [typed, spelled]) {
-    for (const c of prefixMatches(entries, key)) {
+    for (let i = lowerBound(entries, key); i < entries.length; i++) {
+      const entry = entries[i];
+      if (!entry?.key.startsWith(key)) break;
+      const c = entry.city;
+      const last = best[best.length - 1];
+      if (best.length >= limit && last && c.population < last.population) continue;
       if (seen.has(c) || (region && !inRegion(c, region))) continue;
       seen.add(c);
-      matches.push(c);
+      let pos = best.length;
+      while (pos > 0 && better(c, at(best, pos - 1, 'ranked place')) < 0) pos--;
+      if (pos < limit) {
+        best.splice(pos, 0, c);
+        if (best.length > limit) best.pop();
+      }
     }
   }
-  return matches
-    .sort((a, b) => b.population - a.population || a.name.localeCompare(b.name))
-    .slice(0, limit)
-    .map((c) => {
-      const [lon, lat] = c.loc.coordinates;
-      return {
-        name: c.name,
-        country: c.country,
-        countryName: countryName(c.country),
-        adminCode: c.adminCode,
-        region: regionName(c.country, c.adminCode),
-        lat,
-        lon,
-        population: c.population,
-        timeZone: timeZoneAt(lat, lon),
-      };
-    });
+  return best.map((c) => {
+    const [lon, lat] = c.loc.coordinates;
+    return {
+      name: c.name,
+      country: c.country,
+      countryName: countryName(c.country),
+      adminCode: c.adminCode,
+      region: regionName(c.country, c.adminCode),
+      lat,
+      lon,
+      population: c.population,
+      timeZone: timeZoneAt(lat, lon),
+    };
+  });
 }

@@ -113,7 +113,9 @@ describe('choosing a time zone in Settings', () => {
       // A browser elsewhere does not move the choice; its pages show Berlin time.
       const forecast = (await (await api(`/api/forecasts/${world.forecast.id}`, { session: cast.owner })).json()) as { createdAt: string };
       expect(await visit(b.page, seen, `/trips/${world.trip.id}/forecasts/${world.forecast.id}`)).toEqual([]);
-      await expect.poll(() => b.page.locator(`time[datetime="${forecast.createdAt}"]`).textContent()).toBe(formatInstant(forecast.createdAt, zoneClock('Europe/Berlin')));
+      await expect
+        .poll(() => b.page.locator(`time[datetime="${forecast.createdAt}"]`).textContent())
+        .toBe(formatInstant(forecast.createdAt, zoneClock('Europe/Berlin')));
       expect(zoneOf(cast.owner.userId)).toBe('Europe/Berlin');
 
       const desk = await launch('desktop', { timezoneId: 'America/Vancouver' });

@@ -9,7 +9,14 @@ describe('GET /api/places with short forms and region names', () => {
     const res = await api(`/api/places?q=${encodeURIComponent('Sault Ste Marie, Ontario')}`);
     expect(res.status).toBe(200);
     expect(await res.json()).toEqual([
-      expect.objectContaining({ name: 'Sault Ste. Marie', adminCode: '08', region: 'Ontario', country: 'CA', countryName: 'Canada', timeZone: 'America/Toronto' }),
+      expect.objectContaining({
+        name: 'Sault Ste. Marie',
+        adminCode: '08',
+        region: 'Ontario',
+        country: 'CA',
+        countryName: 'Canada',
+        timeZone: 'America/Toronto',
+      }),
     ]);
   });
 

@@ -41,11 +41,19 @@ describe('the user time zone setting', () => {
 
   it('formats a saved forecast’s time in the stored zone in the server’s HTML', async () => {
     const me = await signUp();
-    const rig = await api('/api/rigs', { method: 'POST', session: me, json: { name: 'Zone van', bank: { chemistry: 'lifepo4', capacityAh: 200, nominalVolts: 12.8 } } }).then((r) => r.json());
+    const rig = await api('/api/rigs', {
+      method: 'POST',
+      session: me,
+      json: { name: 'Zone van', bank: { chemistry: 'lifepo4', capacityAh: 200, nominalVolts: 12.8 } },
+    }).then((r) => r.json());
     const trip = await api('/api/trips', {
       method: 'POST',
       session: me,
-      json: { rigId: rig.id, name: 'Zone trip', stops: [{ name: 'Mesa camp', lat: 36.1, lon: -111.5, timeZone: 'America/Phoenix', arrive: '2027-10-20', nights: 1 }] },
+      json: {
+        rigId: rig.id,
+        name: 'Zone trip',
+        stops: [{ name: 'Mesa camp', lat: 36.1, lon: -111.5, timeZone: 'America/Phoenix', arrive: '2027-10-20', nights: 1 }],
+      },
     }).then((r) => r.json());
     const saved = await api(`/api/trips/${trip.id}/forecasts`, { method: 'POST', session: me, json: {} }).then((r) => r.json());
     await api('/api/settings', { method: 'PATCH', session: me, json: { timeZone: 'Asia/Kolkata' } });

@@ -1,5 +1,16 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import { formatInstant, isTimeZone, offsetAt, userClock, withZoneName, zoneClock, zoneOffset, zoneOr, zonePlainName, type ZoneClock } from '../../src/lib/clock';
+import {
+  formatInstant,
+  isTimeZone,
+  offsetAt,
+  userClock,
+  withZoneName,
+  zoneClock,
+  zoneOffset,
+  zoneOr,
+  zonePlainName,
+  type ZoneClock,
+} from '../../src/lib/clock';
 
 // Instants shown in an explicit zone. Check values from the IANA tz database's rules (COMPUTED by
 // hand): Vancouver is UTC−8 in winter (PST) and UTC−7 from 02:00 local on the second Sunday of

@@ -40,7 +40,14 @@ describe('regions by name', () => {
     expect(regionName('US', 'MI')).toBe('Michigan');
     expect(regionName('XX', '99')).toBe('');
     const [soo] = searchPlaces('Sault Ste. Marie');
-    expect(soo).toMatchObject({ name: 'Sault Ste. Marie', region: 'Ontario', country: 'CA', countryName: 'Canada', adminCode: '08', timeZone: 'America/Toronto' });
+    expect(soo).toMatchObject({
+      name: 'Sault Ste. Marie',
+      region: 'Ontario',
+      country: 'CA',
+      countryName: 'Canada',
+      adminCode: '08',
+      timeZone: 'America/Toronto',
+    });
   });
 
   it('narrows by region name, postal abbreviation or country name after the comma', () => {

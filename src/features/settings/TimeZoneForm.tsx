@@ -53,26 +53,46 @@ export default function TimeZoneForm({ timeZone, zones }: Props) {
       }}
     >
       <div>
-        <label htmlFor="timeZone" className="field-label">Your time zone</label>
-        <select id="timeZone" className="field-input" value={chosen} onChange={(e) => setChosen(e.target.value)} aria-describedby="timeZone-hint" aria-invalid={error ? true : undefined}>
+        <label htmlFor="timeZone" className="field-label">
+          Your time zone
+        </label>
+        <select
+          id="timeZone"
+          className="field-input"
+          value={chosen}
+          onChange={(e) => setChosen(e.target.value)}
+          aria-describedby="timeZone-hint"
+          aria-invalid={error ? true : undefined}
+        >
           {options.map((z) => (
-            <option key={z} value={z}>{label(z)}</option>
+            <option key={z} value={z}>
+              {label(z)}
+            </option>
           ))}
         </select>
         {error ? (
-          <p className="field-error" role="alert">Time zone: {error}</p>
+          <p className="field-error" role="alert">
+            Time zone: {error}
+          </p>
         ) : (
           <p id="timeZone-hint" className="field-hint mt-1">
-            When forecasts were saved, loads edited and crew changes made. Arrivals, cutoffs and hourly rows always show in each stop’s own local time.
+            When forecasts were saved, loads edited and crew changes made. Arrivals, cutoffs and hourly rows always show in each stop’s own
+            local time.
           </p>
         )}
       </div>
       <div className="flex flex-wrap items-center gap-3">
-        <button type="submit" className="btn btn-primary" disabled={busy || chosen === saved}>{busy ? 'Saving…' : 'Save time zone'}</button>
+        <button type="submit" className="btn btn-primary" disabled={busy || chosen === saved}>
+          {busy ? 'Saving…' : 'Save time zone'}
+        </button>
         {device && device !== chosen ? (
-          <button type="button" className="btn btn-quiet" onClick={() => setChosen(device)}>Use this device’s zone ({label(device)})</button>
+          <button type="button" className="btn btn-quiet" onClick={() => setChosen(device)}>
+            Use this device’s zone ({label(device)})
+          </button>
         ) : null}
-        <p role="status" aria-live="polite" className="font-semibold text-moss-deep">{status ?? ''}</p>
+        <p role="status" aria-live="polite" className="font-semibold text-moss-deep">
+          {status ?? ''}
+        </p>
       </div>
     </form>
   );
