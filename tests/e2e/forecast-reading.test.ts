@@ -59,7 +59,7 @@ describe('reading the forecast of a trip that runs out', () => {
     const sketch = page.locator('[data-testid="soc-chart"][data-sketch]');
     expect(await sketch.locator('.drive-strip').count()).toBe(1);
     expect(await sketch.locator('.cutoff-strip').count()).toBeGreaterThan(0);
-    expect(await sketch.getByRole('list', { name: 'Chart key' }).textContent()).toContain('Green strip at the bottom: drivingOrange strip: bank cut off');
+    expect(await sketch.getByRole('list', { name: 'Chart key' }).textContent()).toContain('Strips at the bottom: green driving, orange bank cut off');
     await page.locator('#days-heading').scrollIntoViewIfNeeded();
     const daily = page.getByTestId('daily-chart');
     await daily.locator('.recharts-surface').first().waitFor();

@@ -50,6 +50,7 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('forecasts in Chromium a
 
     // Pointing at it brings the interactive chart in the same place, with each hour's figures.
     const holder = page.getByTestId('soc-chart-on-demand');
+    await holder.scrollIntoViewIfNeeded(); // a phone shows the chart's middle only after a scroll
     const before = await holder.boundingBox();
     if (!before) throw new Error('the chart has no box');
     await page.mouse.move(before.x + before.width * 0.4, before.y + before.height * 0.5);

@@ -203,16 +203,13 @@ export function SocKey({
           Cutoff
         </li>
       ) : null}
-      {hasDrive ? (
+      {hasDrive || hasCutOffHours ? (
         <li className="flex items-center gap-1.5">
-          <span aria-hidden="true" className="inline-block h-1.5 w-5" style={{ background: COLORS.charging }} />
-          Green strip at the bottom: driving
-        </li>
-      ) : null}
-      {hasCutOffHours ? (
-        <li className="flex items-center gap-1.5">
-          <span aria-hidden="true" className="inline-block h-1.5 w-5" style={{ background: COLORS.cutoff }} />
-          Orange strip: bank cut off
+          <span aria-hidden="true" className="inline-flex h-3 w-5 flex-col justify-end">
+            {hasCutOffHours ? <span className="block h-1" style={{ background: COLORS.cutoff }} /> : null}
+            {hasDrive ? <span className="block h-1" style={{ background: COLORS.charging }} /> : null}
+          </span>
+          {hasDrive && hasCutOffHours ? 'Strips at the bottom: green driving, orange bank cut off' : hasDrive ? 'Green strip at the bottom: driving' : 'Orange strip at the bottom: bank cut off'}
         </li>
       ) : null}
       {kinds.length > 0 ? (
