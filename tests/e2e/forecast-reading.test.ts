@@ -59,7 +59,9 @@ describe('reading the forecast of a trip that runs out', () => {
     const sketch = page.locator('[data-testid="soc-chart"][data-sketch]');
     expect(await sketch.locator('.drive-strip').count()).toBe(1);
     expect(await sketch.locator('.cutoff-strip').count()).toBeGreaterThan(0);
-    expect(await sketch.getByRole('list', { name: 'Chart key' }).textContent()).toContain('Strips at the bottom: green driving, orange bank cut off');
+    expect(await sketch.getByRole('list', { name: 'Chart key' }).textContent()).toContain(
+      'Strips at the bottom: green driving, orange bank cut off',
+    );
     await page.locator('#days-heading').scrollIntoViewIfNeeded();
     const daily = page.getByTestId('daily-chart');
     await daily.locator('.recharts-surface').first().waitFor();
@@ -68,7 +70,9 @@ describe('reading the forecast of a trip that runs out', () => {
     const heights = await daily.locator('.bar-unmet path').evaluateAll((ps) => ps.map((p) => (p as SVGGraphicsElement).getBBox().height));
     expect(Math.max(...heights)).toBeGreaterThan(10);
     expect(await daily.getByRole('list', { name: 'Chart key' }).textContent()).toContain('Loads not served (bank cut off)');
-    expect(await page.getByTestId('daily-chart-summary').textContent()).toMatch(/Loads not served because the bank was cut off: \w{3} \d{1,2} \w{3} [\d,]+ Wh of [\d,]+ Wh asked/);
+    expect(await page.getByTestId('daily-chart-summary').textContent()).toMatch(
+      /Loads not served because the bank was cut off: \w{3} \d{1,2} \w{3} [\d,]+ Wh of [\d,]+ Wh asked/,
+    );
   });
 
   it('shades the cut-off hours and the drive hours on the hourly chart, with a key', async () => {
@@ -96,11 +100,24 @@ describe('reading the forecast of a trip that runs out', () => {
     const { rigId, loads } = await page.evaluate(async (trip) => {
       const trips = (await (await fetch('/api/trips')).json()) as { name: string; rigId: string }[];
       const rigId = trips.find((t) => t.name === trip)?.rigId ?? '';
-      return { rigId, loads: (await (await fetch(`/api/rigs/${rigId}/loads`)).json()) as { id: string; name: string; watts: number; version: number }[] };
+      return {
+        rigId,
+        loads: (await (await fetch(`/api/rigs/${rigId}/loads`)).json()) as { id: string; name: string; watts: number; version: number }[],
+      };
     }, TRIP);
     const pump = loads.find((l) => l.name === 'Water pump');
     if (!pump) throw new Error('the seeded trailer has no water pump');
-    const status = await page.evaluate(async (p) => (await fetch(`/api/loads/${p.id}`, { method: 'PATCH', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ watts: 80, version: p.version }) })).status, pump);
+    const status = await page.evaluate(
+      async (p) =>
+        (
+          await fetch(`/api/loads/${p.id}`, {
+            method: 'PATCH',
+            headers: { 'content-type': 'application/json' },
+            body: JSON.stringify({ watts: 80, version: p.version }),
+          })
+        ).status,
+      pump,
+    );
     expect(status).toBe(200);
     try {
       await runForecast(page, 'After the bigger pump');
@@ -129,8 +146,15 @@ describe('reading the forecast of a trip that runs out', () => {
       // Put the pump back for the other tests of this server.
       await page.evaluate(
         async (a) => {
-          const now = ((await (await fetch(`/api/rigs/${a.rigId}/loads`)).json()) as { id: string; version: number }[]).find((l) => l.id === a.id);
-          if (now) await fetch(`/api/loads/${a.id}`, { method: 'PATCH', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ watts: 55, version: now.version }) });
+          const now = ((await (await fetch(`/api/rigs/${a.rigId}/loads`)).json()) as { id: string; version: number }[]).find(
+            (l) => l.id === a.id,
+          );
+          if (now)
+            await fetch(`/api/loads/${a.id}`, {
+              method: 'PATCH',
+              headers: { 'content-type': 'application/json' },
+              body: JSON.stringify({ watts: 55, version: now.version }),
+            });
         },
         { rigId, id: pump.id },
       );

@@ -7,7 +7,15 @@ import { api, signUp, type Session } from '../helpers/api';
 /** "Fri 4 Dec, 14:41" in `zone`, worked out with Intl (not the app's formatter). */
 function wallClock(iso: string, zone: string): string {
   const parts = Object.fromEntries(
-    new Intl.DateTimeFormat('en-US', { timeZone: zone, weekday: 'short', day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit', hourCycle: 'h23' })
+    new Intl.DateTimeFormat('en-US', {
+      timeZone: zone,
+      weekday: 'short',
+      day: 'numeric',
+      month: 'short',
+      hour: '2-digit',
+      minute: '2-digit',
+      hourCycle: 'h23',
+    })
       .formatToParts(new Date(iso))
       .map((p) => [p.type, p.value]),
   );
@@ -21,9 +29,21 @@ describe('names of saved forecasts', () => {
   beforeAll(async () => {
     owner = await signUp({ name: 'Namer' });
     const plan = demoPlan() as Record<string, any>;
-    const rig = await (await api('/api/rigs', { method: 'POST', session: owner, json: { name: 'Van', bank: plan.bank, arrays: plan.arrays, chargers: plan.chargers, inverter: plan.inverter ?? null } })).json();
+    const rig = await (
+      await api('/api/rigs', {
+        method: 'POST',
+        session: owner,
+        json: { name: 'Van', bank: plan.bank, arrays: plan.arrays, chargers: plan.chargers, inverter: plan.inverter ?? null },
+      })
+    ).json();
     // The first stop is Juniper Mesa in America/Denver (UTC−7 in December, UTC−6 in summer).
-    const trip = await (await api('/api/trips', { method: 'POST', session: owner, json: { rigId: rig.id, name: 'Loop', stops: plan.stops, drives: plan.drives } })).json();
+    const trip = await (
+      await api('/api/trips', {
+        method: 'POST',
+        session: owner,
+        json: { rigId: rig.id, name: 'Loop', stops: plan.stops, drives: plan.drives },
+      })
+    ).json();
     tripId = trip.id;
   });
 

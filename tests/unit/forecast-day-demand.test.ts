@@ -45,7 +45,14 @@ describe('daily demand with loads not served', () => {
   });
 
   it('has no unmet days when the bank never cuts off', () => {
-    const full = run(basePlan({ bank: { chemistry: 'lifepo4', capacityAh: 100, initialSocPct: 100 }, loads: [{ name: 'Light', watts: 10 }], tempC: 30, stop: { nights: 1 } }));
+    const full = run(
+      basePlan({
+        bank: { chemistry: 'lifepo4', capacityAh: 100, initialSocPct: 100 },
+        loads: [{ name: 'Light', watts: 10 }],
+        tempC: 30,
+        stop: { nights: 1 },
+      }),
+    );
     expect(unmetDays(full)).toEqual([]);
     // 9 + 11 hours × 10 W, all served (loadWh is the served part).
     expect(dayEnergy(full).map((d) => d.demandWh)).toEqual([90, 110]);

@@ -60,7 +60,11 @@ describe('unused solar by cause', () => {
 
   it('reads a row’s causes, or null for a row saved before the engine gave them', () => {
     const r = f.hourly[0]!;
-    expect(unusedSolarOf({ ...r, curtailedFullWatts: 5, curtailedColdWatts: 7, curtailedLimitWatts: 0 })).toEqual({ full: 5, cold: 7, limit: 0 });
+    expect(unusedSolarOf({ ...r, curtailedFullWatts: 5, curtailedColdWatts: 7, curtailedLimitWatts: 0 })).toEqual({
+      full: 5,
+      cold: 7,
+      limit: 0,
+    });
     const { curtailedColdWatts: _c, ...old } = r;
     expect(unusedSolarOf(old)).toBeNull();
   });

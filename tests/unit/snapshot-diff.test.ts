@@ -30,11 +30,17 @@ describe('differences between two snapshots', () => {
     newer.arrays[0]!.ratedWatts = 600;
     newer.arrays.push({ ...newer.arrays[0]!, name: 'Suitcase', ratedWatts: 200 });
     newer.chargers = [];
-    newer.loads = [{ ...newer.loads[0]!, dutyPct: 50, windows: [[6, 22]] }, { ...newer.loads[0]!, name: 'Coffee maker', watts: 900, supply: 'ac', windows: [[7, 8]], dutyPct: 25, response: 'none' }];
+    newer.loads = [
+      { ...newer.loads[0]!, dutyPct: 50, windows: [[6, 22]] },
+      { ...newer.loads[0]!, name: 'Coffee maker', watts: 900, supply: 'ac', windows: [[7, 8]], dutyPct: 25, response: 'none' },
+    ];
     const diff = snapshotDiff({ plan: older }, { plan: newer });
     expect(diff.map((s) => s.title)).toEqual(['Bank', 'Panels', 'Chargers', 'Loads']);
     const lines = Object.fromEntries(diff.map((s) => [s.title, s.changes.map((c) => `${c.kind}: ${c.what}: ${c.detail}`)]));
-    expect(lines.Bank).toEqual(['changed: Capacity: 200\u00a0Ah → 300\u00a0Ah', 'changed: Maximum charge current: 100\u00a0A → 150\u00a0A']);
+    expect(lines.Bank).toEqual([
+      'changed: Capacity: 200\u00a0Ah → 300\u00a0Ah',
+      'changed: Maximum charge current: 100\u00a0A → 150\u00a0A',
+    ]);
     expect(lines.Panels).toEqual(['changed: Roof: rated 400\u00a0W → 600\u00a0W', 'added: Suitcase: rated 200\u00a0W, controller MPPT']);
     expect(lines.Chargers).toEqual(['removed: Alternator (DC-DC charger): current 30\u00a0A']);
     expect(lines.Loads).toEqual([
@@ -49,8 +55,18 @@ describe('differences between two snapshots', () => {
     const day = newer.stops[0]!.weather[1]!; // constantWeather: 25 °C high and low, 8 oktas, on 11 Jun 2027
     day.cloudOktas = 3;
     day.highC = 30; // 30 °C = 86 °F (× 9/5 + 32); 25 °C = 77 °F
-    const sources = (d: 'typed' | 'forecast'): WeatherSources => ({ kind: 'near', status: 'ok', message: null, medianYear: null, stops: [{ name: 'Mesa camp', days: [{ date: '2027-06-12', source: d }] }] });
-    const diff = snapshotDiff({ plan: older, engineRevision: 1, weatherSources: sources('typed') }, { plan: newer, engineRevision: 2, weatherSources: sources('forecast') }, 'imperial');
+    const sources = (d: 'typed' | 'forecast'): WeatherSources => ({
+      kind: 'near',
+      status: 'ok',
+      message: null,
+      medianYear: null,
+      stops: [{ name: 'Mesa camp', days: [{ date: '2027-06-12', source: d }] }],
+    });
+    const diff = snapshotDiff(
+      { plan: older, engineRevision: 1, weatherSources: sources('typed') },
+      { plan: newer, engineRevision: 2, weatherSources: sources('forecast') },
+      'imperial',
+    );
     const weather = diff.find((s) => s.title === 'Weather')?.changes ?? [];
     expect(weather.map((c) => `${c.what}: ${c.detail}`)).toEqual([
       'Mesa camp, Fri 11 Jun 2027: cloud 8 → 3 eighths of the sky; high 77 °F → 86 °F',
@@ -82,7 +98,9 @@ describe('snapshot names in the first stop’s local time', () => {
   });
 
   it('renames an old UTC default name and keeps a name someone chose', () => {
-    expect(snapshotLabel('Forecast of 2026-12-12 15:08 UTC', '2026-12-12T15:08:00.000Z', toronto)).toBe('Forecast of Sat 12 Dec, 10:08 (local time at Lakeshore camp)');
+    expect(snapshotLabel('Forecast of 2026-12-12 15:08 UTC', '2026-12-12T15:08:00.000Z', toronto)).toBe(
+      'Forecast of Sat 12 Dec, 10:08 (local time at Lakeshore camp)',
+    );
     expect(snapshotLabel('Before the bigger bank', '2026-12-12T15:08:00.000Z', toronto)).toBe('Before the bigger bank');
   });
 });

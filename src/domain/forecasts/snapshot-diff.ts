@@ -119,7 +119,12 @@ const STOP: Fields = [
 const same = (a: unknown, b: unknown) => JSON.stringify(a ?? null) === JSON.stringify(b ?? null);
 
 /** The fields that differ, each with its old and new value in words. */
-function fieldDiffs(a: Record<string, unknown>, b: Record<string, unknown>, fields: Fields, units: Units): { label: string; from: string; to: string }[] {
+function fieldDiffs(
+  a: Record<string, unknown>,
+  b: Record<string, unknown>,
+  fields: Fields,
+  units: Units,
+): { label: string; from: string; to: string }[] {
   return fields.filter(([k]) => !same(a[k], b[k])).map(([k, label, f]) => ({ label, from: f(a[k], units), to: f(b[k], units) }));
 }
 
@@ -158,7 +163,15 @@ function pair<T>(a: T[], b: T[], key: (x: T) => string): { k: string; a?: T; b?:
   return out;
 }
 
-function listChanges<T extends object>(a: T[], b: T[], key: (x: T) => string, fields: Fields, units: Units, shortKeys: string[], label: (k: string) => string = (k) => k): SnapshotChange[] {
+function listChanges<T extends object>(
+  a: T[],
+  b: T[],
+  key: (x: T) => string,
+  fields: Fields,
+  units: Units,
+  shortKeys: string[],
+  label: (k: string) => string = (k) => k,
+): SnapshotChange[] {
   const out: SnapshotChange[] = [];
   for (const p of pair(a, b, key)) {
     const ra = p.a as Record<string, unknown> | undefined;
@@ -173,7 +186,11 @@ function listChanges<T extends object>(a: T[], b: T[], key: (x: T) => string, fi
   return out;
 }
 
-const KIND_WORDS: Record<string, string> = { alternator: 'Alternator (DC-DC charger)', shore: 'Shore power charger', generator: 'Generator' };
+const KIND_WORDS: Record<string, string> = {
+  alternator: 'Alternator (DC-DC charger)',
+  shore: 'Shore power charger',
+  generator: 'Generator',
+};
 const SOURCE_WORDS: Record<string, string> = {
   forecast: 'weather forecast',
   'past-year': 'a past year',
@@ -191,7 +208,13 @@ function sunKwh(w: Weather): number | null {
   return h.reduce((s, x) => s + (x.ghiWm2 ?? 0), 0) / 1000;
 }
 
-function weatherChanges(a: ResolvedPlan, b: ResolvedPlan, sa: WeatherSources | undefined, sb: WeatherSources | undefined, units: Units): SnapshotChange[] {
+function weatherChanges(
+  a: ResolvedPlan,
+  b: ResolvedPlan,
+  sa: WeatherSources | undefined,
+  sb: WeatherSources | undefined,
+  units: Units,
+): SnapshotChange[] {
   const out: SnapshotChange[] = [];
   const n = Math.min(a.stops.length, b.stops.length);
   for (let i = 0; i < n; i++) {
@@ -215,7 +238,8 @@ function weatherChanges(a: ResolvedPlan, b: ResolvedPlan, sa: WeatherSources | u
         if (x.lowC !== y.lowC) parts.push(`low ${formatTemp(x.lowC, units)} → ${formatTemp(y.lowC, units)}`);
         const ka = sunKwh(x);
         const kb = sunKwh(y);
-        if (ka !== null && kb !== null && Math.abs(ka - kb) >= 0.05) parts.push(`sunshine ${formatNumber(ka, 1)} → ${formatNumber(kb, 1)} kWh/m²`);
+        if (ka !== null && kb !== null && Math.abs(ka - kb) >= 0.05)
+          parts.push(`sunshine ${formatNumber(ka, 1)} → ${formatNumber(kb, 1)} kWh/m²`);
         else if ((ka === null) !== (kb === null)) parts.push(ka === null ? 'hour-by-hour figures added' : 'hour-by-hour figures dropped');
       } else if (x && !y) parts.push('typed day removed');
       else if (!x && y) parts.push('typed day added');
@@ -236,9 +260,23 @@ function driveWords(d: ResolvedPlan['drives'][number]): string {
 export function snapshotDiff(older: SnapshotInputs, newer: SnapshotInputs, units: Units = 'metric'): SnapshotSection[] {
   const a = older.plan;
   const b = newer.plan;
-  const whole = (d: { label: string; from: string; to: string }): SnapshotChange => ({ kind: 'changed', what: d.label, detail: `${d.from} → ${d.to}` });
-  const bankChanges = fieldDiffs(a.bank as unknown as Record<string, unknown>, b.bank as unknown as Record<string, unknown>, BANK, units).map(whole);
-  const inverterChanges = fieldDiffs(a.inverter as unknown as Record<string, unknown>, b.inverter as unknown as Record<string, unknown>, INVERTER, units).map(whole);
+  const whole = (d: { label: string; from: string; to: string }): SnapshotChange => ({
+    kind: 'changed',
+    what: d.label,
+    detail: `${d.from} → ${d.to}`,
+  });
+  const bankChanges = fieldDiffs(
+    a.bank as unknown as Record<string, unknown>,
+    b.bank as unknown as Record<string, unknown>,
+    BANK,
+    units,
+  ).map(whole);
+  const inverterChanges = fieldDiffs(
+    a.inverter as unknown as Record<string, unknown>,
+    b.inverter as unknown as Record<string, unknown>,
+    INVERTER,
+    units,
+  ).map(whole);
   const driveKey = (d: ResolvedPlan['drives'][number]) => driveWords(d);
   const drives = pair(a.drives, b.drives, driveKey)
     .filter((p) => !(p.a && p.b))
@@ -260,13 +298,39 @@ export function snapshotDiff(older: SnapshotInputs, newer: SnapshotInputs, units
   const sections: SnapshotSection[] = [
     { title: 'Bank', changes: bankChanges },
     { title: 'Panels', changes: listChanges(a.arrays, b.arrays, (x) => x.name, ARRAY, units, ['ratedWatts', 'controller']) },
-    { title: 'Chargers', changes: listChanges(a.chargers, b.chargers, (x) => x.kind, CHARGER, units, ['amps'], (k) => KIND_WORDS[k.replace(/ \(\d+\)$/, '')] ?? k) },
+    {
+      title: 'Chargers',
+      changes: listChanges(
+        a.chargers,
+        b.chargers,
+        (x) => x.kind,
+        CHARGER,
+        units,
+        ['amps'],
+        (k) => KIND_WORDS[k.replace(/ \(\d+\)$/, '')] ?? k,
+      ),
+    },
     { title: 'Inverter', changes: inverterChanges },
-    { title: 'Loads', changes: listChanges(a.loads, b.loads, (x) => x.name, LOAD, units, ['watts', 'quantity', 'supply', 'windows', 'dutyPct']) },
+    {
+      title: 'Loads',
+      changes: listChanges(a.loads, b.loads, (x) => x.name, LOAD, units, ['watts', 'quantity', 'supply', 'windows', 'dutyPct']),
+    },
     { title: 'Stops', changes: stops },
     { title: 'Drives', changes: drives },
     { title: 'Weather', changes: weatherChanges(a, b, older.weatherSources, newer.weatherSources, units) },
-    { title: 'Engine', changes: ra === rb ? [] : [{ kind: 'changed', what: 'Engine revision', detail: `${ra} → ${rb}: the two were worked out by different engine rules, so some numbers differ for that reason alone` }] },
+    {
+      title: 'Engine',
+      changes:
+        ra === rb
+          ? []
+          : [
+              {
+                kind: 'changed',
+                what: 'Engine revision',
+                detail: `${ra} → ${rb}: the two were worked out by different engine rules, so some numbers differ for that reason alone`,
+              },
+            ],
+    },
   ];
   return sections.filter((s) => s.changes.length > 0);
 }

@@ -35,7 +35,15 @@ export function dayEnergy(f: Forecast): DayEnergy[] {
   }
   return f.days.map((d) => {
     const unmet = typeof d.unmetWh === 'number' ? d.unmetWh : (fromHours?.get(d.date) ?? 0);
-    return { date: d.date, servedWh: d.loadWh, unmetWh: unmet, demandWh: d.loadWh + unmet, solarWh: d.solarWh, chargeWh: d.chargeWh, netWh: d.netWh };
+    return {
+      date: d.date,
+      servedWh: d.loadWh,
+      unmetWh: unmet,
+      demandWh: d.loadWh + unmet,
+      solarWh: d.solarWh,
+      chargeWh: d.chargeWh,
+      netWh: d.netWh,
+    };
   });
 }
 

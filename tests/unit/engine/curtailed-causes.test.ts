@@ -20,7 +20,9 @@ const sunHour = (tempC: number) => ({
 const flat1kW = [{ name: 'Flat', ratedWatts: 1000, tiltDeg: 0, tempCoeffPctPerC: 0, lossesPct: 0, controllerEfficiencyPct: 100 }];
 
 function firstHour(bank: Record<string, unknown>, tempC: number) {
-  const f = run(basePlan({ bank: { internalResistanceMilliohm: 0, ...bank } as never, arrays: flat1kW, tempC, stop: sunHour(tempC) as never }));
+  const f = run(
+    basePlan({ bank: { internalResistanceMilliohm: 0, ...bank } as never, arrays: flat1kW, tempC, stop: sunHour(tempC) as never }),
+  );
   const r = f.hourly[0];
   if (!r) throw new Error('no hours');
   return { f, r };
@@ -84,7 +86,9 @@ describe('curtailed solar by cause', () => {
     const cold = dayHours.reduce((s, h) => s + (h.curtailedColdWatts ?? 0), 0);
     expect(Math.abs((f.days[0]?.curtailedColdWh ?? -1) - cold)).toBeLessThanOrEqual(dayHours.length / 2);
     const s = f.summary;
-    expect(Math.abs((s.curtailedColdWh ?? 0) + (s.curtailedFullWh ?? 0) + (s.curtailedLimitWh ?? 0) - s.curtailedWh)).toBeLessThanOrEqual(1.5);
+    expect(Math.abs((s.curtailedColdWh ?? 0) + (s.curtailedFullWh ?? 0) + (s.curtailedLimitWh ?? 0) - s.curtailedWh)).toBeLessThanOrEqual(
+      1.5,
+    );
   });
 
   it('travels in the columns form of the preview and back', () => {
