@@ -223,4 +223,33 @@ describe('trip watch: the weather turns and the crew is told', () => {
     await new Promise((r) => setTimeout(r, 1500));
     expect(await waitForMail(camper.email)).toHaveLength(1);
   });
+
+  it('says on the trip page when a run could not get the weather, and keeps the last answer', async () => {
+    const mode = await fetch(`${inject('weatherUrl')}/__fake/mode`, { method: 'POST', body: JSON.stringify({ mode: 'fail' }) });
+    expect(mode.status).toBe(200);
+    try {
+      // Turning the weather forgets the cached forecasts, so the run has to ask the (failing) service.
+      await page.goto(`${baseUrl()}/dev`);
+      await hydrated(page);
+      await page.getByRole('button', { name: 'Turn the weather' }).click();
+      await expect.poll(() => page.getByTestId('dev-weather-now').textContent()).toMatch(/forecasts a storm/);
+      await runWatchFromDev();
+    } finally {
+      await fetch(`${inject('weatherUrl')}/__fake/reset`, { method: 'POST' });
+    }
+    const w = await watchOf();
+    expect(w.runs).toHaveLength(3);
+    expect(w.notice).toMatchObject({ verdict: 'makes-it' });
+    await page.goto(`${baseUrl()}/trips/${tripId}`);
+    await hydrated(page);
+    const error = page.getByTestId('watch-error');
+    await error.waitFor();
+    expect(await error.textContent()).toMatch(
+      /^The last run could not finish: .+ The answer below still stands until the next run succeeds\.$/,
+    );
+    expect(await page.getByTestId('watch-notice').getByRole('heading').textContent()).toBe(
+      'The answer changed: makes it, no longer runs out',
+    );
+    await page.getByTestId('trip-watch').screenshot({ path: path.join(SCREENSHOTS, 'trip-watch-panel-error.png') });
+  });
 });
