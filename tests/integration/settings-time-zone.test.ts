@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { api, signUp } from '../helpers/api';
+import { api, signUp, uniqueEmail } from '../helpers/api';
+import { activeCrew, inviteToken } from '../helpers/crew';
 import { dbGet } from '../helpers/fixtures';
 
 // The user's time zone (migration 0016): chosen in Settings, or this browser's own zone sent once.
@@ -65,5 +66,25 @@ describe('the user time zone setting', () => {
     const p = (n: number) => String(n).padStart(2, '0');
     const want = `${days[t.getUTCDay()]} ${t.getUTCDate()} ${months[t.getUTCMonth()]}, ${p(t.getUTCHours())}:${p(t.getUTCMinutes())}`;
     expect(html.match(/saved <time[^<]*<\/time>/)?.[0]).toBe(`saved <time dateTime="${saved.createdAt}">${want}</time>`);
+  });
+
+  it('shows an invitation’s expiry in the signed-in visitor’s zone, and in UTC, said so, to anyone else', async () => {
+    const owner = await signUp();
+    const email = uniqueEmail('invitee');
+    const token = await inviteToken(owner, (await activeCrew(owner)).id, email, 'viewer');
+    const expiresAt = dbGet<{ expires_at: string }>('select expires_at from invitations where email = ?', email)?.expires_at;
+    expect(expiresAt).toBeTruthy();
+    const anonymous = await (await api(`/invite/${token}`)).text();
+    const utc = new Date(String(expiresAt));
+    const days = ['Sun', 'Mon', 'Tue', 'Wed', 'Thu', 'Fri', 'Sat'];
+    const months = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
+    const p = (n: number) => String(n).padStart(2, '0');
+    const day = (t: Date) =>
+      `${days[t.getUTCDay()]} ${t.getUTCDate()} ${months[t.getUTCMonth()]} ${t.getUTCFullYear()}, ${p(t.getUTCHours())}:${p(t.getUTCMinutes())}`;
+    expect(anonymous).toContain(`The link works once, until ${day(utc)} UTC.`);
+    // A signed-in visitor in Kolkata (UTC+05:30 all year) reads it in their own zone, named.
+    await api('/api/settings', { method: 'PATCH', session: owner, json: { timeZone: 'Asia/Kolkata' } });
+    const signedIn = await (await api(`/invite/${token}`, { session: owner })).text();
+    expect(signedIn).toContain(`The link works once, until ${day(new Date(utc.getTime() + 330 * 60_000))} Kolkata time (UTC+05:30).`);
   });
 });
