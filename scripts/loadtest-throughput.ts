@@ -101,7 +101,7 @@ export async function throughputRun(p: {
     // Warm-up, not counted: the code each route runs is compiled and optimised before it is timed
     // (otherwise a route whose code ran little before, e.g. the forecast after answers from the
     // cache, pays for the JIT in its figures).
-    await autocannon({ connections: 4, amount: 100, timeout: 20, ...opts, duration: undefined });
+    await autocannon({ connections: 4, amount: 100, timeout: 20, ...opts });
     // The server's own CPU time per answer: steadier than req/s when other work shares the cores.
     const cpuBefore = cpuMs(pids);
     const r = await autocannon({ connections: THROUGHPUT_CONNECTIONS, duration: seconds, timeout: 20, ...opts });
