@@ -17,11 +17,32 @@ const count = (r: { n: number | string | bigint } | undefined) => Number(r?.n ??
 export async function rigDeletionCounts(db: Kysely<DB>, rigId: string): Promise<DeletionCounts> {
   const liveTrips = db.selectFrom('trips').select('trips.id').where('trips.rig_id', '=', rigId).where('trips.deleted_at', 'is', null);
   const [loads, trips, forecasts, checkIns, logs] = await Promise.all([
-    db.selectFrom('loads').select((eb) => eb.fn.countAll<number>().as('n')).where('rig_id', '=', rigId).executeTakeFirst(),
-    db.selectFrom('trips').select((eb) => eb.fn.countAll<number>().as('n')).where('rig_id', '=', rigId).where('deleted_at', 'is', null).executeTakeFirst(),
-    db.selectFrom('forecasts').select((eb) => eb.fn.countAll<number>().as('n')).where('trip_id', 'in', liveTrips).executeTakeFirst(),
-    db.selectFrom('check_ins').select((eb) => eb.fn.countAll<number>().as('n')).where('trip_id', 'in', liveTrips).executeTakeFirst(),
-    db.selectFrom('monitor_logs').select((eb) => eb.fn.countAll<number>().as('n')).where('rig_id', '=', rigId).executeTakeFirst(),
+    db
+      .selectFrom('loads')
+      .select((eb) => eb.fn.countAll<number>().as('n'))
+      .where('rig_id', '=', rigId)
+      .executeTakeFirst(),
+    db
+      .selectFrom('trips')
+      .select((eb) => eb.fn.countAll<number>().as('n'))
+      .where('rig_id', '=', rigId)
+      .where('deleted_at', 'is', null)
+      .executeTakeFirst(),
+    db
+      .selectFrom('forecasts')
+      .select((eb) => eb.fn.countAll<number>().as('n'))
+      .where('trip_id', 'in', liveTrips)
+      .executeTakeFirst(),
+    db
+      .selectFrom('check_ins')
+      .select((eb) => eb.fn.countAll<number>().as('n'))
+      .where('trip_id', 'in', liveTrips)
+      .executeTakeFirst(),
+    db
+      .selectFrom('monitor_logs')
+      .select((eb) => eb.fn.countAll<number>().as('n'))
+      .where('rig_id', '=', rigId)
+      .executeTakeFirst(),
   ]);
   return { loads: count(loads), trips: count(trips), forecasts: count(forecasts), checkIns: count(checkIns), logs: count(logs) };
 }
@@ -29,8 +50,16 @@ export async function rigDeletionCounts(db: Kysely<DB>, rigId: string): Promise<
 /** What deleting the trip takes with it: its saved forecasts and check-ins. */
 export async function tripDeletionCounts(db: Kysely<DB>, tripId: string): Promise<DeletionCounts> {
   const [forecasts, checkIns] = await Promise.all([
-    db.selectFrom('forecasts').select((eb) => eb.fn.countAll<number>().as('n')).where('trip_id', '=', tripId).executeTakeFirst(),
-    db.selectFrom('check_ins').select((eb) => eb.fn.countAll<number>().as('n')).where('trip_id', '=', tripId).executeTakeFirst(),
+    db
+      .selectFrom('forecasts')
+      .select((eb) => eb.fn.countAll<number>().as('n'))
+      .where('trip_id', '=', tripId)
+      .executeTakeFirst(),
+    db
+      .selectFrom('check_ins')
+      .select((eb) => eb.fn.countAll<number>().as('n'))
+      .where('trip_id', '=', tripId)
+      .executeTakeFirst(),
   ]);
   return { forecasts: count(forecasts), checkIns: count(checkIns) };
 }
@@ -46,19 +75,35 @@ function past(deletedAt: string | null, what: string): void {
 export async function restoreRig(db: Kysely<DB>, rig: { id: string; deleted_at: string | null }): Promise<RigDto> {
   past(rig.deleted_at, 'rig');
   const rigId = rig.id;
-  await db.updateTable('rigs').set((eb) => ({ deleted_at: null, deleted_by: null, version: eb('version', '+', 1) })).where('id', '=', rigId).where('deleted_at', 'is not', null).execute();
+  await db
+    .updateTable('rigs')
+    .set((eb) => ({ deleted_at: null, deleted_by: null, version: eb('version', '+', 1) }))
+    .where('id', '=', rigId)
+    .where('deleted_at', 'is not', null)
+    .execute();
   const row = await db.selectFrom('rigs').selectAll().where('id', '=', rigId).executeTakeFirstOrThrow();
   return toRigDto(row, true, true);
 }
 
 /** Brings a deleted trip back; a trip whose rig is deleted too waits for the rig (409 naming it). */
-export async function restoreTrip(db: Kysely<DB>, trip: { id: string; deleted_at: string | null }, rig: { name: string; deleted_at: string | null }): Promise<TripDto> {
+export async function restoreTrip(
+  db: Kysely<DB>,
+  trip: { id: string; deleted_at: string | null },
+  rig: { name: string; deleted_at: string | null },
+): Promise<TripDto> {
   past(trip.deleted_at, 'trip');
   const tripId = trip.id;
   if (rig.deleted_at !== null) {
-    throw new HttpError('conflict', `This trip was on the rig “${rig.name}”, which is deleted too: restore the rig first, then the trip.`, [{ path: 'rigId', message: 'the trip’s rig is deleted' }]);
+    throw new HttpError('conflict', `This trip was on the rig “${rig.name}”, which is deleted too: restore the rig first, then the trip.`, [
+      { path: 'rigId', message: 'the trip’s rig is deleted' },
+    ]);
   }
-  await db.updateTable('trips').set((eb) => ({ deleted_at: null, deleted_by: null, version: eb('version', '+', 1) })).where('id', '=', tripId).where('deleted_at', 'is not', null).execute();
+  await db
+    .updateTable('trips')
+    .set((eb) => ({ deleted_at: null, deleted_by: null, version: eb('version', '+', 1) }))
+    .where('id', '=', tripId)
+    .where('deleted_at', 'is not', null)
+    .execute();
   const row = await db.selectFrom('trips').selectAll().where('id', '=', tripId).executeTakeFirstOrThrow();
   return toTripDto(row, true, true);
 }
@@ -68,7 +113,9 @@ export async function listRecentlyDeleted(db: Kysely<DB>, userId: string, nowMs 
   const since = purgeBefore(nowMs);
   const rigs = await db
     .selectFrom('rigs')
-    .innerJoin('crew_members', (j) => j.onRef('crew_members.crew_id', '=', 'rigs.crew_id').on('crew_members.user_id', '=', userId).on('crew_members.role', '=', 'owner'))
+    .innerJoin('crew_members', (j) =>
+      j.onRef('crew_members.crew_id', '=', 'rigs.crew_id').on('crew_members.user_id', '=', userId).on('crew_members.role', '=', 'owner'),
+    )
     .leftJoin('user', 'user.id', 'rigs.deleted_by')
     .select(['rigs.id', 'rigs.name', 'rigs.crew_id', 'rigs.deleted_at', 'user.name as deleter'])
     .where('rigs.deleted_at', 'is not', null)
@@ -77,14 +124,33 @@ export async function listRecentlyDeleted(db: Kysely<DB>, userId: string, nowMs 
   const trips = await db
     .selectFrom('trips')
     .innerJoin('rigs', 'rigs.id', 'trips.rig_id')
-    .innerJoin('crew_members', (j) => j.onRef('crew_members.crew_id', '=', 'rigs.crew_id').on('crew_members.user_id', '=', userId).on('crew_members.role', '=', 'owner'))
+    .innerJoin('crew_members', (j) =>
+      j.onRef('crew_members.crew_id', '=', 'rigs.crew_id').on('crew_members.user_id', '=', userId).on('crew_members.role', '=', 'owner'),
+    )
     .leftJoin('user', 'user.id', 'trips.deleted_by')
-    .select(['trips.id', 'trips.name', 'rigs.crew_id', 'trips.deleted_at', 'user.name as deleter', 'rigs.id as rig_id', 'rigs.name as rig_name', 'rigs.deleted_at as rig_deleted_at'])
+    .select([
+      'trips.id',
+      'trips.name',
+      'rigs.crew_id',
+      'trips.deleted_at',
+      'user.name as deleter',
+      'rigs.id as rig_id',
+      'rigs.name as rig_name',
+      'rigs.deleted_at as rig_deleted_at',
+    ])
     .where('trips.deleted_at', 'is not', null)
     .where('trips.deleted_at', '>=', since)
     .execute();
   const items: DeletedItem[] = [
-    ...rigs.map((r) => ({ kind: 'rig' as const, id: r.id, name: r.name, crewId: r.crew_id, deletedAt: r.deleted_at!, deletedBy: r.deleter ?? null, daysLeft: daysLeft(r.deleted_at!, nowMs) })),
+    ...rigs.map((r) => ({
+      kind: 'rig' as const,
+      id: r.id,
+      name: r.name,
+      crewId: r.crew_id,
+      deletedAt: r.deleted_at!,
+      deletedBy: r.deleter ?? null,
+      daysLeft: daysLeft(r.deleted_at!, nowMs),
+    })),
     ...trips.map((t) => ({
       kind: 'trip' as const,
       id: t.id,

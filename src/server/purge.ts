@@ -27,7 +27,8 @@ let timer: ReturnType<typeof setInterval> | null = null;
 async function pass(): Promise<void> {
   try {
     const done = await purgeDeleted(appDb);
-    if (done.rigs || done.trips) console.log(`[sunreckon] purged ${done.rigs} rig(s) and ${done.trips} trip(s) deleted more than 30 days ago`);
+    if (done.rigs || done.trips)
+      console.log(`[sunreckon] purged ${done.rigs} rig(s) and ${done.trips} trip(s) deleted more than 30 days ago`);
   } catch (err) {
     console.error('[sunreckon] purge of deleted rigs and trips failed', err);
   }

@@ -131,7 +131,11 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('delete, restore and con
     const page = await pool.open(viewport);
     await signIn(page, owner.email, PASSWORD, `/rigs/${rig.id}`);
     await page.goto(`${page.url().split('#')[0]}#loads`);
-    const loads = (await api(`/api/rigs/${rig.id}/loads`, { session: owner }).then((r) => r.json())) as { id: string; name: string; version: number }[];
+    const loads = (await api(`/api/rigs/${rig.id}/loads`, { session: owner }).then((r) => r.json())) as {
+      id: string;
+      name: string;
+      version: number;
+    }[];
     const fridge = loads.find((l) => l.name === 'Compressor fridge')!;
     const pump = loads.find((l) => l.name === 'Water pump')!;
 

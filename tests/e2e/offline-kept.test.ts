@@ -17,12 +17,24 @@ const STOP = { name: 'Juniper Mesa', lat: 35.6, lon: -105.9, timeZone: TZ, arriv
 
 beforeAll(async () => {
   camper = await signUp({ name: 'Kept Camper', password: PASSWORD });
-  const rig = await createRig(camper, { name: 'Kept van', bank: { chemistry: 'agm', nominalVolts: 12, capacityAh: 200 }, arrays: [{ name: 'Roof', ratedWatts: 200 }], chargers: [] });
+  const rig = await createRig(camper, {
+    name: 'Kept van',
+    bank: { chemistry: 'agm', nominalVolts: 12, capacityAh: 200 },
+    arrays: [{ name: 'Roof', ratedWatts: 200 }],
+    chargers: [],
+  });
   await createLoad(camper, rig.id, { name: 'Compressor fridge', watts: 45, dutyPct: 45 });
-  const make = async (name: string) => ((await (await api('/api/trips', { method: 'POST', session: camper, json: { rigId: rig.id, name, stops: [STOP] } })).json()) as { id: string }).id;
+  const make = async (name: string) =>
+    (
+      (await (await api('/api/trips', { method: 'POST', session: camper, json: { rigId: rig.id, name, stops: [STOP] } })).json()) as {
+        id: string;
+      }
+    ).id;
   bare = await make('No forecast yet');
   planned = await make('With a forecast');
-  expect((await api(`/api/trips/${planned}/forecasts`, { method: 'POST', session: camper, json: { name: 'Before leaving' } })).status).toBe(201);
+  expect((await api(`/api/trips/${planned}/forecasts`, { method: 'POST', session: camper, json: { name: 'Before leaving' } })).status).toBe(
+    201,
+  );
 });
 
 describe('what the trip page says is kept on the phone', () => {
@@ -43,7 +55,11 @@ describe('what the trip page says is kept on the phone', () => {
 
   it('says a trip without a saved forecast is kept without one', async () => {
     await open(bare);
-    await expect.poll(status, { timeout: 20_000 }).toBe('Kept on this phone for use without signal: this trip and its check-ins. It has no saved forecast yet — save one while you have signal to check in against it without signal.');
+    await expect
+      .poll(status, { timeout: 20_000 })
+      .toBe(
+        'Kept on this phone for use without signal: this trip and its check-ins. It has no saved forecast yet — save one while you have signal to check in against it without signal.',
+      );
     await page.getByText('This trip has no saved forecast yet, so a check-in is re-forecast when it reaches the server.').waitFor();
     expect(await page.getByText(/latest forecast are saved/).count()).toBe(0);
     await page.getByTestId('offline-status').scrollIntoViewIfNeeded();
@@ -52,13 +68,19 @@ describe('what the trip page says is kept on the phone', () => {
 
   it('names the latest saved forecast that is kept, and says when a newer one is not on the phone yet', async () => {
     await open(planned);
-    await expect.poll(status, { timeout: 20_000 }).toBe('Kept on this phone for use without signal: this trip, its check-ins and its latest saved forecast, “Before leaving”.');
+    await expect
+      .poll(status, { timeout: 20_000 })
+      .toBe('Kept on this phone for use without signal: this trip, its check-ins and its latest saved forecast, “Before leaving”.');
     // A newer forecast saved elsewhere: the phone does not have it until it keeps the trip again.
-    expect((await api(`/api/trips/${planned}/forecasts`, { method: 'POST', session: camper, json: { name: 'After lunch' } })).status).toBe(201);
-    await open(planned);
-    await expect.poll(status, { timeout: 20_000 }).toBe(
-      'Kept on this phone for use without signal: this trip and its check-ins. Its latest saved forecast, “After lunch”, is not on this phone yet. Older saved forecasts open only with signal.',
+    expect((await api(`/api/trips/${planned}/forecasts`, { method: 'POST', session: camper, json: { name: 'After lunch' } })).status).toBe(
+      201,
     );
+    await open(planned);
+    await expect
+      .poll(status, { timeout: 20_000 })
+      .toBe(
+        'Kept on this phone for use without signal: this trip and its check-ins. Its latest saved forecast, “After lunch”, is not on this phone yet. Older saved forecasts open only with signal.',
+      );
     await page.getByTestId('offline-status').scrollIntoViewIfNeeded();
     await shot(page, 'trip-kept-newer-forecast-phone');
   });

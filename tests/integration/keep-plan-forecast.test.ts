@@ -45,7 +45,11 @@ describe('keeping a quick plan', () => {
 
   it('names a trip at the form’s placeholder place plainly', async () => {
     const s = await signUp();
-    const res = await api('/api/quick-plan/keep', { method: 'POST', session: s, json: buildQuickPlan({ ...ENTRY, placeName: 'Your camp', arrive: '2027-07-02' }) });
+    const res = await api('/api/quick-plan/keep', {
+      method: 'POST',
+      session: s,
+      json: buildQuickPlan({ ...ENTRY, placeName: 'Your camp', arrive: '2027-07-02' }),
+    });
     expect(res.status).toBe(201);
     const { tripId } = (await res.json()) as { tripId: string };
     expect(((await (await api(`/api/trips/${tripId}`, { session: s })).json()) as { name: string }).name).toBe('My trip, July 2027');

@@ -20,7 +20,10 @@ describe('a stale edit of a load', () => {
     const rig = await makeRig(owner, crewId);
     const load = await makeLoad(owner, rig.id);
     // A new load names its author as its last editor.
-    const list = (await (await api(`/api/rigs/${rig.id}/loads`, { session: owner })).json()) as { id: string; updatedBy: { name: string } | null }[];
+    const list = (await (await api(`/api/rigs/${rig.id}/loads`, { session: owner })).json()) as {
+      id: string;
+      updatedBy: { name: string } | null;
+    }[];
     expect(list.find((l) => l.id === load.id)?.updatedBy?.name).toBe('Ines Owner');
 
     const theirs = await api(`/api/loads/${load.id}`, { method: 'PATCH', session: tobi, json: { version: load.version, watts: 60 } });
@@ -30,7 +33,14 @@ describe('a stale edit of a load', () => {
 
     const mine = await api(`/api/loads/${load.id}`, { method: 'PATCH', session: owner, json: { version: load.version, watts: 30 } });
     expect(mine.status).toBe(409);
-    const body = (await mine.json()) as { current: { watts: number; version: number; updatedAt: string; updatedBy: { id: string; name: string } } };
-    expect(body.current).toMatchObject({ watts: 60, version: load.version + 1, updatedAt: saved.updatedAt, updatedBy: { id: tobi.userId, name: 'Tobi' } });
+    const body = (await mine.json()) as {
+      current: { watts: number; version: number; updatedAt: string; updatedBy: { id: string; name: string } };
+    };
+    expect(body.current).toMatchObject({
+      watts: 60,
+      version: load.version + 1,
+      updatedAt: saved.updatedAt,
+      updatedBy: { id: tobi.userId, name: 'Tobi' },
+    });
   });
 });

@@ -38,12 +38,16 @@ async function fullRig() {
   const forecasts: string[] = [];
   for (const [i, n] of [3, 2].entries()) {
     for (let k = 0; k < n; k++) {
-      const f = await body<{ id: string }>(await api(`/api/trips/${trips[i]!.id}/forecasts`, { method: 'POST', session: owner, json: { name: `Run ${k}` } }), 201);
+      const f = await body<{ id: string }>(
+        await api(`/api/trips/${trips[i]!.id}/forecasts`, { method: 'POST', session: owner, json: { name: `Run ${k}` } }),
+        201,
+      );
       forecasts.push(f.id);
     }
   }
   for (const [i, n] of [2, 1].entries()) {
-    for (let k = 0; k < n; k++) await body(await api(`/api/trips/${trips[i]!.id}/check-ins`, { method: 'POST', session: owner, json: CHECK_IN_INPUT() }), 201);
+    for (let k = 0; k < n; k++)
+      await body(await api(`/api/trips/${trips[i]!.id}/check-ins`, { method: 'POST', session: owner, json: CHECK_IN_INPUT() }), 201);
   }
   return { rig, trips, forecasts };
 }
@@ -66,40 +70,67 @@ describe('deleting a rig', () => {
   it('counts what goes with it, hides all of it everywhere, lists it for owners, and restores all of it', async () => {
     const { rig, trips, forecasts } = await fullRig();
     await body(await api(`/api/rigs/${rig.id}/grants`, { method: 'POST', session: owner, json: { email: installer.email } }), 202);
-    expect((await body<{ rigId: string }[]>(await api('/api/installer/rigs', { session: installer }), 200)).some((r) => r.rigId === rig.id)).toBe(true);
+    expect(
+      (await body<{ rigId: string }[]>(await api('/api/installer/rigs', { session: installer }), 200)).some((r) => r.rigId === rig.id),
+    ).toBe(true);
 
-    expect(await body(await api(`/api/rigs/${rig.id}/deletion`, { session: owner }), 200)).toEqual({ loads: 2, trips: 2, forecasts: 5, checkIns: 3, logs: 0 });
+    expect(await body(await api(`/api/rigs/${rig.id}/deletion`, { session: owner }), 200)).toEqual({
+      loads: 2,
+      trips: 2,
+      forecasts: 5,
+      checkIns: 3,
+      logs: 0,
+    });
 
     const v = await version(owner, `/api/rigs/${rig.id}`);
     await body(await api(`/api/rigs/${rig.id}?version=${v}`, { method: 'DELETE', session: owner }), 204);
 
     // Hidden everywhere: the rig, its loads, trips, forecasts, check-ins; the lists; the installer's view; the pages.
-    for (const url of [`/api/rigs/${rig.id}`, `/api/rigs/${rig.id}/loads`, `/api/trips/${trips[0]!.id}`, `/api/trips/${trips[1]!.id}/forecasts`, `/api/forecasts/${forecasts[0]}`, `/api/trips/${trips[0]!.id}/check-ins`]) {
+    for (const url of [
+      `/api/rigs/${rig.id}`,
+      `/api/rigs/${rig.id}/loads`,
+      `/api/trips/${trips[0]!.id}`,
+      `/api/trips/${trips[1]!.id}/forecasts`,
+      `/api/forecasts/${forecasts[0]}`,
+      `/api/trips/${trips[0]!.id}/check-ins`,
+    ]) {
       expect((await api(url, { session: owner })).status, url).toBe(404);
       expect((await api(url, { session: editor })).status, url).toBe(404);
     }
     expect((await api(`/api/rigs/${rig.id}`, { session: installer })).status).toBe(404);
     expect((await body<{ id: string }[]>(await api('/api/rigs', { session: owner }), 200)).some((r) => r.id === rig.id)).toBe(false);
-    expect((await body<{ id: string }[]>(await api('/api/trips', { session: editor }), 200)).some((t) => trips.some((x) => x.id === t.id))).toBe(false);
-    expect((await body<{ rigId: string }[]>(await api('/api/installer/rigs', { session: installer }), 200)).some((r) => r.rigId === rig.id)).toBe(false);
+    expect(
+      (await body<{ id: string }[]>(await api('/api/trips', { session: editor }), 200)).some((t) => trips.some((x) => x.id === t.id)),
+    ).toBe(false);
+    expect(
+      (await body<{ rigId: string }[]>(await api('/api/installer/rigs', { session: installer }), 200)).some((r) => r.rigId === rig.id),
+    ).toBe(false);
     expect((await api(`/rigs/${rig.id}`, { session: owner })).status).toBe(404);
     expect((await api(`/trips/${trips[0]!.id}`, { session: owner })).status).toBe(404);
     expect((await api(`/trips/${trips[0]!.id}/forecasts/${forecasts[0]}`, { session: owner })).status).toBe(404);
 
     // Owners see it in "Recently deleted" with 30 days left; editors see nothing there and cannot restore it.
-    const listed = await body<{ kind: string; id: string; daysLeft: number; deletedBy: string }[]>(await api('/api/deleted', { session: owner }), 200);
+    const listed = await body<{ kind: string; id: string; daysLeft: number; deletedBy: string }[]>(
+      await api('/api/deleted', { session: owner }),
+      200,
+    );
     expect(listed.find((d) => d.id === rig.id)).toMatchObject({ kind: 'rig', daysLeft: 30, deletedBy: 'Rig Owner' });
     expect((await body<{ id: string }[]>(await api('/api/deleted', { session: editor }), 200)).some((d) => d.id === rig.id)).toBe(false);
     expect((await api(`/api/rigs/${rig.id}/restore`, { method: 'POST', session: editor })).status).toBe(403);
     expect((await api(`/api/rigs/${rig.id}/restore`, { method: 'POST', session: installer })).status).toBe(403);
 
-    const restored = await body<{ id: string; name: string }>(await api(`/api/rigs/${rig.id}/restore`, { method: 'POST', session: owner }), 200);
+    const restored = await body<{ id: string; name: string }>(
+      await api(`/api/rigs/${rig.id}/restore`, { method: 'POST', session: owner }),
+      200,
+    );
     expect(restored.id).toBe(rig.id);
     expect((await body<unknown[]>(await api(`/api/rigs/${rig.id}/loads`, { session: editor }), 200)).length).toBe(2);
     expect((await body<unknown[]>(await api(`/api/trips/${trips[0]!.id}/forecasts`, { session: editor }), 200)).length).toBe(3);
     expect((await body<unknown[]>(await api(`/api/trips/${trips[0]!.id}/check-ins`, { session: editor }), 200)).length).toBe(2);
     await body(await api(`/api/forecasts/${forecasts[4]}`, { session: owner }), 200);
-    expect((await body<{ rigId: string }[]>(await api('/api/installer/rigs', { session: installer }), 200)).some((r) => r.rigId === rig.id)).toBe(true);
+    expect(
+      (await body<{ rigId: string }[]>(await api('/api/installer/rigs', { session: installer }), 200)).some((r) => r.rigId === rig.id),
+    ).toBe(true);
     expect((await body<{ id: string }[]>(await api('/api/deleted', { session: owner }), 200)).some((d) => d.id === rig.id)).toBe(false);
   });
 });
@@ -110,20 +141,32 @@ describe('deleting a trip', () => {
     const trip = trips[0]!;
     expect(await body(await api(`/api/trips/${trip.id}/deletion`, { session: owner }), 200)).toEqual({ forecasts: 3, checkIns: 2 });
     const tv = await version(owner, `/api/trips/${trip.id}`);
-    const refused = await body<{ error: { message: string } }>(await api(`/api/trips/${trip.id}?version=${tv}`, { method: 'DELETE', session: editor }), 403);
+    const refused = await body<{ error: { message: string } }>(
+      await api(`/api/trips/${trip.id}?version=${tv}`, { method: 'DELETE', session: editor }),
+      403,
+    );
     expect(refused.error.message).toMatch(/Only the crew's owners can delete a trip/);
 
     await body(await api(`/api/trips/${trip.id}?version=${tv}`, { method: 'DELETE', session: owner }), 204);
     expect((await api(`/api/trips/${trip.id}`, { session: owner })).status).toBe(404);
-    expect((await body<{ id: string }[]>(await api(`/api/trips?rigId=${rig.id}`, { session: owner }), 200)).map((t) => t.id)).toEqual([trips[1]!.id]);
+    expect((await body<{ id: string }[]>(await api(`/api/trips?rigId=${rig.id}`, { session: owner }), 200)).map((t) => t.id)).toEqual([
+      trips[1]!.id,
+    ]);
     // The rig's own count no longer holds the deleted trip.
-    expect(await body(await api(`/api/rigs/${rig.id}/deletion`, { session: owner }), 200)).toMatchObject({ trips: 1, forecasts: 2, checkIns: 1 });
+    expect(await body(await api(`/api/rigs/${rig.id}/deletion`, { session: owner }), 200)).toMatchObject({
+      trips: 1,
+      forecasts: 2,
+      checkIns: 1,
+    });
 
     const rv = await version(owner, `/api/rigs/${rig.id}`);
     await body(await api(`/api/rigs/${rig.id}?version=${rv}`, { method: 'DELETE', session: owner }), 204);
     const listed = await body<{ kind: string; id: string; rigDeleted?: boolean }[]>(await api('/api/deleted', { session: owner }), 200);
     expect(listed.find((d) => d.id === trip.id)).toMatchObject({ kind: 'trip', rigDeleted: true });
-    const wait = await body<{ error: { message: string } }>(await api(`/api/trips/${trip.id}/restore`, { method: 'POST', session: owner }), 409);
+    const wait = await body<{ error: { message: string } }>(
+      await api(`/api/trips/${trip.id}/restore`, { method: 'POST', session: owner }),
+      409,
+    );
     expect(wait.error.message).toMatch(/restore the rig first/);
 
     await body(await api(`/api/rigs/${rig.id}/restore`, { method: 'POST', session: owner }), 200);
@@ -144,9 +187,24 @@ describe('the purge', () => {
     const old = await fullRig();
     const young = await fullRig();
     const oldTrip = young.trips[0]!;
-    await body(await api(`/api/rigs/${old.rig.id}?version=${await version(owner, `/api/rigs/${old.rig.id}`)}`, { method: 'DELETE', session: owner }), 204);
-    await body(await api(`/api/trips/${oldTrip.id}?version=${await version(owner, `/api/trips/${oldTrip.id}`)}`, { method: 'DELETE', session: owner }), 204);
-    await body(await api(`/api/trips/${young.trips[1]!.id}?version=${await version(owner, `/api/trips/${young.trips[1]!.id}`)}`, { method: 'DELETE', session: owner }), 204);
+    await body(
+      await api(`/api/rigs/${old.rig.id}?version=${await version(owner, `/api/rigs/${old.rig.id}`)}`, { method: 'DELETE', session: owner }),
+      204,
+    );
+    await body(
+      await api(`/api/trips/${oldTrip.id}?version=${await version(owner, `/api/trips/${oldTrip.id}`)}`, {
+        method: 'DELETE',
+        session: owner,
+      }),
+      204,
+    );
+    await body(
+      await api(`/api/trips/${young.trips[1]!.id}?version=${await version(owner, `/api/trips/${young.trips[1]!.id}`)}`, {
+        method: 'DELETE',
+        session: owner,
+      }),
+      204,
+    );
 
     // Make two of the deletions 31 days old; the third stays from today.
     const db = openTestDb({ write: true });

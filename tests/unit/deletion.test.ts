@@ -7,7 +7,9 @@ const at = Date.parse('2026-12-04T12:00:00.000Z');
 describe('what goes with a deletion, in words', () => {
   it('names each kind with its count, singular and plural, and leaves out what there is none of', () => {
     expect(describeDeletion({ trips: 2, forecasts: 5, checkIns: 3 })).toBe('2 trips, 5 saved forecasts, 3 check-ins');
-    expect(describeDeletion({ loads: 1, trips: 1, forecasts: 1, checkIns: 1, logs: 1 })).toBe('1 load, 1 trip, 1 saved forecast, 1 check-in, 1 monitor log');
+    expect(describeDeletion({ loads: 1, trips: 1, forecasts: 1, checkIns: 1, logs: 1 })).toBe(
+      '1 load, 1 trip, 1 saved forecast, 1 check-in, 1 monitor log',
+    );
     expect(describeDeletion({ loads: 4, trips: 0, forecasts: 0, checkIns: 0, logs: 0 })).toBe('4 loads');
     expect(describeDeletion({ forecasts: 0, checkIns: 0 })).toBe('nothing else');
   });

@@ -24,28 +24,75 @@ interface AskFirstProps {
 }
 
 /** A button that, pressed, asks in place: the question, the action and "Keep". */
-export function AskFirst({ label, ariaLabel, question, confirmLabel, keepLabel = 'Keep', onConfirm, onAsk, busy, buttonClassName = 'btn btn-quiet', className = '' }: AskFirstProps) {
+export function AskFirst({
+  label,
+  ariaLabel,
+  question,
+  confirmLabel,
+  keepLabel = 'Keep',
+  onConfirm,
+  onAsk,
+  busy,
+  buttonClassName = 'btn btn-quiet',
+  className = '',
+}: AskFirstProps) {
   const [asking, setAsking] = useState(false);
   if (!asking) {
     return (
-      <button type="button" className={buttonClassName} aria-label={ariaLabel} onClick={() => { setAsking(true); onAsk?.(); }}>
+      <button
+        type="button"
+        className={buttonClassName}
+        aria-label={ariaLabel}
+        onClick={() => {
+          setAsking(true);
+          onAsk?.();
+        }}
+      >
         {label}
       </button>
     );
   }
   return (
-    <Confirmation question={question} confirmLabel={confirmLabel} keepLabel={keepLabel} onConfirm={onConfirm} onKeep={() => setAsking(false)} busy={busy} className={className} />
+    <Confirmation
+      question={question}
+      confirmLabel={confirmLabel}
+      keepLabel={keepLabel}
+      onConfirm={onConfirm}
+      onKeep={() => setAsking(false)}
+      busy={busy}
+      className={className}
+    />
   );
 }
 
 /** The question with its two answers, for a caller that keeps the asking state itself. */
-export function Confirmation({ question, confirmLabel, keepLabel = 'Keep', onConfirm, onKeep, busy, className = '' }: { question: ReactNode; confirmLabel: string; keepLabel?: string; onConfirm: () => void; onKeep: () => void; busy?: boolean; className?: string }) {
+export function Confirmation({
+  question,
+  confirmLabel,
+  keepLabel = 'Keep',
+  onConfirm,
+  onKeep,
+  busy,
+  className = '',
+}: {
+  question: ReactNode;
+  confirmLabel: string;
+  keepLabel?: string;
+  onConfirm: () => void;
+  onKeep: () => void;
+  busy?: boolean;
+  className?: string;
+}) {
   return (
     <div role="group" aria-label="Confirm" data-confirm className={`flex flex-wrap items-center justify-end gap-2 ${className}`}>
       <span className="text-sm font-semibold">{question}</span>
       <span className="flex flex-wrap gap-2">
-        <button type="button" className="btn btn-primary min-h-[36px] px-3 py-1 text-sm" onClick={onConfirm} disabled={busy}>{confirmLabel}</button>
-        <button type="button" className="btn btn-quiet min-h-[36px] px-3 py-1 text-sm" onClick={onKeep} disabled={busy}>{keepLabel}</button>
+        <button type="button" className="btn btn-primary min-h-[36px] px-3 py-1 text-sm" onClick={onConfirm} disabled={busy}>
+          {confirmLabel}
+        </button>
+        <button type="button" className="btn btn-quiet min-h-[36px] px-3 py-1 text-sm" onClick={onKeep} disabled={busy}>
+          {keepLabel}
+        </button>
       </span>
     </div>
   );

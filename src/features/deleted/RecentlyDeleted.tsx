@@ -37,14 +37,23 @@ function RecentlyDeleted({ kind }: { kind: 'rig' | 'trip' }) {
   const title = kind === 'rig' ? 'Recently deleted rigs' : 'Recently deleted trips';
   return (
     <section aria-labelledby={`deleted-${kind}-heading`} className="mt-8" data-recently-deleted={kind}>
-      <h2 id={`deleted-${kind}-heading`} className="text-xl">{title}</h2>
+      <h2 id={`deleted-${kind}-heading`} className="text-xl">
+        {title}
+      </h2>
       <p className="mt-1 text-slate-text">
-        Kept for {RESTORE_DAYS} days with {kind === 'rig' ? 'their loads, trips, saved forecasts and check-ins' : 'their saved forecasts and check-ins'}, then removed for good. Only the crew’s owners see this list.
+        Kept for {RESTORE_DAYS} days with{' '}
+        {kind === 'rig' ? 'their loads, trips, saved forecasts and check-ins' : 'their saved forecasts and check-ins'}, then removed for
+        good. Only the crew’s owners see this list.
       </p>
       <p role="status" aria-live="polite" className={status ? 'mt-2 font-semibold text-moss-deep' : 'sr-only'}>
         {status ? (
           <>
-            {status.text} {status.href ? <a className="underline" href={status.href}>Open it</a> : null}
+            {status.text}{' '}
+            {status.href ? (
+              <a className="underline" href={status.href}>
+                Open it
+              </a>
+            ) : null}
           </>
         ) : (
           ''
@@ -58,12 +67,25 @@ function RecentlyDeleted({ kind }: { kind: 'rig' | 'trip' }) {
                 <span className="block font-extrabold">{d.name}</span>
                 <span className="block text-sm text-slate-text">
                   {d.kind === 'trip' && d.rigName ? `on ${d.rigName} · ` : ''}
-                  deleted{d.deletedBy ? ` by ${d.deletedBy}` : ''} · {d.daysLeft > 0 ? `${plural(d.daysLeft, 'day')} left` : 'removed today'}
+                  deleted{d.deletedBy ? ` by ${d.deletedBy}` : ''} ·{' '}
+                  {d.daysLeft > 0 ? `${plural(d.daysLeft, 'day')} left` : 'removed today'}
                 </span>
-                {d.rigDeleted ? <span className="block text-sm font-semibold">Its rig is deleted too: restore the rig first (Rigs page).</span> : null}
-                {problem?.id === d.id ? <span role="alert" className="block text-sm font-semibold text-alert">{problem.text}</span> : null}
+                {d.rigDeleted ? (
+                  <span className="block text-sm font-semibold">Its rig is deleted too: restore the rig first (Rigs page).</span>
+                ) : null}
+                {problem?.id === d.id ? (
+                  <span role="alert" className="block text-sm font-semibold text-alert">
+                    {problem.text}
+                  </span>
+                ) : null}
               </span>
-              <button type="button" className="btn btn-quiet" disabled={restore.isPending || d.rigDeleted === true} onClick={() => restore.mutate(d)} aria-label={`Restore ${d.name}`}>
+              <button
+                type="button"
+                className="btn btn-quiet"
+                disabled={restore.isPending || d.rigDeleted === true}
+                onClick={() => restore.mutate(d)}
+                aria-label={`Restore ${d.name}`}
+              >
                 Restore
               </button>
             </li>

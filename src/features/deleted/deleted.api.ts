@@ -5,7 +5,8 @@ import type { RigDto } from '../../domain/rigs/rigs.schema';
 import type { TripDto } from '../../domain/trips/trips.schema';
 
 /** What deleting the rig or trip would take with it. */
-export const fetchDeletionCounts = (kind: 'rig' | 'trip', id: string) => apiFetch<DeletionCounts>(`/api/${kind}s/${encodeURIComponent(id)}/deletion`);
+export const fetchDeletionCounts = (kind: 'rig' | 'trip', id: string) =>
+  apiFetch<DeletionCounts>(`/api/${kind}s/${encodeURIComponent(id)}/deletion`);
 
 /** Rigs and trips deleted in the crews the user owns, still restorable. */
 export const fetchDeleted = () => apiFetch<DeletedItem[]>('/api/deleted');

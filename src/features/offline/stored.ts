@@ -19,7 +19,8 @@ export interface StoredFacts {
 /** The sentence above a trip's check-ins saying what of this trip is on this phone. */
 export function storedOnPhone(f: StoredFacts): string {
   if (!f.online) return 'No signal: check-ins are worked out on this phone and sent when the signal is back.';
-  if (f.pages === null) return f.savedCopy ? 'This is the copy of the trip kept on this phone.' : 'Keeping this trip on this phone for use without signal…';
+  if (f.pages === null)
+    return f.savedCopy ? 'This is the copy of the trip kept on this phone.' : 'Keeping this trip on this phone for use without signal…';
   const trip = `/trips/${encodeURIComponent(f.tripId)}`;
   if (!f.pages.includes(trip)) {
     return 'This trip is not kept on this phone: without signal the phone has your current and coming trips (or the three most recent).';
