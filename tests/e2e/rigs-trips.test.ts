@@ -377,8 +377,10 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rigs, loads and trips i
     await hydrated(page);
     await page.getByRole('button', { name: 'Edit the itinerary' }).click();
     await page.getByRole('button', { name: 'Delete trip…' }).click();
-    await page.getByText('Delete this trip?').waitFor();
-    await page.getByRole('button', { name: 'Cancel' }).click();
+    // The question says what goes with the trip (counted by the server) and where to get it back.
+    await page.getByText(/Delete High desert, mine\? With it go (nothing else|\d+ saved forecasts?)/).waitFor();
+    await page.getByText(/restore it under “Recently deleted” on the Trips page for 30 days/).waitFor();
+    await page.getByRole('button', { name: 'Keep' }).click();
     expect((await page.request.get(`${baseUrl()}/api/trips/${tripId}`)).status()).toBe(200);
     await page.getByRole('button', { name: 'Delete trip…' }).click();
     await page.getByRole('button', { name: 'Delete', exact: true }).click();
