@@ -127,7 +127,7 @@ describe('installer proposals in Chromium', () => {
     await page.getByLabel('Your name, to accept').fill('Inés Reyes');
     await page.getByRole('button', { name: 'Accept the proposal' }).click();
     await page.getByTestId('decision').waitFor();
-    expect(await page.getByTestId('decision').textContent()).toMatch(/Accepted by Inés Reyes on .* UTC.*Yes — before the October trip/s);
+    expect(await page.getByTestId('decision').textContent()).toMatch(/Accepted by Inés Reyes on \w{3} \d{1,2} \w{3} \d{4}, \d{2}:\d{2}.*Yes — before the October trip/s);
     await shot(page, 'proposal-accepted-phone');
 
     await page.goto(`${baseUrl()}/proposals`);
