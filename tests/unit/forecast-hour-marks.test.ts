@@ -3,7 +3,14 @@
 import { describe, expect, it } from 'vitest';
 import type { Forecast } from '../../src/engine';
 import { rowsOfDay } from '../../src/features/forecast/chart-data';
-import { hourBands, isCutOff, isDriving, unusedSolarOf, unusedSolarSentence } from '../../src/features/forecast/hour-marks';
+import {
+  hourBands,
+  isCutOff,
+  isDriving,
+  unusedSolarOf,
+  unusedSolarSentence,
+  unusedSolarShort,
+} from '../../src/features/forecast/hour-marks';
 import { basePlan, run } from '../reference/plan-helpers';
 
 // 100 Ah LiFePO4 at 30 °C (capacity factor 1), Peukert off, no resistance, 15 % at 15:00 with a steady 128 W
@@ -50,6 +57,16 @@ describe('unused solar by cause', () => {
     expect(unusedSolarSentence(withSummary({ curtailedWh: 1234, curtailedFullWh: 1000, curtailedColdWh: 234, curtailedLimitWh: 0 }))).toBe(
       '1,234 Wh left unused: 1,000 Wh bank full, 234 Wh battery too cold to charge',
     );
+  });
+
+  it('says it short for the compare table: one cause by name, several with their Wh', () => {
+    expect(unusedSolarShort(withSummary({ curtailedWh: 48, curtailedFullWh: 48, curtailedColdWh: 0, curtailedLimitWh: 0 }))).toBe(
+      '48 Wh (bank full)',
+    );
+    expect(unusedSolarShort(withSummary({ curtailedWh: 300, curtailedFullWh: 200, curtailedColdWh: 100, curtailedLimitWh: 0 }))).toBe(
+      '300 Wh (200 Wh bank full, 100 Wh battery too cold to charge)',
+    );
+    expect(unusedSolarShort(withSummary({ curtailedWh: 0 }))).toBe('0 Wh');
   });
 
   it('says when a saved forecast does not know why', () => {

@@ -5,7 +5,7 @@ import { formatRowTime, formatWh, pct } from '../../lib/format';
 import { verdict } from '../../domain/forecasts/verdict';
 import type { ForecastWithWeather } from '../../domain/weather/band';
 import { BandChart } from './WeatherPanel';
-import { unusedSolarSentence } from './hour-marks';
+import { unusedSolarShort } from './hour-marks';
 import { snapshotDiff, type SnapshotSection } from '../../domain/forecasts/snapshot-diff';
 import { snapshotClock, snapshotLabel } from '../../domain/forecasts/snapshot-name';
 import type { Units } from '../../lib/units';
@@ -106,7 +106,7 @@ const rows = (reserve: number | null): { label: string; value: (s: CompareSide) 
   { label: 'First cutoff', value: (s) => (s.forecast.summary.firstCutoffAt ? formatRowTime(s.forecast.summary.firstCutoffAt) : 'Never') },
   { label: 'Unmet energy', value: (s) => formatWh(s.forecast.summary.unmetWh) },
   { label: 'Solar harvested', value: (s) => formatWh(s.forecast.summary.solarWh) },
-  { label: 'Solar left unused', value: (s) => unusedSolarSentence(s.forecast).replace(/^None left unused$/, '0 Wh') },
+  { label: 'Solar left unused', value: (s) => unusedSolarShort(s.forecast) },
   { label: 'Generator', value: (s) => `${s.forecast.summary.generatorHours} h · ${s.forecast.summary.generatorLitres} L` },
   { label: 'At the end', value: (s) => pct(s.forecast.summary.endSocPct) },
   { label: 'How sure is this?', value: (s) => (s.forecast as ForecastWithWeather).band?.sentence ?? 'No band saved' },

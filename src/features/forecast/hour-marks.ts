@@ -52,14 +52,29 @@ export const UNUSED_WORDS: Record<keyof UnusedSolar, string> = {
   limit: 'above the bank’s charge-current limit',
 };
 
+/** The summary's unused solar by cause, or null for a snapshot that does not say why. */
+function summaryParts(f: Forecast): UnusedSolar | null {
+  const s = f.summary;
+  if (s.curtailedColdWh === undefined || s.curtailedFullWh === undefined || s.curtailedLimitWh === undefined) return null;
+  return { full: s.curtailedFullWh, cold: s.curtailedColdWh, limit: s.curtailedLimitWh };
+}
+
+/** For a table cell: "48 Wh (bank full)", "300 Wh (200 Wh bank full, 100 Wh battery too cold to charge)", "0 Wh". */
+export function unusedSolarShort(f: Forecast): string {
+  const s = f.summary;
+  if (!(s.curtailedWh >= 1)) return '0 Wh';
+  const parts = summaryParts(f);
+  if (!parts) return `${formatWh(s.curtailedWh)} (bank full or too cold)`;
+  const kinds = (['full', 'cold', 'limit'] as const).filter((k) => parts[k] >= 1);
+  if (kinds.length === 1) return `${formatWh(s.curtailedWh)} (${UNUSED_WORDS[kinds[0]!]})`;
+  return `${formatWh(s.curtailedWh)} (${kinds.map((k) => `${formatWh(parts[k])} ${UNUSED_WORDS[k]}`).join(', ')})`;
+}
+
 /** The solar card's line: "1,234 Wh left unused: 1,000 Wh bank full, 234 Wh battery too cold to charge". */
 export function unusedSolarSentence(f: Forecast): string {
   const s = f.summary;
   if (!(s.curtailedWh >= 1)) return 'None left unused';
-  const parts: UnusedSolar | null =
-    s.curtailedColdWh === undefined || s.curtailedFullWh === undefined || s.curtailedLimitWh === undefined
-      ? null
-      : { full: s.curtailedFullWh, cold: s.curtailedColdWh, limit: s.curtailedLimitWh };
+  const parts = summaryParts(f);
   if (!parts) return `${formatWh(s.curtailedWh)} left unused (bank full or too cold: this saved forecast does not say which)`;
   const named = (['full', 'cold', 'limit'] as const).filter((k) => parts[k] >= 1).map((k) => `${formatWh(parts[k])} ${UNUSED_WORDS[k]}`);
   return `${formatWh(s.curtailedWh)} left unused: ${named.join(', ')}`;
