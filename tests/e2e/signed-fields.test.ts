@@ -2,7 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { api, baseUrl, signUp, type Session } from '../helpers/api';
 import { makeRig, makeTrip } from '../helpers/crew';
-import { hydrated, launch, signIn } from '../helpers/browser';
+import path from 'node:path';
+import { hydrated, launch, SCREENSHOTS, signIn } from '../helpers/browser';
 
 // A phone's decimal keypad (inputMode="decimal" on an iPhone) has digits and the decimal sign but no
 // minus. A camper west of Greenwich or expecting a frost types the digits and taps the ± button beside
@@ -46,11 +47,17 @@ describe('signed fields at 390 px: a ± button where the keypad has no minus', (
     await sky.selectOption({ index: 2 });
     const low = page.locator('#stops-0-weather-0-lowC');
     await low.waitFor();
+    // A new day's empty boxes wait for the camper: no red message before a key is pressed.
+    expect(await page.locator('#stops-0-weather-0-lowC-error').count()).toBe(0);
+    expect(await page.locator('#stops-0-weather-0-highC-error').count()).toBe(0);
     await page.locator('#stops-0-weather-0-highC').fill('9');
     expect(await low.getAttribute('inputmode')).toBe('decimal');
     await low.fill('4');
     await page.getByRole('button', { name: 'Switch Low between plus and minus' }).click();
     expect(await low.inputValue()).toBe('-4');
+    expect(await page.locator('#stops-0-weather-0-lowC-error').count()).toBe(0);
+    await low.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: path.join(SCREENSHOTS, 'signed-fields-trip-editor-phone.png') });
 
     await page.getByRole('button', { name: 'Save trip' }).click();
     await page
@@ -79,6 +86,8 @@ describe('signed fields at 390 px: a ± button where the keypad has no minus', (
       await p.locator('#qp-low').fill('4');
       await p.getByRole('button', { name: 'Switch Low between plus and minus' }).click();
       expect(await p.locator('#qp-low').inputValue()).toBe('-4');
+      await p.locator('#qp-low').scrollIntoViewIfNeeded();
+      await p.screenshot({ path: path.join(SCREENSHOTS, 'signed-fields-quick-plan-phone.png') });
       const sent = p.waitForRequest((r) => new URL(r.url()).pathname === '/api/forecasts/preview' && r.method() === 'POST');
       await p.getByRole('button', { name: 'Forecast my trip' }).click();
       const plan = (await sent).postDataJSON() as { stops: { lon: number; weather: { lowC: number; highC: number }[] }[] };

@@ -36,7 +36,7 @@ export function TemperatureInput<T extends FieldValues>({
   className,
   errorName,
 }: TemperatureInputProps<T>) {
-  const { field, fieldState } = useController({ control, name });
+  const { field, fieldState, formState } = useController({ control, name });
   const shown = (c: unknown) => (typeof c === 'number' && Number.isFinite(c) ? String(toDisplayTemp(c, units)) : '');
   const [text, setText] = useState(() => shown(field.value));
   const lastSent = useRef<unknown>(field.value);
@@ -50,7 +50,9 @@ export function TemperatureInput<T extends FieldValues>({
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [field.value]);
 
-  const raw = fieldState.error?.message;
+  // A new weather day starts empty and adding it re-checks the whole list: its message waits until the
+  // box is left or the form is saved, so no red "enter a number" shows before a key is pressed.
+  const raw = fieldState.isTouched || formState.isSubmitted ? fieldState.error?.message : undefined;
   const message = raw && /must be (at least|at most)/.test(raw) ? tempRangeMessage(minC, maxC, units) : raw;
   const unit = tempUnit(units);
 
