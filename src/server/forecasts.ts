@@ -4,7 +4,7 @@ import { validatePlan, type Forecast, type HourlyRow, type Plan, type ResolvedPl
 import type { LoadDto } from '../domain/loads/loads.schema';
 import type { RigDto } from '../domain/rigs/rigs.schema';
 import type { TripDto } from '../domain/trips/trips.schema';
-import { defaultSnapshotName } from '../domain/forecasts/snapshot-name';
+import { defaultSnapshotName, snapshotLabel } from '../domain/forecasts/snapshot-name';
 import { cachedForecast } from './sun-cache';
 import { tripAccess, type Actor, type Need } from './access';
 import { HttpError } from './errors';
@@ -167,7 +167,13 @@ export async function listForecasts(db: Kysely<DB>, tripId: string): Promise<For
     .where('forecasts.kind', '=', 'plan')
     .orderBy('forecasts.created_at', 'desc')
     .execute();
-  return rows.map(toListItem);
+  // Forecasts saved with the old UTC default name are called by the local time at the trip's first stop.
+  const trip = await db.selectFrom('trips').select('stops').where('id', '=', tripId).executeTakeFirst();
+  const stops = trip ? (JSON.parse(trip.stops) as { name?: string; timeZone: string }[]).slice(0, 1).map((s) => ({ name: s.name ?? 'Stop 1', timeZone: s.timeZone })) : [];
+  return rows.map((r) => {
+    const item = toListItem(r);
+    return { ...item, name: snapshotLabel(item.name, item.createdAt, { stops }) };
+  });
 }
 
 function toListItem(r: { id: string; trip_id: string; name: string; summary: string; reserve_soc_pct: number | null; created_at: string; created_by: string | null; creator_name: string | null; engine_revision: number | null }): ForecastListItem {
@@ -193,11 +199,15 @@ export async function getForecast(db: Kysely<DB>, id: string): Promise<(Forecast
     .executeTakeFirst();
   if (!r) return undefined;
   const stored = JSON.parse(r.result) as Omit<Forecast, 'hourly'> & { hourly: Columns };
+  const item = toListItem(r);
+  const plan = JSON.parse(r.plan) as ResolvedPlan;
   return {
-    ...toListItem(r),
+    ...item,
+    // A forecast saved with the old UTC default name is called by the local time at its first stop.
+    name: snapshotLabel(item.name, item.createdAt, plan),
     crewId: r.crew_id,
     rigId: r.rig_id,
-    plan: JSON.parse(r.plan),
+    plan,
     // A snapshot keeps the numbers it was saved with; one saved before revisions were recorded is revision 1.
     forecast: { ...stored, engineRevision: r.engine_revision ?? 1, hourly: unpackHourly(stored.hourly) },
   };

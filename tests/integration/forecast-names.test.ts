@@ -3,6 +3,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { demoPlan } from '../../src/engine';
 import { api, signUp, type Session } from '../helpers/api';
+import { openTestDb } from '../helpers/test-db';
 
 /** "Fri 4 Dec, 14:41" in `zone`, worked out with Intl (not the app's formatter). */
 function wallClock(iso: string, zone: string): string {
@@ -56,6 +57,19 @@ describe('names of saved forecasts', () => {
     // The list says the same.
     const list = await (await api(`/api/trips/${tripId}/forecasts`, { session: owner })).json();
     expect(list.find((x: { id: string }) => x.id === f.id)?.name).toBe(f.name);
+  });
+
+  it('calls a forecast saved with the old UTC default name by the first stop’s local time, in the list and alone', async () => {
+    const f = await (await api(`/api/trips/${tripId}/forecasts`, { method: 'POST', session: owner, json: { name: 'to be renamed below' } })).json();
+    // As the server named forecasts before: "Forecast of 2026-12-12 15:08 UTC" (the UTC minute it was made).
+    const db = openTestDb({ write: true });
+    db.prepare('update forecasts set name = ?, created_at = ? where id = ?').run('Forecast of 2026-12-12 15:08 UTC', '2026-12-12T15:08:00.000Z', f.id);
+    db.close();
+    // 15:08 UTC on Sat 12 Dec 2026 is 08:08 in Denver (MST, UTC−7).
+    const want = 'Forecast of Sat 12 Dec, 08:08 (local time at Juniper Mesa)';
+    expect((await (await api(`/api/forecasts/${f.id}`, { session: owner })).json()).name).toBe(want);
+    const list = await (await api(`/api/trips/${tripId}/forecasts`, { session: owner })).json();
+    expect(list.find((x: { id: string }) => x.id === f.id)?.name).toBe(want);
   });
 
   it('keeps a name someone gives', async () => {
