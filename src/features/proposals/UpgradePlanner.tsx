@@ -11,7 +11,8 @@ import type { SweepOption } from '../../domain/proposals/sweep';
 import { handPlanFromOption, handPlanOf } from '../../domain/proposals/sweep-edit';
 import { DEFAULT_GENERATOR_MARGIN_PTS, DEFAULT_GENERATOR_STOP_PCT, type GeneratorRule } from '../../domain/advice/generator-rule';
 import AfterPlanEditor, { editorStateOf, type EditorState } from './AfterPlanEditor';
-import { CAUTIONS } from '../../domain/advice/cautions';
+import { CAUTIONS, coldCaution } from '../../domain/advice/cautions';
+import type { Units } from '../../lib/units';
 import { forecastQueries } from '../forecast/forecast.queries';
 import { formatRowTime } from '../../lib/format';
 import { useDelayed } from '../forecast/useWidth';
@@ -76,16 +77,16 @@ interface RigLimits {
   batterySpaceL: number | null;
 }
 
-function UpgradePlanner({ forecastId, limits = { payloadKg: null, batterySpaceL: null } }: { forecastId: string; limits?: RigLimits }) {
+function UpgradePlanner({ forecastId, limits = { payloadKg: null, batterySpaceL: null }, units = 'metric' }: { forecastId: string; limits?: RigLimits; units?: Units }) {
   const f = useQuery(forecastQueries.detail(forecastId));
   const prices = useQuery(proposalQueries.priceList());
   if (f.isPending || prices.isPending) return <LoadingState label="Loading the saved forecast…" />;
   if (f.isError) return <ErrorState error={f.error} title="This saved forecast could not be loaded." />;
   if (prices.isError) return <ErrorState error={prices.error} title="Your price list could not be loaded." onRetry={() => void prices.refetch()} />;
-  return <Planner forecastId={forecastId} plan={f.data.plan} saved={f.data} pricesSaved={prices.data.saved} currency={prices.data.currency} limits={limits} />;
+  return <Planner forecastId={forecastId} plan={f.data.plan} saved={f.data} pricesSaved={prices.data.saved} currency={prices.data.currency} limits={limits} units={units} />;
 }
 
-function Planner({ forecastId, plan, saved, pricesSaved, currency, limits }: { forecastId: string; plan: ResolvedPlan; saved: { name: string; forecast: Parameters<typeof VerdictBanner>[0]['forecast']; reserveSocPct: number | null }; pricesSaved: boolean; currency: string; limits: RigLimits }) {
+function Planner({ forecastId, plan, saved, pricesSaved, currency, limits, units }: { units: Units; forecastId: string; plan: ResolvedPlan; saved: { name: string; forecast: Parameters<typeof VerdictBanner>[0]['forecast']; reserveSocPct: number | null }; pricesSaved: boolean; currency: string; limits: RigLimits }) {
   const initial = useMemo(() => presets(plan), [plan]);
   const [banks, setBanks] = useState<BankRow[]>(initial.banks);
   const [panels, setPanels] = useState<PanelRow[]>(initial.panels);
@@ -308,6 +309,7 @@ function Planner({ forecastId, plan, saved, pricesSaved, currency, limits }: { f
       {sweep.data ? (
         <Results
           r={sweep.data}
+          units={units}
           onEdit={(o) => {
             setHand(editorStateOf(handPlanFromOption(plan, o.changes, { payloadKg: input.payloadKg ?? null, batterySpaceL: input.batterySpaceL ?? null })));
             document.getElementById('hand-heading')?.scrollIntoView({ behavior: 'smooth', block: 'start' });
@@ -328,7 +330,7 @@ function Planner({ forecastId, plan, saved, pricesSaved, currency, limits }: { f
 
 const RANKING_TITLE = { margin: 'ranked by cost, with the margin each buys', cost: 'ranked by cost', closeness: 'closest first: least unmet energy, then fewest hours short' } as const;
 
-function Results({ r, onlyPassing, setOnlyPassing, showAll, setShowAll, onPropose, onEdit, proposing }: { r: SweepResponse; onlyPassing: boolean; setOnlyPassing: (v: boolean) => void; showAll: boolean; setShowAll: (v: boolean) => void; onPropose: (o: SweepOption) => void; onEdit: (o: SweepOption) => void; proposing: string | null }) {
+function Results({ r, units, onlyPassing, setOnlyPassing, showAll, setShowAll, onPropose, onEdit, proposing }: { r: SweepResponse; units: Units; onlyPassing: boolean; setOnlyPassing: (v: boolean) => void; showAll: boolean; setShowAll: (v: boolean) => void; onPropose: (o: SweepOption) => void; onEdit: (o: SweepOption) => void; proposing: string | null }) {
   const cheapest = r.options.find((o) => o.key === r.cheapestPassing) ?? null;
   const more = r.options.find((o) => o.key === r.cheapestMoreMargin) ?? null;
   const shown = r.options.filter((o) => !onlyPassing || (o.passes && !o.changesNothing && o.noBetterThan === null));
@@ -374,7 +376,7 @@ function Results({ r, onlyPassing, setOnlyPassing, showAll, setShowAll, onPropos
       <ul className="caution space-y-1 text-sm" data-testid="sweep-cautions" aria-label="Cautions">
         <li>{CAUTIONS.wiring}</li>
         {r.options.some((o) => o.generator) ? <li>{CAUTIONS.generator}</li> : null}
-        {r.options.some((o) => o.changes.bank?.chemistry === 'lifepo4') ? <li>{CAUTIONS.cold}</li> : null}
+        {r.options.some((o) => o.changes.bank?.chemistry === 'lifepo4') ? <li>{coldCaution(units)}</li> : null}
         <li>{CAUTIONS.estimate} Weights and sizes are common-practice figures per kWh: check the batteries’ own data sheets.</li>
       </ul>
       {r.skipped.length ? (
