@@ -32,6 +32,7 @@ export async function rigDeletionCounts(db: Kysely<DB>, rigId: string): Promise<
       .selectFrom('forecasts')
       .select((eb) => eb.fn.countAll<number>().as('n'))
       .where('trip_id', 'in', liveTrips)
+      .where('kind', '=', 'plan')
       .executeTakeFirst(),
     db
       .selectFrom('check_ins')
@@ -47,13 +48,14 @@ export async function rigDeletionCounts(db: Kysely<DB>, rigId: string): Promise<
   return { loads: count(loads), trips: count(trips), forecasts: count(forecasts), checkIns: count(checkIns), logs: count(logs) };
 }
 
-/** What deleting the trip takes with it: its saved forecasts and check-ins. */
+/** What deleting the trip takes with it: its saved forecasts (the crew's, not the watch's runs) and check-ins. */
 export async function tripDeletionCounts(db: Kysely<DB>, tripId: string): Promise<DeletionCounts> {
   const [forecasts, checkIns] = await Promise.all([
     db
       .selectFrom('forecasts')
       .select((eb) => eb.fn.countAll<number>().as('n'))
       .where('trip_id', '=', tripId)
+      .where('kind', '=', 'plan')
       .executeTakeFirst(),
     db
       .selectFrom('check_ins')

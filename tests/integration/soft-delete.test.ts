@@ -135,6 +135,18 @@ describe('deleting a rig', () => {
   });
 });
 
+describe('what a deletion counts', () => {
+  it("counts the crew's saved forecasts, not the trip watch's own runs", async () => {
+    const { rig, trips, forecasts } = await fullRig();
+    // One of the first trip's three forecasts becomes a watch run (as the watch saves them: kind 'watch').
+    const db = openTestDb({ write: true });
+    db.prepare("update forecasts set kind = 'watch' where id = ?").run(forecasts[0]);
+    db.close();
+    expect(await body(await api(`/api/trips/${trips[0]!.id}/deletion`, { session: owner }), 200)).toEqual({ forecasts: 2, checkIns: 2 });
+    expect(await body(await api(`/api/rigs/${rig.id}/deletion`, { session: owner }), 200)).toMatchObject({ forecasts: 4 });
+  });
+});
+
 describe('deleting a trip', () => {
   it('is for owners, counts its forecasts and check-ins, and waits for its rig when both are deleted', async () => {
     const { rig, trips } = await fullRig();
