@@ -1,7 +1,7 @@
 // What changed between two saved forecasts (#16 item 11), and their names in the first stop's local time.
 import { describe, expect, it } from 'vitest';
 import { snapshotDiff } from '../../src/domain/forecasts/snapshot-diff';
-import { defaultSnapshotName, snapshotLabel, snapshotTime } from '../../src/domain/forecasts/snapshot-name';
+import { defaultSnapshotName, distinctNames, snapshotLabel, snapshotTime } from '../../src/domain/forecasts/snapshot-name';
 import type { WeatherSources } from '../../src/domain/weather/band';
 import { basePlan, resolved } from '../reference/plan-helpers';
 
@@ -102,5 +102,15 @@ describe('snapshot names in the first stop’s local time', () => {
       'Forecast of Sat 12 Dec, 10:08 (local time at Lakeshore camp)',
     );
     expect(snapshotLabel('Before the bigger bank', '2026-12-12T15:08:00.000Z', toronto)).toBe('Before the bigger bank');
+  });
+});
+
+describe('two names a reader can tell apart', () => {
+  it('marks two equal names first and second, in the order picked', () => {
+    const same = 'Forecast of Fri 4 Dec, 14:48 (local time at Mesa camp)';
+    expect(distinctNames(same, same)).toEqual([`${same} (first)`, `${same} (second)`]);
+  });
+  it('leaves different names as they are', () => {
+    expect(distinctNames('Before the upgrade', 'After the upgrade')).toEqual(['Before the upgrade', 'After the upgrade']);
   });
 });

@@ -31,3 +31,11 @@ export function defaultSnapshotName(createdAt: string, plan: { stops: FirstStop[
 export function snapshotLabel(name: string, createdAt: string, plan: { stops: FirstStop[] }): string {
   return OLD_DEFAULT.test(name) ? defaultSnapshotName(createdAt, plan) : name;
 }
+
+/**
+ * Two names a reader can tell apart: two forecasts saved in the same minute (or given the same
+ * name) get "(first)" and "(second)" in the order they were picked.
+ */
+export function distinctNames(a: string, b: string): [string, string] {
+  return a === b ? [`${a} (first)`, `${b} (second)`] : [a, b];
+}

@@ -7,7 +7,7 @@ import type { ForecastWithWeather } from '../../domain/weather/band';
 import { BandChart } from './WeatherPanel';
 import { unusedSolarShort } from './hour-marks';
 import { snapshotDiff, type SnapshotSection } from '../../domain/forecasts/snapshot-diff';
-import { snapshotClock, snapshotLabel } from '../../domain/forecasts/snapshot-name';
+import { distinctNames, snapshotClock, snapshotLabel } from '../../domain/forecasts/snapshot-name';
 import type { Units } from '../../lib/units';
 
 /** One side of a comparison. */
@@ -100,6 +100,12 @@ function named(s: CompareSide): CompareSide {
   return s.createdAt ? { ...s, name: snapshotLabel(s.name, s.createdAt, s.plan) } : s;
 }
 
+/** Both sides with names a reader can tell apart in the key, the headings and the table. */
+function distinct(a: CompareSide, b: CompareSide): [CompareSide, CompareSide] {
+  const [na, nb] = distinctNames(a.name, b.name);
+  return [{ ...a, name: na }, { ...b, name: nb }];
+}
+
 const rows = (reserve: number | null): { label: string; value: (s: CompareSide) => string }[] => [
   { label: 'Verdict', value: (s) => verdict(s.forecast, s.plan, reserve).headline },
   { label: 'Lowest state of charge', value: (s) => `${pct(s.forecast.summary.minSocPct)} · ${formatRowTime(s.forecast.summary.minSocAt)}` },
@@ -137,8 +143,7 @@ function Bands({ a, b }: { a: CompareSide; b: CompareSide }) {
 
 /** Two forecasts: SOC lines overlaid (the second ember dashed) and their summaries side by side. */
 export default function CompareView({ a: sideA, b: sideB, reserveSocPct = null, units = 'metric' }: CompareViewProps) {
-  const a = named(sideA);
-  const b = named(sideB);
+  const [a, b] = distinct(named(sideA), named(sideB));
   return (
     <div className={`space-y-5 ${PRINT_CHARTS}`} data-testid="compare-view">
       <Changes a={a} b={b} units={units} />
