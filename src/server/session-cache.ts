@@ -3,7 +3,7 @@ import { createHash } from 'node:crypto';
 
 /**
  * The session lookup of a signed-in request (better-auth: a cookie signature check and a database
- * read), kept in this process for SESSION_CACHE_MS (default 5000; 0 turns it off) under the
+ * read), kept in this process for SESSION_CACHE_MS (default 5000, or 0 with DATABASE_URL; 0 turns it off) under the
  * SHA-256 of the session cookie's value — one person's cookie, never shared between people.
  *
  * What ends it at once, in every worker process (server.mjs's primary passes the word on):
@@ -14,7 +14,9 @@ import { createHash } from 'node:crypto';
  * A lookup that began before such a drop is not kept. What a cached session can miss is a change
  * made to it by someone else outside those routes, for at most SESSION_CACHE_MS.
  */
-const TTL_MS = Math.max(0, Number(process.env.SESSION_CACHE_MS ?? 5000));
+// Off by default on PostgreSQL (DATABASE_URL): that is how several server instances share one database, and
+// an instance is not told of a sign-out another one served.
+const TTL_MS = Math.max(0, Number(process.env.SESSION_CACHE_MS ?? (process.env.DATABASE_URL ? 0 : 5000)));
 const MAX_ENTRIES = 5000;
 const MESSAGE = 'sunreckon:session-drop';
 
