@@ -174,7 +174,15 @@ export async function watchRecipients(db: Kysely<DB>, trip: Pick<TripRow, 'id' |
     .selectFrom('crew_members')
     .innerJoin('user', 'user.id', 'crew_members.user_id')
     .leftJoin('watch_people', (j) => j.onRef('watch_people.user_id', '=', 'crew_members.user_id').on('watch_people.trip_id', '=', trip.id))
-    .select(['user.id as userId', 'user.name as name', 'user.email as email', 'crew_members.role as role', 'watch_people.choice as choice', 'watch_people.last_mailed_at as lastMailedAt', 'user.units as units'])
+    .select(['user.id as userId', 'user.name as name', 'user.email as email', 'crew_members.role as role', 'watch_people.choice as choice', 'user.units as units'])
+    // At most one watch e-mail per person per 12 hours across all their trips (issue 20): the latest sent for any trip.
+    .select((eb) =>
+      eb
+        .selectFrom('watch_people as sent')
+        .select((s) => s.fn.max('sent.last_mailed_at').as('at'))
+        .whereRef('sent.user_id', '=', 'crew_members.user_id')
+        .as('lastMailedAt'),
+    )
     .where('crew_members.crew_id', '=', trip.crew_id)
     .orderBy('user.email')
     .execute();

@@ -291,6 +291,22 @@ describe('trip watch', () => {
     await setWatch(tripId, owner, false);
   });
 
+  it('mails one person at most once in 12 hours across all their trips; the other change is told on its page', async () => {
+    const owner = await signUp('Kai Owner');
+    const first = await watchedTrip(owner);
+    const second = await watchedTrip(owner);
+    await turnFakeWeather(weather.url, 'normal');
+    await tick(a, advance(6));
+    await turnFakeWeather(weather.url, 'storm');
+    await tick(a, advance(6));
+    // Both trips changed in one tick: both pages tell it, one e-mail reaches the owner.
+    for (const id of [first, second]) expect((await watchOf(id, owner)).notice, id).not.toBeNull();
+    expect(await settledMails(owner.email, 1)).toHaveLength(1);
+    expect(outboxRows(owner.email)).toBe(1);
+    await setWatch(first, owner, false);
+    await setWatch(second, owner, false);
+  });
+
   it('leaves the last answer standing and mails nothing while the weather service is down', async () => {
     const owner = await signUp('Ola Owner');
     const tripId = await watchedTrip(owner);
