@@ -14,31 +14,10 @@ const DAY_MS = 86_400_000;
 /** The timeline shows at most this many runs. */
 export const RUNS_SHOWN = 20;
 
-export type WatchVerdict = 'makes-it' | 'below-reserve' | 'runs-out';
-
-export interface WatchRunDto {
-  forecastId: string;
-  ranAt: string;
-  verdict: WatchVerdict;
-  minSocPct: number;
-  firstCutoffAt: string | null;
-  firstCutoffLocal: string | null;
-  changed: boolean;
-  reason: string | null;
-  band: { lowSocPct: number; highSocPct: number } | null;
-}
-
-export interface WatchView {
-  enabled: boolean;
-  defaultOn: boolean;
-  canToggle: boolean;
-  following: boolean;
-  window: { from: string; to: string };
-  nextRunAt: string | null;
-  lastError: string | null;
-  notice: { at: string; verdict: WatchVerdict; previousVerdict: WatchVerdict | null; summary: string; forecastId: string } | null;
-  runs: WatchRunDto[];
-}
+export type { WatchVerdict } from '../domain/watch/view';
+/** The answer of GET /api/trips/:id/watch, as the page reads it. */
+export type { TripWatch as WatchView, WatchRun as WatchRunDto } from '../domain/watch/view';
+import type { TripWatch as WatchView, WatchRun as WatchRunDto, WatchVerdict } from '../domain/watch/view';
 
 /** First arrival and end of a trip (ms since the epoch), from its stored stops and drives. */
 export function tripFrame(trip: Pick<TripRow, 'stops' | 'drives'>): { startMs: number; endMs: number } | null {

@@ -5,6 +5,7 @@ import { uniqueEmail } from '../helpers/api';
 import { caughtFor, linkIn, waitForMail, type Caught } from '../helpers/mail';
 import { cleanup, freePort, startServer, type RunningServer } from '../helpers/server';
 import { openTestDb } from '../helpers/test-db';
+import type { TripWatch } from '../../src/domain/watch/view';
 
 // The trip watch on the built server: two instances over one database (SQLite here, PostgreSQL in
 // `npm run test:integration:pg`), their own fake weather service and mail catcher. Ticks are driven
@@ -29,17 +30,7 @@ interface Who {
   email: string;
 }
 
-interface WatchBody {
-  enabled: boolean;
-  defaultOn: boolean;
-  canToggle: boolean;
-  following: boolean;
-  window: { from: string; to: string };
-  nextRunAt: string | null;
-  lastError: string | null;
-  notice: { at: string; verdict: string; previousVerdict: string | null; summary: string; forecastId: string } | null;
-  runs: { forecastId: string; ranAt: string; verdict: string; minSocPct: number; firstCutoffAt: string | null; firstCutoffLocal: string | null; changed: boolean; reason: string | null; band: { lowSocPct: number; highSocPct: number } | null }[];
-}
+type WatchBody = TripWatch;
 
 async function call(server: RunningServer, path: string, init: { method?: string; who?: Who; json?: unknown } = {}): Promise<Response> {
   const headers: Record<string, string> = { origin: server.url };
