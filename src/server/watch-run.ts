@@ -342,7 +342,7 @@ export async function runWatchedTrip(
       if (!mayMail(p.lastMailedAt ? Date.parse(p.lastMailedAt) : null, nowMs)) continue;
       const tripUrl = `${origin}/trips/${trip.id}`;
       const unsubscribeUrl = `${origin}/watch/unsubscribe?token=${signUnsubscribe(env.authSecret, { tripId: trip.id, userId: p.userId })}`;
-      const m = watchMail({ tripName: trip.name, headline: v.headline, cutoffAt: v.cutoffAt, cutoffStop: v.cutoffStop, reasons, changedDay: day, advice: p.units === 'imperial' ? adviceImperial : advice, tripUrl, unsubscribeUrl });
+      const m = watchMail({ tripName: trip.name, headline: v.headline, cutoffAt: v.cutoffAt, cutoffStop: v.cutoffStop, cutoffZone: plan.stops.find((st) => st.name === v.cutoffStop)?.timeZone ?? null, reasons, changedDay: day, advice: p.units === 'imperial' ? adviceImperial : advice, tripUrl, unsubscribeUrl });
       const greeting = `Hello ${p.name || 'there'},`;
       const lines = m.text.split('\n').filter((line) => line.trim() && !line.startsWith('Open the trip:') && !line.startsWith('Stop these e-mails'));
       // The unsubscribe address as a link in the HTML part too (renderMail links only the button).

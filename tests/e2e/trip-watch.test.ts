@@ -148,7 +148,7 @@ describe('trip watch: the weather turns and the crew is told', () => {
     const [mail, ...more] = await waitForMail(camper.email, { timeoutMs: 20_000 });
     expect(more).toHaveLength(0);
     expect(mail!.subject).toMatch(/^Winter sun at Cardón Flat \(watched\): Runs out /);
-    expect(mail!.text_body).toContain(`Cutoff: ${local} local time at Cardón Flat.`);
+    expect(mail!.text_body).toContain(`Cutoff: ${local} local time at Cardón Flat (Mazatlan time, UTC−07:00).`);
     expect(mail!.text_body).toContain(`${baseUrl()}/trips/${tripId}`);
 
     await page.getByTestId('trip-watch').scrollIntoViewIfNeeded();
