@@ -197,9 +197,12 @@ describe('properties of random valid plans', () => {
 
           // Bus: with only charge flowing in, sources exceed loads; with only discharge, loads exceed sources
           // (Revision 2 converts at the sub-step's terminal volts, so no single voltage closes it exactly).
+          // A flow under a micro-amp-hour is rounding, not charging: a shore charger that just covers a 1 kW load
+          // left 1.0e-9 Ah in the bank with the bus 0.7 W short (found by this property; the same before and after
+          // the curtailed-solar causes were added).
           const bus = s.solarW[r]! + s.chargeW[r]! - s.loadW[r]!;
-          if (s.ahIn[r]! > 1e-9 && s.ahOutRaw[r] === 0) check(bus > 0, 'charging hour: sources exceed loads', r);
-          if (s.ahOutRaw[r]! > 1e-9 && s.ahIn[r] === 0) check(bus < 0, 'discharging hour: loads exceed sources', r);
+          if (s.ahIn[r]! > 1e-6 && s.ahOutRaw[r] === 0) check(bus > 0, 'charging hour: sources exceed loads', r);
+          if (s.ahOutRaw[r]! > 1e-6 && s.ahIn[r] === 0) check(bus < 0, 'discharging hour: loads exceed sources', r);
 
           // Hour ledger (Revision 2: charge conserved, no cold factor): ΔSOC·C = Ah in × η − Ah out (Peukert-adjusted).
           const stored = ((s.socEndPct[r]! - s.socStartPct[r]!) / 100) * C;
