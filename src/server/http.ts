@@ -83,7 +83,9 @@ export function parseJsonText(text: string, invalidCode: ErrorCode = 'invalid_re
   } catch (e) {
     throw new HttpError(invalidCode, 'The body is not valid JSON.', [{ path: '(body)', message: (e as Error).message.slice(0, 200) }]);
   }
-  const nul = nulPath(data);
+  // JSON text can hold U+0000 only as the escape \u0000 (a raw control character is not valid
+  // JSON), so a body without that escape needs no walk through what it parsed to.
+  const nul = text.includes('\\u0000') ? nulPath(data) : null;
   if (nul) throw nulError(nul);
   return data;
 }
