@@ -6,7 +6,7 @@
 //   prepareTrip(plan) + simulatePrepared(prepared, variant) (+ toForecast) for upgrade sweeps
 //   prepareSun(plan) + prepareWithSun(sun, planWithOtherWeatherOrLoads) for many weathers on one
 //     trip (the band); sunKey(plan) keys a cache of prepared suns
-export { runForecast, validatePlan, forecast, toForecast, ENGINE_REVISION } from './forecast';
+export { runForecast, validatePlan, forecast, toForecast, toColumnsJson, ENGINE_REVISION } from './forecast';
 export type { Forecast, HourlyRow, DayRow, ForecastSummary, ForecastWarning, RunResult, ValidationResult } from './forecast';
 export { prepareTrip, prepareSun, prepareWithSun, sunKey, SUBSTEPS, BATTERY_SUBSTEPS } from './prepare';
 export type { PreparedTrip, PreparedSun, PreparedArray, PreparedDemand, RowWarning } from './prepare';

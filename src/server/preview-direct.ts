@@ -1,13 +1,12 @@
 import { createHash } from 'node:crypto';
 import type { IncomingMessage, ServerResponse } from 'node:http';
 import { LRUCache } from 'lru-cache';
-import { toColumns } from '../lib/forecast-columns';
 import { env } from './env';
 import { HttpError } from './errors';
 import { errorResponse, JSON_HEADERS, parseJsonText } from './http';
 import { clientKeyOf, limitClient } from './rate-limit';
 import { policy, SECURITY_HEADERS } from './security-headers';
-import { runCachedForecast } from './sun-cache';
+import { runCachedColumnsJson, runCachedForecast } from './sun-cache';
 
 /**
  * The anonymous preview (`POST /api/forecasts/preview`), shared by its Astro route and by the
@@ -34,9 +33,10 @@ export function previewAnswer(text: string, columns: boolean): PreviewAnswer {
   const key = answers ? `${columns ? 'c' : 'r'}${createHash('sha256').update(text).digest('base64')}` : '';
   const kept = answers?.get(key);
   if (kept) return { status: 200, body: kept };
-  const result = runCachedForecast(parseJsonText(text, 'invalid_plan'));
+  const input = parseJsonText(text, 'invalid_plan');
+  const result = columns ? runCachedColumnsJson(input) : runCachedForecast(input);
   if (!result.ok) return { status: 400, body: Buffer.from(JSON.stringify(result.envelope)) };
-  const body = Buffer.from(JSON.stringify(columns ? toColumns(result.forecast) : result.forecast));
+  const body = Buffer.from('json' in result ? result.json : JSON.stringify(result.forecast));
   if (answers && body.length + 100 <= CACHE_BYTES) answers.set(key, body);
   return { status: 200, body };
 }

@@ -4,6 +4,7 @@ import {
   prepareWithSun,
   simulatePrepared,
   sunKey,
+  toColumnsJson,
   toForecast,
   validatePlan,
   type Forecast,
@@ -81,6 +82,19 @@ export function runCachedForecast(input: unknown): RunResult {
   const v = validatePlan(input);
   if (!v.ok) return v;
   return { ok: true, forecast: cachedForecast(v.plan) };
+}
+
+/**
+ * `runCachedForecast` with the hours as columns (`src/lib/forecast-columns.ts`), as JSON text written
+ * straight from the simulation (the preview's `?hourly=columns` answer): no object per hour is made.
+ */
+export function runCachedColumnsJson(
+  input: unknown,
+): { ok: true; json: string } | { ok: false; envelope: Extract<RunResult, { ok: false }>['envelope'] } {
+  const v = validatePlan(input);
+  if (!v.ok) return v;
+  const prepared = prepareWithSun(sunOf(v.plan), v.plan);
+  return { ok: true, json: toColumnsJson(prepared, simulatePrepared(prepared)) };
 }
 
 /** What the cache holds, for tests and the load test's notes. */
