@@ -6,10 +6,12 @@
 //   prepareTrip(plan) + simulatePrepared(prepared, variant) (+ toForecast) for upgrade sweeps
 //   prepareSun(plan) + prepareWithSun(sun, planWithOtherWeatherOrLoads) for many weathers on one
 //     trip (the band); sunKey(plan) keys a cache of prepared suns
+//   prepareSky(sun, plan) + prepareWithSky(sun, sky, planWithOtherLoadsOrBank) for many load lists
+//     or banks in one trip's weather; skyKey(plan) keys a cache of prepared skies
 export { runForecast, validatePlan, forecast, toForecast, toColumnsJson, ENGINE_REVISION } from './forecast';
 export type { Forecast, HourlyRow, DayRow, ForecastSummary, ForecastWarning, RunResult, ValidationResult } from './forecast';
-export { prepareTrip, prepareSun, prepareWithSun, sunKey, SUBSTEPS, BATTERY_SUBSTEPS } from './prepare';
-export type { PreparedTrip, PreparedSun, PreparedArray, PreparedDemand, RowWarning } from './prepare';
+export { prepareTrip, prepareSun, prepareWithSun, prepareSky, prepareWithSky, sunKey, skyKey, SUBSTEPS, BATTERY_SUBSTEPS } from './prepare';
+export type { PreparedTrip, PreparedSun, PreparedSky, PreparedArray, PreparedDemand, RowWarning } from './prepare';
 export { simulatePrepared, variantSchema, CUTOFF_NONE, CUTOFF_FLOOR, CUTOFF_VOLTS } from './simulate';
 export type { SimResult, SimSummary, Variant } from './simulate';
 export { planSchema, bankSchema, arraySchema, chargerSchema, inverterSchema, loadSchema, stopSchema, driveSchema, weatherSchema, resolveBank, LIMITS, BANK_LOCATIONS, LOAD_LOCATIONS, WEATHER_SOURCES, weatherHourSchema } from './schema';

@@ -268,14 +268,51 @@ export function prepareTrip(plan: ResolvedPlan): PreparedTrip {
 }
 
 /**
- * Stage one with the sun already prepared: the plan's weather, shade, loads, hookups and
- * generator windows on top of `sun`. `plan` must have the places, dates, drives and array
- * geometry `sun` was made from (same `sunKey`; anything else may differ, e.g. each past year's
- * weather), otherwise it throws. Cheap next to `prepareSun`: no sun positions.
+ * The weather's part of a trip on top of its sun: each row's air temperature, the irradiance and
+ * every array's output per rated watt, and the weather warnings. It reads the stops' weather, names
+ * and shade and the arrays' figures other than their rated watts (see `skyKey`) — not the loads, the
+ * bank, the chargers or the hookups — so a re-run of the same trip in the same weather with other
+ * loads or another bank can reuse it (the server keeps recent ones by `skyKey`). Read-only once made.
  */
-export function prepareWithSun(sun: PreparedSun, plan: ResolvedPlan): PreparedTrip {
-  if (sunKey(plan) !== sun.key) throw new RangeError('prepareWithSun: the plan has other places, dates, drives or array geometry than the prepared sun');
-  const { grid, n, ownedDays, firstRowOfStopDay, firstRowOfStop, dayList, dayIndex, driveFrac, sunAltitudeDeg } = sun;
+export interface PreparedSky {
+  /** `skyKey` of the plan it was made from. */
+  key: string;
+  /** `sunKey` of the sun it was made on. */
+  sunKey: string;
+  ambientC: Float64Array;
+  /** The first array's hour-average plane-of-array irradiance after shade, W/m² (0 with no array). */
+  poaWm2: Float64Array;
+  /** Per array: see PreparedArray. */
+  perWatt: Float64Array[];
+  perWattMax: Float64Array[];
+  perWattSub: Float64Array[];
+  warnings: RowWarning[];
+}
+
+function skyKeyOn(sunKeyOfPlan: string, plan: ResolvedPlan): string {
+  // Of an array, what the battery loop reads is left out: its rated watts and its controller's
+  // efficiency, current limit and Vmp (and its name).
+  const figures = plan.arrays.map(({ ratedWatts: _w, name: _n, controllerEfficiencyPct: _e, controllerMaxAmps: _a, vmpVolts: _v, ...rest }) => rest);
+  return JSON.stringify([sunKeyOfPlan, plan.stops, figures]);
+}
+
+/**
+ * The cache key of a trip's prepared sky: its sun's key, every stop field (weather, names, shade)
+ * and every array figure the sky reads (shade, losses, temperature figures, controller kind).
+ */
+export function skyKey(plan: ResolvedPlan): string {
+  return skyKeyOn(sunKey(plan), plan);
+}
+
+/** The weather's part of a validated plan on its prepared sun (see PreparedSky). */
+export function prepareSky(sun: PreparedSun, plan: ResolvedPlan): PreparedSky {
+  const ownSunKey = sunKey(plan);
+  if (ownSunKey !== sun.key) throw new RangeError('prepareSky: the plan has other places, dates, drives or array geometry than the prepared sun');
+  return buildSky(sun, plan, skyKeyOn(ownSunKey, plan));
+}
+
+function buildSky(sun: PreparedSun, plan: ResolvedPlan, key: string): PreparedSky {
+  const { grid, n, ownedDays, firstRowOfStopDay, firstRowOfStop } = sun;
   const warnings: RowWarning[] = [];
   const weather = plan.stops.map((stop, s) => {
     const owned = ownedDays[s]!;
@@ -291,48 +328,15 @@ export function prepareWithSun(sun: PreparedSun, plan: ResolvedPlan): PreparedTr
   });
 
   // ---- per-array constants ----
-  const arrays: PreparedArray[] = plan.arrays.map((spec) => ({
-    spec,
-    perWatt: new Float64Array(n),
-    perWattMax: new Float64Array(n),
-    perWattSub: new Float64Array(n * SUBSTEPS),
-  }));
-  const na = arrays.length;
+  const na = plan.arrays.length;
+  const perWatt = plan.arrays.map(() => new Float64Array(n));
+  const perWattMax = plan.arrays.map(() => new Float64Array(n));
+  const perWattSub = plan.arrays.map(() => new Float64Array(n * SUBSTEPS));
   const arrayShade = plan.arrays.map((a) => 1 - a.shadePct / 100);
   const cosTilt = plan.arrays.map((a) => Math.cos(a.tiltDeg * RAD));
-
-  const ambientC = new Float64Array(n);
-  const cabinHeatedC = new Float64Array(n);
-  const newDemand = (): PreparedDemand => ({
-    dcW: new Float64Array(n),
-    acW: new Float64Array(n),
-    peakAllW: new Float64Array(n),
-    peakAllAvgW: new Float64Array(n),
-    peakDcW: new Float64Array(n),
-    peakDcAvgW: new Float64Array(n),
-    inverterOverload: new Uint8Array(n),
-  });
-  const demand: [PreparedDemand, PreparedDemand] = [newDemand(), newDemand()];
-  const invEta = plan.inverter.efficiencyPct / 100;
-  const poaWm2 = new Float64Array(n);
-  const dcLoadW = new Float64Array(n);
-  const acBankW = new Float64Array(n);
-  const shore = new Uint8Array(n);
-  const generatorAllowed = new Uint8Array(n);
-  const generatorSite = new Uint8Array(n);
-
-  // ---- loads: masks and constant parts once ----
-  const masks = plan.loads.map((l) => windowMask(l.windows));
-  const fixedDuty = plan.loads.map((l) => (l.response === 'none' ? dutyAt(l, 0) : -1));
-  const nLoads = plan.loads.length;
-  const heatingIdx: number[] = [];
-  plan.loads.forEach((l, i) => {
-    if (l.response === 'heating') heatingIdx.push(i);
-  });
-  const cabinCooling = Uint8Array.from(plan.loads, (l) => (l.response === 'cooling' && l.location === 'cabin' ? 1 : 0));
-  // Per-row accumulators for the two cabin states (offsets into `acc`).
-  const acc = new Float64Array(2 * ACC);
   const pwm = plan.arrays.map((a) => a.controller === 'pwm');
+  const ambientC = new Float64Array(n);
+  const poaWm2 = new Float64Array(n);
   const poaSub = new Float64Array(na);
   for (let r = 0; r < n; r++) {
     const s = grid.stop[r]!;
@@ -344,97 +348,6 @@ export function prepareWithSun(sun: PreparedSun, plan: ResolvedPlan): PreparedTr
     const givenT = w.tempC ? w.tempC[hour] : NaN;
     const ta = givenT !== undefined && Number.isFinite(givenT) ? givenT : ambientForRow(hour, w.highC, w.lowC);
     ambientC[r] = ta;
-    const t0 = grid.startMs + r * HOUR_MS;
-    // Minutes past the local clock hour, as a fraction (rows after a move to a zone with a different minute offset).
-    const local = t0 + grid.offsetMin[r]! * 60_000;
-    const minuteFrac = (((local % HOUR_MS) + HOUR_MS) % HOUR_MS) / HOUR_MS;
-
-    const driving = grid.driving[r] === 1;
-    const hookup = stop.hookup === 'shore';
-    shore[r] = hookup && !driving ? 1 : 0;
-    generatorSite[r] = !hookup && !driving ? 1 : 0;
-    generatorAllowed[r] = generatorSite[r] === 1 && inGeneratorWindow(hour, stop.generatorHours) ? 1 : 0;
-
-    // ---- loads (Revision 2: cabin temperature, location, fraction of the row, surges) ----
-    // One pass computes both cabin states: only cooling loads in the cabin differ between them.
-    const isDriveDay = grid.driveDay[r] === 1;
-    const wholeHour = minuteFrac === 0;
-    let maxSet = -Infinity;
-    for (const i of heatingIdx) {
-      const l = plan.loads[i]!;
-      if (!runsOnDay(l.days, isDriveDay) || windowFraction(masks[i]!, hour, minuteFrac) <= 0) continue;
-      if (l.setpointC > maxSet) maxSet = l.setpointC;
-    }
-    const cabHeated = maxSet > ta ? maxSet : ta;
-    cabinHeatedC[r] = cabHeated;
-    acc.fill(0);
-    let acSurgeOver0 = false;
-    let acSurgeOver1 = false;
-    for (let i = 0; i < nLoads; i++) {
-      const l = plan.loads[i]!;
-      if (l.quantity === 0 || !runsOnDay(l.days, isDriveDay)) continue;
-      const frac = wholeHour ? (masks[i]! >>> hour) & 1 : windowFraction(masks[i]!, hour, minuteFrac);
-      if (frac <= 0) continue;
-      const fixed = fixedDuty[i]!;
-      let duty1: number;
-      let duty0: number;
-      if (fixed >= 0) duty1 = duty0 = fixed;
-      else if (cabinCooling[i] === 1) {
-        duty1 = dutyAt(l, cabHeated);
-        duty0 = cabHeated === ta ? duty1 : dutyAt(l, ta);
-      } else duty1 = duty0 = dutyAt(l, ta); // heating and outside cooling follow the outdoor air
-      const full = l.surgeWatts ?? l.watts;
-      const ac = l.supply === 'ac';
-      const overSurge = ac && plan.inverter.surgeWatts !== null && l.surgeWatts !== null && l.surgeWatts > plan.inverter.surgeWatts;
-      for (let st = 0; st < 2; st++) {
-        const unitAvg = l.watts * (st === 1 ? duty1 : duty0) * frac;
-        if (!(unitAvg > 0)) continue;
-        const o = st * ACC;
-        const wts = unitAvg * l.quantity;
-        if (ac) {
-          acc[o + A_AC] = acc[o + A_AC]! + wts;
-          if (full / invEta > acc[o + A_PEAK_ALL]!) {
-            acc[o + A_PEAK_ALL] = full / invEta;
-            acc[o + A_PEAK_ALL_AVG] = unitAvg / invEta;
-          }
-          if (full > acc[o + A_AC_PEAK]!) {
-            acc[o + A_AC_PEAK] = full;
-            acc[o + A_AC_PEAK_AVG] = unitAvg;
-          }
-          if (overSurge) {
-            if (st === 1) acSurgeOver1 = true;
-            else acSurgeOver0 = true;
-          }
-        } else {
-          acc[o + A_DC] = acc[o + A_DC]! + wts;
-          if (full > acc[o + A_PEAK_ALL]!) {
-            acc[o + A_PEAK_ALL] = full;
-            acc[o + A_PEAK_ALL_AVG] = unitAvg;
-          }
-          if (full > acc[o + A_PEAK_DC]!) {
-            acc[o + A_PEAK_DC] = full;
-            acc[o + A_PEAK_DC_AVG] = unitAvg;
-          }
-        }
-      }
-    }
-    const cont = plan.inverter.continuousWatts;
-    for (let st = 0; st < 2; st++) {
-      const o = st * ACC;
-      const dm = demand[st as 0 | 1];
-      const ac = acc[o + A_AC]!;
-      dm.dcW[r] = acc[o + A_DC]!;
-      dm.acW[r] = ac;
-      dm.peakAllW[r] = acc[o + A_PEAK_ALL]!;
-      dm.peakAllAvgW[r] = acc[o + A_PEAK_ALL_AVG]!;
-      dm.peakDcW[r] = acc[o + A_PEAK_DC]!;
-      dm.peakDcAvgW[r] = acc[o + A_PEAK_DC_AVG]!;
-      // The biggest AC unit at full draw plus the others' averages.
-      const overCont = cont !== null && ac > 0 && acc[o + A_AC_PEAK]! + (ac - acc[o + A_AC_PEAK_AVG]!) > cont;
-      dm.inverterOverload[r] = overCont || (st === 1 ? acSurgeOver1 : acSurgeOver0) ? 1 : 0;
-    }
-    dcLoadW[r] = demand[1].dcW[r]!;
-    acBankW[r] = inverterDcWatts(demand[1].acW[r]!, plan.inverter);
 
     if (na === 0 || sun.lit[r] !== 1) continue;
 
@@ -465,14 +378,222 @@ export function prepareWithSun(sun: PreparedSun, plan: ResolvedPlan): PreparedTr
         // Step 8: NOCT cell temperature and DC output per rated watt.
         // PWM (Revision 2): the panel's current follows POA with no temperature coefficient.
         const pw = pwm[a] ? Math.max(0, (poa / 1000) * (1 - spec.lossesPct / 100)) : dcPerWatt(poa, cellTempNoct(ta, poa, spec.nocC), spec.tempCoeffPctPerC, spec.lossesPct);
-        const arr = arrays[a]!;
-        arr.perWattSub[i] = pw;
-        arr.perWatt[r] = arr.perWatt[r]! + pw / SUBSTEPS;
-        if (pw > arr.perWattMax[r]!) arr.perWattMax[r] = pw;
+        const pwSub = perWattSub[a]!;
+        const pwHour = perWatt[a]!;
+        const pwMax = perWattMax[a]!;
+        pwSub[i] = pw;
+        pwHour[r] = pwHour[r]! + pw / SUBSTEPS;
+        if (pw > pwMax[r]!) pwMax[r] = pw;
       }
       poaFirstSum += poaSub[0]!;
     }
     poaWm2[r] = poaFirstSum / SUBSTEPS;
+  }
+  return { key, sunKey: sun.key, ambientC, poaWm2, perWatt, perWattMax, perWattSub, warnings };
+}
+
+/** Adds one load's hour (its unit's average W and all its units' W) to one cabin state's accumulators. */
+function addLoad(acc: Float64Array, o: number, ac: boolean, full: number, fullOverEta: number, invEta: number, unitAvg: number, wts: number): void {
+  if (ac) {
+    acc[o + A_AC] = acc[o + A_AC]! + wts;
+    if (fullOverEta > acc[o + A_PEAK_ALL]!) {
+      acc[o + A_PEAK_ALL] = fullOverEta;
+      acc[o + A_PEAK_ALL_AVG] = unitAvg / invEta;
+    }
+    if (full > acc[o + A_AC_PEAK]!) {
+      acc[o + A_AC_PEAK] = full;
+      acc[o + A_AC_PEAK_AVG] = unitAvg;
+    }
+  } else {
+    acc[o + A_DC] = acc[o + A_DC]! + wts;
+    if (full > acc[o + A_PEAK_ALL]!) {
+      acc[o + A_PEAK_ALL] = full;
+      acc[o + A_PEAK_ALL_AVG] = unitAvg;
+    }
+    if (full > acc[o + A_PEAK_DC]!) {
+      acc[o + A_PEAK_DC] = full;
+      acc[o + A_PEAK_DC_AVG] = unitAvg;
+    }
+  }
+}
+
+/**
+ * Stage one with the sun already prepared: the plan's weather, shade, loads, hookups and
+ * generator windows on top of `sun`. `plan` must have the places, dates, drives and array
+ * geometry `sun` was made from (same `sunKey`; anything else may differ, e.g. each past year's
+ * weather), otherwise it throws. Cheap next to `prepareSun`: no sun positions.
+ */
+export function prepareWithSun(sun: PreparedSun, plan: ResolvedPlan): PreparedTrip {
+  if (sunKey(plan) !== sun.key) throw new RangeError('prepareWithSun: the plan has other places, dates, drives or array geometry than the prepared sun');
+  // A sky made for this plan alone and not kept: it needs no key.
+  return buildTrip(sun, buildSky(sun, plan, ''), plan);
+}
+
+/**
+ * Stage one with the sun and the weather already prepared: the plan's loads, hookups and generator
+ * windows on top of `sky` (made by `prepareSky` on this `sun` for a plan with the same `skyKey`;
+ * loads, bank, chargers, inverter and rated watts may differ), otherwise it throws.
+ */
+export function prepareWithSky(sun: PreparedSun, sky: PreparedSky, plan: ResolvedPlan): PreparedTrip {
+  if (sky.sunKey !== sun.key || skyKey(plan) !== sky.key) throw new RangeError('prepareWithSky: the plan has other places, dates, weather or arrays than the prepared sky');
+  return buildTrip(sun, sky, plan);
+}
+
+function buildTrip(sun: PreparedSun, sky: PreparedSky, plan: ResolvedPlan): PreparedTrip {
+  const { grid, n, dayList, dayIndex, driveFrac, sunAltitudeDeg } = sun;
+  const ambientC = sky.ambientC;
+  const arrays: PreparedArray[] = plan.arrays.map((spec, a) => ({ spec, perWatt: sky.perWatt[a]!, perWattMax: sky.perWattMax[a]!, perWattSub: sky.perWattSub[a]! }));
+
+  const cabinHeatedC = new Float64Array(n);
+  const newDemand = (): PreparedDemand => ({
+    dcW: new Float64Array(n),
+    acW: new Float64Array(n),
+    peakAllW: new Float64Array(n),
+    peakAllAvgW: new Float64Array(n),
+    peakDcW: new Float64Array(n),
+    peakDcAvgW: new Float64Array(n),
+    inverterOverload: new Uint8Array(n),
+  });
+  const demand: [PreparedDemand, PreparedDemand] = [newDemand(), newDemand()];
+  const invEta = plan.inverter.efficiencyPct / 100;
+  const dcLoadW = new Float64Array(n);
+  const acBankW = new Float64Array(n);
+  const shore = new Uint8Array(n);
+  const generatorAllowed = new Uint8Array(n);
+  const generatorSite = new Uint8Array(n);
+
+  // ---- loads: masks and constant parts once ----
+  const loads = plan.loads;
+  const nLoads = loads.length;
+  const masks = loads.map((l) => windowMask(l.windows));
+  const fixedDuty = loads.map((l) => (l.response === 'none' ? dutyAt(l, 0) : -1));
+  const heatingIdx: number[] = [];
+  loads.forEach((l, i) => {
+    if (l.response === 'heating') heatingIdx.push(i);
+  });
+  const cabinCooling = Uint8Array.from(loads, (l) => (l.response === 'cooling' && l.location === 'cabin' ? 1 : 0));
+  const isAc = loads.map((l) => l.supply === 'ac');
+  const fullW = loads.map((l) => l.surgeWatts ?? l.watts);
+  const fullOverEta = fullW.map((w) => w / invEta);
+  const overSurge = loads.map((l) => l.supply === 'ac' && plan.inverter.surgeWatts !== null && l.surgeWatts !== null && l.surgeWatts > plan.inverter.surgeWatts);
+  // Whole-hour rows (all rows but those after a move into a zone with another minute offset): the
+  // loads on at each local hour of a camp day and of a drive day, in list order, and the highest
+  // heating setpoint on then, found once rather than once a row.
+  const allLoads = Int32Array.from(loads, (_, i) => i);
+  const onAt: Int32Array[] = [];
+  const setAt = new Float64Array(48);
+  for (let h = 0; h < 24; h++) {
+    for (let dd = 0; dd < 2; dd++) {
+      const on: number[] = [];
+      for (let i = 0; i < nLoads; i++) {
+        const l = loads[i]!;
+        if (l.quantity === 0 || !runsOnDay(l.days, dd === 1) || ((masks[i]! >>> h) & 1) === 0) continue;
+        on.push(i);
+      }
+      onAt.push(Int32Array.from(on));
+      let maxSet = -Infinity;
+      for (const i of heatingIdx) {
+        const l = loads[i]!;
+        if (!runsOnDay(l.days, dd === 1) || ((masks[i]! >>> h) & 1) === 0) continue;
+        if (l.setpointC > maxSet) maxSet = l.setpointC;
+      }
+      setAt[h * 2 + dd] = maxSet;
+    }
+  }
+  // Per-row accumulators for the two cabin states (offsets into `acc`).
+  const acc = new Float64Array(2 * ACC);
+  for (let r = 0; r < n; r++) {
+    const s = grid.stop[r]!;
+    const stop = plan.stops[s]!;
+    const hour = grid.localHour[r]!;
+    const ta = ambientC[r]!;
+    const t0 = grid.startMs + r * HOUR_MS;
+    // Minutes past the local clock hour, as a fraction (rows after a move to a zone with a different minute offset).
+    const local = t0 + grid.offsetMin[r]! * 60_000;
+    const minuteFrac = (((local % HOUR_MS) + HOUR_MS) % HOUR_MS) / HOUR_MS;
+
+    const driving = grid.driving[r] === 1;
+    const hookup = stop.hookup === 'shore';
+    shore[r] = hookup && !driving ? 1 : 0;
+    generatorSite[r] = !hookup && !driving ? 1 : 0;
+    generatorAllowed[r] = generatorSite[r] === 1 && inGeneratorWindow(hour, stop.generatorHours) ? 1 : 0;
+
+    // ---- loads (Revision 2: cabin temperature, location, fraction of the row, surges) ----
+    // One pass computes both cabin states: only cooling loads in the cabin differ between them.
+    const isDriveDay = grid.driveDay[r] === 1;
+    const wholeHour = minuteFrac === 0;
+    let maxSet = -Infinity;
+    if (wholeHour) maxSet = setAt[hour * 2 + (isDriveDay ? 1 : 0)]!;
+    else {
+      for (const i of heatingIdx) {
+        const l = loads[i]!;
+        if (!runsOnDay(l.days, isDriveDay) || windowFraction(masks[i]!, hour, minuteFrac) <= 0) continue;
+        if (l.setpointC > maxSet) maxSet = l.setpointC;
+      }
+    }
+    const cabHeated = maxSet > ta ? maxSet : ta;
+    cabinHeatedC[r] = cabHeated;
+    acc.fill(0);
+    let acSurgeOver0 = false;
+    let acSurgeOver1 = false;
+    const list = wholeHour ? onAt[hour * 2 + (isDriveDay ? 1 : 0)]! : allLoads;
+    for (let j = 0; j < list.length; j++) {
+      const i = list[j]!;
+      const l = loads[i]!;
+      let frac = 1;
+      if (!wholeHour) {
+        if (l.quantity === 0 || !runsOnDay(l.days, isDriveDay)) continue;
+        frac = windowFraction(masks[i]!, hour, minuteFrac);
+        if (frac <= 0) continue;
+      }
+      const fixed = fixedDuty[i]!;
+      const ac = isAc[i]!;
+      const full = fullW[i]!;
+      const fullEta = fullOverEta[i]!;
+      if (fixed >= 0) {
+        // The same duty in both cabin states.
+        const unitAvg = l.watts * fixed * frac;
+        if (!(unitAvg > 0)) continue;
+        const wts = unitAvg * l.quantity;
+        addLoad(acc, 0, ac, full, fullEta, invEta, unitAvg, wts);
+        addLoad(acc, ACC, ac, full, fullEta, invEta, unitAvg, wts);
+        if (overSurge[i]) acSurgeOver0 = acSurgeOver1 = true;
+        continue;
+      }
+      let duty1: number;
+      let duty0: number;
+      if (cabinCooling[i] === 1) {
+        duty1 = dutyAt(l, cabHeated);
+        duty0 = cabHeated === ta ? duty1 : dutyAt(l, ta);
+      } else duty1 = duty0 = dutyAt(l, ta); // heating and outside cooling follow the outdoor air
+      const unitAvg0 = l.watts * duty0 * frac;
+      if (unitAvg0 > 0) {
+        addLoad(acc, 0, ac, full, fullEta, invEta, unitAvg0, unitAvg0 * l.quantity);
+        if (overSurge[i]) acSurgeOver0 = true;
+      }
+      const unitAvg1 = l.watts * duty1 * frac;
+      if (unitAvg1 > 0) {
+        addLoad(acc, ACC, ac, full, fullEta, invEta, unitAvg1, unitAvg1 * l.quantity);
+        if (overSurge[i]) acSurgeOver1 = true;
+      }
+    }
+    const cont = plan.inverter.continuousWatts;
+    for (let st = 0; st < 2; st++) {
+      const o = st * ACC;
+      const dm = demand[st as 0 | 1];
+      const ac = acc[o + A_AC]!;
+      dm.dcW[r] = acc[o + A_DC]!;
+      dm.acW[r] = ac;
+      dm.peakAllW[r] = acc[o + A_PEAK_ALL]!;
+      dm.peakAllAvgW[r] = acc[o + A_PEAK_ALL_AVG]!;
+      dm.peakDcW[r] = acc[o + A_PEAK_DC]!;
+      dm.peakDcAvgW[r] = acc[o + A_PEAK_DC_AVG]!;
+      // The biggest AC unit at full draw plus the others' averages.
+      const overCont = cont !== null && ac > 0 && acc[o + A_AC_PEAK]! + (ac - acc[o + A_AC_PEAK_AVG]!) > cont;
+      dm.inverterOverload[r] = overCont || (st === 1 ? acSurgeOver1 : acSurgeOver0) ? 1 : 0;
+    }
+    dcLoadW[r] = demand[1].dcW[r]!;
+    acBankW[r] = inverterDcWatts(demand[1].acW[r]!, plan.inverter);
   }
 
   return {
@@ -484,7 +605,7 @@ export function prepareWithSun(sun: PreparedSun, plan: ResolvedPlan): PreparedTr
     demand,
     driveFrac,
     sunAltitudeDeg,
-    poaWm2,
+    poaWm2: sky.poaWm2,
     arrays,
     dcLoadW,
     acBankW,
@@ -493,6 +614,6 @@ export function prepareWithSun(sun: PreparedSun, plan: ResolvedPlan): PreparedTr
     generatorSite,
     dayIndex,
     days: dayList.map(isoDate),
-    warnings,
+    warnings: sky.warnings.slice(),
   };
 }

@@ -1,13 +1,16 @@
 import { LRUCache } from 'lru-cache';
 import {
+  prepareSky,
   prepareSun,
-  prepareWithSun,
+  prepareWithSky,
   simulatePrepared,
+  skyKey,
   sunKey,
   toColumnsJson,
   toForecast,
   validatePlan,
   type Forecast,
+  type PreparedSky,
   type PreparedSun,
   type ResolvedPlan,
   type RunResult,
@@ -23,7 +26,7 @@ import {
 const MAX_BYTES = Math.max(1, Number(process.env.SUN_CACHE_MB ?? 64)) * 1024 * 1024;
 
 /** Roughly what a prepared sun takes in memory: its typed arrays, strings and small collections. */
-export function sizeOfSun(sun: PreparedSun): number {
+export function sizeOfSun(sun: PreparedSun | PreparedSky): number {
   let bytes = 0;
   const seen = new Set<unknown>();
   const walk = (v: unknown): void => {
@@ -56,6 +59,34 @@ export function sizeOfSun(sun: PreparedSun): number {
 const suns = new LRUCache<string, PreparedSun>({ maxSize: MAX_BYTES, sizeCalculation: sizeOfSun });
 const counts = { hits: 0, misses: 0 };
 
+/**
+ * The prepared sky (the weather's part: air temperature, irradiance and each array's output per
+ * rated watt) of recent trips, keyed by the engine's `skyKey`: a preview or re-run of the same trip in
+ * the same weather with other loads or another bank skips it too. Its own SUN_CACHE_MB.
+ */
+const skies = new LRUCache<string, PreparedSky>({ maxSize: MAX_BYTES, sizeCalculation: sizeOfSun });
+const skyCounts = { hits: 0, misses: 0 };
+
+/** The prepared sky of a validated plan on its sun, from the cache when a plan of the same trip and weather made it. */
+export function skyOf(sun: PreparedSun, plan: ResolvedPlan): PreparedSky {
+  const key = skyKey(plan);
+  const cached = skies.get(key);
+  if (cached && cached.sunKey === sun.key) {
+    skyCounts.hits += 1;
+    return cached;
+  }
+  skyCounts.misses += 1;
+  const sky = prepareSky(sun, plan);
+  if (sizeOfSun(sky) <= MAX_BYTES) skies.set(key, sky);
+  return sky;
+}
+
+/** The prepared trip of a validated plan, with its sun and sky from the caches. */
+function preparedOf(plan: ResolvedPlan) {
+  const sun = sunOf(plan);
+  return prepareWithSky(sun, skyOf(sun, plan), plan);
+}
+
 /** The prepared sun of a validated plan, from the cache when a plan of the same trip made it. */
 export function sunOf(plan: ResolvedPlan): PreparedSun {
   const key = sunKey(plan);
@@ -73,7 +104,7 @@ export function sunOf(plan: ResolvedPlan): PreparedSun {
 
 /** `forecast(plan)` with the sun from the cache; the same figures as the engine's own. */
 export function cachedForecast(plan: ResolvedPlan): Forecast {
-  const prepared = prepareWithSun(sunOf(plan), plan);
+  const prepared = preparedOf(plan);
   return toForecast(prepared, simulatePrepared(prepared));
 }
 
@@ -93,11 +124,24 @@ export function runCachedColumnsJson(
 ): { ok: true; json: string } | { ok: false; envelope: Extract<RunResult, { ok: false }>['envelope'] } {
   const v = validatePlan(input);
   if (!v.ok) return v;
-  const prepared = prepareWithSun(sunOf(v.plan), v.plan);
+  const prepared = preparedOf(v.plan);
   return { ok: true, json: toColumnsJson(prepared, simulatePrepared(prepared)) };
 }
 
 /** What the cache holds, for tests and the load test's notes. */
-export function sunCacheStats(): { entries: number; bytes: number; maxBytes: number; hits: number; misses: number } {
-  return { entries: suns.size, bytes: suns.calculatedSize, maxBytes: MAX_BYTES, ...counts };
+export function sunCacheStats(): {
+  entries: number;
+  bytes: number;
+  maxBytes: number;
+  hits: number;
+  misses: number;
+  sky: { entries: number; bytes: number; hits: number; misses: number };
+} {
+  return {
+    entries: suns.size,
+    bytes: suns.calculatedSize,
+    maxBytes: MAX_BYTES,
+    ...counts,
+    sky: { entries: skies.size, bytes: skies.calculatedSize, ...skyCounts },
+  };
 }

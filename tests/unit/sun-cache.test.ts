@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { benchPlan } from '../../scripts/bench-plan';
 import { forecast, validatePlan, type Plan, type ResolvedPlan } from '../../src/engine';
-import { cachedForecast, sizeOfSun, sunCacheStats, sunOf } from '../../src/server/sun-cache';
+import { cachedForecast, sizeOfSun, skyOf, sunCacheStats, sunOf } from '../../src/server/sun-cache';
 
 function resolved(plan: Plan): ResolvedPlan {
   const v = validatePlan(plan);
@@ -43,5 +43,37 @@ describe('the sun cache', () => {
     expect(large).toBeGreaterThan(30 * 24 * 6 * 3 * 8);
     expect(large).toBeGreaterThan(small * 3);
     expect(sunCacheStats().bytes).toBeLessThanOrEqual(sunCacheStats().maxBytes);
+  });
+
+  it('a second run of the same trip and weather with other loads and another bank reuses the sky, and gives the engine’s own forecast', () => {
+    const base = benchPlan(9);
+    const a = resolved(base);
+    const other = resolved({ ...base, bank: { ...base.bank, capacityAh: 180 }, loads: base.loads!.slice(3) });
+    const before = sunCacheStats().sky;
+    expect(cachedForecast(a)).toEqual(forecast(a));
+    expect(cachedForecast(other)).toEqual(forecast(other));
+    const after = sunCacheStats().sky;
+    expect(after.misses - before.misses).toBe(1);
+    expect(after.hits - before.hits).toBe(1);
+    expect(skyOf(sunOf(other), other)).toBe(skyOf(sunOf(a), a));
+  });
+
+  it('other weather, shade, panel losses or a renamed stop get their own sky (names enter the weather warnings)', () => {
+    const base = benchPlan(5);
+    const a = resolved(base);
+    const variants = [
+      {
+        ...base,
+        stops: base.stops.map((s) => ({ ...s, weather: (s.weather ?? []).map((w) => ({ ...w, cloudOktas: (w.cloudOktas + 3) % 9 })) })),
+      },
+      { ...base, stops: base.stops.map((s) => ({ ...s, shadePct: 40 })) },
+      { ...base, arrays: base.arrays!.map((x) => ({ ...x, lossesPct: 30 })) },
+      { ...base, stops: base.stops.map((s, i) => ({ ...s, name: `Renamed ${i}`, weather: [] })) },
+    ].map(resolved);
+    const skyA = skyOf(sunOf(a), a);
+    for (const v of variants) {
+      expect(skyOf(sunOf(v), v)).not.toBe(skyA);
+      expect(cachedForecast(v)).toEqual(forecast(v));
+    }
   });
 });
