@@ -117,13 +117,13 @@ export interface Forecast {
 
 // Rounding per the contract: watts whole, SOC 0.1, volts 0.01. `+ 0` turns −0 into 0 and a
 // non-finite value (which the engine should never produce) becomes 0 rather than NaN in JSON.
-function r0(x: number): number {
+export function r0(x: number): number {
   return Number.isFinite(x) ? Math.round(x) + 0 : 0;
 }
-function r1(x: number): number {
+export function r1(x: number): number {
   return Number.isFinite(x) ? Math.round(x * 10) / 10 + 0 : 0;
 }
-function r2(x: number): number {
+export function r2(x: number): number {
   return Number.isFinite(x) ? Math.round(x * 100) / 100 + 0 : 0;
 }
 
@@ -173,7 +173,7 @@ export function toForecast(prepared: PreparedTrip, sim: SimResult): Forecast {
 }
 
 /** Everything of the forecast but its hours: days, summary, warnings, stops and the revision. */
-function forecastTotals(prepared: PreparedTrip, sim: SimResult): Omit<Forecast, 'hourly'> {
+export function forecastTotals(prepared: PreparedTrip, sim: SimResult): Omit<Forecast, 'hourly'> {
   const { n, grid } = prepared;
   // Day sums come from unrounded values.
   const nd = prepared.days.length;
@@ -248,82 +248,6 @@ function forecastTotals(prepared: PreparedTrip, sim: SimResult): Omit<Forecast, 
     stops: prepared.plan.stops.map((st) => ({ name: st.name, timeZone: st.timeZone })),
     engineRevision: ENGINE_REVISION,
   };
-}
-
-// ---- the forecast with its hours as columns, written straight to JSON ----
-
-// A value rounded by r1 / r2 is n/10 or n/100 for a whole n, and for |n| < 1e15 the shortest
-// decimal that reads back as that double (what JSON.stringify writes) is n's digits with the point
-// put in and trailing zeros dropped. Written so from the whole number, without the double-to-
-// decimal search; anything larger or not finite goes through JSON.stringify of r1 / r2 itself.
-export function json1(x: number): string {
-  if (!Number.isFinite(x)) return '0';
-  const n = Math.round(x * 10);
-  if (!(n < 1e15 && n > -1e15)) return JSON.stringify(r1(x));
-  if (n % 10 === 0) return String(n / 10 + 0);
-  const a = n < 0 ? -n : n;
-  return (n < 0 ? '-' : '') + Math.floor(a / 10) + '.' + (a % 10);
-}
-export function json2(x: number): string {
-  if (!Number.isFinite(x)) return '0';
-  const n = Math.round(x * 100);
-  if (!(n < 1e15 && n > -1e15)) return JSON.stringify(r2(x));
-  if (n % 100 === 0) return String(n / 100 + 0);
-  const a = n < 0 ? -n : n;
-  const d = a % 100;
-  return (n < 0 ? '-' : '') + Math.floor(a / 100) + (d % 10 === 0 ? '.' + d / 10 : d < 10 ? '.0' + d : '.' + d);
-}
-function json0(x: number): string {
-  return String(r0(x));
-}
-
-function column(values: ArrayLike<number>, n: number, write: (x: number) => string): string {
-  if (n === 0) return '[]';
-  let out = '[' + write(values[0]!);
-  for (let r = 1; r < n; r++) out += ',' + write(values[r]!);
-  return out + ']';
-}
-function flagColumn(values: ArrayLike<number>, n: number): string {
-  if (n === 0) return '[]';
-  let out = values[0] === 1 ? '[true' : '[false';
-  for (let r = 1; r < n; r++) out += values[r] === 1 ? ',true' : ',false';
-  return out + ']';
-}
-
-/**
- * `JSON.stringify` of the forecast in its columnar form (`src/lib/forecast-columns.ts`
- * `toColumns(toForecast(prepared, sim))`: the hours as one array per field, in `HourlyRow`'s
- * order), written straight from the simulation's arrays with the contract's rounding, so no
- * object per hour is made. The same text, byte for byte (tests/unit/engine/columns-json.test.ts).
- */
-export function toColumnsJson(prepared: PreparedTrip, sim: SimResult): string {
-  const { n, grid } = prepared;
-  const totals = JSON.stringify(forecastTotals(prepared, sim));
-  if (n === 0) return `${totals.slice(0, -1)},"hours":0,"hourlyColumns":{}}`;
-  const cols =
-    `"time":${JSON.stringify(grid.time.length === n ? grid.time : grid.time.slice(0, n))}` +
-    `,"socPct":${column(sim.socEndPct, n, json1)}` +
-    `,"volts":${column(sim.volts, n, json2)}` +
-    `,"solarWatts":${column(sim.solarW, n, json0)}` +
-    `,"chargeWatts":${column(sim.chargeW, n, json0)}` +
-    `,"loadWatts":${column(sim.loadW, n, json0)}` +
-    `,"unmetWatts":${column(sim.unmetW, n, json0)}` +
-    `,"curtailedWatts":${column(sim.curtailedW, n, json0)}` +
-    `,"ambientC":${column(prepared.ambientC, n, json1)}` +
-    `,"sunAltitudeDeg":${column(prepared.sunAltitudeDeg, n, json1)}` +
-    `,"poaWm2":${column(prepared.poaWm2, n, json0)}` +
-    `,"stop":${column(grid.stop, n, String)}` +
-    `,"driving":${flagColumn(grid.driving, n)}` +
-    `,"generatorOn":${flagColumn(sim.generatorOn, n)}` +
-    `,"disconnected":${flagColumn(sim.disconnected, n)}` +
-    `,"batteryC":${column(sim.batteryC, n, json1)}` +
-    `,"usablePct":${column(sim.usablePct, n, json1)}` +
-    `,"minVolts":${column(sim.minVolts, n, json2)}` +
-    `,"cabinC":${column(sim.cabinC, n, json1)}` +
-    `,"curtailedColdWatts":${column(sim.curtailedColdW, n, json0)}` +
-    `,"curtailedFullWatts":${column(sim.curtailedFullW, n, json0)}` +
-    `,"curtailedLimitWatts":${column(sim.curtailedLimitW, n, json0)}`;
-  return `${totals.slice(0, -1)},"hours":${n},"hourlyColumns":{${cols}}}`;
 }
 
 /** Outcome of validating an untrusted plan. */

@@ -8,7 +8,8 @@
 //     trip (the band); sunKey(plan) keys a cache of prepared suns
 //   prepareSky(sun, plan) + prepareWithSky(sun, sky, planWithOtherLoadsOrBank) for many load lists
 //     or banks in one trip's weather; skyKey(plan) keys a cache of prepared skies
-export { runForecast, validatePlan, forecast, toForecast, toColumnsJson, ENGINE_REVISION } from './forecast';
+export { runForecast, validatePlan, forecast, toForecast, ENGINE_REVISION } from './forecast';
+export { toColumnsJson } from './columns-json';
 export type { Forecast, HourlyRow, DayRow, ForecastSummary, ForecastWarning, RunResult, ValidationResult } from './forecast';
 export { prepareTrip, prepareSun, prepareWithSun, prepareSky, prepareWithSky, sunKey, skyKey, SUBSTEPS, BATTERY_SUBSTEPS } from './prepare';
 export type { PreparedTrip, PreparedSun, PreparedSky, PreparedArray, PreparedDemand, RowWarning } from './prepare';

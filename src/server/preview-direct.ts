@@ -36,7 +36,7 @@ export function previewAnswer(text: string, columns: boolean): PreviewAnswer {
   const input = parseJsonText(text, 'invalid_plan');
   const result = columns ? runCachedColumnsJson(input) : runCachedForecast(input);
   if (!result.ok) return { status: 400, body: Buffer.from(JSON.stringify(result.envelope)) };
-  const body = Buffer.from('json' in result ? result.json : JSON.stringify(result.forecast));
+  const body = 'json' in result ? Buffer.from(result.json) : Buffer.from(JSON.stringify(result.forecast));
   if (answers && body.length + 100 <= CACHE_BYTES) answers.set(key, body);
   return { status: 200, body };
 }

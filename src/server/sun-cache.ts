@@ -116,12 +116,12 @@ export function runCachedForecast(input: unknown): RunResult {
 }
 
 /**
- * `runCachedForecast` with the hours as columns (`src/lib/forecast-columns.ts`), as JSON text written
+ * `runCachedForecast` with the hours as columns (`src/lib/forecast-columns.ts`), as UTF-8 JSON written
  * straight from the simulation (the preview's `?hourly=columns` answer): no object per hour is made.
  */
 export function runCachedColumnsJson(
   input: unknown,
-): { ok: true; json: string } | { ok: false; envelope: Extract<RunResult, { ok: false }>['envelope'] } {
+): { ok: true; json: Uint8Array } | { ok: false; envelope: Extract<RunResult, { ok: false }>['envelope'] } {
   const v = validatePlan(input);
   if (!v.ok) return v;
   const prepared = preparedOf(v.plan);
