@@ -8,6 +8,9 @@ const COMMA = 44;
 const MINUS = 45;
 const DOT = 46;
 const ZERO = 48;
+const CLOSE = 93; // ]
+const TRUE = Uint8Array.from('true', (c) => c.charCodeAt(0));
+const FALSE = Uint8Array.from('false', (c) => c.charCodeAt(0));
 const encoder = new TextEncoder();
 
 /** A growing byte buffer for JSON text. */
@@ -98,19 +101,32 @@ class JsonBytes {
     }
   }
 
-  column(name: string, values: ArrayLike<number>, n: number, write: (this: JsonBytes, x: number) => void): void {
+  /** `,"name":[…]` of one column, each value rounded to `digits` (0: r0, 1: r1, 2: r2). */
+  column(name: string, values: ArrayLike<number>, n: number, digits: 0 | 1 | 2): void {
     this.text(`,"${name}":[`);
     for (let r = 0; r < n; r++) {
       if (r > 0) this.byte(COMMA);
-      write.call(this, values[r]!);
+      const x = values[r]!;
+      if (digits === 0) this.w0(x);
+      else if (digits === 1) this.w1(x);
+      else this.w2(x);
     }
-    this.byte(93); // ]
+    this.byte(CLOSE);
   }
 
+  /** `,"name":[true,false,…]` of a 0/1 column. */
   flags(name: string, values: ArrayLike<number>, n: number): void {
     this.text(`,"${name}":[`);
-    for (let r = 0; r < n; r++) this.text(r === 0 ? (values[r] === 1 ? 'true' : 'false') : values[r] === 1 ? ',true' : ',false');
-    this.byte(93);
+    this.room(n * 6);
+    const buf = this.buf;
+    let pos = this.pos;
+    for (let r = 0; r < n; r++) {
+      if (r > 0) buf[pos++] = COMMA;
+      const word = values[r] === 1 ? TRUE : FALSE;
+      for (let i = 0; i < word.length; i++) buf[pos++] = word[i]!;
+    }
+    this.pos = pos;
+    this.byte(CLOSE);
   }
 }
 
@@ -129,27 +145,27 @@ export function toColumnsJson(prepared: PreparedTrip, sim: SimResult): Uint8Arra
   if (n > 0) {
     // The first column opens without the comma the others start with.
     out.text(`"time":${JSON.stringify(grid.time.length === n ? grid.time : grid.time.slice(0, n))}`);
-    out.column('socPct', sim.socEndPct, n, out.w1);
-    out.column('volts', sim.volts, n, out.w2);
-    out.column('solarWatts', sim.solarW, n, out.w0);
-    out.column('chargeWatts', sim.chargeW, n, out.w0);
-    out.column('loadWatts', sim.loadW, n, out.w0);
-    out.column('unmetWatts', sim.unmetW, n, out.w0);
-    out.column('curtailedWatts', sim.curtailedW, n, out.w0);
-    out.column('ambientC', prepared.ambientC, n, out.w1);
-    out.column('sunAltitudeDeg', prepared.sunAltitudeDeg, n, out.w1);
-    out.column('poaWm2', prepared.poaWm2, n, out.w0);
-    out.column('stop', grid.stop, n, out.w0);
+    out.column('socPct', sim.socEndPct, n, 1);
+    out.column('volts', sim.volts, n, 2);
+    out.column('solarWatts', sim.solarW, n, 0);
+    out.column('chargeWatts', sim.chargeW, n, 0);
+    out.column('loadWatts', sim.loadW, n, 0);
+    out.column('unmetWatts', sim.unmetW, n, 0);
+    out.column('curtailedWatts', sim.curtailedW, n, 0);
+    out.column('ambientC', prepared.ambientC, n, 1);
+    out.column('sunAltitudeDeg', prepared.sunAltitudeDeg, n, 1);
+    out.column('poaWm2', prepared.poaWm2, n, 0);
+    out.column('stop', grid.stop, n, 0);
     out.flags('driving', grid.driving, n);
     out.flags('generatorOn', sim.generatorOn, n);
     out.flags('disconnected', sim.disconnected, n);
-    out.column('batteryC', sim.batteryC, n, out.w1);
-    out.column('usablePct', sim.usablePct, n, out.w1);
-    out.column('minVolts', sim.minVolts, n, out.w2);
-    out.column('cabinC', sim.cabinC, n, out.w1);
-    out.column('curtailedColdWatts', sim.curtailedColdW, n, out.w0);
-    out.column('curtailedFullWatts', sim.curtailedFullW, n, out.w0);
-    out.column('curtailedLimitWatts', sim.curtailedLimitW, n, out.w0);
+    out.column('batteryC', sim.batteryC, n, 1);
+    out.column('usablePct', sim.usablePct, n, 1);
+    out.column('minVolts', sim.minVolts, n, 2);
+    out.column('cabinC', sim.cabinC, n, 1);
+    out.column('curtailedColdWatts', sim.curtailedColdW, n, 0);
+    out.column('curtailedFullWatts', sim.curtailedFullW, n, 0);
+    out.column('curtailedLimitWatts', sim.curtailedLimitW, n, 0);
   }
   out.text('}}');
   return out.buf.subarray(0, out.pos);

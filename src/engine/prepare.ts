@@ -137,6 +137,8 @@ export interface PreparedSun {
   driveFrac: Float64Array;
   /** Sun altitude at each row's midpoint, degrees (apparent). */
   sunAltitudeDeg: Float64Array;
+  /** Minutes past the local clock hour at each row's start, as a fraction (0 but after a move to a zone with another minute offset). */
+  minuteFrac: Float64Array;
   /** 1 where some sub-step of the row can have sun on an array (always 0 without arrays). */
   lit: Uint8Array;
   /** Extraterrestrial irradiance of each row's local day, W/m². */
@@ -186,6 +188,7 @@ export function prepareSun(plan: ResolvedPlan): PreparedSun {
   const dayIndex = new Uint16Array(n);
   const driveFrac = new Float64Array(n);
   const sunAltitudeDeg = new Float64Array(n);
+  const minuteFrac = new Float64Array(n);
   const lit = new Uint8Array(n);
   const e0 = new Float64Array(n);
   const cosZSub = new Float64Array(n * SUBSTEPS);
@@ -214,6 +217,8 @@ export function prepareSun(plan: ResolvedPlan): PreparedSun {
       if (hi > lo) df += (hi - lo) / HOUR_MS;
     }
     driveFrac[r] = Math.min(1, df);
+    const local = t0 + grid.offsetMin[r]! * 60_000;
+    minuteFrac[r] = (((local % HOUR_MS) + HOUR_MS) % HOUR_MS) / HOUR_MS;
     // ---- sun at the midpoint (reported) ----
     date.setTime(t0 + HOUR_MS / 2);
     const mid = getPosition(date, stop.lat, stop.lon);
@@ -253,6 +258,7 @@ export function prepareSun(plan: ResolvedPlan): PreparedSun {
     firstRowOfStop,
     driveFrac,
     sunAltitudeDeg,
+    minuteFrac,
     lit,
     e0,
     cosZSub,
@@ -507,10 +513,7 @@ function buildTrip(sun: PreparedSun, sky: PreparedSky, plan: ResolvedPlan): Prep
     const stop = plan.stops[s]!;
     const hour = grid.localHour[r]!;
     const ta = ambientC[r]!;
-    const t0 = grid.startMs + r * HOUR_MS;
-    // Minutes past the local clock hour, as a fraction (rows after a move to a zone with a different minute offset).
-    const local = t0 + grid.offsetMin[r]! * 60_000;
-    const minuteFrac = (((local % HOUR_MS) + HOUR_MS) % HOUR_MS) / HOUR_MS;
+    const minuteFrac = sun.minuteFrac[r]!;
 
     const driving = grid.driving[r] === 1;
     const hookup = stop.hookup === 'shore';
