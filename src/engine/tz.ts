@@ -125,11 +125,26 @@ export function offsetMinutes(timeZone: string, ms: number): number {
   return m[1] === '-' ? -v : v;
 }
 
+// Answers of localToInstant by zone, day, hour and minute: a zone's offsets never change for one
+// wall time, and the same arrivals and drives are converted again on every check of the same trip.
+const instants = new Map<string, number>();
+const MAX_INSTANTS = 10_000;
+
 /**
  * The instant of a local wall-clock time in a zone. A time inside a DST gap gives the first
  * instant after the gap; a time inside an overlap gives the earlier instant (forecast-engine.md).
  */
 export function localToInstant(timeZone: string, day: number, hour: number, minute = 0): number {
+  const key = `${timeZone}|${day}|${hour}|${minute}`;
+  const kept = instants.get(key);
+  if (kept !== undefined) return kept;
+  const t = findInstant(timeZone, day, hour, minute);
+  if (instants.size >= MAX_INSTANTS) instants.clear();
+  instants.set(key, t);
+  return t;
+}
+
+function findInstant(timeZone: string, day: number, hour: number, minute: number): number {
   const wall = day * DAY_MS + hour * HOUR_MS + minute * 60_000;
   // Zone offsets change at most once within ±36 h in practice: try the offsets on both sides.
   const oBefore = offsetMinutes(timeZone, wall - 36 * HOUR_MS);
