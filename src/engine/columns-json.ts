@@ -68,37 +68,24 @@ class JsonBytes {
   }
 
   /**
-   * r1 (SOC, °C) and r2 (volts): a value rounded to n/10 or n/100 for a whole n is, for |n| < 1e15,
-   * written by JSON.stringify as n's digits with the point put in and trailing zeros dropped (the
-   * shortest decimal that reads back as that double). Larger or not finite: JSON.stringify itself.
+   * r1 (SOC, °C; `digits` 1) and r2 (volts; 2): a value rounded to n/10 or n/100 for a whole n is,
+   * for |n| < 1e15, written by JSON.stringify as n's digits with the point put in and trailing zeros
+   * dropped (the shortest decimal that reads back as that double). Larger or not finite: JSON.stringify itself.
    */
-  w1(x: number): void {
+  dec(x: number, digits: 1 | 2): void {
     if (!Number.isFinite(x)) return this.byte(ZERO);
-    const n = Math.round(x * 10);
-    if (!(n < 1e15 && n > -1e15)) return this.text(JSON.stringify(r1(x)));
+    const scale = digits === 1 ? 10 : 100;
+    const n = Math.round(x * scale);
+    if (!(n < 1e15 && n > -1e15)) return this.text(JSON.stringify(digits === 1 ? r1(x) : r2(x)));
     const a = n < 0 ? -n : n;
-    const d = a % 10;
+    const d = a % scale;
     if (n < 0 && a !== 0) this.byte(MINUS);
-    this.whole((a - d) / 10);
-    if (d !== 0) {
-      this.byte(DOT);
-      this.byte(ZERO + d);
-    }
-  }
-
-  w2(x: number): void {
-    if (!Number.isFinite(x)) return this.byte(ZERO);
-    const n = Math.round(x * 100);
-    if (!(n < 1e15 && n > -1e15)) return this.text(JSON.stringify(r2(x)));
-    const a = n < 0 ? -n : n;
-    const d = a % 100;
-    if (n < 0 && a !== 0) this.byte(MINUS);
-    this.whole((a - d) / 100);
-    if (d !== 0) {
-      this.byte(DOT);
-      this.byte(ZERO + Math.floor(d / 10));
-      if (d % 10 !== 0) this.byte(ZERO + (d % 10));
-    }
+    this.whole((a - d) / scale);
+    if (d === 0) return;
+    this.byte(DOT);
+    if (digits === 1) return this.byte(ZERO + d);
+    this.byte(ZERO + Math.floor(d / 10));
+    if (d % 10 !== 0) this.byte(ZERO + (d % 10));
   }
 
   /** `,"name":[…]` of one column, each value rounded to `digits` (0: r0, 1: r1, 2: r2). */
@@ -108,8 +95,7 @@ class JsonBytes {
       if (r > 0) this.byte(COMMA);
       const x = values[r]!;
       if (digits === 0) this.w0(x);
-      else if (digits === 1) this.w1(x);
-      else this.w2(x);
+      else this.dec(x, digits);
     }
     this.byte(CLOSE);
   }
@@ -175,7 +161,6 @@ export function toColumnsJson(prepared: PreparedTrip, sim: SimResult): Uint8Arra
 export function roundedJson(x: number, digits: 0 | 1 | 2): string {
   const out = new JsonBytes(32);
   if (digits === 0) out.w0(x);
-  else if (digits === 1) out.w1(x);
-  else out.w2(x);
+  else out.dec(x, digits);
   return new TextDecoder().decode(out.buf.subarray(0, out.pos));
 }
