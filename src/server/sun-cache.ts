@@ -21,7 +21,8 @@ import {
  * in this process's memory and keyed by the engine's `sunKey`: places, time zones, dates, arrival
  * hours, drives and the arrays' geometry. A preview or re-run of the same trip with other loads,
  * bank, chargers or weather reuses it and skips the CPU-heavy part of a forecast.
- * Least recently used trips leave first; the cache holds at most SUN_CACHE_MB (default 64) of arrays.
+ * Least recently used trips leave first; the cache holds at most SUN_CACHE_MB (default 64) of arrays,
+ * prepared suns and skies (below) together.
  */
 const MAX_BYTES = Math.max(1, Number(process.env.SUN_CACHE_MB ?? 64)) * 1024 * 1024;
 
@@ -56,28 +57,28 @@ export function sizeOfSun(sun: PreparedSun | PreparedSky): number {
   return Math.max(1, bytes);
 }
 
-const suns = new LRUCache<string, PreparedSun>({ maxSize: MAX_BYTES, sizeCalculation: sizeOfSun });
+/** Suns under `sun:` + sunKey, skies under `sky:` + skyKey, in one byte budget. */
+const kept = new LRUCache<string, PreparedSun | PreparedSky>({ maxSize: MAX_BYTES, sizeCalculation: sizeOfSun });
 const counts = { hits: 0, misses: 0 };
 
 /**
  * The prepared sky (the weather's part: air temperature, irradiance and each array's output per
  * rated watt) of recent trips, keyed by the engine's `skyKey`: a preview or re-run of the same trip in
- * the same weather with other loads or another bank skips it too. Its own SUN_CACHE_MB.
+ * the same weather with other loads or another bank skips it too.
  */
-const skies = new LRUCache<string, PreparedSky>({ maxSize: MAX_BYTES, sizeCalculation: sizeOfSun });
 const skyCounts = { hits: 0, misses: 0 };
 
 /** The prepared sky of a validated plan on its sun, from the cache when a plan of the same trip and weather made it. */
 export function skyOf(sun: PreparedSun, plan: ResolvedPlan): PreparedSky {
-  const key = skyKey(plan);
-  const cached = skies.get(key);
+  const key = `sky:${skyKey(plan)}`;
+  const cached = kept.get(key) as PreparedSky | undefined;
   if (cached && cached.sunKey === sun.key) {
     skyCounts.hits += 1;
     return cached;
   }
   skyCounts.misses += 1;
   const sky = prepareSky(sun, plan);
-  if (sizeOfSun(sky) <= MAX_BYTES) skies.set(key, sky);
+  if (sizeOfSun(sky) <= MAX_BYTES) kept.set(key, sky);
   return sky;
 }
 
@@ -89,8 +90,8 @@ function preparedOf(plan: ResolvedPlan) {
 
 /** The prepared sun of a validated plan, from the cache when a plan of the same trip made it. */
 export function sunOf(plan: ResolvedPlan): PreparedSun {
-  const key = sunKey(plan);
-  const cached = suns.get(key);
+  const key = `sun:${sunKey(plan)}`;
+  const cached = kept.get(key) as PreparedSun | undefined;
   if (cached) {
     counts.hits += 1;
     return cached;
@@ -98,7 +99,7 @@ export function sunOf(plan: ResolvedPlan): PreparedSun {
   counts.misses += 1;
   const sun = prepareSun(plan);
   // A trip larger than the whole cache is computed but not kept.
-  if (sizeOfSun(sun) <= MAX_BYTES) suns.set(key, sun);
+  if (sizeOfSun(sun) <= MAX_BYTES) kept.set(key, sun);
   return sun;
 }
 
@@ -128,20 +129,20 @@ export function runCachedColumnsJson(
   return { ok: true, json: toColumnsJson(prepared, simulatePrepared(prepared)) };
 }
 
-/** What the cache holds, for tests and the load test's notes. */
+/** What the cache holds (suns and skies together) and how often each was found, for tests and the load test's notes. */
 export function sunCacheStats(): {
   entries: number;
   bytes: number;
   maxBytes: number;
   hits: number;
   misses: number;
-  sky: { entries: number; bytes: number; hits: number; misses: number };
+  sky: { hits: number; misses: number };
 } {
   return {
-    entries: suns.size,
-    bytes: suns.calculatedSize,
+    entries: kept.size,
+    bytes: kept.calculatedSize,
     maxBytes: MAX_BYTES,
     ...counts,
-    sky: { entries: skies.size, bytes: skies.calculatedSize, ...skyCounts },
+    sky: { ...skyCounts },
   };
 }
