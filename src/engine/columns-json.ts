@@ -36,6 +36,12 @@ class JsonBytes {
     this.pos += encoder.encodeInto(s, this.buf.subarray(this.pos)).written;
   }
 
+  bytes(b: Uint8Array): void {
+    this.room(b.length);
+    this.buf.set(b, this.pos);
+    this.pos += b.length;
+  }
+
   byte(c: number): void {
     this.room(1);
     this.buf[this.pos++] = c;
@@ -124,9 +130,10 @@ class JsonBytes {
  */
 export function toColumnsJson(prepared: PreparedTrip, sim: SimResult): Uint8Array {
   const { n, grid } = prepared;
-  const totals = JSON.stringify(forecastTotals(prepared, sim));
-  const out = new JsonBytes(totals.length * 3 + n * 160 + 1024);
-  out.text(totals.slice(0, -1));
+  const totals = encoder.encode(JSON.stringify(forecastTotals(prepared, sim)));
+  // About 110 bytes an hour for the 22 columns; sized a little over so that it rarely grows.
+  const out = new JsonBytes(totals.length + n * 128 + 256);
+  out.bytes(totals.subarray(0, totals.length - 1));
   out.text(`,"hours":${n},"hourlyColumns":{`);
   if (n > 0) {
     // The first column opens without the comma the others start with.

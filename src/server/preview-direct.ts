@@ -18,7 +18,8 @@ import { runCachedColumnsJson, runCachedForecast } from './sun-cache';
  * without forecasting. PREVIEW_CACHE_MB (default 16) caps it per process; 0 turns it off.
  */
 const CACHE_BYTES = Math.max(0, Number(process.env.PREVIEW_CACHE_MB ?? 16)) * 1024 * 1024;
-const answers = CACHE_BYTES > 0 ? new LRUCache<string, Buffer>({ maxSize: CACHE_BYTES, sizeCalculation: (b) => b.length + 100 }) : null;
+// An answer may be a view into a larger buffer (the columns writer's): what it holds is counted.
+const answers = CACHE_BYTES > 0 ? new LRUCache<string, Buffer>({ maxSize: CACHE_BYTES, sizeCalculation: (b) => b.buffer.byteLength + 100 }) : null;
 
 /** The largest body the preview reads (as the route always did). */
 export const PREVIEW_MAX_BYTES = 256 * 1024;
@@ -36,8 +37,8 @@ export function previewAnswer(text: string, columns: boolean): PreviewAnswer {
   const input = parseJsonText(text, 'invalid_plan');
   const result = columns ? runCachedColumnsJson(input) : runCachedForecast(input);
   if (!result.ok) return { status: 400, body: Buffer.from(JSON.stringify(result.envelope)) };
-  const body = 'json' in result ? Buffer.from(result.json) : Buffer.from(JSON.stringify(result.forecast));
-  if (answers && body.length + 100 <= CACHE_BYTES) answers.set(key, body);
+  const body = 'json' in result ? Buffer.from(result.json.buffer, result.json.byteOffset, result.json.byteLength) : Buffer.from(JSON.stringify(result.forecast));
+  if (answers && body.buffer.byteLength + 100 <= CACHE_BYTES) answers.set(key, body);
   return { status: 200, body };
 }
 
