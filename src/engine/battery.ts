@@ -63,22 +63,32 @@ const OCV: Record<Chemistry, { soc: number[]; v: number[]; base: number }> = {
 };
 
 /**
- * A fast open-circuit-volts function for one bank (the same table and scaling as `ocvVolts`), for
- * the sub-step loop: breakpoints pre-scaled, slopes pre-computed.
+ * One bank's open-circuit curve against SOC as a fraction (the same table and scaling as
+ * `ocvVolts`): breakpoints pre-scaled, slopes pre-computed, for `ocvAtSoc` in the hour loop.
  */
-export function ocvFunction(chem: Chemistry, nominalVolts: number): (soc: number) => number {
+export interface OcvCurve {
+  xs: Float64Array;
+  vs: Float64Array;
+  slopes: Float64Array;
+}
+
+export function ocvCurve(chem: Chemistry, nominalVolts: number): OcvCurve {
   const t = OCV[chem];
   const k = nominalVolts / t.base;
-  const xs = t.soc.map((p) => p / 100);
-  const vs = t.v.map((v) => v * k);
-  const m = xs.length;
+  const xs = Float64Array.from(t.soc, (p) => p / 100);
+  const vs = Float64Array.from(t.v, (v) => v * k);
   const slopes = xs.slice(1).map((x, i) => ((vs[i + 1] ?? 0) - (vs[i] ?? 0)) / (x - (xs[i] ?? 0)));
-  return (soc: number) => {
-    const x = soc < 0 ? 0 : soc > 1 ? 1 : soc;
-    let i = 1;
-    while (i < m - 1 && x > (xs[i] ?? 1)) i++;
-    return (vs[i - 1] ?? 0) + (slopes[i - 1] ?? 0) * (x - (xs[i - 1] ?? 0));
-  };
+  return { xs, vs, slopes };
+}
+
+/** Open-circuit volts at `soc` (fraction) on a bank's curve. A plain function, so the hour loop inlines it. */
+export function ocvAtSoc(c: OcvCurve, soc: number): number {
+  const { xs, vs, slopes } = c;
+  const m = xs.length;
+  const x = soc < 0 ? 0 : soc > 1 ? 1 : soc;
+  let i = 1;
+  while (i < m - 1 && x > (xs[i] ?? 1)) i++;
+  return (vs[i - 1] ?? 0) + (slopes[i - 1] ?? 0) * (x - (xs[i - 1] ?? 0));
 }
 
 /** The open-circuit table of one bank, scaled and in charge units, for a segment-tracking lookup. */

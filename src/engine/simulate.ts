@@ -3,7 +3,7 @@
 // integrated in sub-steps inside each hour, with loads and MPPT solar as power at the terminal
 // volts and chargers and PWM solar as current sources.
 import { z } from 'zod';
-import { bankResistanceOhms, busCurrentOrNaN, capacityFactor, coldChargeBlocked, dischargeCurrent, isLeadAcid, ocvFunction, ocvTable, peukertFactor, taperedChargeAh, taperKnee, thermalStep } from './battery';
+import { bankResistanceOhms, busCurrentOrNaN, capacityFactor, coldChargeBlocked, dischargeCurrent, isLeadAcid, ocvAtSoc, ocvCurve, ocvTable, peukertFactor, taperedChargeAh, taperKnee, thermalStep } from './battery';
 import { generatorRuns, inGeneratorWindow } from './chargers';
 import { PlanValidationError, zodIssuesToEnvelope } from './errors';
 import { inverterDcWatts } from './loads';
@@ -154,6 +154,11 @@ function acceptedQ(q: number, want: number, t: number, acc: number, cap: number,
   return Math.min(qFree, taperedChargeAh(q, cap, acc, eta, knee, t), cap);
 }
 
+/** Usable charge as a fraction of rated: the charge above what the cold strands (C·(1 − f)). */
+function usableOf(cap: number, q: number, f: number): number {
+  return Math.max(0, q - cap * (1 - f)) / cap;
+}
+
 function fmt(x: number, digits: number): string {
   return (Math.round(x * 10 ** digits) / 10 ** digits).toFixed(digits);
 }
@@ -176,7 +181,8 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
   const lead = isLeadAcid(chem);
   const inCabin = bank.location === 'cabin';
   const cutoffV = bank.cutoffVolts;
-  const ocvAt = ocvFunction(chem, vn);
+  // The end-of-hour volts read the curve against SOC (a plain function the loop inlines).
+  const ocvC = ocvCurve(chem, vn);
   // The sub-step loop tracks its OCV segment (charge moves little between sub-steps).
   const ocvT = ocvTable(chem, vn, cap);
   const oQ = ocvT.qs;
@@ -251,7 +257,6 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
   const cutoffEvent = new Uint8Array(n);
   const warnings: RowWarning[] = [];
 
-  const usableOf = (q: number, f: number) => Math.max(0, q - cap * (1 - f)) / cap;
 
   let q = (bank.initialSocPct / 100) * cap;
   // The battery starts at its surroundings (Revision 2). A bank in the cabin is in a heated cabin
@@ -260,10 +265,10 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
   const heated0 = n > 0 ? prepared.cabinHeatedC[0]! : amb0;
   const givenTb = bank.initialBatteryC;
   let tb = givenTb ?? (inCabin ? heated0 : amb0);
-  let disc = usableOf(q, capacityFactor(chem, tb)) <= floor + EPS;
+  let disc = usableOf(cap, q, capacityFactor(chem, tb)) <= floor + EPS;
   if (givenTb === undefined && disc && inCabin && !(n > 0 && prepared.shore[0] === 1)) {
     tb = amb0;
-    disc = usableOf(q, capacityFactor(chem, tb)) <= floor + EPS;
+    disc = usableOf(cap, q, capacityFactor(chem, tb)) <= floor + EPS;
   }
   const startedDisconnected = disc;
   let reason = disc ? CUTOFF_FLOOR : CUTOFF_NONE;
@@ -273,7 +278,7 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
   if (disc) {
     firstCutoffRow = 0;
     cutoffEvent[0] = CUTOFF_FLOOR;
-    warnings.push({ code: 'floor-cutoff', row: 0, message: `The bank starts with ${fmt(usableOf(q, capacityFactor(chem, tb)) * 100, 1)} % usable charge, at or below its ${fmt(bank.floorSocPct, 1)} % floor, so it starts disconnected; loads go unmet until charging lifts it to ${fmt(bank.floorSocPct + 5, 1)} %.` });
+    warnings.push({ code: 'floor-cutoff', row: 0, message: `The bank starts with ${fmt(usableOf(cap, q, capacityFactor(chem, tb)) * 100, 1)} % usable charge, at or below its ${fmt(bank.floorSocPct, 1)} % floor, so it starts disconnected; loads go unmet until charging lifts it to ${fmt(bank.floorSocPct + 5, 1)} %.` });
   }
   let genRunning = false;
   let genHours = 0;
@@ -302,7 +307,7 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
     const qStranded = cap * (1 - f);
     // ---- reconnect at the hour's start (on usable charge, Revision 2) ----
     if (disc) {
-      const u = usableOf(q, f);
+      const u = usableOf(cap, q, f);
       if (reason === CUTOFF_FLOOR && u >= floor + 0.05 - EPS) disc = false;
       else if (reason === CUTOFF_VOLTS && r >= reconnectRow && u >= Math.max(floor, usableAtVoltCut) + 0.05 - EPS) disc = false;
       if (!disc) reason = CUTOFF_NONE;
@@ -390,7 +395,7 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
             disc = true;
             wasDisc = true;
             reason = CUTOFF_VOLTS;
-            usableAtVoltCut = usableOf(q, f);
+            usableAtVoltCut = usableOf(cap, q, f);
             reconnectRow = r + 2;
             if (cutoffEvent[r] === CUTOFF_NONE) cutoffEvent[r] = CUTOFF_VOLTS;
             continue;
@@ -485,9 +490,9 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
     // ---- volts: end of hour, average, and the hour's lowest with its biggest appliance (Revision 2) ----
     const iAvg = netASum; // A·h over one hour = average A, positive discharging
     const socEnd = q / cap;
-    const vt = ocvAt(socEnd) - iAvg * ohms;
+    const vt = ocvAtSoc(ocvC, socEnd) - iAvg * ohms;
     const vAvg = vSum > 0 ? vSum : vt;
-    const ocvLow = ocvAt(Math.min(qStart, q) / cap);
+    const ocvLow = ocvAtSoc(ocvC, Math.min(qStart, q) / cap);
     let vMin = ocvLow - iAvg * ohms;
     if (!discAtStart) {
       const pk = acOnBank ? dm.peakAllW[r]! : dm.peakDcW[r]!;
@@ -502,7 +507,7 @@ export function simulatePrepared(prepared: PreparedTrip, variant?: Variant): Sim
       // Checked for the hour; the bank is off from the next hour, for at least that hour.
       disc = true;
       reason = CUTOFF_VOLTS;
-      usableAtVoltCut = usableOf(q, f);
+      usableAtVoltCut = usableOf(cap, q, f);
       reconnectRow = r + 2;
       cutoffEvent[r] = CUTOFF_VOLTS;
       if (cutoffV < vAvg) voltCode = 'surge-cutoff';
