@@ -100,8 +100,9 @@ export async function throughputRun(p: {
   const run = async (name: string, opts: autocannon.Options) => {
     // Warm-up, not counted: the code each route runs is compiled and optimised before it is timed
     // (otherwise a route whose code ran little before, e.g. the forecast after answers from the
-    // cache, pays for the JIT in its figures).
-    await autocannon({ connections: 4, amount: 100, timeout: 20, ...opts });
+    // cache, pays for the JIT in its figures). Two seconds rather than a count: V8 needs a few
+    // hundred forecasts in each worker before the engine's loops run optimised.
+    await autocannon({ connections: 4, duration: 2, timeout: 20, ...opts });
     // The server's own CPU time per answer: steadier than req/s when other work shares the cores.
     const cpuBefore = cpuMs(pids);
     const r = await autocannon({ connections: THROUGHPUT_CONNECTIONS, duration: seconds, timeout: 20, ...opts });
