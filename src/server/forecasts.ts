@@ -1,4 +1,5 @@
 import type { Kysely } from 'kysely';
+import { LRUCache } from 'lru-cache';
 import type { DB, RigRow, TripRow } from '../../db/schema';
 import { validatePlan, type Forecast, type HourlyRow, type Plan, type ResolvedPlan } from '../engine';
 import type { LoadDto } from '../domain/loads/loads.schema';
@@ -211,6 +212,36 @@ export async function getForecast(db: Kysely<DB>, id: string): Promise<(Forecast
     // A snapshot keeps the numbers it was saved with; one saved before revisions were recorded is revision 1.
     forecast: { ...stored, engineRevision: r.engine_revision ?? 1, hourly: unpackHourly(stored.hourly) },
   };
+}
+
+/**
+ * The saved forecast pages' island text, kept per process (`FORECAST_PAGE_CACHE_MB`, default 8; 0 = off).
+ * A saved forecast never changes once written (it is only ever inserted or deleted), but what the
+ * page shows with it can: its creator's name. So each page read asks the database for the row's
+ * light columns (no plan, no hours) and finds the text under all of them; a deleted forecast is
+ * never found, a renamed creator makes a new key. The heavy part — parsing the stored plan and
+ * hours and writing the island's text — then happens once per forecast and process.
+ */
+const PAGE_CACHE_BYTES = Math.max(0, Number(process.env.FORECAST_PAGE_CACHE_MB ?? 8)) * 1024 * 1024;
+const pageTexts = PAGE_CACHE_BYTES > 0 ? new LRUCache<string, { tripId: string; text: string }>({ maxSize: PAGE_CACHE_BYTES, sizeCalculation: (v) => v.text.length * 2 + 200 }) : null;
+
+/**
+ * A saved forecast as its page hands it to the island: `toText` of the forecast without its crew
+ * and rig ids (the page passes `savedForecastToJson`), with the trip it belongs to; undefined when
+ * there is none. The caller checks the reader's access to that trip.
+ */
+export async function forecastPageText(db: Kysely<DB>, id: string, toText: (saved: Omit<ForecastDto, 'rigId'>) => string): Promise<{ tripId: string; text: string } | undefined> {
+  const r = await db.selectFrom('forecasts').leftJoin('user', 'user.id', 'forecasts.created_by').select(listColumns).where('forecasts.id', '=', id).executeTakeFirst();
+  if (!r) return undefined;
+  const key = JSON.stringify([r.id, r.trip_id, r.name, r.created_at, r.created_by, r.creator_name, r.engine_revision, r.reserve_soc_pct]);
+  const kept = pageTexts?.get(key);
+  if (kept) return kept;
+  const saved = await getForecast(db, id);
+  if (!saved) return undefined;
+  const { crewId: _crew, rigId: _rig, ...rest } = saved;
+  const made = { tripId: saved.tripId, text: toText(rest) };
+  pageTexts?.set(key, made);
+  return made;
 }
 
 /** The row's trip id (for access checks), or undefined. */

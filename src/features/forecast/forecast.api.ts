@@ -37,8 +37,17 @@ export function savedForecastToJson(saved: SavedForecast): string {
   return JSON.stringify({ ...saved, forecast: toColumns(saved.forecast) });
 }
 
-/** The saved forecast back from `savedForecastToJson`. */
+// The last texts decoded: the server renders the same page text (kept per process) again and
+// again, and decoding 80 KB into hourly rows is a fifth of that page's work. Read-only once made.
+const decoded = new Map<string, SavedForecast>();
+
+/** The saved forecast back from `savedForecastToJson`. Treat it as read-only: the same text gives the same object. */
 export function savedForecastFromJson(text: string): SavedForecast {
+  const kept = decoded.get(text);
+  if (kept) return kept;
   const s = JSON.parse(text) as Omit<SavedForecast, 'forecast'> & { forecast: ColumnarForecast };
-  return { ...s, forecast: fromColumns(s.forecast) };
+  const saved = { ...s, forecast: fromColumns(s.forecast) };
+  if (decoded.size >= 8) decoded.delete(decoded.keys().next().value as string);
+  decoded.set(text, saved);
+  return saved;
 }
