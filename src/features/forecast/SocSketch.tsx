@@ -62,22 +62,32 @@ export function stripKinds(f: Forecast): { hasDrive: boolean; hasCutOffHours: bo
   return { hasDrive: b.drives.length > 0, hasCutOffHours: b.cutOff.length > 0 };
 }
 
+// The two lines' paths (an hour each) per forecast object: the saved forecast page renders the
+// same decoded forecast again and again (savedForecastFromJson), which is never changed once made.
+const lines = new WeakMap<Forecast, { line: string; usableLine: string | undefined }>();
+function linesOf(f: Forecast): { line: string; usableLine: string | undefined } {
+  let kept = lines.get(f);
+  if (!kept) {
+    const path = (points: { x: number; soc: number }[]) => points.map((p, i) => `${i ? 'L' : 'M'}${p.x.toFixed(2)},${(100 - p.soc).toFixed(2)}`).join(' ');
+    const usable = usableSeries(f);
+    kept = { line: path(socSeries(f)), usableLine: usable ? path(usable) : undefined };
+    lines.set(f, kept);
+  }
+  return kept;
+}
+
 /** The plot alone (axes, bands, line, cutoff, day labels) in a box of the given height. */
 export function SocSketchPlot({ forecast: f, plan, reserveSocPct, height, label }: { forecast: Forecast; plan: ResolvedPlan; reserveSocPct?: number | null; height: number; label: string }) {
   const n = Math.max(1, f.hourly.length);
   const pctX = (x: number) => pctOf(x, n);
   const y = (soc: number) => 100 - soc;
-  const line = socSeries(f)
-    .map((p, i) => `${i ? 'L' : 'M'}${p.x.toFixed(2)},${y(p.soc).toFixed(2)}`)
-    .join(' ');
+  const { line, usableLine } = linesOf(f);
   const reserve = reserveOf(f, plan, reserveSocPct);
   const nights = nightBands(f);
   const stops = stopSegments(f, plan);
   const days = dayTicks(f, 6);
   const cx = cutoffX(f);
   const cutoffSoc = cx !== null ? f.hourly[cx]?.socPct ?? reserve : null;
-  const usable = usableSeries(f);
-  const usableLine = usable?.map((p, i) => `${i ? 'L' : 'M'}${p.x.toFixed(2)},${y(p.soc).toFixed(2)}`).join(' ');
   const marks = voltageMarks(f);
   const strips = tripBands(f);
 
