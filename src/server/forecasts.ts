@@ -223,14 +223,23 @@ export async function getForecast(db: Kysely<DB>, id: string): Promise<(Forecast
  * hours and writing the island's text — then happens once per forecast and process.
  */
 const PAGE_CACHE_BYTES = Math.max(0, Number(process.env.FORECAST_PAGE_CACHE_MB ?? 8)) * 1024 * 1024;
-const pageTexts = PAGE_CACHE_BYTES > 0 ? new LRUCache<string, { tripId: string; text: string }>({ maxSize: PAGE_CACHE_BYTES, sizeCalculation: (v) => v.text.length * 2 + 200 }) : null;
+const pageTexts = PAGE_CACHE_BYTES > 0 ? new LRUCache<string, ForecastPageText>({ maxSize: PAGE_CACHE_BYTES, sizeCalculation: (v) => (v.text.length + v.html.length) * 2 + 200 }) : null;
+
+/** A saved forecast's page text (see forecastPageText). */
+export interface ForecastPageText {
+  tripId: string;
+  /** The island's text. */
+  text: string;
+  /** The same text as HTML text content (`&` and `<` escaped), for the page to write as it is. */
+  html: string;
+}
 
 /**
  * A saved forecast as its page hands it to the island: `toText` of the forecast without its crew
- * and rig ids (the page passes `savedForecastToJson`), with the trip it belongs to; undefined when
- * there is none. The caller checks the reader's access to that trip.
+ * and rig ids (the page passes `savedForecastToJson`) and that text escaped for HTML, with the trip
+ * it belongs to; undefined when there is none. The caller checks the reader's access to that trip.
  */
-export async function forecastPageText(db: Kysely<DB>, id: string, toText: (saved: Omit<ForecastDto, 'rigId'>) => string): Promise<{ tripId: string; text: string } | undefined> {
+export async function forecastPageText(db: Kysely<DB>, id: string, toText: (saved: Omit<ForecastDto, 'rigId'>) => string): Promise<ForecastPageText | undefined> {
   const r = await db.selectFrom('forecasts').leftJoin('user', 'user.id', 'forecasts.created_by').select(listColumns).where('forecasts.id', '=', id).executeTakeFirst();
   if (!r) return undefined;
   const key = JSON.stringify([r.id, r.trip_id, r.name, r.created_at, r.created_by, r.creator_name, r.engine_revision, r.reserve_soc_pct]);
@@ -239,7 +248,8 @@ export async function forecastPageText(db: Kysely<DB>, id: string, toText: (save
   const saved = await getForecast(db, id);
   if (!saved) return undefined;
   const { crewId: _crew, rigId: _rig, ...rest } = saved;
-  const made = { tripId: saved.tripId, text: toText(rest) };
+  const text = toText(rest);
+  const made = { tripId: saved.tripId, text, html: text.replaceAll('&', '&amp;').replaceAll('<', '&lt;') };
   pageTexts?.set(key, made);
   return made;
 }

@@ -9,20 +9,15 @@ import { api, signUp, type Session } from '../helpers/api';
  * these must show on the next page read, never an answer kept from before.
  */
 
-function decodeAttr(s: string): string {
-  return s.replaceAll('&quot;', '"').replaceAll('&#39;', "'").replaceAll('&lt;', '<').replaceAll('&gt;', '>').replaceAll('&amp;', '&');
-}
-
 /** The saved forecast the page hands its island, decoded. */
 async function pageForecast(path: string, session: Session) {
   const res = await api(path, { session });
   expect(res.status).toBe(200);
   const html = await res.text();
-  const island = [...html.matchAll(/<astro-island\b[^>]*>/g)]
-    .map((m) => m[0])
-    .find((tag) => /component-url="[^"]*ForecastFromApi/.test(tag));
-  const props = JSON.parse(decodeAttr(/\sprops="([^"]*)"/.exec(island ?? '')![1]!)) as Record<string, [number, unknown]>;
-  return savedForecastFromJson(props.initialJson![1] as string);
+  // The page writes the island's text into a template (page-text.ts), escaped as HTML text.
+  const m = /<template id="forecast-data-[^"]*">([^<]*)<\/template>/.exec(html);
+  if (!m) throw new Error('no forecast text on the page');
+  return savedForecastFromJson(m[1]!.replaceAll('&lt;', '<').replaceAll('&amp;', '&'));
 }
 
 async function tripWithForecast(owner: Session, name: string): Promise<{ tripId: string; forecastId: string; rigId: string }> {
@@ -47,8 +42,8 @@ async function tripWithForecast(owner: Session, name: string): Promise<{ tripId:
 describe('the saved forecast page’s kept text', () => {
   let owner: Session;
   let stranger: Session;
-  let a: { tripId: string; forecastId: string };
-  let b: { tripId: string; forecastId: string };
+  let a: { tripId: string; forecastId: string; rigId: string };
+  let b: { tripId: string; forecastId: string; rigId: string };
 
   beforeAll(async () => {
     owner = await signUp({ name: 'Kept Owner' });
@@ -72,8 +67,30 @@ describe('the saved forecast page’s kept text', () => {
   it('is never shown to someone outside the crew, nor under another trip’s address', async () => {
     const path = `/trips/${a.tripId}/forecasts/${a.forecastId}`;
     await pageForecast(path, owner);
-    expect((await api(path, { session: stranger })).status).toBe(404);
-    expect((await api(`/trips/${b.tripId}/forecasts/${a.forecastId}`, { session: owner })).status).toBe(404);
+    const outside = await api(path, { session: stranger });
+    expect(outside.status).toBe(404);
+    expect(await outside.text()).not.toContain('forecast-data-');
+    const elsewhere = await api(`/trips/${b.tripId}/forecasts/${a.forecastId}`, { session: owner });
+    expect(elsewhere.status).toBe(404);
+    expect(await elsewhere.text()).not.toContain('forecast-data-');
+  });
+
+  it('shows a forecast run again after a change with its own figures, not the earlier one’s', async () => {
+    const first = await pageForecast(`/trips/${a.tripId}/forecasts/${a.forecastId}`, owner);
+    // A 60 W load on all day, every day: the trip's loads grow, so its figures must too.
+    const added = await api(`/api/rigs/${a.rigId}/loads`, {
+      method: 'POST',
+      session: owner,
+      json: { name: 'Extra fan', watts: 60, supply: 'dc' },
+    });
+    expect(added.status).toBe(201);
+    const rerun = await api(`/api/trips/${a.tripId}/forecasts`, { method: 'POST', session: owner, json: { name: 'Run again' } });
+    expect(rerun.status).toBe(201);
+    const second = await pageForecast(`/trips/${a.tripId}/forecasts/${(await rerun.json()).id}`, owner);
+    expect(second.name).toBe('Run again');
+    expect(second.forecast.summary.loadWh).toBeGreaterThan(first.forecast.summary.loadWh);
+    // The first forecast keeps its own snapshot.
+    expect((await pageForecast(`/trips/${a.tripId}/forecasts/${a.forecastId}`, owner)).forecast.summary).toEqual(first.forecast.summary);
   });
 
   it('is gone as soon as the forecast is deleted', async () => {

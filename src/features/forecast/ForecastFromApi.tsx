@@ -5,6 +5,7 @@ import { ApiError } from '../../lib/query-client';
 import ForecastView from './ForecastView';
 import { forecastQueries } from './forecast.queries';
 import { savedForecastFromJson, type SavedForecast } from './forecast.api';
+import { readPageText, type PageTextRef } from './page-text';
 import { useDelayed } from './useWidth';
 import { IslandQueryProvider } from '../../components/ui/QueryProvider';
 import type { Units } from '../../lib/units';
@@ -18,8 +19,10 @@ export interface ForecastFromApiProps {
   showMeta?: boolean;
   /** The forecast as the page read it on the server: rendered at once, no loading state. */
   initial?: SavedForecast;
-  /** The same as one string (`savedForecastToJson`: hours as columns), as the forecast page sends it. */
+  /** The same as one string (`savedForecastToJson`: hours as columns). */
   initialJson?: string;
+  /** The same string as the forecast page hands it: beside the island, not as a prop (page-text.ts). */
+  pageText?: PageTextRef;
   /** The engine's revision now (the page passes it, so this island does not load the engine). */
   currentEngineRevision?: number;
   /** Whether the user may run the trip's forecast again (not a viewer or an installer). */
@@ -32,8 +35,12 @@ export interface ForecastFromApiProps {
 
 /** A saved forecast loaded by id, with loading and error states — never a blank chart. */
 export default function ForecastFromApi(props: ForecastFromApiProps) {
-  const { initialJson, initial: given } = props;
-  const initial = useMemo(() => given ?? (initialJson ? savedForecastFromJson(initialJson) : undefined), [given, initialJson]);
+  const { initialJson, initial: given, pageText, id } = props;
+  const initial = useMemo(() => {
+    if (given) return given;
+    const text = initialJson ?? readPageText(pageText, id);
+    return text ? savedForecastFromJson(text) : undefined;
+  }, [given, initialJson, pageText, id]);
   return (
     <IslandQueryProvider>
       <Loaded {...props} initial={initial} />
