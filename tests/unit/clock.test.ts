@@ -23,6 +23,18 @@ afterAll(() => {
 });
 
 describe('formatInstant', () => {
+  it('keeps each text apart by instant, style and zone: the same instant asked again in another zone or style is not the first answer', () => {
+    const at = '2026-01-15T20:30:00Z';
+    // 20:30 UTC − 8 h = 12:30 in Vancouver (PST); + 13 h = 09:30 next day in Auckland (NZDT); + 5:30 = 02:00 next day in India.
+    for (let round = 0; round < 2; round++) {
+      expect(formatInstant(at, 'America/Vancouver', 'time')).toBe('12:30');
+      expect(formatInstant(at, 'Pacific/Auckland', 'time')).toBe('09:30');
+      expect(formatInstant(at, zoneClock('Asia/Kolkata', Date.parse(at)), 'time')).toBe('02:00');
+      expect(formatInstant(at, zoneClock('America/Vancouver', Date.parse(at)), 'dayTime')).toBe('Thu 15 Jan, 12:30');
+      expect(formatInstant(at, zoneClock('Pacific/Auckland', Date.parse(at)), 'dayTime')).toBe('Fri 16 Jan, 09:30');
+    }
+  });
+
   it('shows an instant in the zone asked for, whatever the runtime’s own zone', () => {
     for (const runtime of ['UTC', 'Asia/Tokyo', 'America/Vancouver']) {
       process.env.TZ = runtime;
