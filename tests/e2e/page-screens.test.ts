@@ -188,6 +188,11 @@ describe.each(Object.keys(VIEWPORTS) as ViewportName[])('rig, trip, forecast and
       await page.getByTestId('advice').scrollIntoViewIfNeeded();
       await page.getByTestId('advice').and(page.locator(':not([data-pending])')).waitFor();
       await page.getByTestId('hourly-details').locator('summary').click();
+      // Walk down the page a screen at a time, as a camper scrolls, so the screenshot holds the
+      // day charts too (a jump to the advice passes them by at phone height).
+      const height = await page.evaluate(() => document.documentElement.scrollHeight);
+      for (let y = 0; y < height; y += 600) await page.evaluate((top) => window.scrollTo(0, top), y);
+      await page.waitForFunction(() => !document.querySelector('[data-pending]'));
     }
     if (name === 'rig') await page.locator('#arrays-0-ratedWatts').waitFor();
     // Compare reads both snapshots in the browser: judge the page once they are drawn.
