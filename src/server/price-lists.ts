@@ -48,8 +48,8 @@ export async function getPriceList(db: Kysely<DB>, installerId: string): Promise
 export async function savedPricesOrThrow(db: Kysely<DB>, installerId: string): Promise<PriceList> {
   const dto = await getPriceList(db, installerId);
   if (!dto.saved) {
-    throw new HttpError('invalid_request', 'You have no saved price list yet: send prices with the request, or save your price list first.', [
-      { path: 'prices', message: 'no saved price list: send prices or save yours' },
+    throw new HttpError('invalid_request', 'Save your price list first (“First, your price list” on this page): sweeps and proposals are priced from it.', [
+      { path: 'prices', message: 'There is no saved price list yet: save yours, or send prices with this request.' },
     ]);
   }
   const { version: _v, saved: _s, updatedAt: _u, ...prices } = dto;

@@ -1,7 +1,10 @@
 import type { Kysely } from 'kysely';
 import type { DB, ProposalRow } from '../../db/schema';
 import type { Forecast, ForecastSummary, ResolvedPlan } from '../engine';
-import type { ProposalDto, ProposalListItem, CableRow, Changes, Part, PriceList, ProposalPatchInput } from '../domain/proposals/proposals.schema';
+import type { ProposalDto, ProposalListItem, CableRow, Changes, Part, PriceList, ProposalPatchInput, StoredChanges } from '../domain/proposals/proposals.schema';
+import { handProposal } from '../domain/proposals/hand-proposal';
+import { handPlanApplied, type HandPlan } from '../domain/proposals/sweep-edit';
+import { forecast as runEngine } from '../engine';
 import { checkCables, defaultCables, lineAmount, proposalCautions, type CheckedCable } from '../domain/proposals/proposals';
 import { preferredSizes } from '../domain/proposals/cable';
 import { documentTotals, quoteNumber, readDocument, startingDocument, wiringLines } from '../domain/proposals/document';
@@ -57,24 +60,52 @@ function runningLines(after: Forecast, prices: PriceList): CostItem[] {
   return [{ name: 'Generator running on this trip (fuel and wear, estimate)', quantity: h, unit: 'h', unitPrice: prices.generatorPerHour, amount: h * prices.generatorPerHour, kind: 'running' }];
 }
 
-/** Creates a draft from a saved forecast and one option: the after plan is forecast in full, parts priced from the list. */
+/** The after-plan's forecast; a change the engine refuses (a bank out of its limits) is the request's fault: name the field. */
+function forecastOrRefuse<T>(field: string, run: () => T): T {
+  try {
+    return run();
+  } catch (e) {
+    const envelope = (e as { envelope?: { issues?: Issue[]; error?: { message?: string } } }).envelope;
+    if (envelope) throw new HttpError('invalid_request', `This option cannot be forecast: ${envelope.error?.message ?? 'invalid change'}`, (envelope.issues ?? []).map((i) => ({ path: `${field}.${i.path}`, message: i.message })));
+    throw e;
+  }
+}
+
+/**
+ * Creates a draft from a saved forecast and one sweep option, or an after-plan the installer edited
+ * by hand: the after plan is forecast in full, parts priced from the list.
+ */
 export async function createProposal(
   db: Kysely<DB>,
-  p: { forecast: ForecastDto & { crewId: string }; access: RigGrant; installer: { id: string; name: string; units?: unknown }; changes: Changes; prices: PriceList; title?: string },
+  p: { forecast: ForecastDto & { crewId: string }; access: RigGrant; installer: { id: string; name: string; units?: unknown }; changes?: Changes; handPlan?: HandPlan; prices: PriceList; title?: string },
 ): Promise<ProposalDto> {
   const before = p.forecast;
   let after: { plan: ResolvedPlan; forecast: Forecast };
-  try {
-    after = forecastAfter(before.plan, p.changes, before.reserveSocPct);
-  } catch (e) {
-    // A change the engine refuses (a bank out of its limits) is the request's fault: name the field.
-    const envelope = (e as { envelope?: { issues?: Issue[]; error?: { message?: string } } }).envelope;
-    if (envelope) throw new HttpError('invalid_request', `This option cannot be forecast: ${envelope.error?.message ?? 'invalid change'}`, (envelope.issues ?? []).map((i) => ({ path: `changes.${i.path}`, message: i.message })));
-    throw e;
+  let changes: StoredChanges;
+  let parts: Part[];
+  let label: string;
+  if (p.handPlan) {
+    const edit = p.handPlan;
+    const plan = forecastOrRefuse('handPlan', () => handPlanApplied(before.plan, edit, before.reserveSocPct).plan);
+    const hand = handProposal(before.plan, edit, plan, p.prices);
+    if (!hand.changed) {
+      throw new HttpError('invalid_request', 'This plan is the rig as it is: change something in it before proposing it.', [{ path: 'handPlan', message: 'This plan is the rig as it is: change something in it before proposing it.' }]);
+    }
+    after = { plan, forecast: forecastOrRefuse('handPlan', () => runEngine(plan)) };
+    changes = { ...hand.changes, hand: { label: hand.label, edit } };
+    parts = hand.items.map((i) => ({ name: i.name, quantity: i.quantity, unit: i.unit, unitPrice: i.unitPrice }));
+    label = hand.label;
+  } else if (p.changes) {
+    const c = p.changes;
+    after = forecastOrRefuse('changes', () => forecastAfter(before.plan, c, before.reserveSocPct));
+    changes = c;
+    parts = oneOffItems(before.plan, c, p.prices).map((i) => ({ name: i.name, quantity: i.quantity, unit: i.unit, unitPrice: i.unitPrice }));
+    label = labelOf(c, before.plan);
+  } else {
+    throw new HttpError('invalid_request', 'Choose an option from the sweep, or run a plan edited by hand, to propose.', [{ path: 'changes', message: 'Choose an option from the sweep, or run a plan edited by hand, to propose.' }]);
   }
-  const parts: Part[] = oneOffItems(before.plan, p.changes, p.prices).map((i) => ({ name: i.name, quantity: i.quantity, unit: i.unit, unitPrice: i.unitPrice }));
   const units = p.installer.units === 'metric' || p.installer.units === 'imperial' ? p.installer.units : null;
-  const cables = checkCables(defaultCables(after.plan, p.changes, preferredSizes(p.prices.currency, units)), after.plan);
+  const cables = checkCables(defaultCables(after.plan, changes, preferredSizes(p.prices.currency, units)), after.plan);
   const id = crypto.randomUUID();
   const now = nowIso();
   // The installer types company, contact and terms once: a new draft starts from their last document, with the next quote number.
@@ -82,7 +113,6 @@ export async function createProposal(
   const year = Number(now.slice(0, 4));
   const sequence = mine.filter((r) => r.created_at.startsWith(String(year))).length + 1;
   const document = startingDocument({ previous: mine[0] ? readDocument(mine[0].document) : {}, quote: quoteNumber(year, sequence), wiringPrices: p.prices.wiring });
-  const label = labelOf(p.changes, before.plan);
   await db
     .insertInto('proposals')
     .values({
@@ -94,12 +124,12 @@ export async function createProposal(
       installer_id: p.installer.id,
       installer_name: p.installer.name,
       title: p.title?.trim() || `Upgrade for ${p.access.rig.name}: ${label}`,
-      changes: JSON.stringify(p.changes),
+      changes: JSON.stringify(changes),
       currency: p.prices.currency,
       parts: JSON.stringify(parts),
       running: JSON.stringify(runningLines(after.forecast, p.prices)),
       cables: JSON.stringify(cables),
-      cautions: JSON.stringify(proposalCautions(after.plan, p.changes)),
+      cautions: JSON.stringify(proposalCautions(after.plan, changes)),
       document: JSON.stringify(document),
       reserve_soc_pct: before.reserveSocPct,
       summary: JSON.stringify({ before: brief(before.forecast.summary), after: brief(after.forecast.summary) }),
@@ -113,6 +143,11 @@ export async function createProposal(
     .execute();
   const row = await db.selectFrom('proposals').selectAll().where('id', '=', id).executeTakeFirstOrThrow();
   return toDto(db, row, { ...p.access, role: 'installer' }, p.installer.id);
+}
+
+/** A proposal's name for what it changes: a hand-edited plan keeps the one made when it was drafted. */
+function labelFromStored(c: StoredChanges, plan: ResolvedPlan): string {
+  return c.hand?.label ?? labelOf(c, plan);
 }
 
 function listQuery(db: Kysely<DB>) {
@@ -175,7 +210,7 @@ function toListItem(r: ListRow): ProposalListItem {
     installerName: r.installer_name,
     currency: r.currency,
     total: totalsOf(r).totals.total,
-    label: labelOf(JSON.parse(r.changes) as Changes, plan),
+    label: labelFromStored(JSON.parse(r.changes) as StoredChanges, plan),
     before: summary.before,
     after: summary.after,
     createdAt: r.created_at,
@@ -216,7 +251,7 @@ export async function toDto(db: Kysely<DB>, row: ProposalRow, access: Pick<RigGr
     ...list,
     forecastId: row.forecast_id,
     notes: row.notes,
-    changes: JSON.parse(row.changes) as Changes,
+    changes: JSON.parse(row.changes) as StoredChanges,
     parts,
     document: doc,
     wiring,

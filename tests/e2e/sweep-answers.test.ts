@@ -148,6 +148,21 @@ describe('the upgrade planner in Chromium', () => {
     expect(await result.textContent()).toContain('against the 10 % line');
     expect(await seriousViolations(page)).toEqual([]);
     await shot(page, 'sweep-after-plan-desktop');
+
+    // Only the plan just run can be proposed: a field changed since asks for a run first.
+    await editor.locator('#hand-capacityAh').fill('320');
+    await result.getByText('You changed the plan since this run: run it again to propose it.').waitFor();
+    expect(await result.getByRole('button', { name: 'Propose this plan' }).count()).toBe(0);
+    await editor.locator('#hand-capacityAh').fill('300');
+    await result.getByRole('button', { name: 'Propose this plan' }).click();
+    await page.waitForURL(/\/proposals\/[^/]+$/);
+    await page.getByRole('heading', { name: 'What changes' }).waitFor();
+    const what = page.getByRole('region', { name: 'What changes' });
+    expect(await what.textContent()).toContain('300 Ah LiFePO4');
+    // The new bank is in the quote, priced from the installer's list.
+    expect(await page.getByRole('region', { name: 'The quote as last saved' }).textContent()).toContain('300 Ah LiFePO4 bank');
+    expect(await seriousViolations(page)).toEqual([]);
+    await shot(page, 'hand-plan-proposal-desktop');
   });
 
   for (const viewport of ['desktop', 'phone'] as const) {

@@ -240,6 +240,96 @@ describe('the sweep on the built server', () => {
     const body = (await bad.json()) as { issues: { path: string; message: string }[] };
     expect(body.issues).toContainEqual({ path: 'bank.capacityAh', message: 'The bank’s capacity must be a number from 1 to 20000 Ah.' });
   });
+
+  it('turns an after-plan edited by hand into a draft proposal: its parts priced from the list, its forecast the plan as run', async () => {
+    const edit = {
+      bank: { chemistry: 'lifepo4', capacityAh: 200, floorSocPct: 10 },
+      arrays: [
+        { name: 'Portable panel (100 W)', ratedWatts: 100, tiltDeg: 45, azimuthDeg: 180, aim: 'follow', controller: 'pwm' },
+        { name: 'Roof', ratedWatts: 400, tiltDeg: 0, azimuthDeg: 180, aim: 'fixed', controller: 'mppt' },
+      ],
+      dcdcAmps: 0,
+      shoreAmps: 0,
+      generator: { amps: 30, startHour: 8, hoursPerDay: 4, marginPts: 10, stopPct: 90 },
+    };
+    const ran = await json<{ after: { minSocPct: number; unmetWh: number; generatorHours: number } }>(
+      await api(`/api/forecasts/${trailerForecast}/after-plan`, { method: 'POST', session: installer, json: edit }),
+      200,
+    );
+    type Dto = {
+      id: string;
+      label: string;
+      title: string;
+      parts: { name: string; quantity: number; unitPrice: number; amount: number }[];
+      cables: { input: { label: string } }[];
+      cautions: string[];
+      after: { minSocPct: number; unmetWh: number; plan: { bank: { chemistry: string; capacityAh: number }; arrays: { name: string }[] }; forecast: { summary: { generatorHours: number } } };
+    };
+    const p = await json<Dto>(
+      await api('/api/proposals', { method: 'POST', session: installer, json: { forecastId: trailerForecast, handPlan: edit, prices: TEST_PRICES } }),
+      201,
+    );
+    // The trailer had a 200 Ah AGM bank, one 100 W portable panel and no generator.
+    expect(p.label).toBe('200 Ah LiFePO4 · a generator, up to 4 h a day from 08:00 · new array “Roof” 400 W');
+    expect(p.title).toBe(`Upgrade for AGM trailer: ${p.label}`);
+    // Priced from TEST_PRICES by hand: 200 Ah × 5 = 1,000; installation 100; the old bank's removal 0;
+    // generator 900; 400 W × 1 = 400; the flat mounting with its controller 200.
+    expect(p.parts.map((x) => [x.name, x.amount])).toEqual([
+      ['200 Ah LiFePO4 bank', 1000],
+      ['Bank installation', 100],
+      ['Removal of the old 200 Ah AGM bank (in the installation)', 0],
+      ['Generator with a 30 A converter/charger', 900],
+      ['Panels for “Roof”, 400 W', 400],
+      ['Mounting, MPPT controller and wiring for “Roof” (flat on the roof)', 200],
+    ]);
+    expect(p.parts.reduce((t, x) => t + x.amount, 0)).toBe(2600);
+    // Its after-forecast is the plan the installer ran: the same lowest charge, unmet energy and generator hours.
+    expect(p.after.plan.bank).toMatchObject({ chemistry: 'lifepo4', capacityAh: 200 });
+    expect(p.after.plan.arrays.map((a) => a.name)).toEqual(['Portable panel (100 W)', 'Roof']);
+    // (the forecast gives its lowest charge to 0.1 %; the run, unrounded)
+    expect(p.after.minSocPct).toBeCloseTo(ran.after.minSocPct, 1);
+    expect(p.after.unmetWh).toBe(ran.after.unmetWh);
+    expect(p.after.forecast.summary.generatorHours).toBe(ran.after.generatorHours);
+    // Cable runs for what it adds: the new bank's feed, the new array's controller, the generator's charger.
+    expect(p.cables.map((c) => c.input.label)).toEqual([
+      expect.stringMatching(/^Main battery feed/),
+      'Added panels: MPPT controller to bank (400 W)',
+      'Converter/charger to bank (30 A)',
+    ]);
+    expect(p.cautions.some((c) => /generator/i.test(c))).toBe(true);
+    // The list keeps its name.
+    const list = await json<{ id: string; label: string }[]>(await api('/api/proposals', { session: installer }), 200);
+    expect(list.find((x) => x.id === p.id)?.label).toBe(p.label);
+  });
+
+  it('refuses a hand-edited plan that is the rig as it is, and a request with both or neither kind of change', async () => {
+    const asIs = {
+      bank: { chemistry: 'agm', capacityAh: 200, floorSocPct: 50 },
+      arrays: [{ name: 'Portable panel (100 W)', ratedWatts: 100, tiltDeg: 45, azimuthDeg: 180, aim: 'follow', controller: 'pwm' }],
+      dcdcAmps: 0,
+      shoreAmps: 0,
+      generator: null,
+    };
+    const post = (body: Record<string, unknown>) => api('/api/proposals', { method: 'POST', session: installer, json: { forecastId: trailerForecast, prices: TEST_PRICES, ...body } });
+    const issues = async (res: Response) => ((await json<{ issues: { path: string; message: string }[] }>(res, 400)).issues);
+    expect(await issues(await post({ handPlan: asIs }))).toContainEqual({ path: 'handPlan', message: 'This plan is the rig as it is: change something in it before proposing it.' });
+    // The same plan with the azimuth of the panel that follows the sun typed otherwise is still the rig as it is.
+    expect((await issues(await post({ handPlan: { ...asIs, arrays: [{ ...asIs.arrays[0], azimuthDeg: 90 }] } })))[0]?.path).toBe('handPlan');
+    expect(await issues(await post({}))).toContainEqual({ path: 'changes', message: 'Choose an option from the sweep, or run a plan edited by hand, to propose.' });
+    expect(await issues(await post({ changes: { dcdcAmps: 30 }, handPlan: { ...asIs, dcdcAmps: 30 } }))).toContainEqual({
+      path: 'handPlan',
+      message: 'Propose one thing: a sweep option or a plan edited by hand, not both.',
+    });
+    // Without prices in the request the saved list is used; this installer has none yet, and is told where to save it.
+    const unpriced = await api('/api/proposals', { method: 'POST', session: installer, json: { forecastId: trailerForecast, handPlan: { ...asIs, shoreAmps: 40 } } });
+    const why = await json<{ error: { message: string }; issues: { path: string; message: string }[] }>(unpriced, 400);
+    expect(why.error.message).toBe('Save your price list first (“First, your price list” on this page): sweeps and proposals are priced from it.');
+    expect(why.issues).toEqual([{ path: 'prices', message: 'There is no saved price list yet: save yours, or send prices with this request.' }]);
+    // A shore charger alone is a change: a part with no price on the list, for the installer to price.
+    const shore = await json<{ label: string; parts: { name: string; amount: number }[] }>(await post({ handPlan: { ...asIs, shoreAmps: 40 } }), 201);
+    expect(shore.label).toBe('40 A shore charger');
+    expect(shore.parts).toEqual([expect.objectContaining({ name: 'Converter/charger on shore power, 40 A (price to enter)', amount: 0 })]);
+  });
 });
 
 describe('a rig’s stated payload and battery room (migration 0014)', () => {

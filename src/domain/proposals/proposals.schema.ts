@@ -163,6 +163,8 @@ export const changesSchema = z
   });
 export type Changes = z.output<typeof changesSchema>;
 export type ChangesInput = z.input<typeof changesSchema>;
+/** A proposal's changes as kept: a hand-edited after-plan also keeps its name (and the plan as typed). */
+export type StoredChanges = Changes & { hand?: { label: string; edit: unknown } };
 
 /** A line of the parts list. */
 export const partSchema = z.object({
@@ -284,7 +286,7 @@ export interface ProposalSide {
 export interface ProposalDto extends ProposalListItem {
   forecastId: string | null;
   notes: string;
-  changes: Changes;
+  changes: StoredChanges;
   parts: (Part & { amount: number })[];
   /** The business document: company, contact, quote number, dates, labour, removals, tax, terms. */
   document: ProposalDocument;

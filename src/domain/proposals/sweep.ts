@@ -111,8 +111,8 @@ export interface SweepResult {
   prepared: number;
 }
 
-const CHEM_LABEL = { lifepo4: 'LiFePO4', agm: 'AGM', flooded: 'flooded lead-acid', gel: 'gel' } as const;
-const MOUNT_LABEL: Record<Mounting, string> = { flat: 'flat on the roof', tilted: 'tilted', portable: 'portable, aimed at the sun' };
+export const CHEM_LABEL = { lifepo4: 'LiFePO4', agm: 'AGM', flooded: 'flooded lead-acid', gel: 'gel' } as const;
+export const MOUNT_LABEL: Record<Mounting, string> = { flat: 'flat on the roof', tilted: 'tilted', portable: 'portable, aimed at the sun' };
 
 /** The bank a candidate makes: its chemistry's defaults (its floor too, unless the installer sets one), keeping what the old bank set when the chemistry stays the same. */
 export function bankFrom(old: ResolvedBank, c: BankCandidate): ResolvedBank {

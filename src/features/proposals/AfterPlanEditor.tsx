@@ -7,7 +7,7 @@ import { CHEMISTRY_LABELS, formatNumber, formatRowTime } from '../../lib/format'
 import { ApiError, type ApiIssue } from '../../lib/query-client';
 import type { HandPlan, HandPlanInput, HandPlanResult } from '../../domain/proposals/sweep-edit';
 import type { Outcome } from '../../domain/proposals/sweep';
-import { runAfterPlan } from './proposals.api';
+import { createHandProposal, runAfterPlan } from './proposals.api';
 import { CAUTIONS } from '../../domain/advice/cautions';
 
 // The after-plan edited by hand: bank, arrays, chargers and generator as the installer types them,
@@ -131,6 +131,12 @@ export default function AfterPlanEditor({
       if (e instanceof ApiError) setIssues(e.issues);
     },
   });
+  const propose = useMutation({
+    mutationFn: (e: EditorState) => createHandProposal(forecastId, toInput(e)),
+    onSuccess: (p) => window.location.assign(`/proposals/${encodeURIComponent(p.id)}`),
+  });
+  // The plan just run, while the fields still hold it: only that plan can be proposed.
+  const ranNow = run.data && run.variables && JSON.stringify(run.variables) === JSON.stringify(state) ? run.variables : null;
   const at = (path: string) => issues.find((i) => i.path === path)?.message;
   const field = (id: string, label: string, value: string, onChange: (v: string) => void, path: string, unit?: string) => (
     <div>
@@ -458,6 +464,25 @@ export default function AfterPlanEditor({
           <p className="caution text-sm">
             {CAUTIONS.wiring} {r.generator ? CAUTIONS.generator : ''} {CAUTIONS.estimate}
           </p>
+          {!r.changesNothing ? (
+            ranNow ? (
+              <div className="flex flex-wrap items-center gap-3">
+                <button type="button" className="btn btn-primary" disabled={propose.isPending} onClick={() => propose.mutate(ranNow)}>
+                  {propose.isPending ? 'Drafting…' : 'Propose this plan'}
+                </button>
+                <span className="text-sm text-slate-text">A draft with its parts priced from your list; you edit it before sending.</span>
+              </div>
+            ) : (
+              <p className="text-sm text-slate-text">You changed the plan since this run: run it again to propose it.</p>
+            )
+          ) : null}
+          {propose.isError ? (
+            propose.error instanceof ApiError && propose.error.status === 400 ? (
+              <p role="alert" className="caution font-semibold text-alert">{propose.error.message}</p>
+            ) : (
+              <ErrorState error={propose.error} title="The proposal could not be drafted." />
+            )
+          ) : null}
         </div>
       ) : null}
     </section>

@@ -27,6 +27,9 @@ export const runAfterPlan = (forecastId: string, edit: HandPlanInput) => apiFetc
 /** A draft proposal from a saved forecast and one option. */
 export const createProposal = (forecastId: string, changes: ChangesInput) => apiFetch<ProposalDto>('/api/proposals', { method: 'POST', json: { forecastId, changes } });
 
+/** A draft proposal from a saved forecast and an after-plan edited by hand. */
+export const createHandProposal = (forecastId: string, handPlan: HandPlanInput) => apiFetch<ProposalDto>('/api/proposals', { method: 'POST', json: { forecastId, handPlan } });
+
 export const fetchProposals = () => apiFetch<ProposalListItem[]>('/api/proposals');
 
 export const fetchProposal = (id: string) => apiFetch<ProposalDto>(`/api/proposals/${enc(id)}`);
