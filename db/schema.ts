@@ -215,6 +215,8 @@ export interface OutboxTable {
   message_id: string | null;
   created_at: string;
   sent_at: string | null;
+  /** Extra header lines as JSON (migration 0019), or null. */
+  headers: string | null;
 }
 
 /** What the local SMTP catcher received (development, demo and tests only). */
@@ -227,6 +229,8 @@ export interface CaughtMailTable {
   text_body: string;
   html_body: string;
   received_at: string;
+  /** The header lines received, as JSON [{ key, line }] (migration 0019). */
+  headers: Generated<string | null>;
 }
 
 /** A saved forecast: the exact plan that ran (JSON) and its result, hourly rows stored column-wise. */

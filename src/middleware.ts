@@ -88,6 +88,27 @@ const guard = defineMiddleware(async (ctx, next) => {
 });
 
 const WRITE_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
+const FORM_TYPES = ['application/x-www-form-urlencoded', 'multipart/form-data', 'text/plain'];
+
+/**
+ * Cross-site form posts are refused, as Astro's checkOrigin refuses them: a write whose body is a
+ * form (or has no type) and whose Origin is not this site's answers 403. One exception: a mail
+ * program stopping the trip watch's e-mail in one click POSTs `List-Unsubscribe=One-Click` to
+ * the address in the e-mail's List-Unsubscribe header from its own servers (RFC 8058). That
+ * address carries the signed token, which is the whole authority there (no cookie is read), so a
+ * POST to /watch/unsubscribe with a token in its address passes.
+ */
+const formOrigin = defineMiddleware(async (ctx, next) => {
+  if (SAFE_METHODS.has(ctx.request.method)) return next();
+  if (ctx.url.pathname === '/watch/unsubscribe' && ctx.url.searchParams.has('token')) return next();
+  if (ctx.request.headers.get('origin') === ctx.url.origin) return next();
+  const type = ctx.request.headers.get('content-type');
+  if (type === null || FORM_TYPES.some((t) => type.toLowerCase().includes(t))) {
+    return new Response(`Cross-site ${ctx.request.method} form submissions are forbidden`, { status: 403, headers: { 'content-type': 'text/plain; charset=utf-8' } });
+  }
+  return next();
+});
 
 const AUTH_ORIGIN = env.authUrl ? new URL(env.authUrl).origin : null;
 
@@ -187,4 +208,4 @@ const landingCache = defineMiddleware(async (ctx, next) => {
   return new Response(ctx.request.method === 'HEAD' ? null : body, { status: 200, headers });
 });
 
-export const onRequest = sequence(landingCache, headers, noNul, sameOrigin, session, guard);
+export const onRequest = sequence(landingCache, headers, formOrigin, noNul, sameOrigin, session, guard);

@@ -15,6 +15,7 @@ import * as rigLimits from './2026_12_04_0014_rig_limits';
 import * as proposalDocument from './2026_12_04_0011_proposal_document';
 import * as userTimeZone from './2026_12_04_0016_user_time_zone';
 import * as sharedLimits from './2026_12_04_0018_shared_limits';
+import * as mailHeaders from './2026_12_05_0019_mail_headers';
 import * as tripWatch from './2026_12_04_0015_trip_watch';
 
 /**
@@ -39,4 +40,5 @@ export const migrations: Record<string, Migration> = {
   '2026_12_04_0015_trip_watch': tripWatch,
   '2026_12_04_0016_user_time_zone': userTimeZone,
   '2026_12_04_0018_shared_limits': sharedLimits,
+  '2026_12_05_0019_mail_headers': mailHeaders,
 };

@@ -4,6 +4,7 @@ import { simpleParser, type AddressObject } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 import { DEFAULT_DATABASE_PATH, isPostgresUrl, openDatabase } from '../../db/client';
 import { caughtMailTable } from '../../db/migrations/2026_12_01_0004_crews_mail';
+import { ensureCaughtMailHeaders } from '../../db/migrations/2026_12_05_0019_mail_headers';
 
 // The local mail catcher for development, the demo and the tests: a real SMTP server on loopback
 // that accepts every message and stores it in the `caught_mail` table of the app's SQLite file,
@@ -31,6 +32,7 @@ export async function startMailCatcher(opts: { dbPath: string; databaseUrl?: str
   const db = store.db;
   // The migration's own definition: the catcher may start before the app's migrations run.
   await caughtMailTable(db).execute(db);
+  await ensureCaughtMailHeaders(db);
 
   const server = new SMTPServer({
     // Loopback only, no accounts, no TLS: a sink for development mail.
@@ -53,6 +55,7 @@ export async function startMailCatcher(opts: { dbPath: string; databaseUrl?: str
               text_body: mail.text ?? '',
               html_body: typeof mail.html === 'string' ? mail.html : '',
               received_at: new Date().toISOString(),
+              headers: JSON.stringify(mail.headerLines ?? []),
             })
             .execute();
           if (!opts.quiet) console.log(`[mail catcher] ${envelopeTo}: ${mail.subject ?? ''}`);

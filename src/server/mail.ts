@@ -10,6 +10,8 @@ export interface MailContent {
   subject: string;
   text: string;
   html: string;
+  /** Extra header lines, such as List-Unsubscribe (never user-written text). */
+  headers?: Record<string, string>;
 }
 
 export interface MailMessage extends MailContent {
@@ -155,7 +157,7 @@ function transport(): Transporter {
  * this; it passes a Message-ID made from the outbox row, so a retry is recognisably the same message.
  */
 export async function deliver(message: MailMessage, messageId: string): Promise<string> {
-  const info = await transport().sendMail({ from: env.MAIL_FROM, to: message.to, subject: message.subject, text: message.text, html: message.html, messageId });
+  const info = await transport().sendMail({ from: env.MAIL_FROM, to: message.to, subject: message.subject, text: message.text, html: message.html, messageId, ...(message.headers ? { headers: message.headers } : {}) });
   const rejected = info.rejected ?? [];
   if (rejected.length > 0) throw new Error(`The SMTP server refused ${rejected.map(String).join(', ')}.`);
   return info.messageId;

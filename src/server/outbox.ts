@@ -19,7 +19,7 @@ export async function enqueueMail(trx: Kysely<DB>, kind: string, to: string, con
   const now = new Date().toISOString();
   await trx
     .insertInto('outbox')
-    .values({ id, kind, to_address: to, subject: content.subject, text_body: content.text, html_body: content.html, next_attempt_at: now, created_at: now })
+    .values({ id, kind, to_address: to, subject: content.subject, text_body: content.text, html_body: content.html, headers: content.headers ? JSON.stringify(content.headers) : null, next_attempt_at: now, created_at: now })
     .execute();
   return id;
 }
@@ -67,7 +67,7 @@ export async function sendDue(db: Kysely<DB>, now = new Date()): Promise<{ sent:
   for (const row of due) {
     if (!(await claim(db, row, now))) continue;
     try {
-      const messageId = await deliver({ to: row.to_address, subject: row.subject, text: row.text_body, html: row.html_body }, messageIdOf(row));
+      const messageId = await deliver({ to: row.to_address, subject: row.subject, text: row.text_body, html: row.html_body, ...(row.headers ? { headers: JSON.parse(row.headers) as Record<string, string> } : {}) }, messageIdOf(row));
       await db
         .updateTable('outbox')
         .set({ status: 'sent', attempts: row.attempts + 1, sent_at: new Date().toISOString(), message_id: messageId, locked_until: null, last_error: null })

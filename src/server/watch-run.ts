@@ -353,7 +353,10 @@ export async function runWatchedTrip(
         action: { label: 'Open the trip', url: tripUrl },
         outro: [`Stop these e-mails for this trip: ${unsubscribeUrl}`],
       }).html.replace(`: ${unsubscribeUrl}`, `: <a href="${unsubscribeUrl}" style="color:inherit;">${unsubscribeUrl}</a>`);
-      await enqueueMail(trx, 'trip-watch', p.email, { subject: m.subject, text: `${greeting}\n\n${m.text}`, html });
+      // A mail program offers the same address as its own "unsubscribe", and may stop the mail
+      // with one POST to it (RFC 2369, RFC 8058; the page takes the token from the address then).
+      const headers = { 'List-Unsubscribe': `<${unsubscribeUrl}>`, 'List-Unsubscribe-Post': 'List-Unsubscribe=One-Click' };
+      await enqueueMail(trx, 'trip-watch', p.email, { subject: m.subject, text: `${greeting}\n\n${m.text}`, html, headers });
       await trx
         .insertInto('watch_people')
         .values({ trip_id: trip.id, user_id: p.userId, choice: null, last_mailed_at: ranAt, updated_at: ranAt })

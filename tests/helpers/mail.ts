@@ -35,6 +35,14 @@ export function linkIn(mail: Caught, prefix: string): string {
   return found;
 }
 
+/** A header's value as the catcher received it (folded lines joined), or null when the message has none. */
+export function headerIn(mail: Caught, name: string): string | null {
+  const lines = JSON.parse(mail.headers ?? '[]') as { key: string; line: string }[];
+  const found = lines.find((h) => h.key === name.toLowerCase());
+  if (!found) return null;
+  return found.line.slice(found.line.indexOf(':') + 1).replace(/\r?\n[ \t]+/g, ' ').trim();
+}
+
 /** Reads outbox rows for an address straight from the database. */
 export function outboxFor(to: string, dbPath = inject('dbPath')): { id: string; status: string; attempts: number; last_error: string | null; next_attempt_at: string; kind: string }[] {
   const db = openTestDb({ where: dbPath });

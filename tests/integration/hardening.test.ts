@@ -199,6 +199,25 @@ describe('smaller findings', () => {
     }
   });
 
+  it('a cross-site form post to a page is refused with 403, as Astro’s origin check did; from this site it reaches the page', async () => {
+    const post = (origin: string | null, type: string | null) =>
+      fetch(`${baseUrl()}/invite/not-a-real-token`, {
+        method: 'POST',
+        headers: { ...(origin ? { origin } : {}), ...(type ? { 'content-type': type } : {}) },
+        body: type ? 'a=1' : undefined,
+        redirect: 'manual',
+      });
+    for (const type of ['application/x-www-form-urlencoded', 'multipart/form-data; boundary=x', 'text/plain', null]) {
+      const res = await post('https://elsewhere.example', type);
+      expect(res.status, String(type)).toBe(403);
+      expect(await res.text()).toBe('Cross-site POST form submissions are forbidden');
+    }
+    // No Origin at all is not this site either (a form post from a browser always sends one).
+    expect((await post(null, 'application/x-www-form-urlencoded')).status).toBe(403);
+    // From this site the page itself answers (here: the invitation is unknown, not a 403).
+    expect((await post(baseUrl(), 'application/x-www-form-urlencoded')).status).not.toBe(403);
+  });
+
   it('a foreign or missing rig or trip is a 404 page', async () => {
     const owner = await signUp();
     const stranger = await signUp();

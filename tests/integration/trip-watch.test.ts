@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startMailCatcher, type MailCatcher } from '../../src/server/mail-catcher';
 import { startFakeWeather, turnFakeWeather, type FakeWeather } from '../../scripts/fakes/weather';
 import { uniqueEmail } from '../helpers/api';
-import { caughtFor, linkIn, waitForMail, type Caught } from '../helpers/mail';
+import { caughtFor, headerIn, linkIn, waitForMail, type Caught } from '../helpers/mail';
 import { cleanup, freePort, startServer, type RunningServer } from '../helpers/server';
 import { openTestDb } from '../helpers/test-db';
 import type { TripWatch } from '../../src/domain/watch/view';
@@ -279,6 +279,43 @@ describe('trip watch', () => {
     expect(await tick(b, advance(13))).toEqual({ ran: 1, changed: 1, mailed: 0 });
     expect(await settledMails(owner.email, 2)).toHaveLength(2);
 
+    await setWatch(tripId, owner, false);
+  });
+
+  it('names its unsubscribe address in List-Unsubscribe, and a mail program stops the e-mail with one POST to it', async () => {
+    const owner = await signUp('Ren Owner');
+    const tripId = await watchedTrip(owner);
+    await turnFakeWeather(weather.url, 'normal');
+    await tick(a, advance(6));
+    await turnFakeWeather(weather.url, 'storm');
+    expect(await tick(a, advance(6))).toEqual({ ran: 1, changed: 1, mailed: 1 });
+    const [mail] = await settledMails(owner.email, 1);
+    const link = linkIn(mail!, `${a.url}/watch/unsubscribe?token=`);
+    // RFC 2369: the address in angle brackets; RFC 8058: the one-click key.
+    expect(headerIn(mail!, 'List-Unsubscribe')).toBe(`<${link}>`);
+    expect(headerIn(mail!, 'List-Unsubscribe-Post')).toBe('List-Unsubscribe=One-Click');
+    expect((await watchOf(tripId, owner)).following).toBe(true);
+
+    // A cross-site form POST to the page without a token in its address is still refused.
+    const crossSite = await fetch(`${a.url}/watch/unsubscribe`, {
+      method: 'POST',
+      headers: { origin: 'https://elsewhere.example', 'content-type': 'application/x-www-form-urlencoded' },
+      body: new URLSearchParams({ token: new URL(link).searchParams.get('token')! }).toString(),
+      redirect: 'manual',
+    });
+    expect(crossSite.status).toBe(403);
+    expect((await watchOf(tripId, owner)).following).toBe(true);
+
+    // The mail program's POST: from its own servers (no Origin of ours, no cookie), the token in the address.
+    const oneClick = await fetch(link, {
+      method: 'POST',
+      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      body: 'List-Unsubscribe=One-Click',
+      redirect: 'manual',
+    });
+    expect(oneClick.status).toBe(200);
+    expect(await oneClick.text()).toContain('E-mails stopped');
+    expect((await watchOf(tripId, owner)).following).toBe(false);
     await setWatch(tripId, owner, false);
   });
 
