@@ -75,6 +75,18 @@ const sweep = async (installer: Session, forecastId: string, candidates: unknown
     200,
   );
 
+/** The AGM trailer's after-plan as an installer edits it: 200 Ah LiFePO4, a 400 W flat roof array beside the portable panel, a 30 A generator 4 h a day. */
+const TRAILER_EDIT = {
+  bank: { chemistry: 'lifepo4', capacityAh: 200, floorSocPct: 10 },
+  arrays: [
+    { name: 'Portable panel (100 W)', ratedWatts: 100, tiltDeg: 45, azimuthDeg: 180, aim: 'follow', controller: 'pwm' },
+    { name: 'Roof', ratedWatts: 400, tiltDeg: 0, azimuthDeg: 180, aim: 'fixed', controller: 'mppt' },
+  ],
+  dcdcAmps: 0,
+  shoreAmps: 0,
+  generator: { amps: 30, startHour: 8, hoursPerDay: 4, marginPts: 10, stopPct: 90 },
+};
+
 describe('the sweep on the built server', () => {
   let installer: Session;
   let vanForecast: string;
@@ -209,17 +221,7 @@ describe('the sweep on the built server', () => {
 
   it('runs an after-plan edited by hand, judged as an option; bad fields are named', async () => {
     const url = `/api/forecasts/${trailerForecast}/after-plan`;
-    const edit = {
-      bank: { chemistry: 'lifepo4', capacityAh: 200, floorSocPct: 10 },
-      arrays: [
-        { name: 'Portable panel (100 W)', ratedWatts: 100, tiltDeg: 45, azimuthDeg: 180, aim: 'follow', controller: 'pwm' },
-        { name: 'Roof', ratedWatts: 400, tiltDeg: 0, azimuthDeg: 180, aim: 'fixed', controller: 'mppt' },
-      ],
-      dcdcAmps: 0,
-      shoreAmps: 0,
-      generator: { amps: 30, startHour: 8, hoursPerDay: 4, marginPts: 10, stopPct: 90 },
-      payloadKg: 160,
-    };
+    const edit = { ...TRAILER_EDIT, payloadKg: 160 };
     const r = await json<{
       base: { passes: boolean };
       after: { passes: boolean; reservePct: number; unmetWh: number };
@@ -242,16 +244,7 @@ describe('the sweep on the built server', () => {
   });
 
   it('turns an after-plan edited by hand into a draft proposal: its parts priced from the list, its forecast the plan as run', async () => {
-    const edit = {
-      bank: { chemistry: 'lifepo4', capacityAh: 200, floorSocPct: 10 },
-      arrays: [
-        { name: 'Portable panel (100 W)', ratedWatts: 100, tiltDeg: 45, azimuthDeg: 180, aim: 'follow', controller: 'pwm' },
-        { name: 'Roof', ratedWatts: 400, tiltDeg: 0, azimuthDeg: 180, aim: 'fixed', controller: 'mppt' },
-      ],
-      dcdcAmps: 0,
-      shoreAmps: 0,
-      generator: { amps: 30, startHour: 8, hoursPerDay: 4, marginPts: 10, stopPct: 90 },
-    };
+    const edit = TRAILER_EDIT;
     const ran = await json<{ after: { minSocPct: number; unmetWh: number; generatorHours: number } }>(
       await api(`/api/forecasts/${trailerForecast}/after-plan`, { method: 'POST', session: installer, json: edit }),
       200,
