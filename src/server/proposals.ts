@@ -60,6 +60,12 @@ function runningLines(after: Forecast, prices: PriceList): CostItem[] {
   return [{ name: 'Generator running on this trip (fuel and wear, estimate)', quantity: h, unit: 'h', unitPrice: prices.generatorPerHour, amount: h * prices.generatorPerHour, kind: 'running' }];
 }
 
+/** A 400 whose message is also the named field's. */
+const refusal = (path: string, message: string) => new HttpError('invalid_request', message, [{ path, message }]);
+
+/** A priced line as a draft's part. */
+const partOf = (i: CostItem): Part => ({ name: i.name, quantity: i.quantity, unit: i.unit, unitPrice: i.unitPrice });
+
 /** The after-plan's forecast; a change the engine refuses (a bank out of its limits) is the request's fault: name the field. */
 function forecastOrRefuse<T>(field: string, run: () => T): T {
   try {
@@ -88,21 +94,19 @@ export async function createProposal(
     const edit = p.handPlan;
     const plan = forecastOrRefuse('handPlan', () => handPlanApplied(before.plan, edit, before.reserveSocPct).plan);
     const hand = handProposal(before.plan, edit, plan, p.prices);
-    if (!hand.changed) {
-      throw new HttpError('invalid_request', 'This plan is the rig as it is: change something in it before proposing it.', [{ path: 'handPlan', message: 'This plan is the rig as it is: change something in it before proposing it.' }]);
-    }
+    if (!hand.changed) throw refusal('handPlan', 'This plan is the rig as it is: change something in it before proposing it.');
     after = { plan, forecast: forecastOrRefuse('handPlan', () => runEngine(plan)) };
     changes = { ...hand.changes, hand: { label: hand.label, edit } };
-    parts = hand.items.map((i) => ({ name: i.name, quantity: i.quantity, unit: i.unit, unitPrice: i.unitPrice }));
+    parts = hand.items.map(partOf);
     label = hand.label;
   } else if (p.changes) {
     const c = p.changes;
     after = forecastOrRefuse('changes', () => forecastAfter(before.plan, c, before.reserveSocPct));
     changes = c;
-    parts = oneOffItems(before.plan, c, p.prices).map((i) => ({ name: i.name, quantity: i.quantity, unit: i.unit, unitPrice: i.unitPrice }));
+    parts = oneOffItems(before.plan, c, p.prices).map(partOf);
     label = labelOf(c, before.plan);
   } else {
-    throw new HttpError('invalid_request', 'Choose an option from the sweep, or run a plan edited by hand, to propose.', [{ path: 'changes', message: 'Choose an option from the sweep, or run a plan edited by hand, to propose.' }]);
+    throw refusal('changes', 'Choose an option from the sweep, or run a plan edited by hand, to propose.');
   }
   const units = p.installer.units === 'metric' || p.installer.units === 'imperial' ? p.installer.units : null;
   const cables = checkCables(defaultCables(after.plan, changes, preferredSizes(p.prices.currency, units)), after.plan);
