@@ -18,6 +18,8 @@ export function mountingOf(a: Pick<ResolvedArray, 'aim' | 'tiltDeg'>): Mounting 
 
 const shoreNow = (plan: ResolvedPlan) => plan.chargers.filter((c) => c.kind === 'shore').reduce((t, c) => t + c.amps, 0);
 const fmtW = (w: number) => `${Math.round(w * 10) / 10} W`;
+const CONTROLLER = { mppt: 'MPPT', pwm: 'PWM' } as const;
+const oneOff = (name: string, quantity: number, unit: string, unitPrice: number): CostItem => ({ name, quantity, unit, unitPrice, amount: quantity * unitPrice, kind: 'one-off' });
 
 /** What a hand-edited after-plan changes, and what it costs. */
 export interface HandProposal {
@@ -35,7 +37,7 @@ export interface HandProposal {
 export function handProposal(before: ResolvedPlan, edit: HandPlan, after: ResolvedPlan, prices: PriceList): HandProposal {
   const items: CostItem[] = [];
   const words: string[] = [];
-  const line = (name: string, quantity: number, unit: string, unitPrice: number) => items.push({ name, quantity, unit, unitPrice, amount: quantity * unitPrice, kind: 'one-off' });
+  const line = (name: string, quantity: number, unit: string, unitPrice: number) => items.push(oneOff(name, quantity, unit, unitPrice));
 
   const asIs = handPlanOf(before);
   // A new chemistry or size is a new bank to buy; a floor alone is a setting, not a part.
@@ -47,7 +49,7 @@ export function handProposal(before: ResolvedPlan, edit: HandPlan, after: Resolv
   let addedWatts = 0;
   let addedMounting: Mounting | null = null;
   const arrayItems: CostItem[] = [];
-  const arrayLine = (name: string, quantity: number, unit: string, unitPrice: number) => arrayItems.push({ name, quantity, unit, unitPrice, amount: quantity * unitPrice, kind: 'one-off' });
+  const arrayLine = (name: string, quantity: number, unit: string, unitPrice: number) => arrayItems.push(oneOff(name, quantity, unit, unitPrice));
   for (const a of after.arrays) {
     const old = before.arrays.find((x) => x.name === a.name);
     const m = mountingOf(a);
@@ -55,7 +57,7 @@ export function handProposal(before: ResolvedPlan, edit: HandPlan, after: Resolv
       addedWatts += a.ratedWatts;
       addedMounting ??= m;
       arrayLine(`Panels for “${a.name}”, ${fmtW(a.ratedWatts)}`, a.ratedWatts, 'W', prices.panelPerWatt);
-      arrayLine(`Mounting, ${a.controller === 'mppt' ? 'MPPT' : 'PWM'} controller and wiring for “${a.name}” (${MOUNT_LABEL[m]})`, 1, '', prices.arrayInstall[m]);
+      arrayLine(`Mounting, ${CONTROLLER[a.controller]} controller and wiring for “${a.name}” (${MOUNT_LABEL[m]})`, 1, '', prices.arrayInstall[m]);
       words.push(`new array “${a.name}” ${fmtW(a.ratedWatts)}`);
       continue;
     }
@@ -75,8 +77,8 @@ export function handProposal(before: ResolvedPlan, edit: HandPlan, after: Resolv
       words.push(`“${a.name}” re-aimed`);
     }
     if (a.controller !== old.controller) {
-      arrayLine(`${a.controller === 'mppt' ? 'MPPT' : 'PWM'} controller for “${a.name}” in place of its ${old.controller === 'mppt' ? 'MPPT' : 'PWM'} (price to enter)`, 1, '', 0);
-      words.push(`“${a.name}” on ${a.controller === 'mppt' ? 'MPPT' : 'PWM'}`);
+      arrayLine(`${CONTROLLER[a.controller]} controller for “${a.name}” in place of its ${CONTROLLER[old.controller]} (price to enter)`, 1, '', 0);
+      words.push(`“${a.name}” on ${CONTROLLER[a.controller]}`);
     }
   }
   for (const old of before.arrays) {
@@ -129,7 +131,6 @@ export function handProposal(before: ResolvedPlan, edit: HandPlan, after: Resolv
   const changed = all.length > 0;
   return { changes, items: items.filter((i) => i.quantity > 0), label: changed ? all.join(' · ') : 'As it is', changed };
 }
-
 
 /** Creating a draft proposal: from a sweep option (`changes`) or from a hand-edited after-plan (`handPlan`). */
 export const proposalFromSchema = proposalCreateSchema
